@@ -1,0 +1,180 @@
+/**
+ * The normalised section model: what the solver works on.
+ *
+ * A section file (schemas/section.schema.json) is validated, then normalised into this shape:
+ * every length in metres, force in kN, pressure in kPa, unit weight in kN/m³, angles in
+ * degrees as given; every default filled in; every stratum top a full polyline over the
+ * ground's x-range, clipped so that it never rises above the ground or the stratum above.
+ * x runs to the right, y up.
+ */
+
+/** A point [x, y]. */
+export type Point = [number, number];
+
+/** A polyline, x non-decreasing for boundaries and strictly increasing for the ground. */
+export type Polyline = Point[];
+
+export type UnitSystem = 'si' | 'us';
+
+/** Mohr–Coulomb in effective stress: c′ (kPa) and φ′ (degrees). */
+export interface MohrCoulombStrength {
+  model: 'mohr-coulomb';
+  cohesion: number;
+  frictionAngle: number;
+}
+
+/**
+ * Undrained (total stress, φ = 0): Su (kPa) at the datum elevation `suDatum` (m), growing by
+ * `suRate` (kPa per m of depth) below it; constant Su above the datum. With no datum Su is
+ * constant.
+ */
+export interface UndrainedStrength {
+  model: 'undrained';
+  su: number;
+  suRate: number;
+  suDatum: number | null;
+}
+
+/** Impenetrable: slip surfaces may not enter it. */
+export interface RigidStrength {
+  model: 'rigid';
+}
+
+export type Strength = MohrCoulombStrength | UndrainedStrength | RigidStrength;
+
+export interface Material {
+  name: string;
+  /** Unit weight above the piezometric line (kN/m³); 0 for a rigid material without one. */
+  unitWeight: number;
+  /** Unit weight below the piezometric line (kN/m³); equals unitWeight when not given. */
+  saturatedUnitWeight: number;
+  strength: Strength;
+}
+
+/** A stratum: its material and its top boundary over the full ground x-range. */
+export interface Stratum {
+  material: string;
+  top: Polyline;
+}
+
+export type Water =
+  | { kind: 'none'; unitWeight: number }
+  /** Pore pressure u = γw·(y_line − y) where positive; above the ground the water is ponded. */
+  | { kind: 'piezometric'; line: Polyline; unitWeight: number }
+  /** Pore pressure u = ru·σv (σv the vertical total stress of the soil column). */
+  | { kind: 'ru'; ru: number; unitWeight: number };
+
+/** A vertical strip surcharge (kPa) on the ground between x = from and x = to. */
+export interface StripLoad {
+  type: 'strip';
+  from: number;
+  to: number;
+  pressure: number;
+}
+
+/**
+ * A line load (kN per m run) applied on the ground at x. `angle` is measured from the
+ * downward vertical in degrees, positive turning toward +x.
+ */
+export interface LineLoad {
+  type: 'line';
+  x: number;
+  force: number;
+  angle: number;
+}
+
+export type Load = StripLoad | LineLoad;
+
+/**
+ * Pseudo-static seismic coefficients. kh acts horizontally in the direction of sliding;
+ * kv > 0 adds kv·W downward, kv < 0 acts upward.
+ */
+export interface Seismic {
+  kh: number;
+  kv: number;
+}
+
+/**
+ * Tension crack at the upper end of the slip surface: its depth below the ground (m), or
+ * 'auto' for the Rankine depth 2c′·tan(45° + φ′/2)/γ (2Su/γ for undrained soil) of the
+ * material at the crest; waterDepth is the depth of water standing in the crack (m).
+ */
+export interface Crack {
+  depth: number | 'auto';
+  waterDepth: number;
+}
+
+export type MethodId =
+  | 'ordinary'
+  | 'bishop'
+  | 'janbu'
+  | 'spencer'
+  | 'morgenstern-price'
+  | 'swedish-circle'
+  | 'log-spiral'
+  | 'infinite-slope';
+
+export const METHOD_IDS: readonly MethodId[] = [
+  'ordinary',
+  'bishop',
+  'janbu',
+  'spencer',
+  'morgenstern-price',
+  'swedish-circle',
+  'log-spiral',
+  'infinite-slope',
+];
+
+export interface CircleSurface {
+  type: 'circle';
+  center: Point;
+  radius: number;
+}
+
+export interface PolylineSurface {
+  type: 'polyline';
+  points: Polyline;
+}
+
+/** A surface to search for (later issues give these their full shape). */
+export interface SearchSurface {
+  type: 'grid' | 'ground-ranges' | 'noncircular' | 'auto';
+  [setting: string]: unknown;
+}
+
+export type SurfaceSpec = CircleSurface | PolylineSurface | SearchSurface;
+
+/** Infinite slope: slope angle β (degrees), vertical depth z of the slip plane (m), m = hw/z. */
+export interface InfiniteSlopeSpec {
+  angle: number;
+  depth: number;
+  waterRatio: number;
+}
+
+export interface Analysis {
+  methods: MethodId[];
+  slices: number;
+  surface: SurfaceSpec | null;
+  infiniteSlope: InfiniteSlopeSpec | null;
+  case: string | null;
+  requiredFs: number | null;
+}
+
+/** A validated, normalised section in SI units. */
+export interface Section {
+  format: 'scarpline/1';
+  id: string;
+  title: string;
+  station: number | null;
+  offset: number | null;
+  /** The units of the file it came from; results are reported back in these. */
+  units: UnitSystem;
+  ground: Polyline;
+  materials: Record<string, Material>;
+  strata: Stratum[];
+  water: Water;
+  loads: Load[];
+  seismic: Seismic;
+  crack: Crack | null;
+  analysis: Analysis;
+}
