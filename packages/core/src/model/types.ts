@@ -151,9 +151,20 @@ export interface InfiniteSlopeSpec {
   waterRatio: number;
 }
 
+/** Interslice force function f(ξ) of Morgenstern–Price, ξ from 0 at the toe to 1 at the crest. */
+export interface IntersliceFunction {
+  shape: 'constant' | 'half-sine' | 'clipped-sine' | 'trapezoid';
+  /** clipped-sine and trapezoid: the ordinate at both ends (0 ≤ end < 1). */
+  end?: number;
+  /** trapezoid: the fraction of the length over which f rises from `end` to 1 at each end. */
+  ramp?: number;
+}
+
 export interface Analysis {
   methods: MethodId[];
   slices: number;
+  /** Morgenstern–Price interslice function; half-sine when not given. */
+  interslice?: IntersliceFunction;
   surface: SurfaceSpec | null;
   infiniteSlope: InfiniteSlopeSpec | null;
   case: string | null;
@@ -165,6 +176,7 @@ export interface Section {
   format: 'scarpline/1';
   id: string;
   title: string;
+  /** Chainage as given in the file (a label: not converted). */
   station: number | null;
   offset: number | null;
   /** The units of the file it came from; results are reported back in these. */
