@@ -376,11 +376,13 @@ export function analyzeSection(section: Section): SectionResult {
     }
   }
   for (const r of results) {
-    if (!r.converged)
+    const applies = !r.warnings.some((w) => w.code === 'not-applicable');
+    if (!r.converged && applies) {
       warnings.push({
         code: 'no-convergence',
         message: `${r.method}: ${r.reason ?? 'no solution'}`,
       });
+    }
   }
   const required = analysis.requiredFs;
   return {

@@ -2,6 +2,20 @@
 export * from './model/types';
 
 // --- input: parsing, validation, units, normalisation ---
+export { parseSections, type ParsedSections } from './input/parse-sections';
+export { formatMessage } from './input/format-message';
+export type { Message } from './input/types';
+export {
+  US_TO_SI,
+  UNIT_LABELS,
+  toSi,
+  fromSi,
+  rawSectionToSi,
+  type QuantityKind,
+} from './model/units';
+export type * from './model/raw-section';
+export { normaliseSection } from './model/normalise-section';
+export { lowerEnvelope } from './geometry/lower-envelope';
 
 // --- geometry and slicing ---
 export { yAt } from './geometry/y-at';
@@ -18,3 +32,30 @@ export {
   type RejectedSurface,
   type CrackInfo,
 } from './slices/slice-surface';
+
+// --- methods and the front door ---
+export { ordinary } from './methods/ordinary';
+export { bishop } from './methods/bishop';
+export { janbu, janbuCorrection } from './methods/janbu';
+export { spencer } from './methods/spencer';
+export { morgensternPrice, intersliceFunction } from './methods/morgenstern-price';
+export { swedishCircle, type SwedishCircleResult } from './methods/swedish-circle';
+export { logSpiral, type LogSpiralResult, type SpiralGeometry } from './methods/log-spiral';
+export {
+  infiniteSlope,
+  type InfiniteSlopeInput,
+  type InfiniteSlopeResult,
+} from './methods/infinite-slope';
+export { statics, type Statics } from './methods/statics';
+export { defaultPivot } from './methods/pivot';
+export type { SliceMethodResult, MethodWarning } from './methods/types';
+export {
+  analyzeSection,
+  CAUTION,
+  SOLVER_VERSION,
+  type SectionResult,
+  type MethodReport,
+  type SliceReport,
+  type ReportedSurface,
+  type Warning,
+} from './analyze';

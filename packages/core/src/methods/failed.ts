@@ -1,12 +1,13 @@
 import type { Point } from '../model/types';
 import type { SliceMethodResult } from './types';
 
-/** The result of a method that found no solution: no number, the reason, a warning. */
+/** The result of a method that found no solution or does not apply: no number, the reason, a warning. */
 export function failed(
   n: number,
   iterations: number,
   reason: string,
   pivot?: Point,
+  code: 'no-convergence' | 'not-applicable' = 'no-convergence',
 ): SliceMethodResult {
   return {
     fs: NaN,
@@ -20,6 +21,6 @@ export function failed(
     X: new Float64Array(n),
     thrust: new Float64Array(n).fill(NaN),
     ...(pivot ? { pivot } : {}),
-    warnings: [{ code: 'no-convergence', message: reason }],
+    warnings: [{ code, message: reason }],
   };
 }

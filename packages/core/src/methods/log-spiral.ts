@@ -3,7 +3,6 @@ import { findRoot } from '../numeric/find-root';
 import type { PreparedSection } from '../slices/prepare-section';
 import { type SliceSet, sliceSurface } from '../slices/slice-surface';
 import { failed } from './failed';
-import { sliceForces } from './slice-forces';
 import { FS_GRID } from './solve-fs';
 import { statics } from './statics';
 import type { SliceMethodResult } from './types';
@@ -50,8 +49,12 @@ export function logSpiral(
   const s = circleSlices;
   const n = s.n;
   const nothing = { spiral: null, spiralSlices: null };
-  const fail = (reason: string, it = 0): LogSpiralResult => ({
-    ...failed(n, it, reason),
+  const fail = (
+    reason: string,
+    it = 0,
+    code: 'no-convergence' | 'not-applicable' = 'not-applicable',
+  ): LogSpiralResult => ({
+    ...failed(n, it, reason, undefined, code),
     ...nothing,
   });
   if (prepared.section.crack)
@@ -126,11 +129,24 @@ export function logSpiral(
     return fail(
       'log spiral: no factor of safety balances the moments about the pole',
       root.evaluations,
+      'no-convergence',
     );
   const F = root.x;
   const final = solve(F);
-  if (!final) return fail('log spiral: the spiral leaves the ground', root.evaluations);
-  const forces = sliceForces(final.cut.slices, final.st, F, 0, null, false);
+  if (!final)
+    return fail('log spiral: the spiral leaves the ground', root.evaluations, 'no-convergence');
+  // the mechanism fixes only the moment balance about the pole: no slice-by-slice base forces
+  const m = final.cut.slices.n;
+  const zero = new Float64Array(m);
+  const forces = {
+    normalTotal: zero,
+    normal: zero,
+    shear: zero,
+    E: zero,
+    X: zero,
+    thrust: new Float64Array(m).fill(NaN),
+    warnings: [],
+  };
   const sx = s.mirrored ? -1 : 1;
   return {
     fs: F,

@@ -92,26 +92,20 @@ export function swedishCircle(
   const xc = s.mirrored ? -center[0] : center[0];
   const yc = center[1];
   const none = { massWeight: 0, leverArm: 0, resistingMoment: 0, drivingMoment: 0 };
+  const notApplicable = (reason: string): SwedishCircleResult => ({
+    ...failed(n, 0, reason, undefined, 'not-applicable'),
+    ...none,
+  });
   if (!sliced.pieces.every((p) => p.arc)) {
-    return {
-      ...failed(
-        n,
-        0,
-        'φ = 0 circle: the circle meets the rigid base; use a method of slices for this composite surface',
-      ),
-      ...none,
-    };
+    return notApplicable(
+      'φ = 0 circle: the circle meets the rigid base; use a method of slices for this composite surface',
+    );
   }
   for (let i = 0; i < n; i++) {
     if (s.tanPhi[i] !== 0) {
-      return {
-        ...failed(
-          n,
-          0,
-          'φ = 0 circle: the arc passes through soil with φ′ > 0; use a method of slices',
-        ),
-        ...none,
-      };
+      return notApplicable(
+        'φ = 0 circle: the arc passes through soil with φ′ > 0; use a method of slices',
+      );
     }
   }
   const xa = s.xl[0];
@@ -125,14 +119,9 @@ export function swedishCircle(
       ...g.ground.filter((p) => p[0] > xa && p[0] < xb),
     ].some((p) => outsideAbove(p[0], p[1]))
   ) {
-    return {
-      ...failed(
-        n,
-        0,
-        'φ = 0 circle: the ground rises above the top of the circle; the sliding mass is not disk ∩ soil',
-      ),
-      ...none,
-    };
+    return notApplicable(
+      'φ = 0 circle: the ground rises above the top of the circle; the sliding mass is not disk ∩ soil',
+    );
   }
   let deep = Infinity;
   for (const top of g.tops) for (const p of top) deep = Math.min(deep, p[1]);
@@ -213,6 +202,7 @@ export function swedishCircle(
     };
   }
   const st = statics(s, seismic, [xc, yc]);
+  // per-slice forces for the report only (with φ = 0 they do not enter F): no warnings from them
   const forces = sliceForces(s, st, F, 0, null, false);
   return {
     fs: F,
@@ -220,7 +210,7 @@ export function swedishCircle(
     iterations: 1,
     ...forces,
     pivot: [xc, yc],
-    warnings: forces.warnings,
+    warnings: [],
     massWeight: W,
     leverArm: W > 0 ? MWx / W : 0,
     resistingMoment: resisting,

@@ -1,0 +1,43 @@
+import { readFileSync } from 'node:fs';
+import { formatMessage, parseSections } from '@scarpline/core';
+import { collectFiles } from './collect-files';
+
+const plural = (n: number, word: string): string => `${n} ${word}${n === 1 ? '' : 's'}`;
+
+/**
+ * `scarpline validate`: reads each file (every section file under a directory), prints its
+ * located errors and warnings and a one-line summary, and returns the exit code: 0 when every
+ * file is valid, 1 otherwise.
+ *
+ * @example validateFiles(['examples'], console.log) // → 0
+ */
+export function validateFiles(paths: readonly string[], print: (line: string) => void): number {
+  const { files, missing } = collectFiles(paths);
+  let failed = missing.length;
+  for (const path of missing) print(`${path}: no such file or directory`);
+  if (files.length === 0 && missing.length === 0) {
+    print('no .yaml, .yml or .json files found');
+    return 1;
+  }
+  for (const file of files) {
+    let text: string;
+    try {
+      text = readFileSync(file, 'utf8');
+    } catch (e) {
+      const reason = e instanceof Error && 'code' in e ? String(e.code) : 'unreadable';
+      print(`${file}: cannot read the file (${reason})`);
+      failed++;
+      continue;
+    }
+    const { sections, messages } = parseSections(text, file);
+    for (const m of messages) print(formatMessage(m));
+    const errors = messages.filter((m) => m.severity === 'error').length;
+    const warnings = messages.length - errors;
+    const tail = warnings ? `, ${plural(warnings, 'warning')}` : '';
+    if (errors) {
+      failed++;
+      print(`${file}: invalid: ${plural(errors, 'error')}${tail}`);
+    } else print(`${file}: valid: ${plural(sections.length, 'section')}${tail}`);
+  }
+  return failed === 0 ? 0 : 1;
+}

@@ -1,0 +1,422 @@
+import { lowerEnvelope } from '../geometry/lower-envelope';
+import { boundaryOverGround } from '../model/boundary-over-ground';
+import type { Point, Polyline, UnitSystem } from '../model/types';
+import { UNIT_LABELS } from '../model/units';
+import { aboveIntervals, type AboveInterval } from './above-intervals';
+import { isNumber, isPointList, isRecord } from './guards';
+import type { Issue, PathKey } from './types';
+import { closest, lengthUnit, listWords, num } from './words';
+
+/** Plausible unit weights of soil and rock, and of water, per unit system (common practice). */
+const SOIL_WEIGHT = { si: [5, 30], us: [32, 190] } as const;
+const SOIL_TYPICAL = { si: 'about 12 to 25 kN/m³', us: 'about 75 to 160 pcf' } as const;
+const WATER_WEIGHT = { si: [9, 10.5], us: [57, 67] } as const;
+
+/**
+ * The checks that the schema cannot express, on a section as read from a file (in the file's
+ * units; it may also have failed the schema, so every part is checked only where its shape
+ * allows). Errors: ground x not strictly increasing; a stratum naming an undefined material; a
+ * boundary or piezometric line that goes back in x or does not span the ground; both a
+ * piezometric line and ru; a strip with from ≥ to; a load off the ground; crack water deeper
+ * than the crack; a polyline surface whose x does not increase; infinite-slope without its
+ * settings; swedish-circle on a polyline surface. Warnings: a boundary that rises above the
+ * ground or the stratum above (it is clipped), a stratum left with no thickness, unused
+ * materials, implausible unit weights, strata below a rigid base, a required FS below 1, and
+ * the like.
+ *
+ * @example checkSection(yamlData) // → [{ severity: 'warning', path: ['strata', 2, 'top'], … }]
+ */
+export function checkSection(data: unknown): Issue[] {
+  const issues: Issue[] = [];
+  if (!isRecord(data)) return issues;
+  const units: UnitSystem = data.units === 'us' ? 'us' : 'si';
+  const L = lengthUnit(units);
+  const err = (path: PathKey[], code: string, message: string, key = false): void => {
+    issues.push({ severity: 'error', path, code, message, ...(key ? { key } : {}) });
+  };
+  const warn = (path: PathKey[], code: string, message: string, key = false): void => {
+    issues.push({ severity: 'warning', path, code, message, ...(key ? { key } : {}) });
+  };
+
+  // --- ground
+  let ground: Polyline | null = null;
+  if (isPointList(data.ground)) {
+    const g = data.ground;
+    const bad: number[] = [];
+    for (let i = 1; i < g.length; i++) if (!(g[i][0] > g[i - 1][0])) bad.push(i);
+    if (
+      g.length > 2 &&
+      bad.length === g.length - 1 &&
+      g.every((p, i) => i === 0 || p[0] < g[i - 1][0])
+    ) {
+      err(
+        ['ground'],
+        'ground-x-order',
+        'runs from right to left: list the ground points from left to right, x increasing',
+      );
+    } else {
+      for (const i of bad) {
+        err(
+          ['ground', i],
+          'ground-x-order',
+          `x = ${num(g[i][0])} does not increase from the point before (x = ${num(g[i - 1][0])}); the ground's x must increase strictly from left to right`,
+        );
+      }
+    }
+    if (bad.length === 0) ground = g;
+  }
+  const gx0 = ground ? ground[0][0] : 0;
+  const gx1 = ground ? ground[ground.length - 1][0] : 0;
+  const tol = 1e-9 * Math.max(1, Math.abs(gx0), Math.abs(gx1));
+  const groundRange = `the ground (x = ${num(gx0)} to ${num(gx1)} ${L})`;
+  const offGround = (x: number): boolean => x < gx0 - tol || x > gx1 + tol;
+
+  // --- materials
+  const materials = isRecord(data.materials) ? data.materials : {};
+  const names = Object.keys(materials);
+  const modelOf = (name: string): unknown => {
+    const m = materials[name];
+    return isRecord(m) && isRecord(m.strength) ? m.strength.model : undefined;
+  };
+  for (const [name, m] of Object.entries(materials)) {
+    if (!isRecord(m)) continue;
+    const at: PathKey[] = ['materials', name];
+    const uw = m.unitWeight;
+    const [lo, hi] = SOIL_WEIGHT[units];
+    if (isNumber(uw) && uw > 0 && (uw < lo || uw > hi)) {
+      warn(
+        [...at, 'unitWeight'],
+        'unit-weight-unusual',
+        `${num(uw)} ${UNIT_LABELS[units].unitWeight} is unusual for soil or rock (${SOIL_TYPICAL[units]} is typical); check the units`,
+      );
+    }
+    const sat = m.saturatedUnitWeight;
+    if (isNumber(sat) && sat > 0 && (sat < lo || sat > hi)) {
+      warn(
+        [...at, 'saturatedUnitWeight'],
+        'unit-weight-unusual',
+        `${num(sat)} ${UNIT_LABELS[units].unitWeight} is unusual for soil or rock (${SOIL_TYPICAL[units]} is typical); check the units`,
+      );
+    }
+    if (isNumber(sat) && isNumber(uw) && sat < uw) {
+      warn(
+        [...at, 'saturatedUnitWeight'],
+        'saturated-below-bulk',
+        `${num(sat)} is less than unitWeight (${num(uw)}); the saturated unit weight is normally the larger`,
+      );
+    }
+    const s = m.strength;
+    if (isRecord(s)) {
+      if (s.model === 'mohr-coulomb' && s.cohesion === 0 && s.frictionAngle === 0) {
+        warn(
+          [...at, 'strength'],
+          'no-strength',
+          'c′ = 0 and φ′ = 0: this material has no strength',
+        );
+      }
+      if (s.model === 'undrained' && s.su === 0 && (s.suRate ?? 0) === 0) {
+        warn(
+          [...at, 'strength'],
+          'no-strength',
+          'Su = 0 and no increase with depth: this material has no strength',
+        );
+      }
+    }
+  }
+
+  // --- strata: materials
+  const strata = Array.isArray(data.strata) ? data.strata : [];
+  const used = new Set<string>();
+  const label = (i: number): string => {
+    const s = strata[i];
+    return isRecord(s) && typeof s.material === 'string'
+      ? `${s.material} (strata[${i}])`
+      : `strata[${i}]`;
+  };
+  let firstRigid = -1;
+  strata.forEach((s, i) => {
+    if (!isRecord(s)) return;
+    if (typeof s.material === 'string') {
+      const mat = s.material;
+      used.add(mat);
+      if (!Object.prototype.hasOwnProperty.call(materials, mat)) {
+        const near = closest(mat, names);
+        const tail = near
+          ? `; did you mean ${near}?`
+          : names.length
+            ? `; the materials are ${listWords(names)}`
+            : '';
+        err(
+          ['strata', i, 'material'],
+          'material-undefined',
+          `no material is named ${JSON.stringify(mat)}${tail}`,
+        );
+      } else if (modelOf(mat) === 'rigid') {
+        if (i === 0) {
+          warn(
+            ['strata', 0, 'material'],
+            'rigid-on-top',
+            'the top stratum is rigid: no slip surface can enter the ground',
+          );
+        }
+        if (firstRigid < 0) firstRigid = i;
+      } else if (firstRigid >= 0) {
+        warn(
+          ['strata', i],
+          'below-rigid',
+          `lies below the rigid ${label(firstRigid)}: no slip surface can reach it`,
+        );
+      }
+    }
+    if (i === 0 && s.top !== undefined) {
+      warn(
+        ['strata', 0, 'top'],
+        'first-top-ignored',
+        "the first stratum's top is the ground; this top is ignored",
+      );
+    }
+  });
+  for (const name of names) {
+    if (!used.has(name))
+      warn(['materials', name], 'material-unused', 'is not used by any stratum', true);
+  }
+
+  // --- boundaries: shape and span
+  const checkBoundary = (b: unknown, path: PathKey[], what: string): Polyline | null => {
+    if (isNumber(b)) return ground ? boundaryOverGround(b, ground) : null;
+    if (!isPointList(b)) return null;
+    let ordered = true;
+    for (let j = 1; j < b.length; j++) {
+      if (b[j][0] < b[j - 1][0]) {
+        ordered = false;
+        err(
+          [...path, j],
+          'boundary-x-order',
+          `x = ${num(b[j][0])} goes back from the point before (x = ${num(b[j - 1][0])}); x may not decrease along ${what}`,
+        );
+      }
+    }
+    if (!ordered || !ground) return null;
+    const bx0 = b[0][0];
+    const bx1 = b[b.length - 1][0];
+    let spans = true;
+    if (bx0 > gx0 + tol) {
+      spans = false;
+      err(
+        path,
+        'boundary-short',
+        `${what} starts at x = ${num(bx0)} ${L}, ${num(bx0 - gx0)} ${L} right of the ground's left end (x = ${num(gx0)} ${L}); it must span the whole ground`,
+      );
+    }
+    if (bx1 < gx1 - tol) {
+      spans = false;
+      err(
+        path,
+        'boundary-short',
+        `${what} ends at x = ${num(bx1)} ${L}, ${num(gx1 - bx1)} ${L} left of the ground's right end (x = ${num(gx1)} ${L}); it must span the whole ground`,
+      );
+    }
+    return spans ? boundaryOverGround(b as Point[], ground) : null;
+  };
+
+  const tops: (Polyline | null)[] = strata.map((s, i) =>
+    i > 0 && isRecord(s)
+      ? checkBoundary(
+          s.top,
+          ['strata', i, 'top'],
+          typeof s.material === 'string' ? `the top of ${s.material}` : 'the top',
+        )
+      : null,
+  );
+
+  // --- boundaries: clipping under the ground and the stratum above
+  const between = (spans: AboveInterval[]): string => {
+    const parts = spans.slice(0, 3).map((s) => `x = ${num(s.from)} and ${num(s.to)} ${L}`);
+    const more = spans.length > 3 ? ` and ${spans.length - 3} more places` : '';
+    const rise = Math.max(...spans.map((s) => s.rise));
+    return `between ${parts.join(' and between ')}${more} (by up to ${num(rise)} ${L})`;
+  };
+  if (ground) {
+    let above: Polyline = ground;
+    let chain = true;
+    for (let i = 1; i < strata.length; i++) {
+      const top = tops[i];
+      if (!top) {
+        chain = false;
+        continue;
+      }
+      const path: PathKey[] = ['strata', i, 'top'];
+      const overGround = aboveIntervals(top, ground);
+      if (overGround.length) {
+        warn(
+          path,
+          'boundary-above-ground',
+          `rises above the ground ${between(overGround)}; clipped to the ground`,
+        );
+      }
+      const underGround = lowerEnvelope(top, ground);
+      if (!chain) {
+        above = underGround;
+        continue;
+      }
+      if (i >= 2) {
+        const crossing = aboveIntervals(underGround, above);
+        if (crossing.length) {
+          warn(
+            path,
+            'boundary-crosses',
+            `rises above the top of ${label(i - 1)} ${between(crossing)}; clipped to it`,
+          );
+        }
+      }
+      const clipped = lowerEnvelope(underGround, above);
+      if (aboveIntervals(above, clipped).length === 0) {
+        warn(
+          ['strata', i - 1],
+          'stratum-vanishes',
+          `${label(i - 1)} has no thickness anywhere: the top of ${label(i)} is at or above its top everywhere`,
+        );
+      }
+      above = clipped;
+    }
+  }
+
+  // --- water
+  const water = data.water;
+  if (isRecord(water)) {
+    if (water.piezometric !== undefined && water.ru !== undefined) {
+      err(['water'], 'water-both', 'gives both a piezometric line and ru; give one of them');
+    }
+    if (water.piezometric !== undefined) {
+      checkBoundary(water.piezometric, ['water', 'piezometric'], 'the piezometric line');
+    }
+    const gw = water.unitWeight;
+    const [lo, hi] = WATER_WEIGHT[units];
+    if (isNumber(gw) && gw > 0 && (gw < lo || gw > hi)) {
+      warn(
+        ['water', 'unitWeight'],
+        'unit-weight-unusual',
+        `${num(gw)} ${UNIT_LABELS[units].unitWeight} is unusual for water (9.81 kN/m³, 62.4 pcf); check the units`,
+      );
+    }
+  }
+
+  // --- loads
+  if (Array.isArray(data.loads)) {
+    data.loads.forEach((load, i) => {
+      if (!isRecord(load)) return;
+      if (load.type === 'strip' && isNumber(load.from) && isNumber(load.to)) {
+        if (load.from >= load.to) {
+          err(
+            ['loads', i, 'to'],
+            'strip-order',
+            `to (x = ${num(load.to)}) must be greater than from (x = ${num(load.from)})`,
+          );
+        }
+        const left = Math.min(load.from, load.to);
+        const right = Math.max(load.from, load.to);
+        if (ground && (offGround(left) || offGround(right))) {
+          err(
+            ['loads', i],
+            'load-outside',
+            `the strip from x = ${num(load.from)} to ${num(load.to)} ${L} reaches beyond ${groundRange}`,
+          );
+        }
+      }
+      if (load.type === 'line' && isNumber(load.x) && ground && offGround(load.x)) {
+        err(['loads', i, 'x'], 'load-outside', `x = ${num(load.x)} ${L} is off ${groundRange}`);
+      }
+    });
+  }
+
+  // --- crack
+  const crack = data.crack;
+  if (isRecord(crack) && isNumber(crack.depth) && isNumber(crack.waterDepth)) {
+    if (crack.waterDepth > crack.depth) {
+      err(
+        ['crack', 'waterDepth'],
+        'crack-water',
+        `${num(crack.waterDepth)} ${L} of water is deeper than the crack (${num(crack.depth)} ${L})`,
+      );
+    }
+  }
+
+  // --- offset
+  if (isNumber(data.offset) && ground && offGround(data.offset)) {
+    warn(['offset'], 'offset-outside', `x = ${num(data.offset)} ${L} is off ${groundRange}`);
+  }
+
+  // --- analysis
+  const a = data.analysis;
+  if (isRecord(a)) {
+    const methods: unknown[] = Array.isArray(a.methods) ? a.methods : ['bishop'];
+    const methodPath = (m: string): PathKey[] =>
+      Array.isArray(a.methods) ? ['analysis', 'methods', methods.indexOf(m)] : ['analysis'];
+    if (methods.includes('infinite-slope')) {
+      if (a.infiniteSlope === undefined) {
+        err(
+          methodPath('infinite-slope'),
+          'infinite-slope-missing',
+          'infinite-slope needs analysis.infiniteSlope (the slope angle and the depth of the slip plane)',
+        );
+      }
+      const first = strata[0];
+      if (
+        isRecord(first) &&
+        typeof first.material === 'string' &&
+        modelOf(first.material) === 'rigid'
+      ) {
+        err(
+          methodPath('infinite-slope'),
+          'infinite-slope-rigid',
+          'infinite-slope analyses the first stratum, which is rigid',
+        );
+      }
+    } else if (a.infiniteSlope !== undefined) {
+      warn(
+        ['analysis', 'infiniteSlope'],
+        'infinite-slope-unused',
+        'is given, but infinite-slope is not among the methods: it is not used',
+      );
+    }
+    const surface = a.surface;
+    if (isRecord(surface) && surface.type === 'polyline') {
+      if (isPointList(surface.points)) {
+        const p = surface.points;
+        for (let j = 1; j < p.length; j++) {
+          if (!(p[j][0] > p[j - 1][0])) {
+            err(
+              ['analysis', 'surface', 'points', j],
+              'surface-x-order',
+              `x = ${num(p[j][0])} does not increase from the point before (x = ${num(p[j - 1][0])}); a slip surface's x must increase strictly`,
+            );
+          }
+        }
+      }
+      if (methods.includes('swedish-circle')) {
+        err(
+          methodPath('swedish-circle'),
+          'needs-circle',
+          'swedish-circle needs a circular slip surface; this surface is a polyline',
+        );
+      }
+      for (const m of ['ordinary', 'bishop']) {
+        if (methods.includes(m)) {
+          warn(
+            methodPath(m),
+            'circular-method',
+            `${m} takes moments about the centre of a circle; for a polyline surface spencer, morgenstern-price or janbu are the usual choice (common practice)`,
+          );
+        }
+      }
+    }
+    if (isNumber(a.requiredFs) && a.requiredFs > 0 && a.requiredFs < 1) {
+      warn(
+        ['analysis', 'requiredFs'],
+        'required-fs-below-one',
+        `${num(a.requiredFs)} is below 1: it would accept a slope that is not stable`,
+      );
+    }
+  }
+  return issues;
+}

@@ -1,0 +1,324 @@
+import { LineCounter, parseAllDocuments, type Document } from 'yaml';
+import { normaliseSection } from '../model/normalise-section';
+import type { RawSection } from '../model/raw-section';
+import type { Section, UnitSystem } from '../model/types';
+import { rawSectionToSi } from '../model/units';
+import { checkBatch } from './check-batch';
+import { checkSection } from './check-section';
+import { expandBatch } from './expand-batch';
+import { isRecord } from './guards';
+import { locateInDocument, type Location } from './locate-in-document';
+import type { Issue, Message, PathKey } from './types';
+import { validateAgainstSchema } from './validate-against-schema';
+import { pathText } from './words';
+
+export interface ParsedSections {
+  /** The sections without errors, validated and normalised (SI), in the order of the file. */
+  sections: Section[];
+  /** Every error and warning of the file, located, in the order of the file. */
+  messages: Message[];
+}
+
+const SECTION_FORMAT = 'scarpline/1';
+const BATCH_FORMAT = 'scarpline-batch/1';
+
+/** Line and column of an offset in a text (for errors found before the YAML parser runs). */
+function lineColumnOf(text: string, offset: number): Location {
+  const before = text.slice(0, Math.max(0, Math.min(offset, text.length)));
+  const lines = before.split('\n');
+  return { line: lines.length, column: lines[lines.length - 1].length + 1 };
+}
+
+/** The JSON.parse error of a text, located and in plain words, or null when it parses. */
+function jsonSyntaxError(text: string): { location: Location; message: string } | null {
+  try {
+    JSON.parse(text);
+    return null;
+  } catch (e) {
+    const raw = e instanceof Error ? e.message : String(e);
+    const position = /position (\d+)/.exec(raw);
+    const lineCol = /line (\d+) column (\d+)/.exec(raw);
+    let location: Location = { line: 1, column: 1 };
+    if (lineCol) location = { line: Number(lineCol[1]), column: Number(lineCol[2]) };
+    else if (position) location = lineColumnOf(text, Number(position[1]));
+    else if (/end of (JSON )?(input|data)/i.test(raw)) location = lineColumnOf(text, text.length);
+    const words = raw
+      .replace(/^JSON\.parse: /, '')
+      .replace(/ in JSON at position \d+.*$/, '')
+      .replace(/ at line \d+ column \d+.*$/, '')
+      .replace(/, ".*" is not valid JSON$/s, '');
+    return {
+      location,
+      message: `JSON syntax error: ${words.charAt(0).toLowerCase()}${words.slice(1)}`,
+    };
+  }
+}
+
+/** A section read from the file: its id and where the id is written; null when invalid. */
+interface Produced {
+  id: string;
+  location: Location;
+  path: string;
+  section: Section | null;
+}
+
+/**
+ * Reads the sections of a file: YAML (one or more documents) or JSON, each document a section
+ * (format scarpline/1) or a corridor batch (format scarpline-batch/1, expanded into its
+ * sections, ids `<batch id>@<station>`). Every document is checked against the schema, then by
+ * the checks the schema cannot express, and every error and warning is reported with its line
+ * and column in the file — all of them, not only the first. The sections without errors are
+ * normalised: SI units, defaults filled in, strata tops clipped (see normaliseSection).
+ * Pure: the caller reads the file.
+ *
+ * @example
+ * const { sections, messages } = parseSections(text, 'clay-cut.yaml');
+ * messages.map(formatMessage); // → ['clay-cut.yaml:12:34 materials.clay.strength.frictionAngle: 95 is above 90°']
+ */
+export function parseSections(text: string, fileName: string): ParsedSections {
+  const isJson = /\.json$/i.test(fileName);
+  const counter = new LineCounter();
+  const messages: Message[] = [];
+  const produced: Produced[] = [];
+  const push = (
+    severity: Message['severity'],
+    location: Location,
+    path: string,
+    code: string,
+    message: string,
+  ): void => {
+    messages.push({
+      severity,
+      file: fileName,
+      line: location.line,
+      column: location.column,
+      path,
+      code,
+      message,
+    });
+  };
+  const syntaxWords = isJson ? 'JSON syntax error' : 'YAML syntax error';
+
+  // A JSON file must be JSON: YAML would accept more (comments, trailing commas).
+  const jsonError = isJson ? jsonSyntaxError(text) : null;
+
+  const docs = parseAllDocuments(text, {
+    lineCounter: counter,
+    prettyErrors: false,
+    ...(isJson ? { schema: 'json' as const } : { merge: true }),
+  });
+  let syntaxErrors = 0;
+  let documents = 0;
+  for (const doc of docs) {
+    for (const e of doc.errors) {
+      syntaxErrors++;
+      const { line, col } = counter.linePos(e.pos[0]);
+      if (e.code === 'DUPLICATE_KEY') {
+        const key = (/^[^:\n]*/.exec(text.slice(e.pos[0]))?.[0] ?? '').trim();
+        const message = `the key ${key ? `${key} ` : ''}appears twice in the same mapping`;
+        push('error', { line, column: col }, '', 'duplicate-key', message);
+      } else {
+        const words = e.message.charAt(0).toLowerCase() + e.message.slice(1);
+        push('error', { line, column: col }, '', 'syntax', `${syntaxWords}: ${words}`);
+      }
+    }
+    for (const w of doc.warnings) {
+      const { line, col } = counter.linePos(w.pos[0]);
+      push('warning', { line, column: col }, '', 'yaml-warning', w.message);
+    }
+    if (doc.errors.length > 0 || doc.contents === null || jsonError) continue;
+    let data: unknown;
+    try {
+      data = doc.toJS({ maxAliasCount: 1000 });
+    } catch (e) {
+      syntaxErrors++;
+      const message = e instanceof Error ? e.message : String(e);
+      push('error', locateInDocument(doc, counter, []), '', 'syntax', message);
+      continue;
+    }
+    // A document of nothing but comments (or a lone null) is empty, not a section.
+    if (data === null || data === undefined) continue;
+    documents++;
+    readDocument(doc, counter, data, push, produced);
+  }
+
+  if (jsonError && syntaxErrors === 0) {
+    syntaxErrors++;
+    push('error', jsonError.location, '', 'syntax', jsonError.message);
+  }
+  if (documents === 0 && syntaxErrors === 0) {
+    push('error', { line: 1, column: 1 }, '', 'empty-file', 'the file holds no section');
+  }
+
+  // Ids must be unique across the documents (and the sections of batches) of a file.
+  const seen = new Map<string, Location>();
+  const sections: Section[] = [];
+  for (const p of produced) {
+    const first = seen.get(p.id);
+    if (!first && p.section) sections.push(p.section);
+    if (first) {
+      push(
+        'error',
+        p.location,
+        p.path,
+        'duplicate-id',
+        `the id ${JSON.stringify(p.id)} is already used at line ${first.line}`,
+      );
+    } else seen.set(p.id, p.location);
+  }
+
+  messages.sort((a, b) => a.line - b.line || a.column - b.column);
+  return { sections, messages };
+}
+
+type Push = (
+  severity: Message['severity'],
+  location: Location,
+  path: string,
+  code: string,
+  message: string,
+) => void;
+
+function unitsOf(data: Record<string, unknown>): UnitSystem {
+  return data.units === 'us' ? 'us' : 'si';
+}
+
+/** One YAML document: a section or a batch. */
+function readDocument(
+  doc: Document,
+  counter: LineCounter,
+  data: unknown,
+  push: Push,
+  produced: Produced[],
+): void {
+  const locate = (path: readonly PathKey[], atKey = false): Location =>
+    locateInDocument(doc, counter, path, atKey);
+  const report = (issue: Issue): void => {
+    push(
+      issue.severity,
+      locate(issue.path, issue.key),
+      pathText(issue.path),
+      issue.code,
+      issue.message,
+    );
+  };
+  if (!isRecord(data)) {
+    const what = Array.isArray(data) ? 'a list' : JSON.stringify(data);
+    report({
+      severity: 'error',
+      path: [],
+      code: 'not-a-section',
+      message: `expected a section (a group of settings starting with format: ${SECTION_FORMAT}), got ${what}`,
+    });
+    return;
+  }
+  if (data.format === BATCH_FORMAT) {
+    readBatch(data, locate, push, produced);
+    return;
+  }
+
+  const issues: Issue[] = [];
+  if (data.format === undefined) {
+    issues.push({
+      severity: 'error',
+      path: [],
+      code: 'missing',
+      message: `format is missing: a section starts with format: ${SECTION_FORMAT} (a corridor batch with format: ${BATCH_FORMAT})`,
+    });
+  } else if (data.format !== SECTION_FORMAT) {
+    issues.push({
+      severity: 'error',
+      path: ['format'],
+      code: 'unknown-format',
+      message: `${JSON.stringify(data.format)} is not a format Scarpline reads: use ${SECTION_FORMAT} (a section) or ${BATCH_FORMAT} (a corridor batch)`,
+    });
+  }
+  // The format is reported above in words of its own; validate the rest as a section.
+  issues.push(
+    ...validateAgainstSchema({ ...data, format: SECTION_FORMAT }, 'section', unitsOf(data)),
+  );
+  issues.push(...checkSection(data));
+  issues.forEach(report);
+  const section = issues.some((i) => i.severity === 'error')
+    ? null
+    : normaliseSection(rawSectionToSi(data as unknown as RawSection));
+  if (typeof data.id === 'string') {
+    produced.push({ id: data.id, location: locate(['id']), path: 'id', section });
+  }
+}
+
+/** A corridor batch: its own schema and checks, then every expanded section. */
+function readBatch(
+  batch: Record<string, unknown>,
+  locate: (path: readonly PathKey[], atKey?: boolean) => Location,
+  push: Push,
+  produced: Produced[],
+): void {
+  const units = unitsOf(batch);
+  const batchIssues = [...validateAgainstSchema(batch, 'batch', units), ...checkBatch(batch)];
+  const reported = new Set<string>();
+  const report = (issue: Issue, path: PathKey[] = issue.path, prefix = ''): void => {
+    const location = locate(path, issue.key);
+    const text = pathText(path);
+    const message = prefix + issue.message;
+    const key = [issue.severity, location.line, location.column, text, issue.code, message].join(
+      '|',
+    );
+    if (reported.has(key)) return;
+    reported.add(key);
+    push(issue.severity, location, text, issue.code, message);
+  };
+  batchIssues.forEach((issue) => report(issue));
+
+  // A section's own messages repeat nothing the batch schema already said: drop those whose
+  // place in the file lies at or under a place with a batch error.
+  const errorPaths = batchIssues.filter((i) => i.severity === 'error').map((i) => i.path);
+  const under = (path: PathKey[]): boolean =>
+    errorPaths.some((e) => e.length <= path.length && e.every((k, i) => path[i] === k));
+  // A batch error spoils the sections it concerns: one item, or all of them.
+  const spoils = (index: number): boolean =>
+    errorPaths.some((e) => e[0] !== 'sections' || e.length < 2 || e[1] === index);
+
+  const expanded = expandBatch(batch);
+  // Messages that come from the template are said once when they hold for every section, and
+  // with the stations they concern otherwise.
+  const fromTemplate = new Map<string, { issue: Issue; path: PathKey[]; stations: number[] }>();
+  for (const section of expanded) {
+    const issues = [
+      ...validateAgainstSchema(section.data, 'section', units),
+      ...checkSection(section.data),
+    ];
+    // Boundaries given by depth copy the ground's faults: say them once, at the ground.
+    const groundFaulty = issues.some((i) => i.code === 'ground-x-order');
+    for (const issue of issues) {
+      if (groundFaulty && section.derived(issue.path)) continue;
+      const path = section.origin(issue.path);
+      if (under(path)) continue;
+      if (path[0] === 'template') {
+        const key = [issue.severity, issue.code, pathText(path), issue.message].join('|');
+        const entry = fromTemplate.get(key) ?? { issue, path, stations: [] };
+        entry.stations.push(section.station);
+        fromTemplate.set(key, entry);
+      } else report(issue, path);
+    }
+    const idPath = section.origin(['id']);
+    const valid = !spoils(section.index) && !issues.some((i) => i.severity === 'error');
+    produced.push({
+      id: String(section.data.id),
+      location: locate(idPath),
+      path: pathText(idPath),
+      section: valid
+        ? normaliseSection(rawSectionToSi(section.data as unknown as RawSection))
+        : null,
+    });
+  }
+  for (const { issue, path, stations } of fromTemplate.values()) {
+    if (stations.length === expanded.length) report(issue, path);
+    else {
+      const shown = stations.slice(0, 5).join(', ');
+      const more = stations.length > 5 ? ` and ${stations.length - 5} more` : '';
+      const word = stations.length === 1 ? 'station' : 'stations';
+      report(issue, path, `at ${word} ${shown}${more}: `);
+    }
+  }
+}

@@ -1,0 +1,149 @@
+/**
+ * Units: Scarpline computes in SI (m, kN, kPa, kN/m³). A file in `us` units (ft, lbf, psf,
+ * pcf) is converted on input, and results go back in the file's units. Every factor is derived
+ * here, once, from mathjs's unit definitions (1 ft = 0.3048 m and 1 lbf = 4.4482216152605 N
+ * exactly, NIST SP 811).
+ */
+import { unit } from 'mathjs';
+import type { RawBoundary, RawSection } from './raw-section';
+import type { Point, SurfaceSpec, UnitSystem } from './types';
+
+/** The kinds of quantity that differ between the unit systems (angles and ratios do not). */
+export type QuantityKind =
+  'length' | 'force' | 'forcePerLength' | 'pressure' | 'unitWeight' | 'pressurePerLength';
+
+const MATHJS_UNITS: Record<QuantityKind, { us: string; si: string }> = {
+  length: { us: 'ft', si: 'm' },
+  force: { us: 'lbf', si: 'kN' },
+  forcePerLength: { us: 'lbf/ft', si: 'kN/m' },
+  pressure: { us: 'lbf/ft^2', si: 'kPa' },
+  unitWeight: { us: 'lbf/ft^3', si: 'kN/m^3' },
+  pressurePerLength: { us: 'lbf/ft^2/ft', si: 'kPa/m' },
+};
+
+function deriveFactors(): Record<QuantityKind, number> {
+  const out = {} as Record<QuantityKind, number>;
+  for (const kind of Object.keys(MATHJS_UNITS) as QuantityKind[]) {
+    const { us, si } = MATHJS_UNITS[kind];
+    out[kind] = unit(1, us).toNumber(si);
+  }
+  return out;
+}
+
+/**
+ * SI value of one `us` unit of each kind: multiply a us value by it to get SI.
+ *
+ * @example US_TO_SI.length // → 0.3048 (m per ft)
+ */
+export const US_TO_SI: Readonly<Record<QuantityKind, number>> = Object.freeze(deriveFactors());
+
+/** Unit symbols for messages and output. */
+export const UNIT_LABELS: Readonly<Record<UnitSystem, Readonly<Record<QuantityKind, string>>>> = {
+  si: {
+    length: 'm',
+    force: 'kN',
+    forcePerLength: 'kN/m',
+    pressure: 'kPa',
+    unitWeight: 'kN/m³',
+    pressurePerLength: 'kPa/m',
+  },
+  us: {
+    length: 'ft',
+    force: 'lbf',
+    forcePerLength: 'lbf/ft',
+    pressure: 'psf',
+    unitWeight: 'pcf',
+    pressurePerLength: 'psf/ft',
+  },
+};
+
+/**
+ * A value in the given unit system converted to SI.
+ *
+ * @example toSi(10, 'length', 'us') // → 3.048
+ */
+export function toSi(value: number, kind: QuantityKind, units: UnitSystem): number {
+  return units === 'us' ? value * US_TO_SI[kind] : value;
+}
+
+/**
+ * An SI value converted to the given unit system (for reporting results).
+ *
+ * @example fromSi(3.048, 'length', 'us') // → 10
+ */
+export function fromSi(value: number, kind: QuantityKind, units: UnitSystem): number {
+  return units === 'us' ? value / US_TO_SI[kind] : value;
+}
+
+const pointToSi = (p: Point, f: number): Point => [p[0] * f, p[1] * f];
+const boundaryToSi = (b: RawBoundary, f: number): RawBoundary =>
+  typeof b === 'number' ? b * f : b.map((p) => pointToSi(p, f));
+
+function surfaceToSi(s: SurfaceSpec, f: number): SurfaceSpec {
+  if (s.type === 'circle' && 'center' in s) {
+    return { ...s, center: pointToSi(s.center, f), radius: s.radius * f };
+  }
+  if (s.type === 'polyline' && 'points' in s) {
+    return { ...s, points: s.points.map((p) => pointToSi(p, f)) };
+  }
+  // Search settings (grid, ground ranges, noncircular) get their shape in a later version of
+  // the format; they are passed through as written.
+  return { ...s };
+}
+
+/**
+ * A schema-valid section converted to SI. A section already in `si` is returned as a copy;
+ * `units` keeps the file's system so that results can be reported back in it.
+ *
+ * @example rawSectionToSi(usSection).ground // → the ground in metres
+ */
+export function rawSectionToSi(raw: RawSection): RawSection {
+  const copy = JSON.parse(JSON.stringify(raw)) as RawSection;
+  if (raw.units !== 'us') return copy;
+  const L = US_TO_SI.length;
+  const P = US_TO_SI.pressure;
+  const G = US_TO_SI.unitWeight;
+
+  if (copy.station !== undefined) copy.station *= L;
+  if (copy.offset !== undefined) copy.offset *= L;
+  copy.ground = copy.ground.map((p) => pointToSi(p, L));
+  for (const m of Object.values(copy.materials)) {
+    if (m.unitWeight !== undefined) m.unitWeight *= G;
+    if (m.saturatedUnitWeight !== undefined) m.saturatedUnitWeight *= G;
+    const s = m.strength;
+    if (s.model === 'mohr-coulomb') s.cohesion *= P;
+    else if (s.model === 'undrained') {
+      s.su *= P;
+      if (s.suRate !== undefined) s.suRate *= US_TO_SI.pressurePerLength;
+      if (s.suDatum !== undefined) s.suDatum *= L;
+    }
+  }
+  for (const st of copy.strata) if (st.top !== undefined) st.top = boundaryToSi(st.top, L);
+  if (copy.water) {
+    const w = copy.water;
+    if (w.piezometric !== undefined) w.piezometric = boundaryToSi(w.piezometric, L);
+    if (w.unitWeight !== undefined) w.unitWeight *= G;
+  }
+  if (copy.loads) {
+    for (const load of copy.loads) {
+      if (load.type === 'strip') {
+        load.from *= L;
+        load.to *= L;
+        load.pressure *= P;
+      } else {
+        load.x *= L;
+        load.force *= US_TO_SI.forcePerLength;
+      }
+    }
+  }
+  if (copy.crack) {
+    if (typeof copy.crack.depth === 'number') copy.crack.depth *= L;
+    if (copy.crack.waterDepth !== undefined) copy.crack.waterDepth *= L;
+  }
+  const a = copy.analysis;
+  if (a) {
+    if (a.surface) a.surface = surfaceToSi(a.surface, L);
+    if (a.infiniteSlope) a.infiniteSlope.depth *= L;
+  }
+  return copy;
+}

@@ -1,0 +1,80 @@
+/**
+ * The front door on every example: each of the eight methods runs (or says why it does not
+ * apply), never returns NaN or hangs, and every result matches schemas/result.schema.json.
+ */
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import Ajv2020 from 'ajv/dist/2020';
+import { resultSchema } from '@scarpline/schemas';
+import {
+  CAUTION,
+  METHOD_IDS,
+  US_TO_SI,
+  analyzeSection,
+  parseSections,
+  type Section,
+} from '@scarpline/core';
+
+const EXAMPLES = join(__dirname, '..', '..', '..', 'examples');
+const files = readdirSync(EXAMPLES).filter((f) => /\.ya?ml$/.test(f));
+const sections: [string, Section][] = files.flatMap((f) =>
+  parseSections(readFileSync(join(EXAMPLES, f), 'utf8'), f).sections.map(
+    (s) => [`${f} ${s.id}`, s] as [string, Section],
+  ),
+);
+const validate = new Ajv2020({ strict: false }).compile(resultSchema);
+
+describe('analyzeSection on every example, every method', () => {
+  test.each(sections)('%s', (_name, section) => {
+    const all = { ...section, analysis: { ...section.analysis, methods: [...METHOD_IDS] } };
+    if (!all.analysis.infiniteSlope)
+      all.analysis.infiniteSlope = { angle: 20, depth: 2, waterRatio: 0 };
+    const r = analyzeSection(all);
+    const json = JSON.stringify(r);
+    expect(json).not.toMatch(/NaN|Infinity/);
+    expect(validate(JSON.parse(json))).toBe(true);
+    expect(r.caution).toBe(CAUTION);
+    expect(r.results.map((m) => m.method)).toEqual([...METHOD_IDS]);
+    for (const m of r.results) {
+      if (m.converged) {
+        expect(m.fs).toBeGreaterThan(0.2);
+        expect(m.fs).toBeLessThan(20);
+      } else {
+        expect(m.reason).toEqual(expect.any(String));
+      }
+    }
+    // the slice methods that apply to any circle all converge on the examples' circles
+    for (const id of ['bishop', 'janbu', 'spencer', 'morgenstern-price'] as const) {
+      expect(r.results.find((m) => m.method === id)?.converged).toBe(true);
+    }
+    const converged = r.results.filter((m) => m.converged).map((m) => m.fs as number);
+    expect(r.governing?.fs).toBe(Math.min(...converged));
+    expect(r.passes).toBe(r.governing!.fs >= section.analysis.requiredFs!);
+  });
+});
+
+describe('units: a us file is answered in us units', () => {
+  const [, us] = sections.find(([n]) => n.startsWith('cut-us-units'))!;
+  const inUs = analyzeSection(us);
+  const inSi = analyzeSection({ ...us, units: 'si' });
+  test('the same factors of safety either way (the solver works in SI)', () => {
+    for (let i = 0; i < inUs.results.length; i++)
+      expect(inUs.results[i].fs).toBeCloseTo(inSi.results[i].fs!, 12);
+  });
+  test('lengths in ft, forces in lbf/ft, pressures in psf (exact NIST factors)', () => {
+    const ft = 0.3048;
+    const lbfPerFt = 4.4482216152605e-3 / ft; // kN/m per lbf/ft
+    const psf = 4.4482216152605e-3 / (ft * ft); // kPa per psf
+    const a = inUs.results[0];
+    const b = inSi.results[0];
+    expect(a.slices.length).toBe(b.slices.length);
+    for (let i = 0; i < a.slices.length; i++) {
+      expect(a.slices[i].x * ft).toBeCloseTo(b.slices[i].x, 9);
+      expect(a.slices[i].weight * lbfPerFt).toBeCloseTo(b.slices[i].weight, 6);
+      expect(a.slices[i].porePressure * psf).toBeCloseTo(b.slices[i].porePressure, 6);
+    }
+    if (a.surface?.type === 'circle' && b.surface?.type === 'circle')
+      expect(a.surface.radius * ft).toBeCloseTo(b.surface.radius, 9);
+    expect(US_TO_SI.length).toBe(ft);
+  });
+});

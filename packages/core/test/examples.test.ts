@@ -1,0 +1,132 @@
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { formatMessage, parseSections, type Polyline, type Section } from '@scarpline/core';
+
+const EXAMPLES = join(__dirname, '..', '..', '..', 'examples');
+const yamlFiles = readdirSync(EXAMPLES)
+  .filter((f) => /\.ya?ml$/.test(f))
+  .sort();
+
+function read(file: string): ReturnType<typeof parseSections> {
+  return parseSections(readFileSync(join(EXAMPLES, file), 'utf8'), file);
+}
+
+/** y of a polyline (x increasing) by linear interpolation; independent of the product's code. */
+function y(line: Polyline, x: number): number {
+  for (let i = 1; i < line.length; i++) {
+    const [x0, y0] = line[i - 1];
+    const [x1, y1] = line[i];
+    if (x >= x0 && x <= x1) return x1 === x0 ? y1 : y0 + ((y1 - y0) * (x - x0)) / (x1 - x0);
+  }
+  return NaN;
+}
+
+describe('examples', () => {
+  test('there are at least six section files and a corridor batch', () => {
+    expect(yamlFiles.length).toBeGreaterThanOrEqual(6);
+    expect(readdirSync(join(EXAMPLES, 'corridor'))).toEqual(
+      expect.arrayContaining(['generate.js', 'corridor.json']),
+    );
+  });
+
+  test.each(yamlFiles)('%s is valid, without warnings, and described in a header', (file) => {
+    const { sections, messages } = read(file);
+    expect(messages.map(formatMessage)).toEqual([]);
+    expect(sections.length).toBeGreaterThanOrEqual(1);
+    expect(readFileSync(join(EXAMPLES, file), 'utf8').startsWith('# ')).toBe(true);
+    for (const s of sections) {
+      expect(s.analysis.case).toEqual(expect.any(String));
+      expect(s.analysis.requiredFs).toEqual(expect.any(Number));
+    }
+  });
+
+  test('the corridor batch is valid and has at least 50 stations', () => {
+    const file = join(EXAMPLES, 'corridor', 'corridor.json');
+    const { sections, messages } = parseSections(readFileSync(file, 'utf8'), 'corridor.json');
+    expect(messages.map(formatMessage)).toEqual([]);
+    expect(sections.length).toBeGreaterThanOrEqual(50);
+    expect(new Set(sections.map((s) => s.id)).size).toBe(sections.length);
+    // Both cut (ground rising away from the road) and embankment (falling) sections occur.
+    const rises = sections.map((s) => s.ground[s.ground.length - 1][1] > s.ground[0][1]);
+    expect(rises).toContain(true);
+    expect(rises).toContain(false);
+  });
+
+  test('the cases asked for are all there', () => {
+    const all: Section[] = yamlFiles.flatMap((f) => read(f).sections);
+    const models = (s: Section) => Object.values(s.materials).map((m) => m.strength.model);
+    // A homogeneous c′-φ′ cut.
+    expect(all.some((s) => s.strata.length === 1 && models(s)[0] === 'mohr-coulomb')).toBe(true);
+    // Undrained soft clay with Su growing with depth over a rigid base.
+    expect(
+      all.some(
+        (s) =>
+          Object.values(s.materials).some(
+            (m) => m.strength.model === 'undrained' && m.strength.suRate > 0,
+          ) && models(s).includes('rigid'),
+      ),
+    ).toBe(true);
+    // Ponded water: the piezometric line above the ground somewhere.
+    expect(
+      all.some(
+        (s) => s.water.kind === 'piezometric' && s.water.line.some(([x, w]) => w > y(s.ground, x)),
+      ),
+    ).toBe(true);
+    // A clean sand (c′ = 0).
+    expect(
+      all.some((s) =>
+        Object.values(s.materials).some(
+          (m) => m.strength.model === 'mohr-coulomb' && m.strength.cohesion === 0,
+        ),
+      ),
+    ).toBe(true);
+    // Strip and line loads with kh.
+    expect(
+      all.some(
+        (s) =>
+          s.seismic.kh > 0 &&
+          s.loads.some((l) => l.type === 'strip') &&
+          s.loads.some((l) => l.type === 'line'),
+      ),
+    ).toBe(true);
+    // US units.
+    expect(all.some((s) => s.units === 'us')).toBe(true);
+  });
+
+  // Each given circle enters the ground once and leaves it once, runs below the ground between,
+  // and stays out of any rigid base. Checked by sampling the lower arc against the polylines.
+  const circles = yamlFiles.flatMap((file) =>
+    read(file)
+      .sections.filter((s) => s.analysis.surface?.type === 'circle')
+      .map((s) => [`${file} ${s.id}`, s] as const),
+  );
+  test.each(circles)('%s: the circle cuts the ground cleanly', (_name, s) => {
+    const surface = s.analysis.surface;
+    if (!surface || surface.type !== 'circle' || !('radius' in surface)) throw new Error('circle');
+    const [cx, cy] = surface.center;
+    const r = surface.radius;
+    const x0 = Math.max(s.ground[0][0], cx - r);
+    const x1 = Math.min(s.ground[s.ground.length - 1][0], cx + r);
+    const arc = (x: number) => cy - Math.sqrt(Math.max(0, r * r - (x - cx) ** 2));
+    const n = 20000;
+    const crossings: number[] = [];
+    let previous = 0;
+    for (let k = 0; k <= n; k++) {
+      const x = x0 + ((x1 - x0) * k) / n;
+      const d = y(s.ground, x) - arc(x);
+      if (k > 0 && Math.sign(d) !== Math.sign(previous)) crossings.push(x);
+      previous = d;
+    }
+    expect(crossings).toHaveLength(2);
+    const [entry, exit] = crossings;
+    // Both crossings are on the ground, not at its ends.
+    expect(entry).toBeGreaterThan(s.ground[0][0]);
+    expect(exit).toBeLessThan(s.ground[s.ground.length - 1][0]);
+    const rigid = s.strata.find((t) => s.materials[t.material].strength.model === 'rigid');
+    for (let k = 1; k < 200; k++) {
+      const x = entry + ((exit - entry) * k) / 200;
+      expect(arc(x)).toBeLessThan(y(s.ground, x));
+      if (rigid) expect(arc(x)).toBeGreaterThan(y(rigid.top, x));
+    }
+  });
+});

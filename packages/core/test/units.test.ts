@@ -1,0 +1,145 @@
+import { fromSi, rawSectionToSi, toSi, US_TO_SI, type RawSection } from '@scarpline/core';
+
+// Exact definitions, NIST SP 811 (2008), Appendix B: 1 ft = 0.3048 m, 1 in = 0.0254 m and
+// 1 lbf = 4.4482216152605 N, all exact. Every expected factor below is computed from these
+// numbers here, independently of mathjs, which the product uses.
+const FT = 0.3048; // m
+const IN = 0.0254; // m
+const LBF = 4.4482216152605; // N
+
+/** Equal to within a few units in the last place of a double. */
+function expectExact(actual: number, expected: number): void {
+  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(4 * Number.EPSILON * Math.abs(expected));
+}
+
+describe('US_TO_SI (NIST SP 811 exact definitions)', () => {
+  test('length: 1 ft = 0.3048 m = 12 in', () => {
+    expectExact(US_TO_SI.length, FT);
+    expectExact(US_TO_SI.length, 12 * IN);
+  });
+  test('force: 1 lbf = 4.4482216152605 N = 0.0044482216152605 kN', () => {
+    expectExact(US_TO_SI.force, LBF / 1000);
+  });
+  test('pressure: 1 psf = 1 lbf/ft² in kPa', () => {
+    expectExact(US_TO_SI.pressure, LBF / FT ** 2 / 1000);
+  });
+  test('pressure: 1 psi = 144 psf = 6.894757… kPa (NIST SP 811 B.8: 6.894 757 E+03 Pa)', () => {
+    expect(144 * US_TO_SI.pressure).toBeCloseTo(6.894757, 6);
+  });
+  test('unit weight: 1 pcf = 1 lbf/ft³ in kN/m³ (about 0.15709)', () => {
+    expectExact(US_TO_SI.unitWeight, LBF / FT ** 3 / 1000);
+    expect(US_TO_SI.unitWeight).toBeCloseTo(0.157087, 6);
+  });
+  test('line load: 1 lbf/ft in kN/m', () => {
+    expectExact(US_TO_SI.forcePerLength, LBF / FT / 1000);
+  });
+  test('Su rate: 1 psf/ft in kPa/m equals 1 pcf in kN/m³', () => {
+    expectExact(US_TO_SI.pressurePerLength, LBF / FT ** 2 / 1000 / FT);
+  });
+});
+
+describe('toSi and fromSi', () => {
+  test('us values convert with the factors; si values pass through', () => {
+    expectExact(toSi(10, 'length', 'us'), 3.048);
+    expect(toSi(10, 'length', 'si')).toBe(10);
+    expectExact(toSi(62.4, 'unitWeight', 'us'), (62.4 * LBF) / FT ** 3 / 1000);
+  });
+  test('fromSi undoes toSi', () => {
+    for (const kind of Object.keys(US_TO_SI) as (keyof typeof US_TO_SI)[]) {
+      expectExact(fromSi(toSi(123.45, kind, 'us'), kind, 'us'), 123.45);
+    }
+  });
+});
+
+describe('rawSectionToSi', () => {
+  const raw: RawSection = {
+    format: 'scarpline/1',
+    id: 'us-demo',
+    units: 'us',
+    station: 1000,
+    offset: 10,
+    ground: [
+      [0, 100],
+      [50, 125],
+    ],
+    materials: {
+      clay: {
+        unitWeight: 120,
+        saturatedUnitWeight: 125,
+        strength: { model: 'undrained', su: 1000, suRate: 20, suDatum: 100 },
+      },
+      sand: {
+        unitWeight: 115,
+        strength: { model: 'mohr-coulomb', cohesion: 50, frictionAngle: 32 },
+      },
+    },
+    strata: [{ material: 'sand' }, { material: 'clay', top: 95 }],
+    water: {
+      piezometric: [
+        [0, 98],
+        [50, 110],
+      ],
+      unitWeight: 62.4,
+    },
+    loads: [
+      { type: 'strip', from: 30, to: 40, pressure: 250 },
+      { type: 'line', x: 45, force: 1000, angle: 10 },
+    ],
+    crack: { depth: 5, waterDepth: 2 },
+    analysis: {
+      surface: { type: 'circle', center: [20, 150], radius: 60 },
+      infiniteSlope: { angle: 26, depth: 4 },
+    },
+  };
+  const si = rawSectionToSi(raw);
+
+  test('lengths in m, angles unchanged', () => {
+    expectExact(si.station!, 1000 * FT);
+    expectExact(si.offset!, 10 * FT);
+    expectExact(si.ground[1][0], 50 * FT);
+    expectExact(si.ground[1][1], 125 * FT);
+    expectExact(si.strata[1].top as number, 95 * FT);
+    expectExact((si.water!.piezometric as [number, number][])[1][1], 110 * FT);
+    expectExact(si.crack!.depth as number, 5 * FT);
+    expectExact(si.crack!.waterDepth!, 2 * FT);
+    const surface = si.analysis!.surface as { center: [number, number]; radius: number };
+    expectExact(surface.center[1], 150 * FT);
+    expectExact(surface.radius, 60 * FT);
+    expectExact(si.analysis!.infiniteSlope!.depth, 4 * FT);
+    expect(si.analysis!.infiniteSlope!.angle).toBe(26);
+    expect(si.materials.sand.strength).toMatchObject({ frictionAngle: 32 });
+    expect(si.loads![1]).toMatchObject({ angle: 10 });
+  });
+  test('unit weights in kN/m³, strengths and pressures in kPa, Su rate in kPa/m', () => {
+    const clay = si.materials.clay;
+    expectExact(clay.unitWeight!, (120 * LBF) / FT ** 3 / 1000);
+    expectExact(clay.saturatedUnitWeight!, (125 * LBF) / FT ** 3 / 1000);
+    expect(clay.strength.model).toBe('undrained');
+    if (clay.strength.model !== 'undrained') return;
+    expectExact(clay.strength.su, (1000 * LBF) / FT ** 2 / 1000);
+    expectExact(clay.strength.suRate!, (20 * LBF) / FT ** 3 / 1000);
+    expectExact(clay.strength.suDatum!, 100 * FT);
+    const sand = si.materials.sand.strength;
+    if (sand.model !== 'mohr-coulomb') throw new Error('sand');
+    expectExact(sand.cohesion, (50 * LBF) / FT ** 2 / 1000);
+    expectExact(si.water!.unitWeight!, (62.4 * LBF) / FT ** 3 / 1000);
+    const strip = si.loads![0];
+    if (strip.type !== 'strip') throw new Error('strip');
+    expectExact(strip.pressure, (250 * LBF) / FT ** 2 / 1000);
+    expectExact(strip.from, 30 * FT);
+  });
+  test('line loads in kN/m', () => {
+    const line = si.loads![1];
+    if (line.type !== 'line') throw new Error('line');
+    expectExact(line.force, (1000 * LBF) / FT / 1000);
+    expectExact(line.x, 45 * FT);
+  });
+  test('keeps the file units and leaves the input untouched', () => {
+    expect(si.units).toBe('us');
+    expect(raw.ground[1]).toEqual([50, 125]);
+  });
+  test('an si section comes back equal', () => {
+    const siRaw: RawSection = { ...raw, units: 'si' };
+    expect(rawSectionToSi(siRaw)).toEqual(siRaw);
+  });
+});
