@@ -4,6 +4,7 @@ import type {
   MethodId,
   Point,
   PolylineSurface,
+  SearchSurface,
   Section,
   UnitSystem,
 } from './model/types';
@@ -19,6 +20,9 @@ import { swedishCircle } from './methods/swedish-circle';
 import type { MethodWarning, SliceMethodResult } from './methods/types';
 import { type PreparedSection, prepareSection } from './slices/prepare-section';
 import { type SliceOutcome, type SliceSet, sliceSurface } from './slices/slice-surface';
+import { refineCircle } from './search/refine-circle';
+import { type SearchOutcome, searchSection } from './search/search-section';
+import { Trials } from './search/trials';
 
 /** The caution every result surface carries. */
 export const CAUTION =
@@ -91,8 +95,94 @@ export interface SectionResult {
   governing: { method: MethodId; fs: number } | null;
   passes: boolean | null;
   warnings: Warning[];
+  /** What the search did, when the surface was searched for. */
+  search: SearchReport | null;
   solverVersion: string;
   caution: string;
+}
+
+export interface GridReport {
+  x: [number, number];
+  y: [number, number];
+  nx: number;
+  ny: number;
+}
+
+/** The search, in the section's units: trials, grid moves, the FS map over the centres, the lowest surfaces. */
+export interface SearchReport {
+  type: SearchSurface['type'];
+  /** The method the circles were searched with (the critical surface of each method is evaluated exactly). */
+  method: MethodId;
+  /** The method the noncircular polylines were searched with, when they were. */
+  noncircularMethod?: MethodId;
+  trials: number;
+  moves: { reason: string; grid: GridReport }[];
+  grid: GridReport | null;
+  /** fs[j][i]: the lowest FS over the radii at the centre (xs[i], ys[j]); null where no circle was admissible. */
+  map: { xs: number[]; ys: number[]; fs: (number | null)[][] } | null;
+  lowest: { surface: ReportedSurface; fs: number }[];
+}
+
+function searchReport(found: SearchOutcome, units: UnitSystem): SearchReport {
+  const L = (v: number) => fromSi(v, 'length', units);
+  const grid = (g: {
+    x: [number, number];
+    y: [number, number];
+    nx: number;
+    ny: number;
+  }): GridReport => ({
+    x: [L(g.x[0]), L(g.x[1])],
+    y: [L(g.y[0]), L(g.y[1])],
+    nx: g.nx,
+    ny: g.ny,
+  });
+  const gr = found.grid;
+  return {
+    type: found.settings.type,
+    method: 'bishop',
+    ...(found.polyline ? { noncircularMethod: 'spencer' as const } : {}),
+    trials: found.trials,
+    moves: gr ? gr.moves.map((m) => ({ reason: m.reason, grid: grid(m.grid) })) : [],
+    grid: gr ? grid(gr.grid) : null,
+    map: gr
+      ? {
+          xs: gr.xs.map(L),
+          ys: gr.ys.map(L),
+          fs: gr.fs.map((row) => row.map((v) => (Number.isFinite(v) ? v : null))),
+        }
+      : null,
+    lowest: found.lowest.map((t) => ({
+      surface: { type: 'circle', center: [L(t.center[0]), L(t.center[1])], radius: L(t.radius) },
+      fs: t.fs,
+    })),
+  };
+}
+
+/** The critical circle of one method: the search's best circle polished with that method on the exact slicing. */
+function ownCircle(
+  method: MethodId,
+  prepared: PreparedSection,
+  start: CircleSurface,
+): CircleSurface {
+  const evaluate = (xc: number, yc: number, r: number) => {
+    const c: CircleSurface = { type: 'circle', center: [xc, yc], radius: r };
+    const rep = runOnSurface(
+      method,
+      prepared,
+      c,
+      sliceSurface(prepared, c, prepared.section.analysis.slices),
+    );
+    return rep.converged && rep.fs !== null ? rep.fs : NaN;
+  };
+  const f0 = evaluate(start.center[0], start.center[1], start.radius);
+  if (!(f0 > 0)) return start;
+  const best = refineCircle(
+    { center: start.center, radius: start.radius, fs: f0 },
+    start.radius / 20,
+    evaluate,
+    new Trials(1),
+  );
+  return { type: 'circle', center: best.center, radius: best.radius };
 }
 
 const SLICE_METHODS: readonly MethodId[] = [
@@ -346,35 +436,84 @@ export function analyzeSection(section: Section): SectionResult {
   const analysis = section.analysis;
   const surface = analysis.surface;
   const warnings: Warning[] = [];
-  let cut: SliceOutcome | null = null;
-  let given: CircleSurface | PolylineSurface | null = null;
-  if (surface && (surface.type === 'circle' || surface.type === 'polyline')) {
-    given = surface as CircleSurface | PolylineSurface;
-    cut = sliceSurface(prepared, given, analysis.slices);
-    if (!cut.ok)
+  const cuts = new Map<CircleSurface | PolylineSurface, SliceOutcome>();
+  const cutOf = (sf: CircleSurface | PolylineSurface) => {
+    let c = cuts.get(sf);
+    if (!c) {
+      c = sliceSurface(prepared, sf, analysis.slices);
+      cuts.set(sf, c);
+    }
+    return c;
+  };
+  let circle: CircleSurface | null = null;
+  let polyline: PolylineSurface | null = null;
+  let found: SearchOutcome | null = null;
+  if (surface && surface.type === 'circle') circle = surface as CircleSurface;
+  else if (surface && surface.type === 'polyline') polyline = surface as PolylineSurface;
+  else if (surface) {
+    found = searchSection(prepared, surface as SearchSurface);
+    if (found.circle)
+      circle = { type: 'circle', center: found.circle.center, radius: found.circle.radius };
+    if (found.polyline) polyline = { type: 'polyline', points: found.polyline.points };
+    if (!found.circle) {
       warnings.push({
-        code: 'surface-rejected',
-        message: `the slip surface was rejected: ${cut.reason}`,
+        code: 'no-surface',
+        message:
+          'the search found no admissible slip surface: check the grid, the radii and the ground ranges',
       });
+    }
+    if (found.onEdge) {
+      warnings.push({
+        code: 'minimum-on-edge',
+        message: `the lowest factor of safety is still on the edge of the search grid after ${found.grid?.moves.length ?? 0} moves: the true minimum may lie outside it; widen the grid`,
+      });
+    }
+  }
+  for (const sf of [circle, polyline]) {
+    if (sf && !found) {
+      const c = cutOf(sf);
+      if (!c.ok)
+        warnings.push({
+          code: 'surface-rejected',
+          message: `the slip surface was rejected: ${c.reason}`,
+        });
+    }
   }
   const results: MethodReport[] = analysis.methods.map((method) => {
     if (method === 'infinite-slope') return runInfiniteSlope(section);
     if (!surface)
       return notRun(method, `${method}: the section gives no slip surface (analysis.surface)`);
-    if (!given || !cut) {
-      return notRun(
-        method,
-        `${method}: the ${surface.type} search is not available in this version; give a circle or a polyline`,
-      );
+    let sf: CircleSurface | PolylineSurface | null = CIRCLE_ONLY.includes(method)
+      ? (circle ?? polyline)
+      : (polyline ?? circle);
+    if (!sf) return notRun(method, `${method}: no admissible slip surface was found`);
+    if (found && analysis.searchEachMethod && sf.type === 'circle') {
+      sf = ownCircle(method, prepared, sf);
     }
-    return runOnSurface(method, prepared, given, cut);
+    return runOnSurface(method, prepared, sf, cutOf(sf));
   });
+  if (found?.cohesionless && !analysis.methods.includes('infinite-slope')) {
+    const cl = found.cohesionless;
+    const message = `no soil on this slope has cohesion (c′ = 0): circles drift toward an infinite radius, so the infinite slope on the steepest ground (β = ${cl.angle.toFixed(1)}°) governs with F = ${cl.fs.toFixed(3)}`;
+    warnings.push({ code: 'cohesionless-circle', message });
+    results.push({
+      method: 'infinite-slope',
+      fs: cl.fs,
+      converged: true,
+      iterations: 0,
+      surface: { type: 'plane', angle: cl.angle, depth: 0 },
+      slices: [],
+      warnings: [{ code: 'cohesionless-circle', message }],
+    });
+  }
   let governing: SectionResult['governing'] = null;
   for (const r of results) {
     if (r.converged && r.fs !== null && (governing === null || r.fs < governing.fs)) {
       governing = { method: r.method, fs: r.fs };
     }
   }
+  // without cohesion the infinite slope is the limit the circles tend to: it governs
+  if (found?.cohesionless) governing = { method: 'infinite-slope', fs: found.cohesionless.fs };
   for (const r of results) {
     const applies = !r.warnings.some((w) => w.code === 'not-applicable');
     if (!r.converged && applies) {
@@ -396,6 +535,7 @@ export function analyzeSection(section: Section): SectionResult {
     governing,
     passes: governing === null || required === null ? null : governing.fs >= required,
     warnings,
+    search: found ? searchReport(found, section.units) : null,
     solverVersion: SOLVER_VERSION,
     caution: CAUTION,
   };

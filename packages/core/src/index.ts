@@ -33,6 +33,31 @@ export {
   type CrackInfo,
 } from './slices/slice-surface';
 
+// --- search ---
+export {
+  searchSection,
+  cohesionlessSlope,
+  fastBishopEvaluator,
+  type SearchOutcome,
+  type CohesionlessSlope,
+} from './search/search-section';
+export {
+  searchSettings,
+  slopeZone,
+  type SearchSettings,
+  type GridSettings,
+  type GroundRangeSettings,
+} from './search/search-settings';
+export { gridSearch, type GridOutcome } from './search/grid-search';
+export { groundRangesSearch } from './search/ground-ranges-search';
+export { noncircularSearch } from './search/noncircular-search';
+export { refineCircle } from './search/refine-circle';
+export { Trials, type CircleTrial, type CircleEvaluator } from './search/trials';
+export { fastSection, sliceBuffer, type FastSection } from './search/fast-section';
+export { sliceCircleFast } from './search/slice-circle-fast';
+export { bishopFast } from './search/bishop-fast';
+export { nelderMead } from './numeric/nelder-mead';
+
 // --- methods and the front door ---
 export { ordinary } from './methods/ordinary';
 export { bishop } from './methods/bishop';
@@ -58,4 +83,5 @@ export {
   type SliceReport,
   type ReportedSurface,
   type Warning,
+  type GridReport,
 } from './analyze';

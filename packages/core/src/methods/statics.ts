@@ -33,23 +33,26 @@ export interface Statics {
  * a noncircular surface). Moments are counter-clockwise positive; a mass sliding toward −x
  * turns clockwise, so resisting moments are positive.
  */
-export function statics(s: SliceSet, seismic: Seismic, pivot: Point): Statics {
+export function statics(s: SliceSet, seismic: Seismic, pivot: Point, into?: Statics): Statics {
   const n = s.n;
-  const st: Statics = {
-    n,
-    sin: new Float64Array(n),
-    cos: new Float64Array(n),
-    len: new Float64Array(n),
-    C: new Float64Array(n),
-    t: new Float64Array(n),
-    U: new Float64Array(n),
-    Hx: new Float64Array(n),
-    Hy: new Float64Array(n),
-    aN: new Float64Array(n),
-    aS: new Float64Array(n),
-    M0: new Float64Array(n),
-    pivot,
-  };
+  const st: Statics =
+    into && into.sin.length >= n
+      ? Object.assign(into, { n, pivot })
+      : {
+          n,
+          sin: new Float64Array(n),
+          cos: new Float64Array(n),
+          len: new Float64Array(n),
+          C: new Float64Array(n),
+          t: new Float64Array(n),
+          U: new Float64Array(n),
+          Hx: new Float64Array(n),
+          Hy: new Float64Array(n),
+          aN: new Float64Array(n),
+          aS: new Float64Array(n),
+          M0: new Float64Array(n),
+          pivot,
+        };
   const [xo, yo] = pivot;
   const kh = seismic.kh;
   const kv1 = 1 + seismic.kv;

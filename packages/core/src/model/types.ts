@@ -169,6 +169,8 @@ export interface Analysis {
   infiniteSlope: InfiniteSlopeSpec | null;
   case: string | null;
   requiredFs: number | null;
+  /** With a searched surface: polish the critical circle separately for each method. */
+  searchEachMethod?: boolean;
 }
 
 /** A validated, normalised section in SI units. */

@@ -1,0 +1,89 @@
+import type { CenterGrid, GridSettings } from './search-settings';
+import type { CircleEvaluator, Trials } from './trials';
+
+export interface GridMove {
+  reason: string;
+  grid: CenterGrid;
+}
+
+export interface GridOutcome {
+  grid: CenterGrid;
+  moves: GridMove[];
+  /** fs[j][i]: the lowest FS over the radii at centre (xs[i], ys[j]); NaN where no circle was admissible. */
+  xs: number[];
+  ys: number[];
+  fs: number[][];
+  /** True when the minimum is still on the grid's edge after the last allowed move. */
+  onEdge: boolean;
+}
+
+const spaced = (a: number, b: number, n: number) =>
+  n === 1 ? [0.5 * (a + b)] : Array.from({ length: n }, (_, i) => a + ((b - a) * i) / (n - 1));
+
+/**
+ * Circle-centre grid search: every centre of the grid with every radius (given radii, or the
+ * radii that make the circle tangent to each given elevation). When the lowest FS lies on
+ * the edge of the grid, the grid is moved so that this centre is in its middle, and searched
+ * again, until the minimum is inside or `moves` is used up — what an engineer does by hand.
+ *
+ * @example gridSearch(settings.grid, evaluate, trials).fs
+ */
+export function gridSearch(
+  settings: GridSettings,
+  evaluate: CircleEvaluator,
+  trials: Trials,
+): GridOutcome {
+  let grid = { ...settings.centers };
+  const moves: GridMove[] = [];
+  const radiiAt = (yc: number): number[] => {
+    const r = settings.radii;
+    const vals = spaced(r.from, r.to, r.count);
+    return r.kind === 'radii' ? vals : vals.map((t) => yc - t).filter((v) => v > 0);
+  };
+  for (;;) {
+    const xs = spaced(grid.x[0], grid.x[1], grid.nx);
+    const ys = spaced(grid.y[0], grid.y[1], grid.ny);
+    const fs = ys.map(() => xs.map(() => NaN));
+    let bi = -1;
+    let bj = -1;
+    let best = Infinity;
+    for (let j = 0; j < ys.length; j++) {
+      for (let i = 0; i < xs.length; i++) {
+        let low = Infinity;
+        for (const r of radiiAt(ys[j])) {
+          const f = trials.try(evaluate, xs[i], ys[j], r);
+          if (f < low) low = f;
+        }
+        if (low < Infinity) {
+          fs[j][i] = low;
+          if (low < best) {
+            best = low;
+            bi = i;
+            bj = j;
+          }
+        }
+      }
+    }
+    const edgeX = grid.nx > 2 && (bi === 0 || bi === grid.nx - 1);
+    const edgeY = grid.ny > 2 && (bj === 0 || bj === grid.ny - 1);
+    const onEdge = bi >= 0 && (edgeX || edgeY);
+    if (!onEdge || moves.length >= settings.moves) {
+      return { grid, moves, xs, ys, fs, onEdge };
+    }
+    const w = grid.x[1] - grid.x[0];
+    const h = grid.y[1] - grid.y[0];
+    const cx = edgeX ? xs[bi] : 0.5 * (grid.x[0] + grid.x[1]);
+    const cy = edgeY ? ys[bj] : 0.5 * (grid.y[0] + grid.y[1]);
+    const side = [
+      edgeX ? (bi === 0 ? 'left' : 'right') : '',
+      edgeY ? (bj === 0 ? 'bottom' : 'top') : '',
+    ]
+      .filter(Boolean)
+      .join(' and ');
+    grid = { ...grid, x: [cx - w / 2, cx + w / 2], y: [cy - h / 2, cy + h / 2] };
+    moves.push({
+      reason: `the lowest FS (${best.toFixed(3)}) was on the ${side} edge of the grid`,
+      grid,
+    });
+  }
+}

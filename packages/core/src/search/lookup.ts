@@ -1,0 +1,69 @@
+import type { Polyline } from '../model/types';
+
+/**
+ * A polyline prepared for evaluation in constant time: its vertices as typed arrays and a
+ * table of buckets over x, each holding the index of the segment where the bucket starts.
+ */
+export interface Lookup {
+  xs: Float64Array;
+  ys: Float64Array;
+  x0: number;
+  inv: number;
+  buckets: Int32Array;
+  last: number;
+}
+
+/** Build a lookup with about four buckets per segment (at least 64). */
+export function lookup(line: Polyline): Lookup {
+  const n = line.length;
+  const xs = new Float64Array(n);
+  const ys = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    xs[i] = line[i][0];
+    ys[i] = line[i][1];
+  }
+  const x0 = xs[0];
+  const span = Math.max(xs[n - 1] - x0, 1e-12);
+  const m = Math.max(64, 4 * n);
+  const inv = m / span;
+  const buckets = new Int32Array(m + 1);
+  let seg = 0;
+  for (let b = 0; b <= m; b++) {
+    const x = x0 + b / inv;
+    while (seg < n - 2 && xs[seg + 1] <= x) seg++;
+    buckets[b] = seg;
+  }
+  return { xs, ys, x0, inv, buckets, last: n - 1 };
+}
+
+/** Index of the segment holding x (clamped to the first and last segment). */
+export function segmentAt(L: Lookup, x: number): number {
+  if (L.last === 0) return 0;
+  let b = ((x - L.x0) * L.inv) | 0;
+  if (b < 0) b = 0;
+  else if (b >= L.buckets.length) b = L.buckets.length - 1;
+  let i = L.buckets[b];
+  const xs = L.xs;
+  while (i < L.last - 1 && xs[i + 1] < x) i++;
+  while (i > 0 && xs[i] > x) i--;
+  return i;
+}
+
+/** Elevation at x, flat beyond the ends (as yAt). */
+export function lookupY(L: Lookup, x: number): number {
+  const xs = L.xs;
+  if (x <= xs[0]) return L.ys[0];
+  if (x >= xs[L.last]) return L.ys[L.last];
+  const i = segmentAt(L, x);
+  const dx = xs[i + 1] - xs[i];
+  return dx > 0 ? L.ys[i] + ((L.ys[i + 1] - L.ys[i]) * (x - xs[i])) / dx : L.ys[i + 1];
+}
+
+/** Slope dy/dx at x (0 beyond the ends). */
+export function lookupSlope(L: Lookup, x: number): number {
+  const xs = L.xs;
+  if (x <= xs[0] || x >= xs[L.last]) return 0;
+  const i = segmentAt(L, x);
+  const dx = xs[i + 1] - xs[i];
+  return dx > 0 ? (L.ys[i + 1] - L.ys[i]) / dx : 0;
+}
