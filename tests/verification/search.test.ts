@@ -256,7 +256,7 @@ describe('grid moves', () => {
       ...base,
       analysis: {
         ...base.analysis,
-        surface: { type: 'grid', centers: { x: [30, 40], y: [25, 32], nx: 6, ny: 6 }, moves: 8 },
+        surface: { type: 'grid', centers: { x: [30, 40], y: [25, 32], nx: 6, ny: 6 }, moves: 16 },
       },
     };
     const r = analyzeSection(section);
@@ -318,5 +318,33 @@ describe('noncircular search', () => {
     expect(found.polyline!.fs).toBeLessThan(0.9 * found.circle!.fs);
     const r = analyzeSection(section);
     expect(r.results[0].surface?.type).toBe('polyline');
+  });
+});
+
+describe('every example finds its critical surface without a warning it should not have', () => {
+  const dir = join(__dirname, '..', '..', 'examples');
+  const sections: [string, Section][] = readdirSync(dir)
+    .filter((f) => f.endsWith('.yaml'))
+    .flatMap((f) =>
+      parseSections(readFileSync(join(dir, f), 'utf8'), f).sections.map(
+        (s) => [s.id, s] as [string, Section],
+      ),
+    );
+  test.each(sections)('%s', (_id, given) => {
+    const r = analyzeSection({
+      ...given,
+      analysis: { ...given.analysis, surface: { type: 'auto' } },
+    });
+    expect(r.governing).not.toBeNull();
+    const codes = r.warnings.map((w) => w.code);
+    for (const bad of ['minimum-on-edge', 'no-surface', 'no-convergence', 'surface-rejected'])
+      expect(codes).not.toContain(bad);
+    const cohesionless = Object.values(given.materials).every(
+      (m) =>
+        m.strength.model !== 'undrained' &&
+        (m.strength.model === 'rigid' || m.strength.cohesion === 0),
+    );
+    expect(codes.includes('cohesionless-circle')).toBe(cohesionless);
+    expect(r.search!.trials).toBeGreaterThan(500);
   });
 });

@@ -483,14 +483,16 @@ export function analyzeSection(section: Section): SectionResult {
     if (method === 'infinite-slope') return runInfiniteSlope(section);
     if (!surface)
       return notRun(method, `${method}: the section gives no slip surface (analysis.surface)`);
-    let sf: CircleSurface | PolylineSurface | null = CIRCLE_ONLY.includes(method)
-      ? (circle ?? polyline)
-      : (polyline ?? circle);
-    if (!sf) return notRun(method, `${method}: no admissible slip surface was found`);
-    if (found && analysis.searchEachMethod && sf.type === 'circle') {
-      sf = ownCircle(method, prepared, sf);
+    let own = circle;
+    if (own && found && analysis.searchEachMethod) own = ownCircle(method, prepared, own);
+    const onCircle = own ? runOnSurface(method, prepared, own, cutOf(own)) : null;
+    if (CIRCLE_ONLY.includes(method) || !polyline) {
+      return onCircle ?? notRun(method, `${method}: no admissible slip surface was found`);
     }
-    return runOnSurface(method, prepared, sf, cutOf(sf));
+    const onPolyline = runOnSurface(method, prepared, polyline, cutOf(polyline));
+    // the critical surface of this method: the lower of the best circle and the noncircular surface
+    if (!onCircle || !onCircle.converged) return onPolyline;
+    return onPolyline.converged && onPolyline.fs! < onCircle.fs! ? onPolyline : onCircle;
   });
   if (found?.cohesionless && !analysis.methods.includes('infinite-slope')) {
     const cl = found.cohesionless;

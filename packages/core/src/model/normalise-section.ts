@@ -92,6 +92,7 @@ export function normaliseSection(raw: RawSection): Section {
         }
       : null,
     ...(a.interslice ? { interslice: { ...a.interslice } } : {}),
+    ...(a.searchEachMethod ? { searchEachMethod: true } : {}),
     case: a.case ?? null,
     requiredFs: a.requiredFs ?? null,
   };

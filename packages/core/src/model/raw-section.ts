@@ -48,6 +48,7 @@ export interface RawAnalysis {
   surface?: SurfaceSpec;
   infiniteSlope?: Omit<InfiniteSlopeSpec, 'waterRatio'> & { waterRatio?: number };
   interslice?: IntersliceFunction;
+  searchEachMethod?: boolean;
   case?: string;
   requiredFs?: number;
 }

@@ -11,6 +11,8 @@ export interface Lookup {
   inv: number;
   buckets: Int32Array;
   last: number;
+  /** The segment of the last look-up: consecutive look-ups at increasing x mostly stay in it. */
+  cursor: number;
 }
 
 /** Build a lookup with about four buckets per segment (at least 64). */
@@ -33,20 +35,23 @@ export function lookup(line: Polyline): Lookup {
     while (seg < n - 2 && xs[seg + 1] <= x) seg++;
     buckets[b] = seg;
   }
-  return { xs, ys, x0, inv, buckets, last: n - 1 };
+  return { xs, ys, x0, inv, buckets, last: n - 1, cursor: 0 };
 }
 
 /** Index of the segment holding x (clamped to the first and last segment). */
 export function segmentAt(L: Lookup, x: number): number {
   if (L.last === 0) return 0;
+  const xs = L.xs;
+  const c = L.cursor;
+  if (x >= xs[c] && x <= xs[c + 1]) return c;
+  if (c + 2 <= L.last && x > xs[c + 1] && x <= xs[c + 2]) return (L.cursor = c + 1);
   let b = ((x - L.x0) * L.inv) | 0;
   if (b < 0) b = 0;
   else if (b >= L.buckets.length) b = L.buckets.length - 1;
   let i = L.buckets[b];
-  const xs = L.xs;
   while (i < L.last - 1 && xs[i + 1] < x) i++;
   while (i > 0 && xs[i] > x) i--;
-  return i;
+  return (L.cursor = i);
 }
 
 /** Elevation at x, flat beyond the ends (as yAt). */

@@ -1,6 +1,6 @@
 import type { SliceSet } from '../slices/slice-surface';
 import type { FastGeometry, FastSection } from './fast-section';
-import { lookupSlope, lookupY } from './lookup';
+import { lookupY } from './lookup';
 
 /** Where a circle met the ground, in the section's coordinates (filled by sliceCircleFast). */
 export interface CircleEnds {
@@ -9,6 +9,8 @@ export interface CircleEnds {
 }
 
 const roots = new Float64Array(64);
+let edgeL = new Float64Array(8);
+let edgeR = new Float64Array(8);
 
 /**
  * The ends of the sliding mass above the lower arc of a circle, in the section's own
@@ -36,9 +38,10 @@ function circleEnds(G: FastGeometry, xc: number, yc: number, r: number, out: Cir
     const disc = b * b - 4 * a * c;
     if (disc < 0) continue;
     const s = Math.sqrt(disc);
-    for (const x of [(-b - s) / (2 * a), (-b + s) / (2 * a)]) {
-      if (x >= x0 && x <= x1 && x > lo && x < hi && k * x + q <= 0) roots[m++] = x;
-    }
+    const xr1 = (-b - s) / (2 * a);
+    const xr2 = (-b + s) / (2 * a);
+    if (xr1 >= x0 && xr1 <= x1 && xr1 > lo && xr1 < hi && k * xr1 + q <= 0) roots[m++] = xr1;
+    if (xr2 >= x0 && xr2 <= x1 && xr2 > lo && xr2 < hi && k * xr2 + q <= 0) roots[m++] = xr2;
   }
   roots[m++] = hi;
   // insertion sort (few points)
@@ -91,9 +94,10 @@ function baseAt(G: FastGeometry, xc: number, yc: number, r2: number, x: number):
 
 /**
  * The search's fast slicing of a circle into `n` slices of equal width, written into a
- * reusable SliceSet (sliding orientation, as sliceSurface). Weights, pore pressure and
- * strength are taken at each slice's middle (the midpoint rule, error O(1/n²)); chords run
- * between the base at the slice edges; a rigid base is followed; ponded water, surcharges,
+ * reusable SliceSet (sliding orientation, as sliceSurface). Boundaries are evaluated once
+ * at each slice edge; a slice's soil is the trapezoids between them above the chord of the
+ * base (exact where no vertex falls inside the slice, otherwise an O(1/n²) error), its pore
+ * pressure and strength are taken at the middle of the chord; a rigid base is followed; ponded water, surcharges,
  * line loads and a tension crack with water enter as in the exact slicer. The critical
  * surface the search finds is always re-evaluated with the exact slicer.
  * Returns false (and leaves `out` unusable) when the circle is not admissible.
@@ -148,67 +152,94 @@ export function sliceCircleFast(
   const w = (xb - xa) / n;
   const tops = G.tops;
   const soil = G.soil;
+  const nt = tops.length;
   const piezo = G.piezo;
   const gw = G.gw;
   const ru = G.ru;
-  let yPrevBase = baseAt(G, xc, yc, r2, xa);
-  let gPrev = lookupY(ground, xa);
+  if (edgeL.length < nt) {
+    edgeL = new Float64Array(nt);
+    edgeR = new Float64Array(nt);
+  }
+  // values at the slice edges, each edge evaluated once and shared by its two slices
+  let gL = lookupY(ground, xa);
+  let ybL = baseAt(G, xc, yc, r2, xa);
+  let pL = piezo ? lookupY(piezo, xa) : -Infinity;
+  edgeL[0] = gL;
+  for (let k = 1; k < nt; k++) edgeL[k] = lookupY(tops[k], xa);
   let total = 0;
+  const { gamma, gammaSat, c: cohesion, tanPhi, suRate, suDatum, material, strips, lines } = G;
+  const { xl, xr, yBaseL, yBaseR, yTopL, yTopR, area, weight: weights, cx, cy, porePressure } = out;
+  const outC = out.cohesion;
+  const outT = out.tanPhi;
+  const outM = out.material;
+  const { qx: outQx, qy: outQy, qm: outQm } = out;
   for (let i = 0; i < n; i++) {
     const x0 = xa + i * w;
     const x1 = i + 1 === n ? xb : xa + (i + 1) * w;
-    const xm = 0.5 * (x0 + x1);
     const b = x1 - x0;
-    const yb1 = baseAt(G, xc, yc, r2, x1);
-    const g1 = lookupY(ground, x1);
-    const ybm = baseAt(G, xc, yc, r2, xm);
-    const gm = lookupY(ground, xm);
-    out.xl[i] = x0;
-    out.xr[i] = x1;
-    out.yBaseL[i] = yPrevBase;
-    out.yBaseR[i] = yb1;
-    out.yTopL[i] = gPrev;
-    out.yTopR[i] = g1;
-    const pm = piezo ? lookupY(piezo, xm) : -Infinity;
-    // soil column at the middle
+    const xm = 0.5 * (x0 + x1);
+    const gR = lookupY(ground, x1);
+    const ybR = baseAt(G, xc, yc, r2, x1);
+    const pR = piezo ? lookupY(piezo, x1) : -Infinity;
+    edgeR[0] = gR;
+    for (let k = 1; k < nt; k++) edgeR[k] = lookupY(tops[k], x1);
+    xl[i] = x0;
+    xr[i] = x1;
+    yBaseL[i] = ybL;
+    yBaseR[i] = ybR;
+    yTopL[i] = gL;
+    yTopR[i] = gR;
+    const ybm = 0.5 * (ybL + ybR);
+    const gm = 0.5 * (gL + gR);
+    const pm = 0.5 * (pL + pR);
+    // soil above the chord, stratum by stratum: trapezoids between the edge values
     let W = 0;
     let WY = 0;
     let A = 0;
     let base = 0;
-    let top = gm;
     for (let k = 0; k < soil; k++) {
-      const next = k + 1 < tops.length ? lookupY(tops[k + 1], xm) : -Infinity;
-      if (top <= ybm) break;
-      const bottom = next > ybm ? next : ybm;
-      const t = top - bottom;
+      const tl = edgeL[k];
+      const tr = edgeR[k];
+      if (0.5 * (tl + tr) <= ybm) break;
+      const nl = k + 1 < nt ? edgeL[k + 1] : -Infinity;
+      const nr = k + 1 < nt ? edgeR[k + 1] : -Infinity;
+      const bl = nl > ybL ? nl : ybL;
+      const br = nr > ybR ? nr : ybR;
+      const hl = tl > bl ? tl - bl : 0;
+      const hr = tr > br ? tr - br : 0;
+      const t = 0.5 * (hl + hr);
+      const yMid = 0.25 * (tl + bl + tr + br);
       if (t > 0) {
-        if (pm > bottom && pm < top && G.gammaSat[k] !== G.gamma[k]) {
-          const dry = top - pm;
-          const wet = pm - bottom;
-          W += G.gamma[k] * dry + G.gammaSat[k] * wet;
-          WY += G.gamma[k] * dry * 0.5 * (top + pm) + G.gammaSat[k] * wet * 0.5 * (pm + bottom);
+        let gk = gamma[k];
+        if (piezo && gammaSat[k] !== gk) {
+          // the saturated part: below the piezometric line
+          const wl = Math.max(0, Math.min(tl, pL) - bl);
+          const wr = Math.max(0, Math.min(tr, pR) - br);
+          const wet = 0.5 * (Math.min(wl, hl) + Math.min(wr, hr));
+          const wk = gamma[k] * (t - wet) + gammaSat[k] * wet;
+          W += wk;
+          gk = wk / t;
+          WY += gk * t * yMid;
         } else {
-          const gk = pm >= top ? G.gammaSat[k] : G.gamma[k];
           W += gk * t;
-          WY += gk * t * 0.5 * (top + bottom);
+          WY += gk * t * yMid;
         }
         A += t;
       }
       base = k;
-      if (next <= ybm) break;
-      top = next;
+      if (0.5 * (nl + nr) <= ybm) break;
     }
     const weight = W * b;
-    out.area[i] = A * b;
-    out.weight[i] = weight;
-    out.cx[i] = xm;
-    out.cy[i] = W > 0 ? WY / W : 0.5 * (gm + ybm);
+    area[i] = A * b;
+    weights[i] = weight;
+    cx[i] = xm;
+    cy[i] = W > 0 ? WY / W : 0.5 * (gm + ybm);
     total += weight;
-    out.material[i] = G.material[base] ?? 0;
-    out.porePressure[i] = piezo ? (pm > ybm ? gw * (pm - ybm) : 0) : ru > 0 ? ru * W : 0;
-    const datum = G.suDatum[base];
-    out.cohesion[i] = G.c[base] + (datum > ybm ? G.suRate[base] * (datum - ybm) : 0);
-    out.tanPhi[i] = G.tanPhi[base];
+    outM[i] = base < material.length ? material[base] : 0;
+    porePressure[i] = piezo ? (pm > ybm ? gw * (pm - ybm) : 0) : ru > 0 ? ru * W : 0;
+    const datum = suDatum[base];
+    outC[i] = cohesion[base] + (datum > ybm ? suRate[base] * (datum - ybm) : 0);
+    outT[i] = tanPhi[base];
     // loads on the top
     let qx = 0;
     let qy = 0;
@@ -216,12 +247,11 @@ export function sliceCircleFast(
     if (pm > gm) {
       const h = pm - gm;
       const fy = -gw * h * b;
-      const fx = gw * h * lookupSlope(ground, xm) * b;
+      const fx = gw * h * (gR - gL);
       qx += fx;
       qy += fy;
       qm += xm * fy - gm * fx;
     }
-    const strips = G.strips;
     for (let k = 0; k < strips.length; k += 3) {
       const a = strips[k] > x0 ? strips[k] : x0;
       const c = strips[k + 1] < x1 ? strips[k + 1] : x1;
@@ -231,7 +261,6 @@ export function sliceCircleFast(
         qm += 0.5 * (a + c) * f;
       }
     }
-    const lines = G.lines;
     for (let k = 0; k < lines.length; k += 3) {
       const x = lines[k];
       if ((x >= x0 && x < x1) || (i + 1 === n && x === x1)) {
@@ -241,11 +270,15 @@ export function sliceCircleFast(
         qm += x * lines[k + 2] - yq * lines[k + 1];
       }
     }
-    out.qx[i] = qx;
-    out.qy[i] = qy;
-    out.qm[i] = qm;
-    yPrevBase = yb1;
-    gPrev = g1;
+    outQx[i] = qx;
+    outQy[i] = qy;
+    outQm[i] = qm;
+    gL = gR;
+    ybL = ybR;
+    pL = pR;
+    const swap = edgeL;
+    edgeL = edgeR;
+    edgeR = swap;
   }
   if (crackHw > 0) {
     const Pw = 0.5 * gw * crackHw * crackHw;

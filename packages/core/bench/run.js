@@ -1,0 +1,190 @@
+// Benchmarks of the solver (npm run bench). Medians over repeated runs on this machine;
+// never part of the tests. Runs on the built core (packages/core/dist).
+const { readFileSync, readdirSync } = require('node:fs');
+const { join } = require('node:path');
+const os = require('node:os');
+const { Worker } = require('node:worker_threads');
+const core = require('../dist/index.js');
+
+const ROOT = join(__dirname, '..', '..', '..');
+const EXAMPLES = join(ROOT, 'examples');
+const REPEATS = 7;
+
+const median = (xs) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : 0.5 * (s[s.length / 2 - 1] + s[s.length / 2]);
+};
+const fmt = (v, d = 0) => v.toLocaleString('en-GB', { maximumFractionDigits: d, minimumFractionDigits: d });
+const readExample = (file) => core.parseSections(readFileSync(join(EXAMPLES, file), 'utf8'), file).sections;
+
+/** Rate (per second) of `fn(k)` over about `ms` milliseconds; returns the median of REPEATS runs. */
+function rate(fn, batch, ms = 400) {
+  const rates = [];
+  for (let r = 0; r < REPEATS; r++) {
+    let n = 0;
+    const t0 = performance.now();
+    let t = t0;
+    while (t - t0 < ms) {
+      for (let k = 0; k < batch; k++) fn(n + k);
+      n += batch;
+      t = performance.now();
+    }
+    rates.push((n / (t - t0)) * 1000);
+  }
+  return median(rates);
+}
+
+function timeMs(fn, repeats = REPEATS) {
+  const ts = [];
+  for (let r = 0; r < repeats; r++) {
+    const t0 = performance.now();
+    fn();
+    ts.push(performance.now() - t0);
+  }
+  return median(ts);
+}
+
+// --- a layered section with water: the flood bank (two soils, piezometric line, ponded water)
+const levee = readExample('levee-river-side.yaml')[0];
+const SLICES = 50;
+const prepared = core.prepareSection(levee);
+const fast = core.fastSection(prepared);
+const buffer = core.sliceBuffer(SLICES + 1);
+const ends = { xa: 0, xb: 0 };
+const c0 = levee.analysis.surface;
+// trial circles around the given one: every one is admissible
+const circles = [];
+for (let i = 0; i < 40; i++) {
+  for (let j = 0; j < 25; j++) {
+    const xc = c0.center[0] + (i - 20) * 0.08;
+    const yc = c0.center[1] + (j - 12) * 0.08;
+    const r = c0.radius + (j - 12) * 0.06;
+    if (core.sliceCircleFast(fast, xc, yc, r, SLICES, buffer, ends)) circles.push([xc, yc, r]);
+  }
+}
+
+let guess = 1.2;
+const bishopRate = rate((k) => {
+  const [xc, yc, r] = circles[k % circles.length];
+  core.sliceCircleFast(fast, xc, yc, r, SLICES, buffer, ends);
+  const f = core.bishopFast(buffer, buffer.mirrored ? -xc : xc, yc, levee.seismic, guess);
+  if (f > 0) guess = f;
+}, 200);
+
+// the same arithmetic, hand-minimal, on precomputed slice arrays: the fixed-point iteration
+// F = Σ(C + N tan φ′)·aS / Σ −(N·aN + M0), N = (W′ − C sin α / F) / (cos α + sin α tan φ′ / F)
+const pre = circles.map(([xc, yc, r]) => {
+  core.sliceCircleFast(fast, xc, yc, r, SLICES, buffer, ends);
+  const st = core.statics(buffer, levee.seismic, [buffer.mirrored ? -xc : xc, yc]);
+  const n = st.n;
+  const Wv = new Float64Array(n);
+  for (let i = 0; i < n; i++) Wv[i] = -st.Hy[i];
+  return { n, sin: st.sin.slice(0, n), cos: st.cos.slice(0, n), C: st.C.slice(0, n), t: st.t.slice(0, n), Wv, aN: st.aN.slice(0, n), aS: st.aS.slice(0, n), M0: st.M0.slice(0, n) };
+});
+function kernel(p, F) {
+  for (let it = 0; it < 60; it++) {
+    const iF = 1 / F;
+    let resist = 0;
+    let drive = 0;
+    for (let i = 0; i < p.n; i++) {
+      const N = (p.Wv[i] - p.C[i] * iF * p.sin[i]) / (p.t[i] * iF * p.sin[i] + p.cos[i]);
+      resist += (p.C[i] + N * p.t[i]) * p.aS[i];
+      drive -= N * p.aN[i] + p.M0[i];
+    }
+    const next = resist / drive;
+    if (Math.abs(next - F) <= 1e-7 * next) return next;
+    F = next;
+  }
+  return F;
+}
+let kg = 1.2;
+const kernelRate = rate((k) => {
+  kg = kernel(pre[k % pre.length], kg);
+}, 200);
+
+const spencerRate = rate((k) => {
+  const [xc, yc, r] = circles[k % circles.length];
+  core.sliceCircleFast(fast, xc, yc, r, SLICES, buffer, ends);
+  core.spencer(buffer, { seismic: levee.seismic, pivot: [buffer.mirrored ? -xc : xc, yc] });
+}, 50);
+
+// --- a 5 000-circle grid search plus rigorous refinement (Spencer and Morgenstern–Price, exact slicing)
+const grid5000 = {
+  ...levee,
+  analysis: {
+    ...levee.analysis,
+    methods: ['bishop', 'spencer', 'morgenstern-price'],
+    slices: SLICES,
+    surface: { type: 'grid', centers: { nx: 20, ny: 25 }, tangents: { count: 10 }, moves: 0 },
+  },
+};
+let trials5000 = 0;
+const search5000 = timeMs(() => {
+  const r = core.analyzeSection(grid5000);
+  trials5000 = r.search.trials;
+});
+
+// --- a full auto search with rigorous evaluation on each example
+const autoRows = [];
+for (const file of readdirSync(EXAMPLES).filter((f) => f.endsWith('.yaml'))) {
+  for (const s of readExample(file)) {
+    const section = {
+      ...s,
+      analysis: { ...s.analysis, methods: ['bishop', 'spencer', 'morgenstern-price'], surface: { type: 'auto' } },
+    };
+    let result;
+    const ms = timeMs(() => {
+      result = core.analyzeSection(section);
+    }, 5);
+    autoRows.push([s.id, ms, result.search.trials, result.governing ? result.governing.fs : NaN]);
+  }
+}
+
+// --- a 300-section corridor through the core alone, on all cores (worker_threads)
+const corridor = core.parseSections(readFileSync(join(EXAMPLES, 'corridor', 'corridor.json'), 'utf8'), 'corridor.json').sections;
+const many = Array.from({ length: 300 }, (_, i) => ({ ...corridor[i % corridor.length], id: `bench-${i}` }));
+async function corridorRun(workers) {
+  const pool = Array.from({ length: workers }, () => new Worker(join(__dirname, 'worker.js')));
+  const t0 = performance.now();
+  let next = 0;
+  let done = 0;
+  await new Promise((resolve, reject) => {
+    const feed = (w) => {
+      if (next < many.length) w.postMessage(many[next++]);
+    };
+    for (const w of pool) {
+      w.on('message', () => {
+        done++;
+        if (done === many.length) resolve();
+        else feed(w);
+      });
+      w.on('error', reject);
+      feed(w);
+    }
+  });
+  const ms = performance.now() - t0;
+  await Promise.all(pool.map((w) => w.terminate()));
+  return ms;
+}
+
+(async () => {
+  const cores = os.cpus().length;
+  const corridorTimes = [];
+  for (let r = 0; r < 3; r++) corridorTimes.push(await corridorRun(cores));
+  const oneCore = await corridorRun(1);
+  const out = [];
+  out.push(`Scarpline solver benchmarks — node ${process.version}, ${cores} cores (${os.cpus()[0].model.trim()})`);
+  out.push(`medians of ${REPEATS} runs unless said otherwise; ${SLICES} slices; section: ${levee.id} (two soils, piezometric line, ponded water)`);
+  out.push('');
+  out.push(`Bishop circles per second, one core (fast slicing + Bishop):  ${fmt(bishopRate)}`);
+  out.push(`hand-minimal Bishop kernel on precomputed slice arrays:        ${fmt(kernelRate)}`);
+  out.push(`ratio solver / kernel:                                          ${fmt(bishopRate / kernelRate, 2)}`);
+  out.push(`Spencer circles per second, one core (fast slicing + Spencer): ${fmt(spencerRate)}`);
+  out.push(`grid search of ${fmt(trials5000)} trial surfaces + Spencer and Morgenstern–Price on the critical circle: ${fmt(search5000, 1)} ms`);
+  out.push('');
+  out.push('auto search (grid + ground ranges + polish) with Bishop, Spencer, Morgenstern–Price on each example (median of 5):');
+  for (const [id, ms, trials, fs] of autoRows) out.push(`  ${id.padEnd(16)} ${fmt(ms, 1).padStart(7)} ms  ${fmt(trials).padStart(6)} trials  FS ${fs.toFixed(3)}`);
+  out.push('');
+  out.push(`300-section corridor through the core, ${cores} worker threads (median of 3): ${fmt(median(corridorTimes), 0)} ms; one worker: ${fmt(oneCore, 0)} ms`);
+  console.log(out.join('\n'));
+})();
