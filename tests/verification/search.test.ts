@@ -19,6 +19,18 @@ import {
 } from '@scarpline/core';
 import { homogeneous, mohrCoulomb, relErr, undrained } from './support';
 
+/** Every section of every example file, by id. */
+function exampleSections(): [string, Section][] {
+  const dir = join(__dirname, '..', '..', 'examples');
+  return readdirSync(dir)
+    .filter((f) => f.endsWith('.yaml'))
+    .flatMap((f) =>
+      parseSections(readFileSync(join(dir, f), 'utf8'), f).sections.map(
+        (s) => [s.id, s] as [string, Section],
+      ),
+    );
+}
+
 const rigid: Material = {
   name: 'rock',
   unitWeight: 0,
@@ -206,14 +218,7 @@ describe('cohesionless slope (common practice: circles tend to the infinite slop
 });
 
 describe('search quality: within 0.5 % of a dense exhaustive search on every example', () => {
-  const dir = join(__dirname, '..', '..', 'examples');
-  const sections: [string, Section][] = readdirSync(dir)
-    .filter((f) => f.endsWith('.yaml'))
-    .flatMap((f) =>
-      parseSections(readFileSync(join(dir, f), 'utf8'), f).sections.map(
-        (s) => [s.id, s] as [string, Section],
-      ),
-    );
+  const sections = exampleSections();
   test.each(sections)('%s', (_id, given) => {
     const section: Section = {
       ...given,
@@ -322,14 +327,7 @@ describe('noncircular search', () => {
 });
 
 describe('every example finds its critical surface without a warning it should not have', () => {
-  const dir = join(__dirname, '..', '..', 'examples');
-  const sections: [string, Section][] = readdirSync(dir)
-    .filter((f) => f.endsWith('.yaml'))
-    .flatMap((f) =>
-      parseSections(readFileSync(join(dir, f), 'utf8'), f).sections.map(
-        (s) => [s.id, s] as [string, Section],
-      ),
-    );
+  const sections = exampleSections();
   test.each(sections)('%s', (_id, given) => {
     const r = analyzeSection({
       ...given,

@@ -23,6 +23,7 @@ import { type SliceOutcome, type SliceSet, sliceSurface } from './slices/slice-s
 import { refineCircle } from './search/refine-circle';
 import { type SearchOutcome, searchSection } from './search/search-section';
 import { Trials } from './search/trials';
+import type { CenterGrid } from './search/search-settings';
 
 /** The caution every result surface carries. */
 export const CAUTION =
@@ -101,12 +102,8 @@ export interface SectionResult {
   caution: string;
 }
 
-export interface GridReport {
-  x: [number, number];
-  y: [number, number];
-  nx: number;
-  ny: number;
-}
+/** A grid of circle centres, in the section's units. */
+export type GridReport = CenterGrid;
 
 /** The search, in the section's units: trials, grid moves, the FS map over the centres, the lowest surfaces. */
 export interface SearchReport {
