@@ -78,3 +78,17 @@ describe('units: a us file is answered in us units', () => {
     expect(US_TO_SI.length).toBe(ft);
   });
 });
+
+describe('a searched surface: the result carries the search and still matches the schema', () => {
+  test.each(sections)('%s', (_name, section) => {
+    const r = analyzeSection({
+      ...section,
+      analysis: { ...section.analysis, surface: { type: 'auto' } },
+    });
+    expect(validate(JSON.parse(JSON.stringify(r)))).toBe(true);
+    expect(r.search?.map?.fs.length).toBeGreaterThan(0);
+    expect(r.search?.lowest.length).toBeGreaterThan(0);
+    // the lowest trial circle is not below the governing FS by more than the fast slicing's error
+    expect(r.search!.lowest[0].fs).toBeGreaterThan(0.98 * r.governing!.fs);
+  });
+});
