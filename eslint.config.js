@@ -2,6 +2,7 @@
 const js = require('@eslint/js');
 const tseslint = require('typescript-eslint');
 const prettier = require('eslint-config-prettier');
+const globals = require('globals');
 
 module.exports = tseslint.config(
   { ignores: ['**/node_modules/**', '**/dist/**', '**/coverage/**', '**/.angular/**'] },
@@ -16,15 +17,12 @@ module.exports = tseslint.config(
     files: ['**/*.js'],
     languageOptions: {
       sourceType: 'commonjs',
-      globals: {
-        require: 'readonly',
-        module: 'writable',
-        process: 'readonly',
-        console: 'readonly',
-        __dirname: 'readonly',
-      },
+      globals: globals.node,
     },
-    rules: { '@typescript-eslint/no-require-imports': 'off' },
+    rules: {
+      '@typescript-eslint/no-require-imports': 'off',
+      'no-redeclare': ['error', { builtinGlobals: false }],
+    },
   },
   {
     rules: {

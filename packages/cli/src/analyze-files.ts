@@ -1,62 +1,38 @@
-import { readFileSync } from 'node:fs';
 import {
   CAUTION,
   analyzeSection,
   formatMessage,
   parseSections,
   type SectionResult,
+  type UnitSystem,
 } from '@scarpline/core';
 import { collectFiles } from './collect-files';
+import { convertResult } from './convert-result';
+import { analyzeCsv } from './csv';
+import { applyOverrides, type Overrides } from './overrides';
+import { readInput, STDIN_NAME, UserError } from './read-input';
+import { sectionTable } from './table';
 
-export interface AnalyzeOptions {
+export interface AnalyzeOptions extends Overrides {
   json?: boolean;
-}
-
-const fmt = (v: number | null, digits = 3) => (v === null ? '—' : v.toFixed(digits));
-
-function surfaceText(r: SectionResult['results'][number], length: string): string {
-  const s = r.surface;
-  if (!s) return '';
-  if (s.type === 'circle')
-    return `circle centre (${fmt(s.center[0], 2)}, ${fmt(s.center[1], 2)}) R ${fmt(s.radius, 2)} ${length}`;
-  if (s.type === 'polyline') return `polyline of ${s.points.length} points`;
-  if (s.type === 'log-spiral')
-    return `log spiral, pole (${fmt(s.pole[0], 2)}, ${fmt(s.pole[1], 2)})`;
-  return `plane at ${s.angle}°, ${fmt(s.depth, 2)} ${length} deep`;
-}
-
-/** A readable report of one section. */
-function table(r: SectionResult): string[] {
-  const length = r.units === 'us' ? 'ft' : 'm';
-  const lines = [`${r.id}  ${r.title}${r.case ? `  [${r.case}]` : ''}`];
-  lines.push('  method             FS       converged  surface');
-  for (const m of r.results) {
-    lines.push(
-      `  ${m.method.padEnd(18)} ${fmt(m.fs).padStart(6)}   ${(m.converged ? 'yes' : 'no').padEnd(9)}  ${m.converged ? surfaceText(m, length) : (m.reason ?? '')}`,
-    );
-  }
-  if (r.governing) {
-    const verdict = r.passes === null ? '' : r.passes ? '  PASS' : '  FAIL';
-    lines.push(
-      `  governing: ${r.governing.method} FS ${fmt(r.governing.fs)}${r.requiredFs !== null ? ` against required ${r.requiredFs}` : ''}${verdict}`,
-    );
-  } else lines.push('  governing: no method converged');
-  const seen = new Set<string>();
-  for (const m of r.results) {
-    for (const w of m.warnings) {
-      const key = `${w.code}:${w.message}`;
-      if (seen.has(key) || w.code === 'not-applicable' || w.code === 'no-convergence') continue;
-      seen.add(key);
-      lines.push(`  warning (${m.method}): ${w.message}`);
-    }
-  }
-  return lines;
+  csv?: boolean;
+  units?: UnitSystem;
 }
 
 /**
- * `scarpline analyze`: parse every file, analyse every section, print a table per section
- * (or the JSON result contract with --json). Returns the exit code: 1 when any file is
- * invalid, 2 when a section is below its required FS, 0 otherwise.
+ * The exit code of analysed sections: 1 when a file was invalid or a section has no factor
+ * of safety (no method converged), else 2 when one is below its required FS, else 0.
+ */
+export function exitCode(bad: boolean, results: readonly SectionResult[]): number {
+  if (bad || results.some((r) => r.governing === null)) return 1;
+  return results.some((r) => r.passes === false) ? 2 : 0;
+}
+
+/**
+ * `scarpline analyze`: parse every file (`-` is standard input), analyse every section with
+ * the command line's overrides, and print a table per section, or the result contract as
+ * JSON (`{ caution, sections }`), or CSV (a row per section and method). Returns the exit
+ * code (see exitCode).
  */
 export function analyzeFiles(
   paths: readonly string[],
@@ -64,28 +40,51 @@ export function analyzeFiles(
   out: (line: string) => void,
   err: (line: string) => void,
 ): number {
-  const { files, missing } = collectFiles(paths);
+  const stdin = paths.filter((p) => p === '-').length;
+  if (stdin > 1) throw new UserError('standard input (-) can be read only once');
+  const { files, missing } = collectFiles(paths.filter((p) => p !== '-'));
+  const inputs = paths.includes('-') ? [...files, '-'] : files;
   let bad = missing.length > 0;
   for (const m of missing) err(`${m}: no such file or directory`);
-  const results: SectionResult[] = [];
-  for (const file of files) {
-    const { sections, messages } = parseSections(readFileSync(file, 'utf8'), file);
-    for (const m of messages) err(formatMessage(m));
+  const results: { file: string; result: SectionResult }[] = [];
+  for (const file of inputs) {
+    let input: { name: string; text: string };
+    try {
+      input = readInput(file);
+    } catch (e) {
+      err(e instanceof Error ? e.message : String(e));
+      bad = true;
+      continue;
+    }
+    // standard input: YAML reads JSON too
+    const { sections, messages } = parseSections(
+      input.text,
+      input.name === STDIN_NAME ? 'stdin.yaml' : input.name,
+    );
+    for (const m of messages) err(formatMessage({ ...m, file: input.name }));
     if (messages.some((m) => m.severity === 'error')) {
       bad = true;
       continue;
     }
-    for (const s of sections) results.push(analyzeSection(s));
+    for (const s of sections) {
+      let r = analyzeSection(applyOverrides(s, options));
+      if (options.units) r = convertResult(r, options.units);
+      results.push({ file: input.name, result: r });
+    }
   }
   if (options.json) {
-    out(JSON.stringify({ caution: CAUTION, sections: results }, null, 2));
+    out(JSON.stringify({ caution: CAUTION, sections: results.map((r) => r.result) }, null, 2));
+  } else if (options.csv) {
+    out(analyzeCsv(results).replace(/\n$/, ''));
   } else {
-    for (const r of results) {
-      for (const line of table(r)) out(line);
+    for (const { result } of results) {
+      for (const line of sectionTable(result)) out(line);
       out('');
     }
     out(`Caution: ${CAUTION}`);
   }
-  if (bad) return 1;
-  return results.some((r) => r.passes === false) ? 2 : 0;
+  return exitCode(
+    bad,
+    results.map((r) => r.result),
+  );
 }

@@ -1,19 +1,52 @@
 #!/usr/bin/env node
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { Command } from 'commander';
+import { Command, Option } from 'commander';
+import type { UnitSystem } from '@scarpline/core';
 import { analyzeFiles } from './analyze-files';
+import { runBatch } from './batch/run-batch';
+import { initFile, STARTERS } from './init-file';
+import { checkOverrides } from './overrides';
+import { plotFile } from './plot-file';
+import { UserError } from './read-input';
 import { validateFiles } from './validate-files';
 
 const { version } = JSON.parse(readFileSync(join(__dirname, '..', 'package.json'), 'utf8')) as {
   version: string;
 };
 
+const EXIT = `
+Exit status: 0 when every section meets its required FS, 2 when at least one is below it,
+1 when an input is invalid or a section has no factor of safety (no method converged).`;
+
+const collect = (v: string, all: string[] = []) => [...all, v];
+const print = (line: string) => console.log(line);
+const printErr = (line: string) => console.error(line);
+
+/** The options that replace the file's analysis settings. */
+function withOverrides(cmd: Command): Command {
+  return cmd
+    .option(
+      '-m, --method <ids>',
+      "methods to run instead of the file's (comma list or repeated): ordinary, bishop, janbu, spencer, morgenstern-price, swedish-circle, log-spiral, infinite-slope",
+      collect,
+    )
+    .option('--slices <n>', "number of slices instead of the file's")
+    .option('--required-fs <fs>', "required factor of safety instead of the file's");
+}
+
+const units = () =>
+  new Option(
+    '--units <system>',
+    'units of the output: si (m, kN/m, kPa) or us (ft, lbf/ft, psf)',
+  ).choices(['si', 'us']);
+
 const program = new Command();
 program
   .name('scarpline')
   .description('Slope-stability analysis of cross-sections along road, rail and levee corridors.')
-  .version(version, '-V, --version', 'print the version');
+  .version(version, '-V, --version', 'print the version')
+  .showHelpAfterError('(add --help for the options and an example)');
 
 program
   .command('validate')
@@ -28,45 +61,210 @@ Example:
 Exit status: 0 when every file is valid, 1 otherwise.`,
   )
   .action((files: string[]) => {
-    process.exitCode = validateFiles(files, (line) => console.log(line));
+    process.exitCode = validateFiles(files, print);
   });
 
-program
-  .command('analyze')
-  .description('analyse section files: factor of safety per method, governing FS, warnings')
-  .argument(
-    '<file...>',
-    'section or batch files (YAML or JSON); a directory means every file in it',
-  )
-  .option('--json', 'print the result contract as JSON')
+withOverrides(
+  program
+    .command('analyze')
+    .description(
+      'analyse section files: factor of safety per method, governing FS against the required FS, warnings',
+    )
+    .argument(
+      '<file...>',
+      'section or batch files (YAML or JSON); a directory means every file in it; - reads standard input',
+    ),
+)
+  .option('--json', 'print the result contract as JSON: { caution, sections }')
+  .option('--csv', 'print CSV: a row per section and method')
+  .addOption(units())
   .addHelpText(
     'after',
     `
-Example:
+Examples:
   $ scarpline analyze examples/cut-homogeneous.yaml
   $ scarpline analyze examples/levee-river-side.yaml --json > levee.json
-
-Exit status: 0 when every section passes its required FS, 2 when one is below it,
-1 when a file is invalid.`,
+  $ scarpline analyze examples/*.yaml --csv --method bishop,spencer --slices 60
+  $ cat section.yaml | scarpline analyze - --units us
+${EXIT}`,
   )
-  .action((files: string[], opts: { json?: boolean }) => {
-    process.exitCode = analyzeFiles(
-      files,
-      opts,
-      (line) => console.log(line),
-      (line) => console.error(line),
-    );
+  .action(
+    (
+      files: string[],
+      opts: {
+        json?: boolean;
+        csv?: boolean;
+        units?: UnitSystem;
+        method?: string[];
+        slices?: string;
+        requiredFs?: string;
+      },
+    ) => {
+      if (opts.json && opts.csv) throw new UserError('give --json or --csv, not both');
+      process.exitCode = analyzeFiles(
+        files,
+        { json: opts.json, csv: opts.csv, units: opts.units, ...checkOverrides(opts) },
+        print,
+        printErr,
+      );
+    },
+  );
+
+withOverrides(
+  program
+    .command('batch')
+    .description(
+      'analyse a corridor (a batch file, or a GeoJSON FeatureCollection of section lines) on every core',
+    )
+    .argument(
+      '<corridor>',
+      'a batch file (format scarpline-batch/1, JSON or YAML) or a GeoJSON corridor',
+    ),
+)
+  .option(
+    '-o, --out <dir>',
+    'write results.json, results.csv, results.geojson, chainage.svg and sections/<id>.svg there',
+  )
+  .option('-j, --jobs <n>', 'worker threads (default: one per core)')
+  .option(
+    '-t, --template <file>',
+    'GeoJSON corridor: the corridor settings (id, units, template) from this file instead of the collection\'s "scarpline" member',
+  )
+  .option('--no-svg', 'do not draw a section SVG per station')
+  .addOption(units())
+  .addHelpText(
+    'after',
+    `
+Examples:
+  $ scarpline batch examples/corridor/corridor.json --out results/
+  $ scarpline batch sections.geojson --template corridor-settings.yaml --out results/ --jobs 4
+
+A terminal gets a progress bar; otherwise a line per section goes to standard error.
+Ctrl-C stops the workers and closes the files with the sections finished so far.
+${EXIT}
+130 when interrupted.`,
+  )
+  .action(
+    async (
+      file: string,
+      opts: {
+        out?: string;
+        jobs?: string;
+        template?: string;
+        svg?: boolean;
+        units?: UnitSystem;
+        method?: string[];
+        slices?: string;
+        requiredFs?: string;
+      },
+    ) => {
+      const jobs = opts.jobs === undefined ? undefined : Number(opts.jobs);
+      if (jobs !== undefined && (!Number.isInteger(jobs) || jobs < 1))
+        throw new UserError(`--jobs: ${opts.jobs} is not a whole number of 1 or more`);
+      process.exitCode = await runBatch(
+        file,
+        {
+          out: opts.out,
+          template: opts.template,
+          svg: opts.svg,
+          units: opts.units,
+          ...checkOverrides(opts),
+          jobs,
+          tty: process.stderr.isTTY === true,
+        },
+        print,
+        printErr,
+      );
+    },
+  );
+
+withOverrides(
+  program
+    .command('plot')
+    .description('draw the cross-section with its critical surfaces as SVG')
+    .argument(
+      '<file>',
+      'a section file (or a batch, or a GeoJSON corridor; - reads standard input)',
+    ),
+)
+  .requiredOption('--svg <out>', 'the SVG file to write (several sections: OUT-<id>.svg each)')
+  .option('-s, --section <id>', 'draw only this section of the file')
+  .option('--width <px>', 'width of the drawing in pixels', '1100')
+  .addHelpText(
+    'after',
+    `
+Examples:
+  $ scarpline plot examples/levee-river-side.yaml --svg levee.svg
+  $ scarpline plot examples/embankment-stages.yaml --svg stages.svg --section wcb-2940-R-lt
+
+Exit status: 0 when drawn, 1 when the file is invalid.`,
+  )
+  .action(
+    (
+      file: string,
+      opts: {
+        svg: string;
+        section?: string;
+        width: string;
+        method?: string[];
+        slices?: string;
+        requiredFs?: string;
+      },
+    ) => {
+      const width = Number(opts.width);
+      if (!Number.isFinite(width) || width < 640)
+        throw new UserError(`--width: ${opts.width} is not a number of pixels of 640 or more`);
+      process.exitCode = plotFile(
+        file,
+        { svg: opts.svg, section: opts.section, ...checkOverrides(opts), width },
+        print,
+        printErr,
+      );
+    },
+  );
+
+program
+  .command('init')
+  .description('write a commented starter section file')
+  .argument('[file]', 'the file to write (default <kind>.yaml; - prints it)')
+  .addOption(
+    new Option('-k, --kind <kind>', 'the kind of slope')
+      .choices(Object.keys(STARTERS))
+      .default('cut'),
+  )
+  .option('-f, --force', 'replace the file if it exists')
+  .addHelpText(
+    'after',
+    `
+Examples:
+  $ scarpline init --kind levee my-levee.yaml
+  $ scarpline init --kind sand-fill - | scarpline analyze -
+
+Exit status: 0 when written, 1 otherwise.`,
+  )
+  .action((file: string | undefined, opts: { kind: string; force?: boolean }) => {
+    process.exitCode = initFile(opts.kind, file, opts.force === true, print);
   });
 
 program.addHelpText(
   'after',
   `
 Examples:
+  $ scarpline init --kind cut my-cut.yaml
   $ scarpline validate examples/*
-  $ scarpline analyze examples/cut-homogeneous.yaml`,
+  $ scarpline analyze examples/cut-homogeneous.yaml
+  $ scarpline plot examples/levee-river-side.yaml --svg levee.svg
+  $ scarpline batch examples/corridor/corridor.json --out results/
+${EXIT}`,
 );
 
+program.exitOverride((e) => {
+  // commander's own exits: help and version are 0, usage errors 1
+  process.exit(e.exitCode === 0 ? 0 : 1);
+});
+
 program.parseAsync(process.argv).catch((e: unknown) => {
-  console.error(`scarpline: ${e instanceof Error ? e.message : String(e)}`);
+  if (e instanceof UserError) console.error(`scarpline: ${e.message}`);
+  else console.error(`scarpline: internal error: ${e instanceof Error ? e.message : String(e)}`);
   process.exitCode = 1;
 });

@@ -14,8 +14,10 @@ const median = (xs) => {
   const s = [...xs].sort((a, b) => a - b);
   return s.length % 2 ? s[(s.length - 1) / 2] : 0.5 * (s[s.length / 2 - 1] + s[s.length / 2]);
 };
-const fmt = (v, d = 0) => v.toLocaleString('en-GB', { maximumFractionDigits: d, minimumFractionDigits: d });
-const readExample = (file) => core.parseSections(readFileSync(join(EXAMPLES, file), 'utf8'), file).sections;
+const fmt = (v, d = 0) =>
+  v.toLocaleString('en-GB', { maximumFractionDigits: d, minimumFractionDigits: d });
+const readExample = (file) =>
+  core.parseSections(readFileSync(join(EXAMPLES, file), 'utf8'), file).sections;
 
 /** Rate (per second) of `fn(k)` over about `ms` milliseconds; returns the median of REPEATS runs. */
 function rate(fn, batch, ms = 400) {
@@ -79,7 +81,17 @@ const pre = circles.map(([xc, yc, r]) => {
   const n = st.n;
   const Wv = new Float64Array(n);
   for (let i = 0; i < n; i++) Wv[i] = -st.Hy[i];
-  return { n, sin: st.sin.slice(0, n), cos: st.cos.slice(0, n), C: st.C.slice(0, n), t: st.t.slice(0, n), Wv, aN: st.aN.slice(0, n), aS: st.aS.slice(0, n), M0: st.M0.slice(0, n) };
+  return {
+    n,
+    sin: st.sin.slice(0, n),
+    cos: st.cos.slice(0, n),
+    C: st.C.slice(0, n),
+    t: st.t.slice(0, n),
+    Wv,
+    aN: st.aN.slice(0, n),
+    aS: st.aS.slice(0, n),
+    M0: st.M0.slice(0, n),
+  };
 });
 function kernel(p, F) {
   for (let it = 0; it < 60; it++) {
@@ -130,7 +142,11 @@ for (const file of readdirSync(EXAMPLES).filter((f) => f.endsWith('.yaml'))) {
   for (const s of readExample(file)) {
     const section = {
       ...s,
-      analysis: { ...s.analysis, methods: ['bishop', 'spencer', 'morgenstern-price'], surface: { type: 'auto' } },
+      analysis: {
+        ...s.analysis,
+        methods: ['bishop', 'spencer', 'morgenstern-price'],
+        surface: { type: 'auto' },
+      },
     };
     let result;
     const ms = timeMs(() => {
@@ -141,8 +157,14 @@ for (const file of readdirSync(EXAMPLES).filter((f) => f.endsWith('.yaml'))) {
 }
 
 // --- a 300-section corridor through the core alone, on all cores (worker_threads)
-const corridor = core.parseSections(readFileSync(join(EXAMPLES, 'corridor', 'corridor.json'), 'utf8'), 'corridor.json').sections;
-const many = Array.from({ length: 300 }, (_, i) => ({ ...corridor[i % corridor.length], id: `bench-${i}` }));
+const corridor = core.parseSections(
+  readFileSync(join(EXAMPLES, 'corridor', 'corridor.json'), 'utf8'),
+  'corridor.json',
+).sections;
+const many = Array.from({ length: 300 }, (_, i) => ({
+  ...corridor[i % corridor.length],
+  id: `bench-${i}`,
+}));
 async function corridorRun(workers) {
   const pool = Array.from({ length: workers }, () => new Worker(join(__dirname, 'worker.js')));
   const t0 = performance.now();
@@ -173,18 +195,33 @@ async function corridorRun(workers) {
   for (let r = 0; r < 3; r++) corridorTimes.push(await corridorRun(cores));
   const oneCore = await corridorRun(1);
   const out = [];
-  out.push(`Scarpline solver benchmarks — node ${process.version}, ${cores} cores (${os.cpus()[0].model.trim()})`);
-  out.push(`medians of ${REPEATS} runs unless said otherwise; ${SLICES} slices; section: ${levee.id} (two soils, piezometric line, ponded water)`);
+  out.push(
+    `Scarpline solver benchmarks — node ${process.version}, ${cores} cores (${os.cpus()[0].model.trim()})`,
+  );
+  out.push(
+    `medians of ${REPEATS} runs unless said otherwise; ${SLICES} slices; section: ${levee.id} (two soils, piezometric line, ponded water)`,
+  );
   out.push('');
   out.push(`Bishop circles per second, one core (fast slicing + Bishop):  ${fmt(bishopRate)}`);
   out.push(`hand-minimal Bishop kernel on precomputed slice arrays:        ${fmt(kernelRate)}`);
-  out.push(`ratio solver / kernel:                                          ${fmt(bishopRate / kernelRate, 2)}`);
+  out.push(
+    `ratio solver / kernel:                                          ${fmt(bishopRate / kernelRate, 2)}`,
+  );
   out.push(`Spencer circles per second, one core (fast slicing + Spencer): ${fmt(spencerRate)}`);
-  out.push(`grid search of ${fmt(trials5000)} trial surfaces + Spencer and Morgenstern–Price on the critical circle: ${fmt(search5000, 1)} ms`);
+  out.push(
+    `grid search of ${fmt(trials5000)} trial surfaces + Spencer and Morgenstern–Price on the critical circle: ${fmt(search5000, 1)} ms`,
+  );
   out.push('');
-  out.push('auto search (grid + ground ranges + polish) with Bishop, Spencer, Morgenstern–Price on each example (median of 5):');
-  for (const [id, ms, trials, fs] of autoRows) out.push(`  ${id.padEnd(16)} ${fmt(ms, 1).padStart(7)} ms  ${fmt(trials).padStart(6)} trials  FS ${fs.toFixed(3)}`);
+  out.push(
+    'auto search (grid + ground ranges + polish) with Bishop, Spencer, Morgenstern–Price on each example (median of 5):',
+  );
+  for (const [id, ms, trials, fs] of autoRows)
+    out.push(
+      `  ${id.padEnd(16)} ${fmt(ms, 1).padStart(7)} ms  ${fmt(trials).padStart(6)} trials  FS ${fs.toFixed(3)}`,
+    );
   out.push('');
-  out.push(`300-section corridor through the core, ${cores} worker threads (median of 3): ${fmt(median(corridorTimes), 0)} ms; one worker: ${fmt(oneCore, 0)} ms`);
+  out.push(
+    `300-section corridor through the core, ${cores} worker threads (median of 3): ${fmt(median(corridorTimes), 0)} ms; one worker: ${fmt(oneCore, 0)} ms`,
+  );
   console.log(out.join('\n'));
 })();

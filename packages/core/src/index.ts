@@ -85,3 +85,16 @@ export {
   type Warning,
   type GridReport,
 } from './analyze';
+
+// --- drawing and corridor input
+export { drawSection, type DrawableResult, type DrawSectionOptions } from './draw/draw-section';
+export { drawChainage, type ChainagePoint, type DrawChainageOptions } from './draw/draw-chainage';
+export { chainageLabel } from './draw/chainage-label';
+export type { SearchReport, SearchGrid } from './draw/types';
+export {
+  parseGeoJsonCorridor,
+  isGeoJsonCorridor,
+  type ParsedCorridor,
+  type CorridorFeature,
+  type HeaderFile,
+} from './input/geojson-corridor';

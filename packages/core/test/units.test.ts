@@ -93,9 +93,9 @@ describe('rawSectionToSi', () => {
   };
   const si = rawSectionToSi(raw);
 
-  test('lengths in m, angles unchanged', () => {
-    expectExact(si.station!, 1000 * FT);
-    expectExact(si.offset!, 10 * FT);
+  test('lengths in m, angles unchanged; station and offset stay the labels they are', () => {
+    expect(si.station).toBe(1000);
+    expect(si.offset).toBe(10);
     expectExact(si.ground[1][0], 50 * FT);
     expectExact(si.ground[1][1], 125 * FT);
     expectExact(si.strata[1].top as number, 95 * FT);

@@ -178,7 +178,7 @@ export interface Section {
   format: 'scarpline/1';
   id: string;
   title: string;
-  /** Chainage as given in the file (a label: not converted). */
+  /** Chainage and offset as given in the file (labels placing the section on the corridor: not converted). */
   station: number | null;
   offset: number | null;
   /** The units of the file it came from; results are reported back in these. */

@@ -104,8 +104,7 @@ export function rawSectionToSi(raw: RawSection): RawSection {
   const P = US_TO_SI.pressure;
   const G = US_TO_SI.unitWeight;
 
-  if (copy.station !== undefined) copy.station *= L;
-  if (copy.offset !== undefined) copy.offset *= L;
+  // station (chainage) and offset place the section on the corridor: labels, kept as given
   copy.ground = copy.ground.map((p) => pointToSi(p, L));
   for (const m of Object.values(copy.materials)) {
     if (m.unitWeight !== undefined) m.unitWeight *= G;

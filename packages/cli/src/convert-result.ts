@@ -1,0 +1,93 @@
+import {
+  fromSi,
+  toSi,
+  type DrawableResult,
+  type MethodReport,
+  type Point,
+  type QuantityKind,
+  type ReportedSurface,
+  type SearchGrid,
+  type UnitSystem,
+} from '@scarpline/core';
+
+/**
+ * A section result with every value converted to another unit system (`--units`): lengths,
+ * forces per run and pressures of the methods, slices, surfaces and the search. Angles, FS,
+ * λ and ratios do not change. The words of warnings are left as the solver wrote them.
+ *
+ * @example convertResult(result, 'us').results[0].surface // → the circle in feet
+ */
+export function convertResult<T extends DrawableResult>(r: T, to: UnitSystem): T {
+  const from = r.units;
+  if (from === to) return r;
+  const c = (v: number, kind: QuantityKind) => fromSi(toSi(v, kind, from), kind, to);
+  const L = (v: number) => c(v, 'length');
+  const F = (v: number) => c(v, 'forcePerLength');
+  const pt = (p: Point): Point => [L(p[0]), L(p[1])];
+  const surface = (s: ReportedSurface | null): ReportedSurface | null => {
+    if (!s) return s;
+    if (s.type === 'circle') return { ...s, center: pt(s.center), radius: L(s.radius) };
+    if (s.type === 'polyline') return { ...s, points: s.points.map(pt) };
+    if (s.type === 'plane') return { ...s, depth: L(s.depth) };
+    return { ...s, pole: pt(s.pole), r0: L(s.r0), r1: L(s.r1), points: s.points.map(pt) };
+  };
+  const grid = (g: SearchGrid): SearchGrid => ({
+    ...g,
+    x: [L(g.x[0]), L(g.x[1])],
+    y: [L(g.y[0]), L(g.y[1])],
+  });
+  const method = (m: MethodReport): MethodReport => ({
+    ...m,
+    surface: surface(m.surface),
+    ...(m.base ? { base: m.base.map(pt) } : {}),
+    ...(m.ends ? { ends: { upper: pt(m.ends.upper), lower: pt(m.ends.lower) } } : {}),
+    ...(m.crack
+      ? {
+          crack: {
+            x: L(m.crack.x),
+            depth: L(m.crack.depth),
+            waterDepth: L(m.crack.waterDepth),
+            waterForce: F(m.crack.waterForce),
+          },
+        }
+      : {}),
+    slices: m.slices.map((s) => ({
+      ...s,
+      x: L(s.x),
+      width: L(s.width),
+      baseLength: L(s.baseLength),
+      weight: F(s.weight),
+      porePressure: c(s.porePressure, 'pressure'),
+      normal: F(s.normal),
+      shear: F(s.shear),
+      interslice: {
+        E: F(s.interslice.E),
+        X: F(s.interslice.X),
+        thrust: s.interslice.thrust === null ? null : L(s.interslice.thrust),
+      },
+    })),
+    ...(m.massWeight !== undefined ? { massWeight: F(m.massWeight) } : {}),
+    ...(m.leverArm !== undefined ? { leverArm: L(m.leverArm) } : {}),
+  });
+  const search = r.search
+    ? {
+        ...r.search,
+        moves: r.search.moves.map((mv) => ({ ...mv, grid: grid(mv.grid) })),
+        grid: r.search.grid ? grid(r.search.grid) : null,
+        map: r.search.map
+          ? { ...r.search.map, xs: r.search.map.xs.map(L), ys: r.search.map.ys.map(L) }
+          : null,
+        lowest: r.search.lowest.map((l) => ({
+          ...l,
+          surface: surface(l.surface) as ReportedSurface,
+        })),
+      }
+    : r.search;
+  return {
+    ...r,
+    units: to,
+    station: r.station === null ? null : L(r.station),
+    results: r.results.map(method),
+    ...(r.search !== undefined ? { search } : {}),
+  };
+}

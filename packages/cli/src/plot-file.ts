@@ -1,0 +1,78 @@
+import { writeFileSync } from 'node:fs';
+import {
+  analyzeSection,
+  drawSection,
+  formatMessage,
+  isGeoJsonCorridor,
+  parseGeoJsonCorridor,
+  parseSections,
+  type Section,
+} from '@scarpline/core';
+import { applyOverrides, type Overrides } from './overrides';
+import { readInput, STDIN_NAME, UserError } from './read-input';
+
+export interface PlotOptions extends Overrides {
+  svg: string;
+  section?: string;
+  width?: number;
+}
+
+/** The file name for one of several sections: `out.svg` → `out-<id>.svg`. */
+export const svgNameFor = (out: string, id: string): string =>
+  out.replace(/(\.svg)?$/i, `-${id.replace(/[^A-Za-z0-9._+@-]/g, '_')}.svg`);
+
+/** The sections of any input file: a section file, a batch, or a GeoJSON corridor. */
+export function readSections(file: string): {
+  name: string;
+  sections: Section[];
+  errors: string[];
+  warnings: string[];
+} {
+  const input = readInput(file);
+  const parsed = isGeoJsonCorridor(input.text)
+    ? parseGeoJsonCorridor(input.text, input.name)
+    : parseSections(input.text, input.name === STDIN_NAME ? 'stdin.yaml' : input.name);
+  const line = (m: (typeof parsed.messages)[number]) =>
+    formatMessage(m.file === 'stdin.yaml' ? { ...m, file: STDIN_NAME } : m);
+  return {
+    name: input.name,
+    sections: parsed.sections,
+    errors: parsed.messages.filter((m) => m.severity === 'error').map(line),
+    warnings: parsed.messages.filter((m) => m.severity === 'warning').map(line),
+  };
+}
+
+/**
+ * `scarpline plot`: analyse the section(s) of a file and write the cross-section drawing as
+ * SVG: one section to `--svg OUT`, several to `OUT-<id>.svg` each (or the one `--section ID`
+ * names). Returns the exit code: 0 when drawn, 1 on bad input.
+ */
+export function plotFile(
+  file: string,
+  options: PlotOptions,
+  out: (line: string) => void,
+  err: (line: string) => void,
+): number {
+  const { sections, errors, warnings } = readSections(file);
+  for (const m of [...errors, ...warnings]) err(m);
+  if (errors.length) return 1;
+  let chosen = sections;
+  if (options.section) {
+    chosen = sections.filter((s) => s.id === options.section);
+    if (chosen.length === 0)
+      throw new UserError(
+        `--section: no section ${JSON.stringify(options.section)} in ${file}; it has ${sections.map((s) => s.id).join(', ')}`,
+      );
+  }
+  for (const s of chosen) {
+    const section = applyOverrides(s, options);
+    const result = analyzeSection(section);
+    const path = chosen.length === 1 ? options.svg : svgNameFor(options.svg, s.id);
+    writeFileSync(path, `${drawSection(section, result, { width: options.width })}\n`);
+    const fs = result.governing
+      ? `governing FS ${result.governing.fs.toFixed(3)} (${result.governing.method})`
+      : 'no method converged';
+    out(`wrote ${path}: ${s.id}, ${fs}`);
+  }
+  return 0;
+}

@@ -1,0 +1,60 @@
+import { UNIT_LABELS, type MethodReport, type SectionResult } from '@scarpline/core';
+
+const fmt = (v: number | null, digits = 3) => (v === null ? '—' : v.toFixed(digits));
+
+/** A method's slip surface in words: "circle centre (18.00, 51.00) R 12.50 m". */
+export function surfaceText(m: MethodReport, length: string): string {
+  const s = m.surface;
+  if (!s) return '';
+  if (s.type === 'circle')
+    return `circle centre (${fmt(s.center[0], 2)}, ${fmt(s.center[1], 2)}) R ${fmt(s.radius, 2)} ${length}`;
+  if (s.type === 'polyline') return `polyline of ${s.points.length} points`;
+  if (s.type === 'log-spiral')
+    return `log spiral, pole (${fmt(s.pole[0], 2)}, ${fmt(s.pole[1], 2)})`;
+  return `plane at ${s.angle}°, ${fmt(s.depth, 2)} ${length} deep`;
+}
+
+/** The verdict of a section in words: PASS, FAIL, or why there is none. */
+export function verdict(r: SectionResult): string {
+  if (!r.governing) return 'NO RESULT';
+  if (r.passes === null) return 'no required FS';
+  return r.passes ? 'PASS' : 'FAIL';
+}
+
+/**
+ * A readable report of one section: a row per method (FS, converged, surface or the reason
+ * it gave none), the governing FS against the required FS with PASS or FAIL, and the
+ * warnings in plain words, each once.
+ *
+ * @example sectionTable(result) // → ['wcb-1240-L  Wendlecombe bypass, …', '  method  FS …', …]
+ */
+export function sectionTable(r: SectionResult): string[] {
+  const length = UNIT_LABELS[r.units].length;
+  const lines = [`${r.id}  ${r.title}${r.case ? `  [${r.case}]` : ''}`];
+  lines.push('  method             FS       converged  surface');
+  for (const m of r.results) {
+    lines.push(
+      `  ${m.method.padEnd(18)} ${fmt(m.fs).padStart(6)}   ${(m.converged ? 'yes' : 'no').padEnd(9)}  ${m.converged ? surfaceText(m, length) : (m.reason ?? '')}`,
+    );
+  }
+  if (r.governing) {
+    const v = r.passes === null ? '' : r.passes ? '  PASS' : '  FAIL';
+    lines.push(
+      `  governing: ${r.governing.method} FS ${fmt(r.governing.fs)}${r.requiredFs !== null ? ` against required ${r.requiredFs}` : ' (no required FS given)'}${v}`,
+    );
+  } else lines.push('  governing: no method converged: no factor of safety for this section');
+  const seen = new Set<string>();
+  for (const m of r.results) {
+    for (const w of m.warnings) {
+      const key = `${w.code}:${w.message}`;
+      if (seen.has(key) || w.code === 'not-applicable' || w.code === 'no-convergence') continue;
+      seen.add(key);
+      lines.push(`  warning (${m.method}): ${w.message}`);
+    }
+  }
+  for (const w of r.warnings) {
+    if (w.code === 'no-convergence') continue;
+    lines.push(`  warning: ${w.message}`);
+  }
+  return lines;
+}

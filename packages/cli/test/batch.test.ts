@@ -1,0 +1,216 @@
+import { spawn } from 'node:child_process';
+import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { parse } from 'csv-parse/sync';
+import { XMLValidator } from 'fast-xml-parser';
+import Ajv2020 from 'ajv/dist/2020';
+import { resultSchema } from '@scarpline/schemas';
+import { FIXTURES, MAIN, ROOT, run } from './run';
+
+const validate = new Ajv2020({ strict: false }).compile(resultSchema);
+const tmp = () => mkdtempSync(join(tmpdir(), 'scarpline-batch-'));
+
+/** The structure RFC 7946 asks of a FeatureCollection (sections 3.1–3.3). */
+function expectFeatureCollection(doc: {
+  type: string;
+  features: {
+    type: string;
+    geometry: { type: string; coordinates: unknown } | null;
+    properties: unknown;
+  }[];
+}) {
+  expect(doc.type).toBe('FeatureCollection');
+  expect(Array.isArray(doc.features)).toBe(true);
+  for (const f of doc.features) {
+    expect(f.type).toBe('Feature');
+    expect(typeof f.properties === 'object' && f.properties !== null).toBe(true);
+    if (f.geometry === null) continue;
+    expect(f.geometry.type).toBe('LineString');
+    const c = f.geometry.coordinates as number[][];
+    expect(c.length).toBeGreaterThanOrEqual(2);
+    for (const p of c) {
+      expect(p.length).toBeGreaterThanOrEqual(2);
+      for (const v of p) expect(typeof v).toBe('number');
+    }
+  }
+}
+
+describe('scarpline batch', () => {
+  const out = tmp();
+  const r = run(['batch', join(FIXTURES, 'small-corridor.yaml'), '--out', out, '--jobs', '2']);
+
+  test('a broken section is reported, located, and the others still finish (exit 1)', () => {
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(
+      /small-corridor\.yaml:28:\d+ sections\[2\]\.ground\[2\]: x = 15 does not increase/,
+    );
+    expect(r.out).toMatch(/1200 +wcb-test@1200 +bishop +\d\.\d{3} +1\.3 +PASS/);
+    expect(r.out).toMatch(/1240 +wcb-test@1240 .*ERROR/);
+    expect(r.out).toMatch(/1260 +wcb-test@1260 +bishop +\d\.\d{3} +1\.7 +FAIL/);
+    expect(r.out).toContain('4 of 4 sections: 2 pass, 1 below the required FS');
+    expect(r.out).toMatch(/Caution: /);
+    // not a terminal: a plain line per section on standard error
+    expect(r.err.match(/^\[\d\/4\] /gm)).toHaveLength(4);
+  });
+
+  test('results.json: the caution, every analysed section valid against the result schema, in station order', () => {
+    const doc = JSON.parse(readFileSync(join(out, 'results.json'), 'utf8')) as {
+      caution: string;
+      sections: { id: string }[];
+      failures: { id: string }[];
+      complete: boolean;
+    };
+    expect(doc.caution).toMatch(/qualified geotechnical engineer/);
+    expect(doc.sections.map((s) => s.id)).toEqual([
+      'wcb-test@1200',
+      'wcb-test@1220',
+      'wcb-test@1260',
+    ]);
+    for (const s of doc.sections) expect(validate(s)).toBe(true);
+    expect(doc.failures.map((f) => f.id)).toEqual(['wcb-test@1240']);
+    expect(doc.complete).toBe(true);
+  });
+
+  test('results.csv: station, governing method, FS, required, pass (and status, note, caution)', () => {
+    const rows = parse(readFileSync(join(out, 'results.csv'), 'utf8'), { columns: true }) as Record<
+      string,
+      string
+    >[];
+    expect(Object.keys(rows[0])).toEqual([
+      'station',
+      'id',
+      'case',
+      'governing_method',
+      'fs',
+      'required_fs',
+      'pass',
+      'status',
+      'note',
+      'caution',
+    ]);
+    expect(rows.map((x) => [x.station, x.status, x.pass])).toEqual([
+      ['1200', 'pass', 'true'],
+      ['1220', 'pass', 'true'],
+      ['1240', 'error', ''],
+      ['1260', 'fail', 'false'],
+    ]);
+    expect(Number(rows[3].fs)).toBeLessThan(Number(rows[3].required_fs));
+    for (const x of rows) expect(x.caution).toMatch(/licensed practice/);
+  });
+
+  test('results.geojson from a YAML batch: unlocated features (geometry null) keyed by station', () => {
+    const doc = JSON.parse(readFileSync(join(out, 'results.geojson'), 'utf8'));
+    expectFeatureCollection(doc);
+    expect(doc.features).toHaveLength(4);
+    expect(doc.features.every((f: { geometry: unknown }) => f.geometry === null)).toBe(true);
+    expect(doc.features[0].properties).toMatchObject({
+      station: 1200,
+      fs_method: 'bishop',
+      passes: true,
+      status: 'pass',
+    });
+    expect(doc.features[0].properties.caution).toMatch(/qualified/);
+  });
+
+  test('an SVG per analysed section and the FS along the chainage, all well-formed', () => {
+    const svgs = readdirSync(join(out, 'sections')).sort();
+    expect(svgs).toEqual(['wcb-test@1200.svg', 'wcb-test@1220.svg', 'wcb-test@1260.svg']);
+    for (const f of svgs)
+      expect(XMLValidator.validate(readFileSync(join(out, 'sections', f), 'utf8'))).toBe(true);
+    const chainage = readFileSync(join(out, 'chainage.svg'), 'utf8');
+    expect(XMLValidator.validate(chainage)).toBe(true);
+    expect(chainage).toContain('class="required"');
+    expect(chainage.match(/class="below"/g)).toHaveLength(1);
+    expect(chainage).toMatch(/Caution: Results are for review/);
+  });
+
+  test('a GeoJSON corridor: the input lines come back with FS properties; errors located in it', () => {
+    const dir = tmp();
+    const g = run(['batch', join(FIXTURES, 'corridor.geojson'), '--out', dir, '--no-svg']);
+    expect(g.code).toBe(1);
+    expect(g.err).toMatch(
+      /corridor\.geojson:\d+:\d+ features\[2\]\.geometry\.coordinates\[1\]: expected a position \[x, y, z\]/,
+    );
+    const input = JSON.parse(readFileSync(join(FIXTURES, 'corridor.geojson'), 'utf8'));
+    const doc = JSON.parse(readFileSync(join(dir, 'results.geojson'), 'utf8'));
+    expectFeatureCollection(doc);
+    expect(doc.features.map((f: { geometry: unknown }) => f.geometry)).toEqual(
+      input.features.map((f: { geometry: unknown }) => f.geometry),
+    );
+    expect(doc.features[0].properties).toMatchObject({
+      station: 1200,
+      name: 'XS-1200',
+      section_id: 'wcb-gis@1200',
+      status: 'pass',
+    });
+    expect(doc.features[1].properties).toMatchObject({ fs_required: 1.6, status: 'fail' });
+    expect(doc.features[1].properties.analysis).toBeUndefined(); // settings are not attributes
+    expect(doc.features[2].properties.status).toBe('error');
+    expect(readdirSync(dir)).not.toContain('sections');
+  });
+
+  test('--template: the corridor settings from a file, its errors located there', () => {
+    const t = run([
+      'batch',
+      join(FIXTURES, 'corridor.geojson'),
+      '--template',
+      join(FIXTURES, 'corridor-settings.yaml'),
+    ]);
+    expect(t.code).toBe(1);
+    expect(t.err).toMatch(
+      /corridor-settings\.yaml:10:\d+ template\.materials\.till\.strength\.frictionAngle: 95 is above 90°/,
+    );
+  });
+
+  test('a file that does not exist, or holds no section: a plain message, exit 1', () => {
+    const a = run(['batch', 'no/such.json']);
+    expect(a).toMatchObject({ code: 1 });
+    expect(a.err).toMatch(/^scarpline: no\/such\.json: no such file or directory$/m);
+    const b = run(['batch', 'packages/core/test/in/batch.yaml']);
+    expect(b.code).toBe(1);
+    expect(b.err).toMatch(/no section could be read/);
+  });
+
+  test('Ctrl-C stops the workers and closes results.json with what was done', async () => {
+    // a longer corridor: the small one repeated at 40 stations
+    const text = readFileSync(join(FIXTURES, 'small-corridor.yaml'), 'utf8');
+    const head = text.slice(0, text.indexOf('sections:'));
+    const items = Array.from(
+      { length: 120 },
+      (_, i) =>
+        `  - station: ${2000 + 20 * i}\n    ground: [[0, 62], [18, 62], [38, 72], [70, 74]]\n`,
+    );
+    const dir = tmp();
+    const file = join(dir, 'long.yaml');
+    writeFileSync(file, `${head}sections:\n${items.join('')}`);
+    const child = spawn(
+      process.execPath,
+      [MAIN, 'batch', file, '--out', join(dir, 'out'), '--jobs', '1'],
+      { cwd: ROOT },
+    );
+    let err = '';
+    let sent = false;
+    const code = await new Promise<number | null>((resolve) => {
+      child.stderr.on('data', (d: Buffer) => {
+        err += d.toString();
+        if (!sent && /\[3\/120\]/.test(err)) sent = child.kill('SIGINT');
+      });
+      child.on('close', (c) => resolve(c));
+    });
+    expect(code).toBe(130);
+    expect(err).toMatch(/interrupted: stopped after \d+ of 120 sections/);
+    const doc = JSON.parse(readFileSync(join(dir, 'out', 'results.json'), 'utf8')) as {
+      complete: boolean;
+      sections: unknown[];
+      written: number;
+    };
+    expect(doc.complete).toBe(false);
+    expect(doc.sections.length).toBeGreaterThanOrEqual(3);
+    expect(doc.sections.length).toBeLessThan(120);
+    const csv = parse(readFileSync(join(dir, 'out', 'results.csv'), 'utf8'), {
+      columns: true,
+    }) as unknown[];
+    expect(csv).toHaveLength(doc.written);
+  }, 20000);
+});

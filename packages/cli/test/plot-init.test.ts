@@ -1,0 +1,107 @@
+import { mkdtempSync, readFileSync, existsSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { XMLParser, XMLValidator } from 'fast-xml-parser';
+import { run } from './run';
+
+const dir = mkdtempSync(join(tmpdir(), 'scarpline-plot-'));
+
+describe('scarpline plot', () => {
+  test('writes a well-formed SVG of the section with its critical surface and the caution', () => {
+    const out = join(dir, 'levee.svg');
+    const r = run(['plot', 'examples/levee-river-side.yaml', '--svg', out]);
+    expect(r.code).toBe(0);
+    expect(r.out).toContain(`wrote ${out}: wfb-0410, governing FS 1.275 (bishop)`);
+    const svg = readFileSync(out, 'utf8');
+    expect(XMLValidator.validate(svg)).toBe(true);
+    const tree = new XMLParser({ ignoreAttributes: false }).parse(svg) as {
+      svg: Record<string, string>;
+    };
+    expect(tree.svg['@_xmlns']).toBe('http://www.w3.org/2000/svg');
+    expect(svg).toContain('class="critical"');
+    expect(svg).toContain('elevation (m)');
+    expect(svg).toMatch(/Caution: Results are for review by a qualified geotechnical engineer/);
+  });
+
+  test('several sections: one file each, or --section for one', () => {
+    const base = join(dir, 'stages.svg');
+    const r = run(['plot', 'examples/embankment-stages.yaml', '--svg', base]);
+    expect(r.code).toBe(0);
+    expect(existsSync(join(dir, 'stages-wcb-2940-R-eoc.svg'))).toBe(true);
+    expect(existsSync(join(dir, 'stages-wcb-2940-R-lt.svg'))).toBe(true);
+    const one = run([
+      'plot',
+      'examples/embankment-stages.yaml',
+      '--svg',
+      join(dir, 'lt.svg'),
+      '--section',
+      'wcb-2940-R-lt',
+    ]);
+    expect(one.code).toBe(0);
+    expect(readFileSync(join(dir, 'lt.svg'), 'utf8')).toContain('long term');
+    const none = run([
+      'plot',
+      'examples/embankment-stages.yaml',
+      '--svg',
+      join(dir, 'x.svg'),
+      '--section',
+      'nope',
+    ]);
+    expect(none.code).toBe(1);
+    expect(none.err).toMatch(/--section: no section "nope"/);
+  });
+
+  test('a bad file: located messages, no drawing, exit 1; --svg is required', () => {
+    const r = run(['plot', 'packages/core/test/in/ranges.yaml', '--svg', join(dir, 'bad.svg')]);
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(/ranges\.yaml:7:90 materials\.clay\.strength\.frictionAngle/);
+    expect(existsSync(join(dir, 'bad.svg'))).toBe(false);
+    const missing = run(['plot', 'examples/levee-river-side.yaml']);
+    expect(missing.code).toBe(1);
+    expect(missing.err).toMatch(/required option '--svg <out>'/);
+  });
+});
+
+describe('scarpline init', () => {
+  test.each(['cut', 'embankment', 'levee', 'sand-fill'])(
+    '--kind %s writes a commented starter that validates and analyses',
+    (kind) => {
+      const file = join(dir, `${kind}.yaml`);
+      const w = run(['init', '--kind', kind, file]);
+      expect(w.code).toBe(0);
+      const text = readFileSync(file, 'utf8');
+      expect(text.split('\n').filter((l) => /^\s*#/.test(l)).length).toBeGreaterThan(5);
+      expect(run(['validate', file])).toMatchObject({
+        code: 0,
+        out: `${file}: valid: 1 section\n`,
+      });
+      const a = run(['analyze', file]);
+      expect([0, 2]).toContain(a.code); // a factor of safety either way
+      expect(a.out).toMatch(/governing: [a-z-]+ FS \d\.\d{3} against required/);
+    },
+  );
+
+  test('never over an existing file without --force; - prints; an unknown kind is refused', () => {
+    const file = join(dir, 'cut.yaml');
+    const again = run(['init', '--kind', 'cut', file]);
+    expect(again.code).toBe(1);
+    expect(again.err).toMatch(/exists; give another name or --force/);
+    expect(run(['init', '--kind', 'cut', file, '--force']).code).toBe(0);
+    const printed = run(['init', '--kind', 'levee', '-']);
+    expect(printed.out).toMatch(/^# A Scarpline section file/);
+    expect(run(['analyze', '-'], printed.out).code).not.toBe(1);
+    expect(run(['init', '--kind', 'dam']).code).toBe(1);
+  });
+});
+
+describe('--help everywhere, with examples', () => {
+  test.each(['analyze', 'batch', 'plot', 'init', 'validate'])(
+    '%s --help shows an example and the exit status',
+    (cmd) => {
+      const r = run([cmd, '--help']);
+      expect(r.code).toBe(0);
+      expect(r.out).toMatch(new RegExp(`\\$ scarpline ${cmd} `));
+      expect(r.out).toMatch(/Exit status: 0/);
+    },
+  );
+});

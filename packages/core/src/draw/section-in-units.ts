@@ -1,0 +1,68 @@
+import { fromSi, UNIT_LABELS } from '../model/units';
+import type { Load, Material, Point, Polyline, Section, UnitSystem } from '../model/types';
+
+/** A section's geometry for drawing, in its own units (the units of its result). */
+export interface DrawingModel {
+  units: UnitSystem;
+  length: string;
+  ground: Polyline;
+  strata: { material: string; top: Polyline; describe: string; rigid: boolean }[];
+  water: { line: Polyline | null; ru: number | null };
+  loads: Load[];
+  offset: number | null;
+  labels: (typeof UNIT_LABELS)[UnitSystem];
+}
+
+function describe(m: Material, units: UnitSystem): string {
+  const p = UNIT_LABELS[units].pressure;
+  const s = m.strength;
+  const v = (x: number) => String(Number(fromSi(x, 'pressure', units).toFixed(1)));
+  if (s.model === 'rigid') return 'rigid';
+  if (s.model === 'undrained') {
+    if (!(s.suRate > 0)) return `Su ${v(s.su)} ${p}`;
+    const rate = Number(fromSi(s.suRate, 'pressurePerLength', units).toPrecision(3));
+    const datum =
+      s.suDatum === null ? '' : ` below ${Number(fromSi(s.suDatum, 'length', units).toFixed(2))}`;
+    return `Su ${v(s.su)} ${p} + ${rate} ${UNIT_LABELS[units].pressurePerLength}${datum}`;
+  }
+  return `c′ ${v(s.cohesion)} ${p}, φ′ ${Number(s.frictionAngle.toFixed(1))}°`;
+}
+
+/**
+ * The section (SI inside) converted back to its own units for drawing: ground, strata tops
+ * with a short description of each material's strength, the piezometric line or ru, the
+ * loads and the centreline offset.
+ *
+ * @example sectionInUnits(section).ground // → [[0, 200], [40, 200], …] for a file in feet
+ */
+export function sectionInUnits(section: Section): DrawingModel {
+  const u = section.units;
+  const L = (v: number) => fromSi(v, 'length', u);
+  const line = (pts: Polyline): Polyline => pts.map(([x, y]): Point => [L(x), L(y)]);
+  const loads: Load[] = section.loads.map((l) =>
+    l.type === 'strip'
+      ? { ...l, from: L(l.from), to: L(l.to), pressure: fromSi(l.pressure, 'pressure', u) }
+      : { ...l, x: L(l.x), force: fromSi(l.force, 'forcePerLength', u) },
+  );
+  return {
+    units: u,
+    length: UNIT_LABELS[u].length,
+    ground: line(section.ground),
+    strata: section.strata.map((s) => {
+      const m = section.materials[s.material];
+      return {
+        material: s.material,
+        top: line(s.top),
+        describe: m ? describe(m, u) : '',
+        rigid: m?.strength.model === 'rigid',
+      };
+    }),
+    water: {
+      line: section.water.kind === 'piezometric' ? line(section.water.line) : null,
+      ru: section.water.kind === 'ru' ? section.water.ru : null,
+    },
+    loads,
+    offset: section.offset === null ? null : L(section.offset),
+    labels: UNIT_LABELS[u],
+  };
+}

@@ -1,0 +1,41 @@
+import type { SliceReport } from '../analyze';
+import { yAt } from '../geometry/y-at';
+import type { Point, Polyline } from '../model/types';
+import { INK } from './palette';
+import { svgElement } from './svg-element';
+import type { Scales } from './types';
+
+/**
+ * The slices of a method as thin vertical lines at their sides, from the slip surface (`base`)
+ * up to the ground.
+ *
+ * @example sliceShapes(governing.slices, governing.base, model.ground, scales)
+ */
+export function sliceShapes(
+  slices: readonly SliceReport[],
+  base: readonly Point[] | undefined,
+  ground: Polyline,
+  s: Scales,
+): string {
+  if (slices.length === 0 || !base || base.length < 2) return '';
+  const line = [...base].sort((a, b) => a[0] - b[0]) as Polyline;
+  const sides = slices.map((sl) => sl.x - sl.width / 2);
+  const last = slices[slices.length - 1];
+  sides.push(last.x + last.width / 2);
+  let d = '';
+  for (const x of sides) {
+    const yb = s.y(yAt(line, x));
+    const yt = s.y(yAt(ground, x));
+    if (yb - yt > 0.5)
+      d += `M${Math.round(s.x(x) * 10) / 10} ${Math.round(yt * 10) / 10}V${Math.round(yb * 10) / 10}`;
+  }
+  return d
+    ? svgElement('path', {
+        class: 'slices',
+        d,
+        stroke: INK,
+        'stroke-width': 0.6,
+        'stroke-opacity': 0.5,
+      })
+    : '';
+}
