@@ -1,8 +1,7 @@
-// A benchmark worker: analyses each section it is sent and answers with the governing FS.
+// A benchmark worker: analyses each chunk of sections it is sent and answers with their governing FS.
 const { parentPort } = require('node:worker_threads');
 const { analyzeSection } = require('../dist/index.js');
 
-parentPort.on('message', (section) => {
-  const r = analyzeSection(section);
-  parentPort.postMessage(r.governing ? r.governing.fs : null);
+parentPort.on('message', (sections) => {
+  parentPort.postMessage(sections.map((s) => analyzeSection(s).governing?.fs ?? null));
 });

@@ -56,6 +56,7 @@ export { Trials, type CircleTrial, type CircleEvaluator } from './search/trials'
 export { fastSection, sliceBuffer, type FastSection } from './search/fast-section';
 export { sliceCircleFast } from './search/slice-circle-fast';
 export { bishopFast } from './search/bishop-fast';
+export { bishopCircle } from './search/bishop-circle';
 export { nelderMead } from './numeric/nelder-mead';
 
 // --- methods and the front door ---

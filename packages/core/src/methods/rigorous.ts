@@ -92,8 +92,9 @@ export function rigorous(
 ): SliceMethodResult {
   const st = statics(s, options.seismic, options.pivot);
   const n = s.n;
-  const N = new Float64Array(n);
-  const E = new Float64Array(n);
+  const work = new Float64Array(2 * n);
+  const N = work.subarray(0, n);
+  const E = work.subarray(n);
   let passes = 0;
   const start = solveFs(st, 0, f, 'moment', 1, N, E);
   passes += start.passes;

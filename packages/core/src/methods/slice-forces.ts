@@ -20,13 +20,12 @@ export function sliceForces(
   rigorous: boolean,
 ): Pick<SliceMethodResult, 'normalTotal' | 'normal' | 'shear' | 'E' | 'X' | 'thrust' | 'warnings'> {
   const n = s.n;
-  const N = new Float64Array(n);
-  const E = new Float64Array(n);
+  const buffer = new Float64Array(6 * n);
+  const [N, E, normal, shear, X, thrust] = [0, 1, 2, 3, 4, 5].map((k) =>
+    buffer.subarray(k * n, (k + 1) * n),
+  );
+  thrust.fill(NaN);
   march(st, F, lambda, f, N, E);
-  const normal = new Float64Array(n);
-  const shear = new Float64Array(n);
-  const X = new Float64Array(n);
-  const thrust = new Float64Array(n).fill(NaN);
   let negative = 0;
   for (let i = 0; i < n; i++) {
     normal[i] = N[i] - st.U[i];

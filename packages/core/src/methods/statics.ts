@@ -35,24 +35,28 @@ export interface Statics {
  */
 export function statics(s: SliceSet, seismic: Seismic, pivot: Point, into?: Statics): Statics {
   const n = s.n;
-  const st: Statics =
-    into && into.sin.length >= n
-      ? Object.assign(into, { n, pivot })
-      : {
-          n,
-          sin: new Float64Array(n),
-          cos: new Float64Array(n),
-          len: new Float64Array(n),
-          C: new Float64Array(n),
-          t: new Float64Array(n),
-          U: new Float64Array(n),
-          Hx: new Float64Array(n),
-          Hy: new Float64Array(n),
-          aN: new Float64Array(n),
-          aS: new Float64Array(n),
-          M0: new Float64Array(n),
-          pivot,
-        };
+  let st: Statics;
+  if (into && into.sin.length >= n) st = Object.assign(into, { n, pivot });
+  else {
+    // one backing buffer for all eleven arrays: typed-array allocation is costly, views are cheap
+    const buffer = new Float64Array(11 * n);
+    const view = (k: number) => buffer.subarray(k * n, (k + 1) * n);
+    st = {
+      n,
+      sin: view(0),
+      cos: view(1),
+      len: view(2),
+      C: view(3),
+      t: view(4),
+      U: view(5),
+      Hx: view(6),
+      Hy: view(7),
+      aN: view(8),
+      aS: view(9),
+      M0: view(10),
+      pivot,
+    };
+  }
   const [xo, yo] = pivot;
   const kh = seismic.kh;
   const kv1 = 1 + seismic.kv;

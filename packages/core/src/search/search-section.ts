@@ -4,14 +4,13 @@ import { spencer } from '../methods/spencer';
 import type { Polyline, SearchSurface } from '../model/types';
 import type { PreparedSection } from '../slices/prepare-section';
 import { sliceSurface } from '../slices/slice-surface';
-import { bishopFast } from './bishop-fast';
-import { fastSection, sliceBuffer } from './fast-section';
+import { bishopCircle } from './bishop-circle';
+import { fastSection } from './fast-section';
 import { type GridOutcome, gridSearch } from './grid-search';
 import { groundRangesSearch } from './ground-ranges-search';
 import { noncircularSearch } from './noncircular-search';
 import { refineCircle } from './refine-circle';
 import { type SearchSettings, searchSettings } from './search-settings';
-import { sliceCircleFast } from './slice-circle-fast';
 import { type CircleEvaluator, type CircleTrial, Trials } from './trials';
 
 /** The infinite slope that governs when no material on the slope has cohesion. */
@@ -36,18 +35,16 @@ export interface SearchOutcome {
 }
 
 /**
- * A circle evaluator for the search: the fast slicing and Bishop's simplified method, each
- * trial warm-started from the previous one's F.
+ * A circle evaluator for the search: Bishop's simplified method on the one-pass fast
+ * slicing (bishopCircle), each trial warm-started from the previous one's F.
  */
 export function fastBishopEvaluator(prepared: PreparedSection, slices: number): CircleEvaluator {
   const fast = fastSection(prepared);
-  const buffer = sliceBuffer(slices + 1);
   const ends = { xa: 0, xb: 0 };
-  const seismic = prepared.section.seismic;
   let guess = 1;
   return (xc, yc, r) => {
-    if (!(r > 0) || !sliceCircleFast(fast, xc, yc, r, slices, buffer, ends)) return NaN;
-    const f = bishopFast(buffer, buffer.mirrored ? -xc : xc, yc, seismic, guess);
+    if (!(r > 0)) return NaN;
+    const f = bishopCircle(fast, xc, yc, r, slices, guess, ends);
     if (f > 0) guess = f;
     return f;
   };

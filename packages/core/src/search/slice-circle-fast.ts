@@ -17,7 +17,13 @@ let edgeR = new Float64Array(8);
  * coordinates: one run of soil above the arc between two meets with the ground (as the
  * exact slicer), or false.
  */
-function circleEnds(G: FastGeometry, xc: number, yc: number, r: number, out: CircleEnds): boolean {
+export function circleEnds(
+  G: FastGeometry,
+  xc: number,
+  yc: number,
+  r: number,
+  out: CircleEnds,
+): boolean {
   const gx = G.ground.xs;
   const gy = G.ground.ys;
   const lo = Math.max(xc - r, gx[0]);
@@ -82,7 +88,7 @@ function circleEnds(G: FastGeometry, xc: number, yc: number, r: number, out: Cir
 }
 
 /** Base elevation at x: the arc, or the rigid top where the arc dips below it. */
-function baseAt(G: FastGeometry, xc: number, yc: number, r2: number, x: number): number {
+export function baseAt(G: FastGeometry, xc: number, yc: number, r2: number, x: number): number {
   const u = x - xc;
   const arc = yc - Math.sqrt(Math.max(0, r2 - u * u));
   if (G.rigid) {
@@ -90,6 +96,38 @@ function baseAt(G: FastGeometry, xc: number, yc: number, r2: number, x: number):
     if (yr > arc) return yr;
   }
   return arc;
+}
+
+/**
+ * Where a tension crack of the section's depth cuts the surface near its upper end xb (the
+ * surface lies the crack depth below the ground there), or NaN when it never does.
+ */
+export function crackEnd(
+  G: FastGeometry,
+  xc: number,
+  yc: number,
+  r2: number,
+  xa: number,
+  xb: number,
+): number {
+  const dc = G.crackDepth;
+  const f = (x: number) => lookupY(G.ground, x) - baseAt(G, xc, yc, r2, x) - dc;
+  let a = NaN;
+  for (let k = 1; k <= 16; k++) {
+    const x = xb - ((xb - xa) * k) / 16;
+    if (f(x) >= 0) {
+      a = x;
+      break;
+    }
+  }
+  if (Number.isNaN(a)) return NaN;
+  let b = a + (xb - xa) / 16;
+  for (let it = 0; it < 40; it++) {
+    const mid = 0.5 * (a + b);
+    if (f(mid) >= 0) a = mid;
+    else b = mid;
+  }
+  return a;
 }
 
 /**
@@ -126,27 +164,10 @@ export function sliceCircleFast(
   // tension crack at the upper (right) end
   let crackHw = 0;
   if (G.crackDepth > 0) {
-    const dc = G.crackDepth;
-    const f = (x: number) => lookupY(ground, x) - baseAt(G, xc, yc, r2, x) - dc;
-    let a = xb;
-    let found = false;
-    for (let k = 1; k <= 16; k++) {
-      const x = xb - ((xb - xa) * k) / 16;
-      if (f(x) >= 0) {
-        a = x;
-        found = true;
-        break;
-      }
-    }
-    if (!found) return false;
-    let b = a + (xb - xa) / 16;
-    for (let it = 0; it < 40; it++) {
-      const mid = 0.5 * (a + b);
-      if (f(mid) >= 0) a = mid;
-      else b = mid;
-    }
-    xb = a;
-    crackHw = Math.min(G.crackWater, dc);
+    const x = crackEnd(G, xc, yc, r2, xa, xb);
+    if (!(x > xa)) return false;
+    xb = x;
+    crackHw = Math.min(G.crackWater, G.crackDepth);
   }
 
   const w = (xb - xa) / n;
