@@ -1,0 +1,62 @@
+/** Configuration from the environment, read once at start. */
+import os from 'node:os';
+
+export interface Config {
+  env: 'development' | 'test' | 'production';
+  databaseUrl: string;
+  port: number;
+  /** Lifetime of a sign-in token, in hours. */
+  sessionHours: number;
+  /** Largest JSON body and largest upload, in bytes. */
+  jsonLimit: number;
+  uploadLimit: number;
+  uploadFiles: number;
+  /** Sign-in attempts per address per window. */
+  loginLimit: number;
+  loginWindowMs: number;
+  /** SMTP: a URL for production; empty means the local fake the app starts. */
+  smtpUrl: string;
+  smtpFakePort: number;
+  mailFrom: string;
+  mailTo: string;
+  /** Queue: attempts after the first, first retry delay (s), per-job time limit (s). */
+  retryLimit: number;
+  retryDelay: number;
+  jobTimeout: number;
+  workerConcurrency: number;
+  corsOrigin: string;
+}
+
+function num(name: string, fallback: number): number {
+  const v = process.env[name];
+  if (v === undefined || v === '') return fallback;
+  const n = Number(v);
+  if (!Number.isFinite(n)) throw new Error(`${name} must be a number, got ${v}`);
+  return n;
+}
+
+function read(): Config {
+  const env = (process.env.NODE_ENV ?? 'development') as Config['env'];
+  return {
+    env,
+    databaseUrl: process.env.DATABASE_URL ?? 'postgres://postgres@127.0.0.1:54329/scarpline',
+    port: num('PORT', 8080),
+    sessionHours: num('SESSION_HOURS', 12),
+    jsonLimit: num('JSON_LIMIT', 5 * 1024 * 1024),
+    uploadLimit: num('UPLOAD_LIMIT', 10 * 1024 * 1024),
+    uploadFiles: num('UPLOAD_FILES', 500),
+    loginLimit: num('LOGIN_LIMIT', 10),
+    loginWindowMs: num('LOGIN_WINDOW_MS', 15 * 60 * 1000),
+    smtpUrl: process.env.SMTP_URL ?? '',
+    smtpFakePort: num('SMTP_FAKE_PORT', 0),
+    mailFrom: process.env.MAIL_FROM ?? 'scarpline@localhost',
+    mailTo: process.env.MAIL_TO ?? '',
+    retryLimit: num('JOB_RETRY_LIMIT', 2),
+    retryDelay: num('JOB_RETRY_DELAY', 1),
+    jobTimeout: num('JOB_TIMEOUT', 120),
+    workerConcurrency: num('WORKER_CONCURRENCY', os.availableParallelism()),
+    corsOrigin: process.env.CORS_ORIGIN ?? '',
+  };
+}
+
+export const config: Config = read();

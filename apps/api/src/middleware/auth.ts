@@ -1,0 +1,42 @@
+/** passport-http-bearer on every route but sign-in; roles checked per route. */
+import type { RequestHandler } from 'express';
+import passport from 'passport';
+import { Strategy as BearerStrategy } from 'passport-http-bearer';
+import { forbidden, unauthorized } from '../errors';
+import type { Role } from '../models';
+import { principalOf, type Principal } from '../services/auth';
+
+passport.use(
+  new BearerStrategy((token, done) => {
+    principalOf(token).then(
+      (p) => done(null, p ?? false),
+      (e) => done(e),
+    );
+  }),
+);
+
+export const authenticate: RequestHandler = (req, res, next) => {
+  passport.authenticate('bearer', { session: false }, (err: unknown, user: Principal | false) => {
+    if (err) return next(err);
+    if (!user) return next(unauthorized());
+    req.user = user;
+    next();
+  })(req, res, next);
+};
+
+/** Only these roles may pass. */
+export function allow(...roles: Role[]): RequestHandler {
+  return (req, _res, next) => {
+    const p = req.user as Principal | undefined;
+    if (!p) return next(unauthorized());
+    if (!roles.includes(p.role)) return next(forbidden());
+    next();
+  };
+}
+
+export function principal(req: { user?: unknown }): Principal {
+  if (!req.user) throw unauthorized();
+  return req.user as Principal;
+}
+
+export const ALL: Role[] = ['admin', 'engineer', 'reviewer', 'viewer', 'integration'];

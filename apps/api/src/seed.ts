@@ -1,0 +1,62 @@
+/** Demo data: users of every role and the invented Wendlecombe corridor. Idempotent. */
+import fs from 'node:fs';
+import path from 'node:path';
+import { Project, User, type Role } from './models';
+import { submitBatch } from './services/batches';
+import { createUser } from './services/users';
+import { parseFiles } from './services/validate';
+
+export const DEMO_USERS: { email: string; name: string; role: Role; password?: string }[] = [
+  {
+    email: 'admin@wendlecombe.example',
+    name: 'Ada Admin',
+    role: 'admin',
+    password: 'demo-admin-2931',
+  },
+  {
+    email: 'engineer@wendlecombe.example',
+    name: 'Evan Engineer',
+    role: 'engineer',
+    password: 'demo-engineer-4417',
+  },
+  {
+    email: 'reviewer@wendlecombe.example',
+    name: 'Rhea Reviewer',
+    role: 'reviewer',
+    password: 'demo-reviewer-8062',
+  },
+  {
+    email: 'viewer@wendlecombe.example',
+    name: 'Vic Viewer',
+    role: 'viewer',
+    password: 'demo-viewer-5380',
+  },
+  { email: 'gis-feed@wendlecombe.example', name: 'GIS feed', role: 'integration' },
+];
+
+export async function seedDemo(corridorFile: string): Promise<{ created: boolean }> {
+  for (const u of DEMO_USERS) {
+    if (!(await User.findOne({ where: { email: u.email } }))) await createUser(null, u);
+  }
+  if (await Project.findOne({ where: { name: 'Wendlecombe bypass' } })) return { created: false };
+  const engineer = await User.findOne({ where: { email: DEMO_USERS[1].email } });
+  if (!engineer) throw new Error('demo engineer missing');
+  const project = await Project.create({
+    name: 'Wendlecombe bypass',
+    description: 'Invented demonstration corridor (not for design).',
+    createdBy: engineer.id,
+  });
+  const text = fs.readFileSync(corridorFile, 'utf8');
+  const parsed = parseFiles([{ name: path.basename(corridorFile), text }]);
+  // The seed acts as the demo engineer.
+  const principal = {
+    userId: engineer.id,
+    email: engineer.email,
+    name: engineer.name,
+    role: engineer.role,
+    tokenId: 0,
+    projectIds: null,
+  };
+  await submitBatch(principal, project.id, parsed, 'seed');
+  return { created: true };
+}

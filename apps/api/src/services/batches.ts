@@ -1,0 +1,176 @@
+/** Batches and their sections: submission (one transaction with its jobs), progress, listing. */
+import { Op, QueryTypes, type WhereOptions } from 'sequelize';
+import type { Section } from '@scarpline/core';
+import { CAUTION } from '@scarpline/core';
+import { sequelize } from '../db';
+import { badRequest, notFound } from '../errors';
+import { Batch, Project, ResultRow, SectionRow } from '../models';
+import { enqueueSections } from '../queue';
+import { audit } from './audit';
+import { assertProject, type Principal } from './auth';
+import type { Parsed } from './validate';
+
+export async function submitBatch(p: Principal, projectId: number, parsed: Parsed, source: string) {
+  assertProject(p, projectId);
+  const project = await Project.findByPk(projectId);
+  if (!project) throw notFound('project');
+  const batch = await sequelize.transaction(async (t) => {
+    const b = await Batch.create(
+      {
+        projectId,
+        submittedBy: p.userId,
+        name: parsed.name,
+        title: parsed.title,
+        status: 'running',
+        total: parsed.sections.length,
+        source,
+        finishedAt: null,
+      },
+      { transaction: t },
+    );
+    const rows = await SectionRow.bulkCreate(
+      parsed.sections.map((s: Section, i) => ({
+        batchId: b.id,
+        key: s.id,
+        position: i,
+        station: s.station,
+        input: s,
+        status: 'queued' as const,
+        failReason: null,
+      })),
+      { transaction: t, returning: true },
+    );
+    await enqueueSections(
+      rows.map((r) => ({ sectionId: r.id, run: 1 })),
+      t,
+    );
+    await audit(p.userId, 'submit', 'batch', b.id, { sections: rows.length, source }, t);
+    return b;
+  });
+  return { ...(await batchView(batch.id)), warnings: parsed.warnings };
+}
+
+export async function progress(batchId: number) {
+  const rows = await sequelize.query<{ status: string; n: string }>(
+    'SELECT status, count(*) AS n FROM sections WHERE batch_id = $1 GROUP BY status',
+    { bind: [batchId], type: QueryTypes.SELECT },
+  );
+  const count = (s: string) => Number(rows.find((r) => r.status === s)?.n ?? 0);
+  const below = await sequelize.query<{ n: string }>(
+    `SELECT count(*) AS n FROM results r JOIN sections s ON s.id = r.section_id AND r.run = s.run
+      WHERE s.batch_id = $1 AND r.status = 'fail'`,
+    { bind: [batchId], type: QueryTypes.SELECT },
+  );
+  const done = count('done');
+  const failed = count('failed');
+  const total = done + failed + count('queued') + count('running');
+  return {
+    total,
+    done,
+    failed,
+    queued: count('queued'),
+    running: count('running'),
+    belowRequiredFs: Number(below[0]?.n ?? 0),
+    fraction: total ? (done + failed) / total : 1,
+  };
+}
+
+export async function loadBatch(p: Principal, batchId: number): Promise<Batch> {
+  const b = await Batch.findByPk(batchId);
+  if (!b) throw notFound('batch');
+  assertProject(p, b.projectId);
+  return b;
+}
+
+export async function batchView(batchId: number) {
+  const b = await Batch.findByPk(batchId);
+  if (!b) throw notFound('batch');
+  return {
+    id: b.id,
+    projectId: b.projectId,
+    name: b.name,
+    title: b.title,
+    status: b.status,
+    source: b.source,
+    submittedBy: b.submittedBy,
+    createdAt: b.createdAt,
+    finishedAt: b.finishedAt,
+    progress: await progress(b.id),
+    caution: CAUTION,
+  };
+}
+
+export async function listBatches(p: Principal, projectId: number) {
+  assertProject(p, projectId);
+  if (!(await Project.findByPk(projectId))) throw notFound('project');
+  const rows = await Batch.findAll({ where: { projectId }, order: [['id', 'DESC']] });
+  return Promise.all(rows.map((b) => batchView(b.id)));
+}
+
+export interface SectionQuery {
+  status?: string;
+  pass?: string;
+  sort?: string;
+  order?: string;
+  page?: string;
+  pageSize?: string;
+}
+
+/** The sections of a batch with their current result: filtered, sorted, paged. */
+export async function listSections(batch: Batch, q: SectionQuery) {
+  const page = Math.max(1, Number(q.page ?? 1) || 1);
+  const pageSize = Math.min(500, Math.max(1, Number(q.pageSize ?? 50) || 50));
+  const where: WhereOptions = { batchId: batch.id };
+  if (q.status) {
+    if (!['queued', 'running', 'done', 'failed'].includes(q.status)) {
+      throw badRequest('status is one of queued, running, done, failed.');
+    }
+    Object.assign(where, { status: q.status });
+  }
+  const resultWhere: WhereOptions = { run: { [Op.eq]: sequelize.col('SectionRow.run') } };
+  if (q.pass !== undefined) {
+    if (!['true', 'false'].includes(q.pass)) throw badRequest('pass is true or false.');
+    Object.assign(resultWhere, { status: q.pass === 'true' ? 'pass' : 'fail' });
+  }
+  const dir = q.order === 'desc' ? 'DESC' : 'ASC';
+  const sort = q.sort ?? 'station';
+  if (!['station', 'fs', 'position'].includes(sort)) throw badRequest('sort is station or fs.');
+  const order =
+    sort === 'fs'
+      ? [[{ model: ResultRow, as: 'ResultRows' }, 'governingFs', `${dir} NULLS LAST`]]
+      : [[sort, `${dir} NULLS LAST`]];
+  const { rows, count } = await SectionRow.findAndCountAll({
+    where,
+    include: [{ model: ResultRow, where: resultWhere, required: q.pass !== undefined }],
+    // eslint-disable-next-line @typescript-eslint/no-explicit-any
+    order: [...(order as any), ['id', 'ASC']],
+    limit: pageSize,
+    offset: (page - 1) * pageSize,
+    distinct: true,
+  });
+  return {
+    page,
+    pageSize,
+    total: count,
+    items: rows.map((s) => {
+      const r = (s as SectionRow & { ResultRows?: ResultRow[] }).ResultRows?.[0];
+      return {
+        id: s.id,
+        key: s.key,
+        station: s.station,
+        status: s.status,
+        run: s.run,
+        failReason: s.failReason,
+        result: r
+          ? {
+              status: r.status,
+              governingMethod: r.governingMethod,
+              governingFs: r.governingFs,
+              requiredFs: r.requiredFs,
+            }
+          : null,
+      };
+    }),
+    caution: CAUTION,
+  };
+}

@@ -1,0 +1,130 @@
+/**
+ * E-mail with nodemailer. Production: SMTP_URL. Development and tests: a local SMTP fake
+ * (smtp-server) that the API process starts; it keeps the messages in memory for admins and
+ * tests. Never the internet unless SMTP_URL says so.
+ */
+import nodemailer, { type Transporter } from 'nodemailer';
+import { SMTPServer } from 'smtp-server';
+import { CAUTION } from '@scarpline/core';
+import { config } from '../config';
+import { Batch, SectionRow, User } from '../models';
+import { progress } from './batches';
+
+export interface FakeMessage {
+  from: string;
+  to: string[];
+  raw: string;
+  receivedAt: Date;
+}
+
+const inbox: FakeMessage[] = [];
+let fake: SMTPServer | null = null;
+let fakePort = 0;
+let transport: Transporter | null = null;
+
+/** Starts the local SMTP fake (idempotent) and returns its port. */
+export async function startSmtpFake(port = config.smtpFakePort): Promise<number> {
+  if (fake) return fakePort;
+  const server = new SMTPServer({
+    authOptional: true,
+    disabledCommands: ['STARTTLS'],
+    onData(stream, session, callback) {
+      const chunks: Buffer[] = [];
+      stream.on('data', (c: Buffer) => chunks.push(c));
+      stream.on('end', () => {
+        inbox.push({
+          from: session.envelope.mailFrom ? session.envelope.mailFrom.address : '',
+          to: session.envelope.rcptTo.map((r) => r.address),
+          raw: Buffer.concat(chunks).toString('utf8'),
+          receivedAt: new Date(),
+        });
+        callback();
+      });
+    },
+  });
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(port, '127.0.0.1', () => resolve());
+  });
+  fake = server;
+  const addr = server.server.address();
+  fakePort = typeof addr === 'object' && addr ? addr.port : port;
+  return fakePort;
+}
+
+export async function stopSmtpFake(): Promise<void> {
+  if (!fake) return;
+  const s = fake;
+  fake = null;
+  transport?.close();
+  transport = null;
+  await new Promise<void>((resolve) => s.close(() => resolve()));
+}
+
+export function fakeInbox(): FakeMessage[] {
+  return inbox.slice();
+}
+
+function mailer(): Transporter | null {
+  if (transport) return transport;
+  if (config.smtpUrl) transport = nodemailer.createTransport(config.smtpUrl);
+  else if (fake)
+    transport = nodemailer.createTransport({
+      host: '127.0.0.1',
+      port: fakePort,
+      secure: false,
+      ignoreTLS: true,
+    });
+  return transport;
+}
+
+async function send(to: string[], subject: string, text: string): Promise<void> {
+  const t = mailer();
+  if (!t || to.length === 0) return;
+  try {
+    await t.sendMail({
+      from: config.mailFrom,
+      to,
+      subject,
+      text: `${text}\n\nCaution: ${CAUTION}\n`,
+    });
+  } catch (e) {
+    // Mail is a notice, not part of the result: a failed send is logged, never fatal.
+    console.error('mail:', (e as Error).message);
+  }
+}
+
+async function recipients(batch: Batch): Promise<string[]> {
+  const submitter = await User.findByPk(batch.submittedBy);
+  const list = [submitter?.email, ...config.mailTo.split(',')].map((s) => s?.trim());
+  return [...new Set(list.filter((s): s is string => Boolean(s)))];
+}
+
+export async function batchFinished(batchId: number): Promise<void> {
+  const batch = await Batch.findByPk(batchId);
+  if (!batch) return;
+  const p = await progress(batchId);
+  await send(
+    await recipients(batch),
+    `Scarpline batch ${batch.name} finished: ${p.belowRequiredFs} of ${p.total} below the required FS`,
+    [
+      `Batch ${batch.id} (${batch.name}) has finished.`,
+      `Sections: ${p.total}; solved: ${p.done}; failed to solve: ${p.failed}.`,
+      `Below the required factor of safety: ${p.belowRequiredFs}.`,
+    ].join('\n'),
+  );
+}
+
+export async function sectionBelowFs(
+  section: SectionRow,
+  fs: number | null,
+  required: number | null,
+): Promise<void> {
+  const batch = await Batch.findByPk(section.batchId);
+  if (!batch) return;
+  await send(
+    await recipients(batch),
+    `Scarpline: section ${section.key} is below its required FS`,
+    `Section ${section.key} (batch ${batch.name}): FS ${fs?.toFixed(3)} against required ${required}.`,
+  );
+}

@@ -1,0 +1,51 @@
+/** One section: its input and its results (the current run first, older runs kept). */
+import { CAUTION } from '@scarpline/core';
+import { notFound } from '../errors';
+import { ResultRow, SectionRow } from '../models';
+import type { Principal } from './auth';
+import { loadBatch } from './batches';
+
+export function resultView(r: ResultRow) {
+  return {
+    run: r.run,
+    status: r.status,
+    governing: r.governingMethod ? { method: r.governingMethod, fs: r.governingFs } : null,
+    requiredFs: r.requiredFs,
+    passes: r.status === 'pass' ? true : r.status === 'fail' ? false : null,
+    reason: r.reason,
+    criticalSurface: r.criticalSurface,
+    methods: r.methods,
+    warnings: r.warnings,
+    solverVersion: r.solverVersion,
+    inputHash: r.inputHash,
+    timings: { startedAt: r.startedAt, finishedAt: r.finishedAt, durationMs: r.durationMs },
+    attempt: r.attempt,
+    caution: CAUTION,
+  };
+}
+
+export async function loadSection(p: Principal, id: number): Promise<SectionRow> {
+  const s = await SectionRow.findByPk(id);
+  if (!s) throw notFound('section');
+  await loadBatch(p, s.batchId);
+  return s;
+}
+
+export async function sectionView(p: Principal, id: number) {
+  const s = await loadSection(p, id);
+  const results = await ResultRow.findAll({ where: { sectionId: s.id }, order: [['run', 'DESC']] });
+  const current = results.find((r) => r.run === s.run);
+  return {
+    id: s.id,
+    batchId: s.batchId,
+    key: s.key,
+    station: s.station,
+    status: s.status,
+    run: s.run,
+    failReason: s.failReason,
+    input: s.input,
+    result: current ? resultView(current) : null,
+    previous: results.filter((r) => r.run !== s.run).map(resultView),
+    caution: CAUTION,
+  };
+}

@@ -1,0 +1,187 @@
+import request from 'supertest';
+import { createApp } from '../src/app';
+import { sequelize } from '../src/db';
+import { Batch, Project, SectionRow, type Role } from '../src/models';
+import { stopQueue } from '../src/queue';
+import { expectProblem, makeUsers, signIn } from './helpers';
+
+const app = createApp();
+const tokens = {} as Record<Role, string>;
+let users: Awaited<ReturnType<typeof makeUsers>>;
+let projectId: number;
+let otherProjectId: number;
+let batchId: number;
+let sectionId: number;
+let otherBatchId: number;
+
+beforeAll(async () => {
+  users = await makeUsers('roles');
+  for (const role of ['admin', 'engineer', 'reviewer', 'viewer'] as Role[]) {
+    tokens[role] = await signIn(app, users[role].email);
+  }
+  const project = await Project.create({
+    name: 'Roles A',
+    description: null,
+    createdBy: users.admin.id,
+  });
+  const other = await Project.create({
+    name: 'Roles B',
+    description: null,
+    createdBy: users.admin.id,
+  });
+  projectId = project.id;
+  otherProjectId = other.id;
+  const mk = async (pid: number) => {
+    const b = await Batch.create({
+      projectId: pid,
+      submittedBy: users.engineer.id,
+      name: 'roles',
+      title: null,
+      status: 'running',
+      total: 1,
+      source: 'json',
+      finishedAt: null,
+    });
+    const s = await SectionRow.create({
+      batchId: b.id,
+      key: `roles-${pid}`,
+      position: 0,
+      station: 0,
+      input: { format: 'scarpline/1' },
+      status: 'queued',
+      failReason: null,
+    });
+    return { b, s };
+  };
+  const a = await mk(projectId);
+  batchId = a.b.id;
+  sectionId = a.s.id;
+  otherBatchId = (await mk(otherProjectId)).b.id;
+  const t = await request(app)
+    .post('/api/v1/tokens')
+    .auth(tokens.admin, { type: 'bearer' })
+    .send({ userId: users.integration.id, name: 'GIS feed', projectIds: [projectId] });
+  expect(t.status).toBe(201);
+  tokens.integration = t.body.token;
+});
+
+afterAll(async () => {
+  await stopQueue();
+  await sequelize.close();
+});
+
+/** [method, path, body, roles allowed]; a POST with an invalid body still shows the role check passed (4xx ≠ 401/403). */
+const routes = (): [string, string, object | undefined, Role[]][] => [
+  ['get', '/api/v1/me', undefined, ['admin', 'engineer', 'reviewer', 'viewer', 'integration']],
+  ['get', '/api/v1/users', undefined, ['admin']],
+  ['post', '/api/v1/users', {}, ['admin']],
+  ['get', '/api/v1/tokens', undefined, ['admin']],
+  ['post', '/api/v1/tokens', {}, ['admin']],
+  ['delete', '/api/v1/tokens/999999', undefined, ['admin']],
+  ['get', '/api/v1/audit', undefined, ['admin']],
+  ['get', '/api/v1/mail', undefined, ['admin']],
+  [
+    'get',
+    '/api/v1/projects',
+    undefined,
+    ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
+  ],
+  ['post', '/api/v1/projects', {}, ['admin', 'engineer']],
+  [
+    'get',
+    `/api/v1/projects/${projectId}`,
+    undefined,
+    ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
+  ],
+  [
+    'get',
+    `/api/v1/projects/${projectId}/batches`,
+    undefined,
+    ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
+  ],
+  ['post', `/api/v1/projects/${projectId}/batches`, {}, ['admin', 'engineer', 'integration']],
+  [
+    'post',
+    `/api/v1/projects/${projectId}/uploads`,
+    undefined,
+    ['admin', 'engineer', 'integration'],
+  ],
+  [
+    'get',
+    `/api/v1/batches/${batchId}`,
+    undefined,
+    ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
+  ],
+  [
+    'get',
+    `/api/v1/batches/${batchId}/sections`,
+    undefined,
+    ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
+  ],
+  [
+    'get',
+    `/api/v1/sections/${sectionId}`,
+    undefined,
+    ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
+  ],
+];
+
+const ROLE_LIST: Role[] = ['admin', 'engineer', 'reviewer', 'viewer', 'integration'];
+
+test('every route × every role: allowed roles pass the check, others get 403, nobody 401', async () => {
+  for (const [method, path, body, allowed] of routes()) {
+    const anon = await (request(app) as unknown as Record<string, (p: string) => request.Test>)[
+      method
+    ](path);
+    expectProblem(anon, 401);
+    for (const role of ROLE_LIST) {
+      let req = (request(app) as unknown as Record<string, (p: string) => request.Test>)
+        [method](path)
+        .auth(tokens[role], { type: 'bearer' });
+      if (body) req = req.send(body);
+      const res = await req;
+      const label = `${role} ${method.toUpperCase()} ${path} → ${res.status}`;
+      if (allowed.includes(role)) {
+        expect([label, [401, 403].includes(res.status)]).toEqual([label, false]);
+      } else {
+        expect([label, res.status]).toEqual([label, 403]);
+      }
+    }
+  }
+});
+
+test('an integration token sees only its projects', async () => {
+  const auth = { type: 'bearer' as const };
+  const list = await request(app).get('/api/v1/projects').auth(tokens.integration, auth);
+  expect(list.body.map((p: { id: number }) => p.id)).toEqual([projectId]);
+  expectProblem(
+    await request(app).get(`/api/v1/projects/${otherProjectId}`).auth(tokens.integration, auth),
+    403,
+  );
+  expectProblem(
+    await request(app).get(`/api/v1/batches/${otherBatchId}`).auth(tokens.integration, auth),
+    403,
+  );
+  expectProblem(
+    await request(app)
+      .post(`/api/v1/projects/${otherProjectId}/batches`)
+      .auth(tokens.integration, auth)
+      .send({}),
+    403,
+  );
+});
+
+test('a revoked integration token is refused', async () => {
+  const t = await request(app)
+    .post('/api/v1/tokens')
+    .auth(tokens.admin, { type: 'bearer' })
+    .send({ userId: users.integration.id, name: 'short-lived', projectIds: [projectId] });
+  expect((await request(app).get('/api/v1/me').auth(t.body.token, { type: 'bearer' })).status).toBe(
+    200,
+  );
+  const del = await request(app)
+    .delete(`/api/v1/tokens/${t.body.id}`)
+    .auth(tokens.admin, { type: 'bearer' });
+  expect(del.status).toBe(200);
+  expectProblem(await request(app).get('/api/v1/me').auth(t.body.token, { type: 'bearer' }), 401);
+});
