@@ -1,5 +1,5 @@
 import type { FastGeometry, FastSection } from './fast-section';
-import { lookupSlope, lookupY } from './lookup';
+import { lookupSlope, lookupY, walkY } from './lookup';
 import { type CircleEnds, circleEnds, crackEnd } from './slice-circle-fast';
 
 let cap = 0;
@@ -108,9 +108,9 @@ export function bishopCircle(
     const x1 = i + 1 === n ? xb : x0 + w;
     const b = x1 - x0;
     const xm = 0.5 * (x0 + x1);
-    ed[R] = lookupY(ground, x1);
-    for (let k = 1; k < nt; k++) ed[R + k] = lookupY(tops[k], x1);
-    const pR = piezo ? lookupY(piezo, x1) : -Infinity;
+    ed[R] = walkY(ground, x1);
+    for (let k = 1; k < nt; k++) ed[R + k] = walkY(tops[k], x1);
+    const pR = piezo ? walkY(piezo, x1) : -Infinity;
     // the base at the middle: tangent to the arc, or along the rigid top
     const u = xm - xc;
     const s = Math.sqrt(Math.max(0, r2 - u * u));

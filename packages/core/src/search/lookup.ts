@@ -13,6 +13,8 @@ export interface Lookup {
   last: number;
   /** The segment of the last look-up: consecutive look-ups at increasing x mostly stay in it. */
   cursor: number;
+  /** Slope of each segment (0 for a vertical step). */
+  slopes: Float64Array;
 }
 
 /** Build a lookup with about four buckets per segment (at least 64). */
@@ -35,7 +37,10 @@ export function lookup(line: Polyline): Lookup {
     while (seg < n - 2 && xs[seg + 1] <= x) seg++;
     buckets[b] = seg;
   }
-  return { xs, ys, x0, inv, buckets, last: n - 1, cursor: 0 };
+  const slopes = new Float64Array(Math.max(1, n - 1));
+  for (let i = 0; i + 1 < n; i++)
+    slopes[i] = xs[i + 1] > xs[i] ? (ys[i + 1] - ys[i]) / (xs[i + 1] - xs[i]) : 0;
+  return { xs, ys, x0, inv, buckets, last: n - 1, cursor: 0, slopes };
 }
 
 /** Index of the segment holding x (clamped to the first and last segment). */
@@ -71,4 +76,17 @@ export function lookupSlope(L: Lookup, x: number): number {
   const i = segmentAt(L, x);
   const dx = xs[i + 1] - xs[i];
   return dx > 0 ? (L.ys[i + 1] - L.ys[i]) / dx : 0;
+}
+
+/**
+ * Elevation at x for a caller walking to the right: from the cursor segment onward, with the
+ * precomputed slope (no division). x must lie inside the polyline's x-range.
+ */
+export function walkY(L: Lookup, x: number): number {
+  const xs = L.xs;
+  let i = L.cursor;
+  if (x < xs[i]) i = segmentAt(L, x);
+  else while (i < L.last - 1 && xs[i + 1] < x) i++;
+  L.cursor = i;
+  return L.ys[i] + L.slopes[i] * (x - xs[i]);
 }
