@@ -55,7 +55,7 @@ const SLICES = 50;
 const prepared = core.prepareSection(levee);
 const fast = core.fastSection(prepared);
 const buffer = core.sliceBuffer(SLICES + 1);
-const ends = { xa: 0, xb: 0 };
+const ends = { xa: 0.5, xb: 0.5 };
 const c0 = levee.analysis.surface;
 // trial circles around the given one: every one is admissible
 const circles = [];

@@ -40,7 +40,7 @@ export interface SearchOutcome {
  */
 export function fastBishopEvaluator(prepared: PreparedSection, slices: number): CircleEvaluator {
   const fast = fastSection(prepared);
-  const ends = { xa: 0, xb: 0 };
+  const ends = { xa: 0.5, xb: 0.5 };
   let guess = 1;
   return (xc, yc, r) => {
     if (!(r > 0)) return NaN;
