@@ -80,8 +80,11 @@ export function bishopCircle(
     strips,
     lines,
   } = G;
-  const nt = tops.length;
-  grow(n, nt);
+  // only the tops that reach above the circle's lowest point need reading
+  const bottom = yc - r;
+  let nt = 1;
+  while (nt < tops.length && G.topMax[nt] > bottom) nt++;
+  grow(n, tops.length);
   // local handles on the reused buffers (module bindings are slower to reach in hot loops)
   const sinA = sin;
   const cosA = cos;
@@ -94,8 +97,11 @@ export function bishopCircle(
   const ed = edge;
   const seismic = fs.prepared.section.seismic;
   const kh = seismic.kh;
+  const seismicH = kh !== 0;
   const kv1 = 1 + seismic.kv;
   const w = (xb - xa) / n;
+  const ir = 1 / r;
+  const loads = strips.length > 0 || lines.length > 0;
   // edge values: ground, strata tops (ed[k]), piezometric line; left in [0, nt), right in [nt, 2nt)
   let L = 0;
   let R = nt;
@@ -113,10 +119,10 @@ export function bishopCircle(
     const pR = piezo ? walkY(piezo, x1) : -Infinity;
     // the base at the middle: tangent to the arc, or along the rigid top
     const u = xm - xc;
-    const s = Math.sqrt(Math.max(0, r2 - u * u));
+    const s = Math.sqrt(r2 - u * u);
     let ybm = yc - s;
-    let sn = u / r;
-    let cs = s / r;
+    let sn = u * ir;
+    let cs = s * ir;
     let an = 0;
     let as = r;
     if (rigid) {
@@ -144,18 +150,20 @@ export function bishopCircle(
       const t = tm - bm;
       if (pm > bm && pm < tm && gammaSat[k] !== gamma[k]) {
         W += gamma[k] * (tm - pm) + gammaSat[k] * (pm - bm);
-        WY += gamma[k] * (tm - pm) * 0.5 * (tm + pm) + gammaSat[k] * (pm - bm) * 0.5 * (pm + bm);
+        if (seismicH)
+          WY += gamma[k] * (tm - pm) * 0.5 * (tm + pm) + gammaSat[k] * (pm - bm) * 0.5 * (pm + bm);
       } else {
         const gk = pm >= tm ? gammaSat[k] : gamma[k];
         W += gk * t;
-        WY += gk * t * 0.5 * (tm + bm);
+        if (seismicH) WY += gk * t * 0.5 * (tm + bm);
       }
       base = k;
       if (nm <= ybm) break;
     }
     const weight = W * b;
     total += weight;
-    const cy = W > 0 ? WY / W : ybm;
+    // the height of the weight matters only for the horizontal seismic force
+    const cy = seismicH && W > 0 ? WY / W : ybm;
     const up = piezo ? (pm > ybm ? gw * (pm - ybm) : 0) : ru * W;
     const datum = suDatum[base];
     const ci = c[base] + (datum > ybm ? suRate[base] * (datum - ybm) : 0);
@@ -173,7 +181,7 @@ export function bishopCircle(
       qy += fy;
       qm += xm * fy - gm * fx;
     }
-    for (let k = 0; k < strips.length; k += 3) {
+    for (let k = 0; loads && k < strips.length; k += 3) {
       const a = strips[k] > x0 ? strips[k] : x0;
       const e = strips[k + 1] < x1 ? strips[k + 1] : x1;
       if (e > a) {
@@ -182,7 +190,7 @@ export function bishopCircle(
         qm += 0.5 * (a + e) * f;
       }
     }
-    for (let k = 0; k < lines.length; k += 3) {
+    for (let k = 0; loads && k < lines.length; k += 3) {
       const x = lines[k];
       if ((x >= x0 && x < x1) || (i + 1 === n && x === x1)) {
         const yq = lookupY(ground, x);

@@ -11,6 +11,8 @@ export interface FastGeometry {
   ground: Lookup;
   /** Strata tops, tops[0] the ground; only the strata above the rigid base. */
   tops: Lookup[];
+  /** Highest point of each top: a circle whose lowest point is below it may reach that stratum. */
+  topMax: Float64Array;
   soil: number;
   rigid: Lookup | null;
   piezo: Lookup | null;
@@ -80,6 +82,9 @@ function fastGeometry(prepared: PreparedSection, g: Geometry): FastGeometry {
     g,
     ground: lookup(g.ground),
     tops: g.tops.slice(0, Math.min(soil + 1, g.tops.length)).map(lookup),
+    topMax: Float64Array.from(g.tops.slice(0, Math.min(soil + 1, g.tops.length)), (t) =>
+      Math.max(...t.map((p) => p[1])),
+    ),
     soil,
     rigid: g.rigidTop ? lookup(g.rigidTop) : null,
     piezo: g.piezometric ? lookup(g.piezometric) : null,
