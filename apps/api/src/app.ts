@@ -2,12 +2,24 @@
 import cors from 'cors';
 import express, { type Request } from 'express';
 import helmet from 'helmet';
+import path from 'node:path';
+import swaggerUi from 'swagger-ui-express';
 import { config } from './config';
 import { authenticate } from './middleware/auth';
 import { notFoundRoute, problemHandler } from './middleware/problem';
 import { adminRoutes } from './routes/admin';
 import { authRoutes } from './routes/auth';
 import { batchRoutes } from './routes/batches';
+import { exportRoutes } from './routes/exports';
+import { reviewRoutes } from './routes/reviews';
+
+const SCHEMAS_DIR = path.dirname(require.resolve('@scarpline/schemas/package.json'));
+const SCHEMA_FILES = [
+  'openapi.json',
+  'batch.schema.json',
+  'section.schema.json',
+  'result.schema.json',
+];
 
 /** homePage: an HTML page served at / (the placeholder until the web app exists). */
 export function createApp(options: { homePage?: string } = {}): express.Express {
@@ -25,11 +37,24 @@ export function createApp(options: { homePage?: string } = {}): express.Express 
     }),
   );
 
+  // The OpenAPI document and the JSON Schemas it references, public, and the UI over them.
+  app.get('/api/schemas/:name', (req, res, next) => {
+    if (!SCHEMA_FILES.includes(req.params.name)) return next();
+    res.type('application/json').sendFile(path.join(SCHEMAS_DIR, req.params.name));
+  });
+  app.use(
+    '/api/docs',
+    swaggerUi.serve,
+    swaggerUi.setup(undefined, { swaggerOptions: { url: '/api/schemas/openapi.json' } }),
+  );
+
   const v1 = express.Router();
   v1.use(authRoutes);
   v1.use(authenticate);
   v1.use(adminRoutes);
   v1.use(batchRoutes);
+  v1.use(reviewRoutes);
+  v1.use(exportRoutes);
   app.use('/api/v1', v1);
   const home = options.homePage;
   if (home) app.get('/', (_req, res) => void res.type('html').send(home));

@@ -124,6 +124,33 @@ const routes = (): [string, string, object | undefined, Role[]][] => [
     undefined,
     ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
   ],
+  ['post', `/api/v1/sections/${sectionId}/reviews`, {}, ['admin', 'reviewer']],
+  ['post', `/api/v1/batches/${batchId}/reviews`, {}, ['admin', 'reviewer']],
+  ['post', `/api/v1/sections/${sectionId}/runs`, {}, ['admin', 'engineer']],
+  [
+    'get',
+    `/api/v1/sections/${sectionId}/runs`,
+    undefined,
+    ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
+  ],
+  [
+    'get',
+    `/api/v1/batches/${batchId}/results.csv`,
+    undefined,
+    ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
+  ],
+  [
+    'get',
+    `/api/v1/batches/${batchId}/results.geojson`,
+    undefined,
+    ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
+  ],
+  [
+    'get',
+    `/api/v1/sections/${sectionId}/plot.svg`,
+    undefined,
+    ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
+  ],
 ];
 
 const ROLE_LIST: Role[] = ['admin', 'engineer', 'reviewer', 'viewer', 'integration'];

@@ -136,6 +136,8 @@ export class SectionRow extends Model<
   /** The current run; a re-run with edits increments it and keeps the older results. */
   declare run: CreationOptional<number>;
   declare failReason: string | null;
+  /** The section line of a GeoJSON corridor feature, as given; null for other inputs. */
+  declare geometry: CreationOptional<object | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -149,6 +151,7 @@ SectionRow.init(
     status: { type: DataTypes.STRING, allowNull: false },
     run: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
     failReason: { type: DataTypes.TEXT, allowNull: true },
+    geometry: { type: DataTypes.JSONB, allowNull: true },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
   },
@@ -180,6 +183,8 @@ export class ResultRow extends Model<
   declare finishedAt: Date;
   declare durationMs: number;
   declare attempt: number;
+  /** The section input this run was computed from. */
+  declare input: CreationOptional<object | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -202,6 +207,7 @@ ResultRow.init(
     finishedAt: { type: DataTypes.DATE, allowNull: false },
     durationMs: { type: DataTypes.INTEGER, allowNull: false },
     attempt: { type: DataTypes.INTEGER, allowNull: false },
+    input: { type: DataTypes.JSONB, allowNull: true },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
   },
@@ -215,6 +221,8 @@ export class Review extends Model<InferAttributes<Review>, InferCreationAttribut
   declare reviewerId: ForeignKey<number>;
   declare decision: 'approved' | 'returned';
   declare comment: string;
+  /** The section's run the review concerns; null for a review of the whole batch. */
+  declare run: number | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -223,6 +231,7 @@ Review.init(
     id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
     decision: { type: DataTypes.STRING, allowNull: false },
     comment: { type: DataTypes.TEXT, allowNull: false },
+    run: { type: DataTypes.INTEGER, allowNull: true },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
   },
@@ -267,3 +276,4 @@ ResultRow.belongsTo(SectionRow, { foreignKey: 'sectionId' });
 Review.belongsTo(User, { foreignKey: 'reviewerId', as: 'reviewer' });
 Review.belongsTo(Batch, { foreignKey: 'batchId' });
 Review.belongsTo(SectionRow, { foreignKey: 'sectionId' });
+Batch.hasMany(Review, { foreignKey: 'batchId' });

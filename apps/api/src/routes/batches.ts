@@ -12,6 +12,7 @@ import {
   type SectionQuery,
 } from '../services/batches';
 import { assertProject } from '../services/auth';
+import { rerunSection, sectionRuns } from '../services/rerun';
 import { sectionView } from '../services/sections';
 import { createProject, getProject, listProjects } from '../services/users';
 import { parseBatchBody, parseFiles } from '../services/validate';
@@ -77,4 +78,13 @@ batchRoutes.get('/batches/:id/sections', allow(...ALL), async (req, res) => {
 
 batchRoutes.get('/sections/:id', allow(...ALL), async (req, res) => {
   res.json(await sectionView(principal(req), idParam(req.params.id)));
+});
+
+batchRoutes.post('/sections/:id/runs', allow('admin', 'engineer'), async (req, res) => {
+  if (!req.is('application/json')) throw badRequest('Send the changes as application/json.');
+  res.status(202).json(await rerunSection(principal(req), idParam(req.params.id), req.body));
+});
+
+batchRoutes.get('/sections/:id/runs', allow(...ALL), async (req, res) => {
+  res.json(await sectionRuns(principal(req), idParam(req.params.id)));
 });

@@ -8,6 +8,7 @@ import { Batch, Project, ResultRow, SectionRow } from '../models';
 import { enqueueSections } from '../queue';
 import { audit } from './audit';
 import { assertProject, type Principal } from './auth';
+import { batchReview, sectionReviewStates } from './reviews';
 import type { Parsed } from './validate';
 
 export async function submitBatch(p: Principal, projectId: number, parsed: Parsed, source: string) {
@@ -37,6 +38,7 @@ export async function submitBatch(p: Principal, projectId: number, parsed: Parse
         input: s,
         status: 'queued' as const,
         failReason: null,
+        geometry: parsed.geometries?.[s.id] ?? null,
       })),
       { transaction: t, returning: true },
     );
@@ -96,6 +98,7 @@ export async function batchView(batchId: number) {
     createdAt: b.createdAt,
     finishedAt: b.finishedAt,
     progress: await progress(b.id),
+    review: await batchReview(b.id),
     caution: CAUTION,
   };
 }
@@ -148,6 +151,7 @@ export async function listSections(batch: Batch, q: SectionQuery) {
     offset: (page - 1) * pageSize,
     distinct: true,
   });
+  const reviews = await sectionReviewStates(batch.id);
   return {
     page,
     pageSize,
@@ -161,6 +165,7 @@ export async function listSections(batch: Batch, q: SectionQuery) {
         status: s.status,
         run: s.run,
         failReason: s.failReason,
+        reviewState: reviews.get(s.id)?.decision ?? 'pending',
         result: r
           ? {
               status: r.status,

@@ -4,6 +4,7 @@ import { notFound } from '../errors';
 import { ResultRow, SectionRow } from '../models';
 import type { Principal } from './auth';
 import { loadBatch } from './batches';
+import { sectionReview } from './reviews';
 
 export function resultView(r: ResultRow) {
   return {
@@ -46,6 +47,7 @@ export async function sectionView(p: Principal, id: number) {
     input: s.input,
     result: current ? resultView(current) : null,
     previous: results.filter((r) => r.run !== s.run).map(resultView),
+    review: await sectionReview(s),
     caution: CAUTION,
   };
 }

@@ -77,6 +77,7 @@ async function solveOnce(job: SectionJob, attempt: number): Promise<void> {
         finishedAt,
         durationMs: finishedAt.getTime() - startedAt.getTime(),
         attempt: attempt + 1,
+        input: section.input,
       },
       {
         transaction,

@@ -27,6 +27,8 @@ export interface Parsed {
   /** The batch id and title when a batch file or corridor was given. */
   name: string;
   title: string | null;
+  /** Section id → the line geometry of its GeoJSON corridor feature, when there was one. */
+  geometries?: Record<string, object>;
 }
 
 function locatedError(messages: Message[]) {
@@ -87,12 +89,17 @@ export function parseFiles(files: InputFile[]): Parsed {
   const messages: Message[] = [];
   let name: string | null = null;
   let title: string | null = null;
+  const geometries: Record<string, object> = {};
   for (const f of files) {
     if (isGeoJsonCorridor(f.text)) {
       const c = parseGeoJsonCorridor(f.text, f.name);
       sections.push(...c.sections);
       messages.push(...c.messages);
       name ??= c.batchId;
+      for (const feature of c.features) {
+        const g = feature.geometry;
+        if (feature.sectionId && g && typeof g === 'object') geometries[feature.sectionId] = g;
+      }
     } else {
       const p = parseSections(f.text, f.name);
       sections.push(...p.sections);
@@ -111,7 +118,7 @@ export function parseFiles(files: InputFile[]): Parsed {
     if (ids.has(s.id)) throw invalid(`Section id ${s.id} appears twice in the upload.`);
     ids.add(s.id);
   }
-  return { sections, warnings: messages, name: name ?? sections[0].id, title };
+  return { sections, warnings: messages, name: name ?? sections[0].id, title, geometries };
 }
 
 /** One section document (a re-run with edits). */

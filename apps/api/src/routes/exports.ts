@@ -1,0 +1,29 @@
+import { Router } from 'express';
+import { ALL, allow, principal } from '../middleware/auth';
+import { loadBatch } from '../services/batches';
+import { batchCsv, batchGeoJson, fileName, sectionSvg } from '../services/exports';
+import { idParam } from './params';
+
+export const exportRoutes = Router();
+const attachment = (name: string) => `attachment; filename="${name}"`;
+
+exportRoutes.get('/batches/:id/results.csv', allow(...ALL), async (req, res) => {
+  const b = await loadBatch(principal(req), idParam(req.params.id));
+  res
+    .type('text/csv; charset=utf-8')
+    .set('Content-Disposition', attachment(fileName(b, 'csv')))
+    .send(await batchCsv(b));
+});
+
+exportRoutes.get('/batches/:id/results.geojson', allow(...ALL), async (req, res) => {
+  const b = await loadBatch(principal(req), idParam(req.params.id));
+  res
+    .type('application/geo+json')
+    .set('Content-Disposition', attachment(fileName(b, 'geojson')))
+    .send(JSON.stringify(await batchGeoJson(b)));
+});
+
+exportRoutes.get('/sections/:id/plot.svg', allow(...ALL), async (req, res) => {
+  const { svg, fileName: name } = await sectionSvg(principal(req), idParam(req.params.id));
+  res.type('image/svg+xml').set('Content-Disposition', `inline; filename="${name}"`).send(svg);
+});

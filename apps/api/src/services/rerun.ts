@@ -1,0 +1,167 @@
+/**
+ * Re-running a section with edits: a JSON merge (RFC 7396) of changes onto the section as
+ * stored, checked again by the section schema and the core's checks (located errors, 422),
+ * queued as the next run. Older runs and their results are kept.
+ */
+import type { Analysis, Material, Section, Water } from '@scarpline/core';
+import { CAUTION } from '@scarpline/core';
+import { sequelize } from '../db';
+import { conflict, invalid } from '../errors';
+import { AuditEntry, Batch, ResultRow } from '../models';
+import { enqueueSections } from '../queue';
+import { audit } from './audit';
+import type { Principal } from './auth';
+import { loadSection, resultView, sectionView } from './sections';
+import { parseSectionText } from './validate';
+
+/** What an edit may change. Values are SI (the stored section is normalised to SI). */
+export const EDITABLE = [
+  'title',
+  'description',
+  'materials',
+  'strata',
+  'water',
+  'loads',
+  'seismic',
+  'crack',
+  'analysis',
+  'requiredFs',
+] as const;
+
+type Json = null | boolean | number | string | Json[] | { [key: string]: Json };
+
+const isObject = (v: unknown): v is Record<string, Json> =>
+  typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** RFC 7396: objects merge member by member, null removes a member, anything else replaces. */
+export function mergePatch(target: Json, patch: Json): Json {
+  if (!isObject(patch)) return patch;
+  const out: Record<string, Json> = isObject(target) ? { ...target } : {};
+  for (const [k, v] of Object.entries(patch)) {
+    if (v === null) delete out[k];
+    else out[k] = mergePatch(out[k] ?? null, v);
+  }
+  return out;
+}
+
+function drop<T extends object>(o: T): Partial<T> {
+  return Object.fromEntries(
+    Object.entries(o).filter(([, v]) => v !== null && v !== undefined),
+  ) as Partial<T>;
+}
+
+/** The stored (normalised, SI) section written back as a section document in SI units. */
+export function sectionDocument(s: Section): Record<string, Json> {
+  const materials: Record<string, unknown> = {};
+  for (const [name, m] of Object.entries(s.materials) as [string, Material][]) {
+    // An undrained strength without growth with depth has suRate 0 and no datum: write neither.
+    const strength =
+      m.strength.model === 'undrained'
+        ? drop({ ...m.strength, suRate: m.strength.suRate || null })
+        : { ...m.strength };
+    materials[name] =
+      m.strength.model === 'rigid' && m.unitWeight === 0
+        ? { strength }
+        : { unitWeight: m.unitWeight, saturatedUnitWeight: m.saturatedUnitWeight, strength };
+  }
+  const w: Water = s.water;
+  const water =
+    w.kind === 'piezometric'
+      ? { piezometric: w.line, unitWeight: w.unitWeight }
+      : w.kind === 'ru'
+        ? { ru: w.ru, unitWeight: w.unitWeight }
+        : { unitWeight: w.unitWeight };
+  const a: Analysis = s.analysis;
+  const doc = {
+    format: s.format,
+    id: s.id,
+    title: s.title,
+    station: s.station,
+    offset: s.offset,
+    units: 'si',
+    ground: s.ground,
+    materials,
+    strata: s.strata.map((st, i) => (i === 0 ? { material: st.material } : st)),
+    water,
+    loads: s.loads,
+    seismic: s.seismic,
+    crack: s.crack,
+    analysis: drop({ ...a }),
+  };
+  return JSON.parse(JSON.stringify(drop(doc))) as Record<string, Json>;
+}
+
+/** The edited section, checked; throws 422 with located errors (paths into the section). */
+export function editSection(stored: Section, changes: unknown): Section {
+  if (!isObject(changes)) throw invalid('Send the changes as a JSON object.');
+  const unknown = Object.keys(changes).filter((k) => !(EDITABLE as readonly string[]).includes(k));
+  if (unknown.length > 0) {
+    throw invalid(`These cannot be edited: ${unknown.join(', ')}.`, {
+      errors: unknown.map((k) => ({
+        severity: 'error',
+        path: k,
+        code: 'not-editable',
+        message: `${k} cannot be edited; the settings that can are ${EDITABLE.join(', ')}`,
+        text: `${k}: cannot be edited`,
+      })),
+    });
+  }
+  const { requiredFs, ...rest } = changes;
+  const patch: Record<string, Json> = { ...rest };
+  if (requiredFs !== undefined) {
+    patch.analysis = mergePatch(patch.analysis ?? {}, { requiredFs });
+  }
+  const doc = mergePatch(sectionDocument(stored), patch);
+  const edited = parseSectionText(JSON.stringify(doc, null, 2), 'edited-section.json');
+  // Values are SI; results are still reported in the units of the file it came from.
+  return { ...edited, units: stored.units };
+}
+
+export async function rerunSection(p: Principal, sectionId: number, changes: unknown) {
+  const section = await loadSection(p, sectionId);
+  if (section.status === 'queued' || section.status === 'running') {
+    throw conflict(`Section ${section.key} is ${section.status}; re-run it when this run ends.`);
+  }
+  const input = editSection(section.input as Section, changes);
+  const run = section.run + 1;
+  await sequelize.transaction(async (t) => {
+    await section.update({ input, run, status: 'queued', failReason: null }, { transaction: t });
+    await Batch.update(
+      { status: 'running', finishedAt: null },
+      { where: { id: section.batchId }, transaction: t },
+    );
+    await enqueueSections([{ sectionId: section.id, run }], t);
+    await audit(p.userId, 'rerun', 'section', section.id, { run, changes }, t);
+  });
+  return sectionView(p, section.id);
+}
+
+/** Every run of a section, newest first: its result, and the edits that started it. */
+export async function sectionRuns(p: Principal, sectionId: number) {
+  const section = await loadSection(p, sectionId);
+  const results = await ResultRow.findAll({
+    where: { sectionId: section.id },
+    order: [['run', 'DESC']],
+  });
+  const edits = await AuditEntry.findAll({
+    where: { action: 'rerun', entity: 'section', entityId: section.id },
+  });
+  const editOf = (run: number) =>
+    (edits.find((e) => (e.details as { run?: number } | null)?.run === run)?.details as
+      { changes?: unknown } | undefined) ?? null;
+  const runs = [];
+  for (let run = section.run; run >= 1; run--) {
+    const r = results.find((x) => x.run === run);
+    const edit = editOf(run);
+    runs.push({
+      run,
+      current: run === section.run,
+      changes: edit?.changes ?? null,
+      editedBy:
+        edits.find((e) => (e.details as { run?: number } | null)?.run === run)?.userId ?? null,
+      input: r?.input ?? (run === section.run ? section.input : null),
+      result: r ? resultView(r) : null,
+    });
+  }
+  return { sectionId: section.id, key: section.key, run: section.run, runs, caution: CAUTION };
+}
