@@ -55,7 +55,6 @@ export { refineCircle } from './search/refine-circle';
 export { Trials, type CircleTrial, type CircleEvaluator } from './search/trials';
 export { fastSection, sliceBuffer, type FastSection } from './search/fast-section';
 export { sliceCircleFast } from './search/slice-circle-fast';
-export { bishopFast } from './search/bishop-fast';
 export { bishopCircle } from './search/bishop-circle';
 export { nelderMead } from './numeric/nelder-mead';
 

@@ -33,30 +33,26 @@ export interface Statics {
  * a noncircular surface). Moments are counter-clockwise positive; a mass sliding toward −x
  * turns clockwise, so resisting moments are positive.
  */
-export function statics(s: SliceSet, seismic: Seismic, pivot: Point, into?: Statics): Statics {
+export function statics(s: SliceSet, seismic: Seismic, pivot: Point): Statics {
   const n = s.n;
-  let st: Statics;
-  if (into && into.sin.length >= n) st = Object.assign(into, { n, pivot });
-  else {
-    // one backing buffer for all eleven arrays: typed-array allocation is costly, views are cheap
-    const buffer = new Float64Array(11 * n);
-    const view = (k: number) => buffer.subarray(k * n, (k + 1) * n);
-    st = {
-      n,
-      sin: view(0),
-      cos: view(1),
-      len: view(2),
-      C: view(3),
-      t: view(4),
-      U: view(5),
-      Hx: view(6),
-      Hy: view(7),
-      aN: view(8),
-      aS: view(9),
-      M0: view(10),
-      pivot,
-    };
-  }
+  // one backing buffer for all eleven arrays: typed-array allocation is costly, views are cheap
+  const buffer = new Float64Array(11 * n);
+  const view = (k: number) => buffer.subarray(k * n, (k + 1) * n);
+  const st: Statics = {
+    n,
+    sin: view(0),
+    cos: view(1),
+    len: view(2),
+    C: view(3),
+    t: view(4),
+    U: view(5),
+    Hx: view(6),
+    Hy: view(7),
+    aN: view(8),
+    aS: view(9),
+    M0: view(10),
+    pivot,
+  };
   const [xo, yo] = pivot;
   const kh = seismic.kh;
   const kv1 = 1 + seismic.kv;

@@ -208,7 +208,7 @@ export function bishopCircle(
     cosA[i] = cs;
     Ta[i] = ti;
     Ca[i] = (ci - up * ti) * l;
-    Wa[i] = kv1 * weight - qy;
+    Wa[i] = qy - kv1 * weight;
     aNa[i] = an;
     aSa[i] = as;
     M0a[i] = -u * kv1 * weight + (cy - yc) * kh * weight + (qm - xc * qy + yc * qx);
@@ -218,6 +218,7 @@ export function bishopCircle(
     R = swap;
   }
   if (!(total > 0)) return NaN;
+  // Bishop's fixed point: N = (−Hy − C sin α / F) / mα, F = Σ (C + N tan φ′)·aS / Σ −(N·aN + M0)
   let F = guess > 0 ? guess : 1;
   for (let it = 0; it < 60; it++) {
     const iF = 1 / F;
@@ -226,7 +227,7 @@ export function bishopCircle(
     for (let i = 0; i < n; i++) {
       const den = Ta[i] * iF * sinA[i] + cosA[i];
       if (den <= 1e-9) return NaN;
-      const N = (Wa[i] - Ca[i] * iF * sinA[i]) / den;
+      const N = (-Wa[i] - Ca[i] * iF * sinA[i]) / den;
       resist += (Ca[i] + N * Ta[i]) * aSa[i];
       drive -= N * aNa[i] + M0a[i];
     }
