@@ -64,7 +64,7 @@ for (let i = 0; i < 40; i++) {
     const xc = c0.center[0] + (i - 20) * 0.08;
     const yc = c0.center[1] + (j - 12) * 0.08;
     const r = c0.radius + (j - 12) * 0.06;
-    if (core.sliceCircleFast(fast, xc, yc, r, SLICES, buffer, ends)) circles.push([xc, yc, r]);
+    if (core.bishopCircle(fast, xc, yc, r, SLICES, 1.2, ends) > 0) circles.push([xc, yc, r]);
   }
 }
 
