@@ -11,6 +11,7 @@ import { adminRoutes } from './routes/admin';
 import { authRoutes } from './routes/auth';
 import { batchRoutes } from './routes/batches';
 import { exportRoutes } from './routes/exports';
+import { reviewRequestRoutes } from './routes/review-requests';
 import { reviewRoutes } from './routes/reviews';
 
 const SCHEMAS_DIR = path.dirname(require.resolve('@scarpline/schemas/package.json'));
@@ -54,6 +55,7 @@ export function createApp(options: { homePage?: string } = {}): express.Express 
   v1.use(adminRoutes);
   v1.use(batchRoutes);
   v1.use(reviewRoutes);
+  v1.use(reviewRequestRoutes);
   v1.use(exportRoutes);
   app.use('/api/v1', v1);
   const home = options.homePage;

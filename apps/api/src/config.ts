@@ -24,6 +24,10 @@ export interface Config {
   retryDelay: number;
   jobTimeout: number;
   workerConcurrency: number;
+  /** How often pg-boss's maintenance runs (expires timed-out jobs), in seconds. */
+  queueMaintenance: number;
+  /** How often a live-progress stream reads the database, in milliseconds. */
+  eventPollMs: number;
   corsOrigin: string;
 }
 
@@ -55,6 +59,8 @@ function read(): Config {
     retryDelay: num('JOB_RETRY_DELAY', 1),
     jobTimeout: num('JOB_TIMEOUT', 120),
     workerConcurrency: num('WORKER_CONCURRENCY', os.availableParallelism()),
+    queueMaintenance: num('QUEUE_MAINTENANCE_SECONDS', 30),
+    eventPollMs: num('EVENT_POLL_MS', 500),
     corsOrigin: process.env.CORS_ORIGIN ?? '',
   };
 }

@@ -17,7 +17,12 @@ let boss: PgBoss | null = null;
 /** The process's pg-boss, started and with its queues created (idempotent). */
 export async function queue(): Promise<PgBoss> {
   if (boss) return boss;
-  const b = new PgBoss({ connectionString: config.databaseUrl, schema: 'pgboss', max: 4 });
+  const b = new PgBoss({
+    connectionString: config.databaseUrl,
+    schema: 'pgboss',
+    max: 4,
+    maintenanceIntervalSeconds: config.queueMaintenance,
+  });
   b.on('error', (e) => console.error('queue:', e.message));
   await b.start();
   if (!(await b.getQueue(DEAD_QUEUE))) await b.createQueue(DEAD_QUEUE, { name: DEAD_QUEUE });

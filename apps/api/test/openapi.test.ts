@@ -8,6 +8,7 @@ import { adminRoutes } from '../src/routes/admin';
 import { authRoutes } from '../src/routes/auth';
 import { batchRoutes } from '../src/routes/batches';
 import { exportRoutes } from '../src/routes/exports';
+import { reviewRequestRoutes } from '../src/routes/review-requests';
 import { reviewRoutes } from '../src/routes/reviews';
 
 const doc = JSON.parse(
@@ -26,7 +27,14 @@ interface Layer {
 /** Every method and path the /api/v1 routers register, in OpenAPI's {param} form. */
 function registered(): string[] {
   const out: string[] = [];
-  for (const r of [authRoutes, adminRoutes, batchRoutes, reviewRoutes, exportRoutes] as Router[]) {
+  for (const r of [
+    authRoutes,
+    adminRoutes,
+    batchRoutes,
+    reviewRoutes,
+    reviewRequestRoutes,
+    exportRoutes,
+  ] as Router[]) {
     for (const layer of r.stack as Layer[]) {
       if (!layer.route) continue;
       const p = layer.route.path.replace(/:(\w+)/g, '{$1}');

@@ -13,6 +13,7 @@ let otherProjectId: number;
 let batchId: number;
 let sectionId: number;
 let otherBatchId: number;
+let doneBatchId: number;
 
 beforeAll(async () => {
   users = await makeUsers('roles');
@@ -31,13 +32,13 @@ beforeAll(async () => {
   });
   projectId = project.id;
   otherProjectId = other.id;
-  const mk = async (pid: number) => {
+  const mk = async (pid: number, status: 'running' | 'done' = 'running') => {
     const b = await Batch.create({
       projectId: pid,
       submittedBy: users.engineer.id,
       name: 'roles',
       title: null,
-      status: 'running',
+      status,
       total: 1,
       source: 'json',
       finishedAt: null,
@@ -48,7 +49,7 @@ beforeAll(async () => {
       position: 0,
       station: 0,
       input: { format: 'scarpline/1' },
-      status: 'queued',
+      status: status === 'done' ? 'failed' : 'queued',
       failReason: null,
     });
     return { b, s };
@@ -57,6 +58,8 @@ beforeAll(async () => {
   batchId = a.b.id;
   sectionId = a.s.id;
   otherBatchId = (await mk(otherProjectId)).b.id;
+  // A finished batch, so its event stream ends at once.
+  doneBatchId = (await mk(projectId, 'done')).b.id;
   const t = await request(app)
     .post('/api/v1/tokens')
     .auth(tokens.admin, { type: 'bearer' })
@@ -112,6 +115,13 @@ const routes = (): [string, string, object | undefined, Role[]][] => [
     undefined,
     ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
   ],
+  [
+    'get',
+    `/api/v1/batches/${doneBatchId}/events`,
+    undefined,
+    ['admin', 'engineer', 'reviewer', 'viewer', 'integration'],
+  ],
+  ['post', `/api/v1/batches/${doneBatchId}/review-requests`, {}, ['admin', 'engineer']],
   [
     'get',
     `/api/v1/batches/${batchId}/sections`,
@@ -187,6 +197,16 @@ test('an integration token sees only its projects', async () => {
   );
   expectProblem(
     await request(app).get(`/api/v1/batches/${otherBatchId}`).auth(tokens.integration, auth),
+    403,
+  );
+  expectProblem(
+    await request(app).get(`/api/v1/batches/${otherBatchId}/events`).auth(tokens.integration, auth),
+    403,
+  );
+  expectProblem(
+    await request(app).get(
+      `/api/v1/batches/${otherBatchId}/events?access_token=${tokens.integration}`,
+    ),
     403,
   );
   expectProblem(

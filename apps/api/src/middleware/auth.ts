@@ -15,7 +15,25 @@ passport.use(
   }),
 );
 
+/** The one route that takes `?access_token=` (EventSource cannot send headers). */
+const QUERY_TOKEN_ROUTE = /^\/batches\/[^/]+\/events$/;
+
 export const authenticate: RequestHandler = (req, res, next) => {
+  // passport-http-bearer also reads access_token from the query and the body; only the
+  // live-progress stream may use the query, and no route the body.
+  const query = req.query as Record<string, unknown>;
+  const body = req.body as Record<string, unknown> | undefined;
+  if (
+    (query.access_token !== undefined &&
+      !(req.method === 'GET' && QUERY_TOKEN_ROUTE.test(req.path))) ||
+    (body && typeof body === 'object' && body.access_token !== undefined)
+  ) {
+    return next(
+      unauthorized(
+        'Send the token in the Authorization header; ?access_token= is accepted only by GET /batches/{id}/events.',
+      ),
+    );
+  }
   passport.authenticate('bearer', { session: false }, (err: unknown, user: Principal | false) => {
     if (err) return next(err);
     if (!user) return next(unauthorized());

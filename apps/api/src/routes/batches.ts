@@ -12,6 +12,7 @@ import {
   type SectionQuery,
 } from '../services/batches';
 import { assertProject } from '../services/auth';
+import { etagOf, followBatch } from '../services/events';
 import { rerunSection, sectionRuns } from '../services/rerun';
 import { sectionView } from '../services/sections';
 import { createProject, getProject, listProjects } from '../services/users';
@@ -68,7 +69,30 @@ batchRoutes.post('/projects/:id/uploads', submitters, upload.array('files'), asy
 
 batchRoutes.get('/batches/:id', allow(...ALL), async (req, res) => {
   const b = await loadBatch(principal(req), idParam(req.params.id));
-  res.json(await batchView(b.id));
+  const view = await batchView(b.id);
+  // Express answers 304 itself when If-None-Match matches the ETag set here.
+  res.set('ETag', etagOf(view)).set('Cache-Control', 'private, no-cache').json(view);
+});
+
+/** Live progress as server-sent events; also takes ?access_token= (see middleware/auth). */
+batchRoutes.get('/batches/:id/events', allow(...ALL), async (req, res) => {
+  const b = await loadBatch(principal(req), idParam(req.params.id));
+  res.status(200).set({
+    'Content-Type': 'text/event-stream; charset=utf-8',
+    'Cache-Control': 'no-cache, no-transform',
+    Connection: 'keep-alive',
+    'X-Accel-Buffering': 'no',
+  });
+  res.flushHeaders();
+  res.write('retry: 2000\n\n');
+  const stop = new AbortController();
+  res.on('close', () => stop.abort());
+  await followBatch(
+    b.id,
+    (e) => void res.write(`event: ${e.event}\ndata: ${JSON.stringify(e.data)}\n\n`),
+    stop.signal,
+  );
+  res.end();
 });
 
 batchRoutes.get('/batches/:id/sections', allow(...ALL), async (req, res) => {

@@ -78,9 +78,10 @@ function mailer(): Transporter | null {
   return transport;
 }
 
-async function send(to: string[], subject: string, text: string): Promise<void> {
+/** Sends one message; false when there is no transport or recipient, or the send failed. */
+async function send(to: string[], subject: string, text: string): Promise<boolean> {
   const t = mailer();
-  if (!t || to.length === 0) return;
+  if (!t || to.length === 0) return false;
   try {
     await t.sendMail({
       from: config.mailFrom,
@@ -88,9 +89,11 @@ async function send(to: string[], subject: string, text: string): Promise<void> 
       subject,
       text: `${text}\n\nCaution: ${CAUTION}\n`,
     });
+    return true;
   } catch (e) {
     // Mail is a notice, not part of the result: a failed send is logged, never fatal.
     console.error('mail:', (e as Error).message);
+    return false;
   }
 }
 
@@ -126,5 +129,26 @@ export async function sectionBelowFs(
     await recipients(batch),
     `Scarpline: section ${section.key} is below its required FS`,
     `Section ${section.key} (batch ${batch.name}): FS ${fs?.toFixed(3)} against required ${required}.`,
+  );
+}
+
+/** Asks reviewers to look at a finished batch; true when the message was handed to SMTP. */
+export async function reviewRequested(
+  batch: Batch,
+  requester: { name: string; email: string },
+  to: string[],
+  comment: string,
+): Promise<boolean> {
+  const p = await progress(batch.id);
+  return send(
+    to,
+    `Scarpline: review requested for batch ${batch.name}`,
+    [
+      `${requester.name} <${requester.email}> asks for a review of batch ${batch.id} (${batch.name}).`,
+      `Sections: ${p.total}; solved: ${p.done}; failed to solve: ${p.failed}; below the required factor of safety: ${p.belowRequiredFs}.`,
+      ...(comment ? ['', comment] : []),
+      '',
+      `Results: /api/v1/batches/${batch.id}/sections; sign off: POST /api/v1/batches/${batch.id}/reviews.`,
+    ].join('\n'),
   );
 }
