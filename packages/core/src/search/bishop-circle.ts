@@ -1,6 +1,11 @@
-import type { FastGeometry, FastSection } from './fast-section';
+import type { FastSection } from './fast-section';
 import { lookupSlope, lookupY, walkY } from './lookup';
-import { type CircleEnds, circleEnds, crackEnd } from './slice-circle-fast';
+import {
+  type CircleEnds,
+  type CircleFrame,
+  circleFrame,
+  circleFrameBuffer,
+} from './slice-circle-fast';
 
 let cap = 0;
 let sin = new Float64Array(0);
@@ -12,6 +17,7 @@ let aN = new Float64Array(0);
 let aS = new Float64Array(0);
 let M0 = new Float64Array(0);
 let edge = new Float64Array(0);
+let frame: CircleFrame | null = null;
 
 function grow(n: number, tops: number): void {
   if (n > cap) {
@@ -48,21 +54,10 @@ export function bishopCircle(
   guess: number,
   ends: CircleEnds,
 ): number {
-  if (!circleEnds(fs.normal, xc0, yc, r, ends)) return NaN;
-  const gN = fs.normal.ground;
-  const mirrored = lookupY(gN, ends.xa) > lookupY(gN, ends.xb);
-  const G: FastGeometry = mirrored ? fs.mirrored : fs.normal;
-  const xc = mirrored ? -xc0 : xc0;
-  const xa = mirrored ? -ends.xb : ends.xa;
-  let xb = mirrored ? -ends.xa : ends.xb;
+  const f = frame ?? (frame = circleFrameBuffer(fs));
+  if (!circleFrame(fs, xc0, yc, r, ends, f)) return NaN;
+  const { G, xc, xa, xb, crackHw } = f;
   const r2 = r * r;
-  let crackHw = 0;
-  if (G.crackDepth > 0) {
-    const x = crackEnd(G, xc, yc, r2, xa, xb);
-    if (!(x > xa)) return NaN;
-    xb = x;
-    crackHw = Math.min(G.crackWater, G.crackDepth);
-  }
   const {
     tops,
     soil,

@@ -9,6 +9,7 @@ export interface CircleEnds {
 }
 
 const roots = new Float64Array(64);
+let frame: CircleFrame | null = null;
 let edgeL = new Float64Array(8);
 let edgeR = new Float64Array(8);
 
@@ -98,6 +99,56 @@ export function baseAt(G: FastGeometry, xc: number, yc: number, r2: number, x: n
   return arc;
 }
 
+/** A circle placed in its sliding orientation: the geometry, centre, ends and crack water. */
+export interface CircleFrame {
+  G: FastGeometry;
+  mirrored: boolean;
+  xc: number;
+  xa: number;
+  xb: number;
+  crackHw: number;
+}
+
+/** A frame to reuse from call to call (the search's hot path allocates nothing). */
+export function circleFrameBuffer(fs: FastSection): CircleFrame {
+  return { G: fs.normal, mirrored: false, xc: 0.5, xa: 0.5, xb: 0.5, crackHw: 0.5 };
+}
+
+/**
+ * Ends of the mass above a circle, the orientation it slides in (mirrored when it moves toward
+ * +x), and where a tension crack cuts it: written into `frame`; false when not admissible.
+ */
+export function circleFrame(
+  fs: FastSection,
+  xc0: number,
+  yc: number,
+  r: number,
+  ends: CircleEnds,
+  frame: CircleFrame,
+): boolean {
+  if (!circleEnds(fs.normal, xc0, yc, r, ends)) return false;
+  const gN = fs.normal.ground;
+  const mirrored = lookupY(gN, ends.xa) > lookupY(gN, ends.xb);
+  const G = mirrored ? fs.mirrored : fs.normal;
+  const xc = mirrored ? -xc0 : xc0;
+  const xa = mirrored ? -ends.xb : ends.xa;
+  let xb = mirrored ? -ends.xa : ends.xb;
+  let crackHw = 0;
+  if (G.crackDepth > 0) {
+    const x = crackEnd(G, xc, yc, r * r, xa, xb);
+    if (!(x > xa)) return false;
+    xb = x;
+    crackHw = Math.min(G.crackWater, G.crackDepth);
+  }
+  frame.G = G;
+  frame.mirrored = mirrored;
+  frame.xc = xc;
+  frame.xa = xa;
+  frame.xb = xb;
+  frame.crackHw = crackHw;
+  return true;
+}
+
 /**
  * Where a tension crack of the section's depth cuts the surface near its upper end xb (the
  * surface lies the crack depth below the ground there), or NaN when it never does.
@@ -151,24 +202,11 @@ export function sliceCircleFast(
   out: SliceSet,
   ends: CircleEnds,
 ): boolean {
-  if (!circleEnds(fs.normal, xc0, yc, r, ends)) return false;
-  const gN = fs.normal.ground;
-  const mirrored = lookupY(gN, ends.xa) > lookupY(gN, ends.xb);
-  const G = mirrored ? fs.mirrored : fs.normal;
-  const xc = mirrored ? -xc0 : xc0;
-  const xa = mirrored ? -ends.xb : ends.xa;
-  let xb = mirrored ? -ends.xa : ends.xb;
+  const f = frame ?? (frame = circleFrameBuffer(fs));
+  if (!circleFrame(fs, xc0, yc, r, ends, f)) return false;
+  const { G, mirrored, xc, xa, xb, crackHw } = f;
   const r2 = r * r;
   const ground = G.ground;
-
-  // tension crack at the upper (right) end
-  let crackHw = 0;
-  if (G.crackDepth > 0) {
-    const x = crackEnd(G, xc, yc, r2, xa, xb);
-    if (!(x > xa)) return false;
-    xb = x;
-    crackHw = Math.min(G.crackWater, G.crackDepth);
-  }
 
   const w = (xb - xa) / n;
   const tops = G.tops;
