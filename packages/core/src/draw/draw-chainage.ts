@@ -6,8 +6,8 @@ import { legend, type LegendItem } from './legend';
 import { BELOW_REQUIRED, INK, MUTED } from './palette';
 import { scaleLinear } from './scale-linear';
 import { pathData, svgElement, svgText } from './svg-element';
+import { cautionBlock, cautionLines, svgDocument } from './svg-document';
 import type { Frame } from './types';
-import { wrapText } from './wrap-text';
 
 /** One station of a corridor: its governing FS (null when none) and required FS. */
 export interface ChainagePoint {
@@ -175,10 +175,7 @@ export function drawChainage(
   if (none) items.push({ swatch: 'none', style: {}, label: `× without a result (${none})` });
   const title = options.title ?? 'Factor of safety along the chainage';
   const cautionTop = top + plotH + 62;
-  const caution = wrapText(
-    `Caution: ${options.caution ?? CAUTION}`,
-    Math.floor((width - 48) / 6.2),
-  );
+  const caution = cautionLines(options.caution ?? CAUTION, width);
   const height = cautionTop + caution.length * 14 + 14;
   const body = [
     svgElement('rect', { width, height, fill: '#ffffff' }),
@@ -196,23 +193,7 @@ export function drawChainage(
       'stroke-width': 0.8,
     }),
     legend(items, left + plotW - 250, 8),
-    svgElement(
-      'g',
-      { class: 'caution', 'font-size': 11, fill: INK, 'font-style': 'italic' },
-      caution.map((t, i) => svgText(24, cautionTop + i * 14, t)),
-    ),
+    cautionBlock(caution, cautionTop),
   ];
-  return svgElement(
-    'svg',
-    {
-      xmlns: 'http://www.w3.org/2000/svg',
-      width,
-      height,
-      viewBox: `0 0 ${width} ${height}`,
-      'font-family': 'Fira Sans, Helvetica, Arial, sans-serif',
-      role: 'img',
-      'aria-label': title,
-    },
-    body,
-  );
+  return svgDocument(width, height, title, body);
 }

@@ -19,9 +19,9 @@ import {
   trialSurfaceShapes,
 } from './surface-shapes';
 import { svgElement, svgText } from './svg-element';
+import { cautionBlock, cautionLines, svgDocument } from './svg-document';
 import type { SearchReport } from './types';
 import { waterShapes } from './water-shapes';
-import { wrapText } from './wrap-text';
 
 /** A section result, with the search's report when a search ran. */
 export type DrawableResult = SectionResult & { search?: SearchReport | null };
@@ -233,10 +233,7 @@ export function drawSection(
 
   const plotBottom = frame.top + frame.height;
   const cautionTop = Math.max(plotBottom + 58, rightBottom + 20);
-  const caution = wrapText(
-    `Caution: ${result.caution || CAUTION}`,
-    Math.floor((width - 2 * 24) / 6.2),
-  );
+  const caution = cautionLines(result.caution || CAUTION, width);
   const height = cautionTop + caution.length * 14 + 14;
 
   // --- title
@@ -326,23 +323,12 @@ export function drawSection(
     }),
     legendSvg,
     bar,
-    svgElement(
-      'g',
-      { class: 'caution', 'font-size': 11, fill: INK, 'font-style': 'italic' },
-      caution.map((t, i) => svgText(24, cautionTop + i * 14, t)),
-    ),
+    cautionBlock(caution, cautionTop),
   ];
-  return svgElement(
-    'svg',
-    {
-      xmlns: 'http://www.w3.org/2000/svg',
-      width,
-      height: Math.round(height),
-      viewBox: `0 0 ${width} ${Math.round(height)}`,
-      'font-family': 'Fira Sans, Helvetica, Arial, sans-serif',
-      role: 'img',
-      'aria-label': `${result.id}: cross-section with the critical slip surface`,
-    },
+  return svgDocument(
+    width,
+    Math.round(height),
+    `${result.id}: cross-section with the critical slip surface`,
     body.filter(Boolean),
   );
 }
