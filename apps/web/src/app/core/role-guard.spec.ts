@@ -1,0 +1,67 @@
+import { TestBed } from '@angular/core/testing';
+import { provideHttpClient } from '@angular/common/http';
+import { provideHttpClientTesting } from '@angular/common/http/testing';
+import { provideRouter, Router, UrlTree, type ActivatedRouteSnapshot } from '@angular/router';
+import { Auth } from './auth';
+import { roleGuard } from './role-guard';
+import type { Session } from './models';
+
+function signInAs(role: Session['user']['role']): void {
+  const s: Session = {
+    token: 't',
+    expiresAt: new Date(Date.now() + 3600_000).toISOString(),
+    user: { id: 1, email: 'a@b.example', name: 'A', role },
+  };
+  sessionStorage.setItem('scarpline.session', JSON.stringify(s));
+}
+
+function run(guard: ReturnType<typeof roleGuard>, url: string): boolean | UrlTree {
+  return TestBed.runInInjectionContext(
+    () => guard({} as ActivatedRouteSnapshot, { url, root: {} as never }) as boolean | UrlTree,
+  );
+}
+
+describe('roleGuard', () => {
+  afterEach(() => sessionStorage.clear());
+
+  function setup(): Router {
+    TestBed.configureTestingModule({
+      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+    });
+    return TestBed.inject(Router);
+  }
+
+  it('sends a visitor who is not signed in to sign-in, coming back after', () => {
+    const router = setup();
+    const out = run(roleGuard('admin'), '/admin/users');
+    expect(out instanceof UrlTree).toBe(true);
+    expect(router.serializeUrl(out as UrlTree)).toBe('/sign-in?next=%2Fadmin%2Fusers');
+  });
+
+  it('lets a user in whose role is listed', () => {
+    signInAs('reviewer');
+    setup();
+    expect(run(roleGuard('admin', 'reviewer'), '/reviews')).toBe(true);
+  });
+
+  it('sends a user whose role is not listed to the not-allowed page', () => {
+    signInAs('viewer');
+    const router = setup();
+    const out = run(roleGuard('admin'), '/admin/users');
+    expect(router.serializeUrl(out as UrlTree)).toBe('/not-allowed?from=%2Fadmin%2Fusers');
+  });
+
+  it('forgets a session whose token has expired', () => {
+    sessionStorage.setItem(
+      'scarpline.session',
+      JSON.stringify({
+        token: 't',
+        expiresAt: new Date(Date.now() - 1000).toISOString(),
+        user: { id: 1, email: 'a@b.example', name: 'A', role: 'admin' },
+      }),
+    );
+    setup();
+    expect(TestBed.inject(Auth).signedIn()).toBe(false);
+    expect(run(roleGuard(), '/projects') instanceof UrlTree).toBe(true);
+  });
+});
