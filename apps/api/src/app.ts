@@ -7,6 +7,7 @@ import swaggerUi from 'swagger-ui-express';
 import { config } from './config';
 import { authenticate } from './middleware/auth';
 import { notFoundRoute, problemHandler } from './middleware/problem';
+import { hasWebBuild, webRoutes } from './middleware/web';
 import { adminRoutes } from './routes/admin';
 import { authRoutes } from './routes/auth';
 import { batchRoutes } from './routes/batches';
@@ -22,7 +23,11 @@ const SCHEMA_FILES = [
   'result.schema.json',
 ];
 
-/** homePage: an HTML page served at / (the placeholder until the web app exists). */
+/**
+ * The web app's build in config.webDist (WEB_DIST) is served at / when it exists, with every
+ * other page a browser opens outside /api answered by its index.html. Without a build,
+ * homePage (an HTML page) is served at / instead.
+ */
 export function createApp(options: { homePage?: string } = {}): express.Express {
   const app = express();
   app.disable('x-powered-by');
@@ -58,8 +63,12 @@ export function createApp(options: { homePage?: string } = {}): express.Express 
   v1.use(reviewRequestRoutes);
   v1.use(exportRoutes);
   app.use('/api/v1', v1);
-  const home = options.homePage;
-  if (home) app.get('/', (_req, res) => void res.type('html').send(home));
+  if (hasWebBuild(config.webDist)) {
+    app.use(webRoutes(config.webDist));
+  } else if (options.homePage) {
+    const home = options.homePage;
+    app.get('/', (_req, res) => void res.type('html').send(home));
+  }
 
   app.use(notFoundRoute);
   app.use(problemHandler);

@@ -1,5 +1,6 @@
 /** Configuration from the environment, read once at start. */
 import os from 'node:os';
+import path from 'node:path';
 
 export interface Config {
   env: 'development' | 'test' | 'production';
@@ -29,6 +30,13 @@ export interface Config {
   /** How often a live-progress stream reads the database, in milliseconds. */
   eventPollMs: number;
   corsOrigin: string;
+  /**
+   * The web app's production build (index.html and hashed assets), served at / when the folder
+   * exists; by default apps/web/dist/browser beside this package.
+   */
+  webDist: string;
+  /** The address people open the web app at, written into invitation e-mails. */
+  publicUrl: string;
 }
 
 function num(name: string, fallback: number): number {
@@ -41,10 +49,11 @@ function num(name: string, fallback: number): number {
 
 function read(): Config {
   const env = (process.env.NODE_ENV ?? 'development') as Config['env'];
+  const port = num('PORT', 8080);
   return {
     env,
     databaseUrl: process.env.DATABASE_URL ?? 'postgres://postgres@127.0.0.1:54329/scarpline',
-    port: num('PORT', 8080),
+    port,
     sessionHours: num('SESSION_HOURS', 12),
     jsonLimit: num('JSON_LIMIT', 5 * 1024 * 1024),
     uploadLimit: num('UPLOAD_LIMIT', 10 * 1024 * 1024),
@@ -62,6 +71,9 @@ function read(): Config {
     queueMaintenance: num('QUEUE_MAINTENANCE_SECONDS', 30),
     eventPollMs: num('EVENT_POLL_MS', 500),
     corsOrigin: process.env.CORS_ORIGIN ?? '',
+    // src/ or dist/ → the api package → apps/web/dist/browser
+    webDist: path.resolve(process.env.WEB_DIST || path.join(__dirname, '../../web/dist/browser')),
+    publicUrl: process.env.PUBLIC_URL || `http://127.0.0.1:${port}/`,
   };
 }
 

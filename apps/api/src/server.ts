@@ -5,13 +5,15 @@ import { createApp } from './app';
 import { config } from './config';
 import { sequelize } from './db';
 import { migrate } from './migrate';
+import { hasWebBuild } from './middleware/web';
 import { queue } from './queue';
 import { seedDemo, DEMO_USERS } from './seed';
 import { startSmtpFake } from './services/mail';
 
 const PLACEHOLDER = `<!doctype html><html lang="en"><meta charset="utf-8"><title>Scarpline</title>
 <body style="font-family: sans-serif; max-width: 40rem; margin: 3rem auto; line-height: 1.5">
-<h1>Scarpline</h1><p>Slope stability along corridors. The web app is coming; the REST API is at
+<h1>Scarpline</h1><p>Slope stability along corridors. The web app is not built here yet
+(<code>npm run build -w @scarpline/web</code>, or <code>npm start</code>); the REST API is at
 <code>/api/v1</code>.</p><p><small>Caution: ${CAUTION}</small></p></body></html>`;
 
 async function main(): Promise<void> {
@@ -33,8 +35,14 @@ async function main(): Promise<void> {
     }
   }
   const app = createApp({ homePage: PLACEHOLDER });
+  const web = hasWebBuild(config.webDist);
   app.listen(config.port, '127.0.0.1', () => {
-    console.log(`Scarpline: http://127.0.0.1:${config.port}/  (API at /api/v1)`);
+    const base = `http://127.0.0.1:${config.port}/`;
+    console.log(
+      web
+        ? `Scarpline: web app at ${base} (from ${config.webDist}), API at ${base}api/v1`
+        : `Scarpline: ${base} (placeholder: no web build in ${config.webDist}), API at ${base}api/v1`,
+    );
   });
 }
 

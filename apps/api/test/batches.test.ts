@@ -8,7 +8,7 @@ import { Batch, ResultRow, SectionRow } from '../src/models';
 import { enqueueSections, stopQueue } from '../src/queue';
 import { fakeInbox, startSmtpFake, stopSmtpFake } from '../src/services/mail';
 import { startWorker } from '../src/worker';
-import { expectProblem, makeUsers, signIn, waitForBatch } from './helpers';
+import { expectProblem, makeUsers, schemaErrors, signIn, waitForBatch } from './helpers';
 
 const EXAMPLES = path.resolve(__dirname, '../../../examples');
 const app = createApp();
@@ -63,6 +63,22 @@ test('a 3-section corridor posted as JSON is solved by the worker; results reada
   expect(list.status).toBe(200);
   expect(list.body.total).toBe(3);
   expect(list.body.caution).toBe(CAUTION);
+  expect(schemaErrors('SectionList', list.body)).toEqual([]);
+  for (const item of list.body.items) {
+    expect(item).toMatchObject({
+      stationLabel: expect.stringMatching(/^1\+0[024]0$/),
+      status: 'done',
+      reviewState: 'pending',
+      geometry: null,
+      result: {
+        status: expect.stringMatching(/^(pass|fail)$/),
+        governingMethod: expect.any(String),
+        requiredFs: 1.5,
+        passes: item.result.status === 'pass',
+        warnings: expect.any(Array),
+      },
+    });
+  }
   const fs3 = list.body.items.map((i: { result: { governingFs: number } }) => i.result.governingFs);
   expect(fs3).toEqual([...fs3].sort((a: number, b: number) => a - b));
   expect(fs3.every((v: number) => v > 0 && Number.isFinite(v))).toBe(true);
@@ -87,6 +103,24 @@ test('a 3-section corridor posted as JSON is solved by the worker; results reada
   expect(one.body.result.governing.fs).toBeCloseTo(fs3[0], 10);
   expect(one.body.result.methods.length).toBeGreaterThan(0);
   expect(one.body.result.criticalSurface).not.toBeNull();
+  expect(schemaErrors('Section', one.body)).toEqual([]);
+  expect(one.body).toMatchObject({
+    id: list.body.items[0].id,
+    batchId: post.body.id,
+    station: list.body.items[0].station,
+    stationLabel: list.body.items[0].stationLabel,
+    submittedBy: users.engineer.id,
+    geometry: null,
+    previous: [],
+    review: { state: 'pending', latest: null, history: [] },
+  });
+  expect(one.body.result.warnings).toEqual(list.body.items[0].result.warnings);
+  // The search report the drawing of the section uses: where it looked, and the FS it found.
+  expect(one.body.result.search).toMatchObject({
+    trials: expect.any(Number),
+    lowest: expect.any(Array),
+  });
+  expect(one.body.result.search.trials).toBeGreaterThan(0);
 
   // Exactly one result per section, and the completion mail reached the local fake.
   const sectionIds = (await SectionRow.findAll({ where: { batchId: post.body.id } })).map(

@@ -7,7 +7,7 @@ import { sequelize } from '../src/db';
 import { Batch, SectionRow } from '../src/models';
 import { stopQueue } from '../src/queue';
 import { startWorker } from '../src/worker';
-import { expectProblem, makeUsers, signIn, waitForBatch } from './helpers';
+import { expectProblem, makeUsers, schemaErrors, signIn, waitForBatch } from './helpers';
 
 const EXAMPLES = path.resolve(__dirname, '../../../examples');
 const app = createApp();
@@ -150,16 +150,23 @@ test('GeoJSON from JSON input: features with null geometry and the result proper
     geometry: null,
     properties: {
       id: one.body.key,
+      sectionId: one.body.id,
       station: 1000,
+      stationLabel: '1+000',
       status: 'done',
       fs: one.body.result.governing.fs,
       method: one.body.result.governing.method,
       required: 1.5,
       passes: one.body.result.passes,
+      warningCount: one.body.result.warnings.length,
       reviewState: 'pending',
       caution: CAUTION,
     },
   });
+  expect(schemaErrors('ResultsGeoJson', fc)).toEqual([]);
+  expect(
+    fc.features.map((f: { properties: { stationLabel: string } }) => f.properties.stationLabel),
+  ).toEqual(['1+000', '1+020', '1+040']);
 });
 
 test('GeoJSON from a GeoJSON corridor keeps each section line as its geometry', async () => {
@@ -181,6 +188,18 @@ test('GeoJSON from a GeoJSON corridor keeps each section line as its geometry', 
     expect(f.properties.fs).toBeGreaterThan(0);
     expect(f.properties.caution).toBe(CAUTION);
   }
+  // The sections list and the section view give the web app the same line.
+  const list = await request(app)
+    .get(`/api/v1/batches/${up.body.id}/sections?sort=station`)
+    .auth(viewer, bearer);
+  expect(list.body.items.map((i: { geometry: unknown }) => i.geometry)).toEqual(
+    geo.features.map((f: { geometry: unknown }) => f.geometry),
+  );
+  const one = await request(app)
+    .get(`/api/v1/sections/${fc.features[1].properties.sectionId}`)
+    .auth(viewer, bearer);
+  expect(one.body.geometry).toEqual(geo.features[1].geometry);
+  expect(one.body.key).toBe(fc.features[1].id);
 });
 
 test('SVG of a section: the drawing of its current result, with the caution', async () => {

@@ -1,4 +1,10 @@
-/** Test helpers: users of every role, sign-in, polling for a batch with a bounded wait. */
+/**
+ * Test helpers: users of every role, sign-in, polling for a batch with a bounded wait, and
+ * checking a response against a schema of the OpenAPI document.
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+import Ajv2020 from 'ajv/dist/2020';
 import request from 'supertest';
 import type { Express } from 'express';
 import { ROLES, type Role } from '../src/models';
@@ -55,4 +61,20 @@ export function expectProblem(res: request.Response, status: number): void {
     expect.objectContaining({ type: expect.any(String), title: expect.any(String), status }),
   );
   expect(JSON.stringify(res.body)).not.toMatch(/at .+\.(ts|js):\d+/);
+}
+
+const openapi = JSON.parse(
+  fs.readFileSync(path.resolve(__dirname, '../../../schemas/openapi.json'), 'utf8'),
+);
+let ajv: Ajv2020 | null = null;
+
+/** What does not conform to components/schemas/<name> of the OpenAPI document ([] if all does). */
+export function schemaErrors(name: string, value: unknown): string[] {
+  ajv ??= new Ajv2020({ strict: false, validateFormats: false, allErrors: true });
+  if (!ajv.getSchema('openapi')) ajv.addSchema(openapi, 'openapi');
+  const validate = ajv.getSchema(`openapi#/components/schemas/${name}`);
+  if (!validate) throw new Error(`the OpenAPI document has no schema ${name}`);
+  return validate(value)
+    ? []
+    : (validate.errors ?? []).map((e) => `${name}${e.instancePath}: ${e.message}`);
 }

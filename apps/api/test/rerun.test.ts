@@ -84,6 +84,9 @@ test('a re-run with edits: a new result with run 2, run 1 kept, the history of r
   expect(after.body.previous).toHaveLength(1);
   expect(after.body.previous[0]).toMatchObject({ run: 1, requiredFs: 1.5 });
   expect(after.body.previous[0].governing.fs).toBeCloseTo(fs1, 10);
+  // The current result carries its search report for the drawing; older runs leave theirs out.
+  expect(after.body.result.search).toEqual(expect.objectContaining({ trials: expect.any(Number) }));
+  expect(after.body.previous[0]).not.toHaveProperty('search');
   expect(await ResultRow.count({ where: { sectionId } })).toBe(2);
 
   const runs = await request(app).get(`/api/v1/sections/${sectionId}/runs`).auth(viewer, bearer);

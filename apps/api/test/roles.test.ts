@@ -78,6 +78,7 @@ const routes = (): [string, string, object | undefined, Role[]][] => [
   ['get', '/api/v1/me', undefined, ['admin', 'engineer', 'reviewer', 'viewer', 'integration']],
   ['get', '/api/v1/users', undefined, ['admin']],
   ['post', '/api/v1/users', {}, ['admin']],
+  ['patch', '/api/v1/users/999999', {}, ['admin']],
   ['get', '/api/v1/tokens', undefined, ['admin']],
   ['post', '/api/v1/tokens', {}, ['admin']],
   ['delete', '/api/v1/tokens/999999', undefined, ['admin']],

@@ -1,12 +1,11 @@
 import { Router } from 'express';
 import { config } from '../config';
 import { notFound } from '../errors';
-import { allow } from '../middleware/auth';
-import { principal } from '../middleware/auth';
+import { allow, principal } from '../middleware/auth';
 import { AuditEntry, type Role } from '../models';
 import { createIntegrationToken, listIntegrationTokens, revokeToken } from '../services/auth';
 import { fakeInbox } from '../services/mail';
-import { createUser, listUsers } from '../services/users';
+import { createUser, listUsers, updateUser } from '../services/users';
 import { idParam, str } from './params';
 
 export const adminRoutes = Router();
@@ -24,6 +23,11 @@ adminRoutes.post('/users', admin, async (req, res) => {
     password: str(req.body, 'password', true) || undefined,
   });
   res.status(201).json(user);
+});
+
+/** Any of { name, role, active }; see updateUser for what disabling does. */
+adminRoutes.patch('/users/:id', admin, async (req, res) => {
+  res.json(await updateUser(principal(req), idParam(req.params.id), req.body));
 });
 
 adminRoutes.get('/tokens', admin, async (_req, res) => {

@@ -10,6 +10,7 @@ import { audit } from './audit';
 import { assertProject, type Principal } from './auth';
 import { batchReview, sectionReviewStates } from './reviews';
 import type { Parsed } from './validate';
+import { passes, stationLabel } from './views';
 
 export async function submitBatch(p: Principal, projectId: number, parsed: Parsed, source: string) {
   assertProject(p, projectId);
@@ -162,16 +163,21 @@ export async function listSections(batch: Batch, q: SectionQuery) {
         id: s.id,
         key: s.key,
         station: s.station,
+        stationLabel: stationLabel(s),
         status: s.status,
         run: s.run,
         failReason: s.failReason,
         reviewState: reviews.get(s.id)?.decision ?? 'pending',
+        // The section line of a GeoJSON corridor feature; null when the input had no coordinates.
+        geometry: s.geometry ?? null,
         result: r
           ? {
               status: r.status,
               governingMethod: r.governingMethod,
               governingFs: r.governingFs,
               requiredFs: r.requiredFs,
+              passes: passes(r),
+              warnings: r.warnings,
             }
           : null,
       };

@@ -5,6 +5,7 @@ import { Batch, ResultRow, SectionRow } from '../models';
 import type { Principal } from './auth';
 import { sectionReviewStates } from './reviews';
 import { loadSection } from './sections';
+import { passes, stationLabel } from './views';
 
 interface Row {
   section: SectionRow;
@@ -28,9 +29,6 @@ async function rows(batch: Batch): Promise<Row[]> {
     reviewState: reviews.get(section.id)?.decision ?? 'pending',
   }));
 }
-
-const passes = (r: ResultRow | null) =>
-  r?.status === 'pass' ? true : r?.status === 'fail' ? false : null;
 
 function cell(v: unknown): string {
   const s = v === null || v === undefined ? '' : String(v);
@@ -87,12 +85,15 @@ export async function batchGeoJson(batch: Batch) {
       geometry: section.geometry ?? null,
       properties: {
         id: section.key,
+        sectionId: section.id,
         station: section.station,
+        stationLabel: stationLabel(section),
         status: section.status,
         fs: result?.governingFs ?? null,
         method: result?.governingMethod ?? null,
         required: result?.requiredFs ?? null,
         passes: passes(result),
+        warningCount: result ? (result.warnings as unknown[]).length : null,
         reviewState,
         caution: CAUTION,
       },

@@ -78,6 +78,14 @@ function mailer(): Transporter | null {
   return transport;
 }
 
+/**
+ * Whether mail can go anywhere: SMTP_URL is set, or the local fake runs in this process. False
+ * in production without SMTP_URL (the fake is never started there).
+ */
+export function mailConfigured(): boolean {
+  return mailer() !== null;
+}
+
 /** Sends one message; false when there is no transport or recipient, or the send failed. */
 async function send(to: string[], subject: string, text: string): Promise<boolean> {
   const t = mailer();
@@ -149,6 +157,35 @@ export async function reviewRequested(
       ...(comment ? ['', comment] : []),
       '',
       `Results: /api/v1/batches/${batch.id}/sections; sign off: POST /api/v1/batches/${batch.id}/reviews.`,
+    ].join('\n'),
+  );
+}
+
+/**
+ * Invites a new user: the address to open, the e-mail address to sign in with and the password
+ * generated for them. True when the message was handed to SMTP.
+ */
+export async function invitation(
+  user: { email: string; name: string; role: string },
+  password: string,
+  invitedBy: { name: string; email: string } | null,
+): Promise<boolean> {
+  const by = invitedBy ? `${invitedBy.name} <${invitedBy.email}>` : 'An administrator';
+  return send(
+    [user.email],
+    'Your Scarpline account',
+    [
+      `Hello ${user.name},`,
+      '',
+      `${by} has given you a Scarpline account with the role ${user.role}.`,
+      '',
+      `Sign in at: ${config.publicUrl}`,
+      `E-mail address: ${user.email}`,
+      `Password: ${password}`,
+      '',
+      'The password was generated for you and is sent only in this message; Scarpline keeps',
+      'nothing but a hash of it. If this message reached anyone else, tell your administrator:',
+      'they can disable the account at once.',
     ].join('\n'),
   );
 }

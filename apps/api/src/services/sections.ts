@@ -5,14 +5,16 @@ import { ResultRow, SectionRow } from '../models';
 import type { Principal } from './auth';
 import { loadBatch } from './batches';
 import { sectionReview } from './reviews';
+import { passes, stationLabel } from './views';
 
-export function resultView(r: ResultRow) {
+/** A run's result; with `search`, also the search report (FS map, trials) the drawing uses. */
+export function resultView(r: ResultRow, options: { search?: boolean } = {}) {
   return {
     run: r.run,
     status: r.status,
     governing: r.governingMethod ? { method: r.governingMethod, fs: r.governingFs } : null,
     requiredFs: r.requiredFs,
-    passes: r.status === 'pass' ? true : r.status === 'fail' ? false : null,
+    passes: passes(r),
     reason: r.reason,
     criticalSurface: r.criticalSurface,
     methods: r.methods,
@@ -21,6 +23,7 @@ export function resultView(r: ResultRow) {
     inputHash: r.inputHash,
     timings: { startedAt: r.startedAt, finishedAt: r.finishedAt, durationMs: r.durationMs },
     attempt: r.attempt,
+    ...(options.search ? { search: r.search } : {}),
     caution: CAUTION,
   };
 }
@@ -34,6 +37,7 @@ export async function loadSection(p: Principal, id: number): Promise<SectionRow>
 
 export async function sectionView(p: Principal, id: number) {
   const s = await loadSection(p, id);
+  const batch = await loadBatch(p, s.batchId);
   const results = await ResultRow.findAll({ where: { sectionId: s.id }, order: [['run', 'DESC']] });
   const current = results.find((r) => r.run === s.run);
   return {
@@ -41,12 +45,16 @@ export async function sectionView(p: Principal, id: number) {
     batchId: s.batchId,
     key: s.key,
     station: s.station,
+    stationLabel: stationLabel(s),
     status: s.status,
     run: s.run,
     failReason: s.failReason,
+    /** Who submitted the batch: they may not review it. */
+    submittedBy: batch.submittedBy,
     input: s.input,
-    result: current ? resultView(current) : null,
-    previous: results.filter((r) => r.run !== s.run).map(resultView),
+    geometry: s.geometry ?? null,
+    result: current ? resultView(current, { search: true }) : null,
+    previous: results.filter((r) => r.run !== s.run).map((r) => resultView(r)),
     review: await sectionReview(s),
     caution: CAUTION,
   };
