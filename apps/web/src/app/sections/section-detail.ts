@@ -1,9 +1,221 @@
-import { ChangeDetectionStrategy, Component } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatIconModule } from '@angular/material/icon';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { Title } from '@angular/platform-browser';
+import { RouterLink } from '@angular/router';
+import {
+  catchError,
+  combineLatest,
+  EMPTY,
+  expand,
+  of,
+  scan,
+  startWith,
+  Subject,
+  switchMap,
+  timer,
+  type Observable,
+} from 'rxjs';
+import { Auth } from '../core/auth';
+import { ReviewPanel } from '../reviews/review-panel';
+import type { BatchSummary } from '../reviews/review-types';
+import { Caution } from '../shared/caution';
+import { loadState, type Loaded } from '../shared/load-state';
+import { PageState } from '../shared/page-state';
+import { fsText, methodName, plain, when } from './format';
+import { MethodTable } from './method-table';
+import { RerunForm } from './rerun-form';
+import { RunHistory } from './run-history';
+import { SectionDrawing } from './section-drawing';
+import { SectionInputView } from './section-input';
+import type { SectionView } from './section-types';
+import { SectionsApi } from './sections-api';
+import { SliceTable } from './slice-table';
+import { WarningList } from './warning-list';
 
-// Placeholder until the page is built.
+/** How often a queued or running section is asked for again. */
+export const POLL_MS = 2000;
+
+const isActive = (s: SectionView) => s.status === 'queued' || s.status === 'running';
+
+/** Keeps showing what is there while it is fetched again. */
+function keepShown<T>(prev: Loaded<T>, next: Loaded<T>): Loaded<T> {
+  return next.state === 'loading' && prev.state === 'ready' ? prev : next;
+}
+
+/**
+ * One section: its header (station, key, batch, status, run, governing method, FS against the
+ * required FS), the caution, the drawing, the methods, the slices, the warnings, the input, a
+ * re-run with edited parameters, the runs, and the review. Follows a queued or running run
+ * until it ends.
+ */
 @Component({
   selector: 'sl-section-detail',
+  imports: [
+    RouterLink,
+    MatIconModule,
+    Caution,
+    PageState,
+    SectionDrawing,
+    MethodTable,
+    SliceTable,
+    WarningList,
+    SectionInputView,
+    RerunForm,
+    RunHistory,
+    ReviewPanel,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
-  template: '<div class="sl-page">SectionDetail</div>',
+  templateUrl: './section-detail.html',
+  styleUrl: './section-detail.scss',
 })
-export class SectionDetail {}
+export class SectionDetail {
+  private readonly api = inject(SectionsApi);
+  private readonly snack = inject(MatSnackBar);
+  private readonly title = inject(Title);
+  protected readonly auth = inject(Auth);
+
+  /** The route's :id. */
+  readonly id = input.required<string>();
+
+  private readonly sectionId = computed(() => Number(this.id()));
+  private readonly refresh$ = new Subject<void>();
+
+  protected readonly loaded = toSignal(
+    toObservable(this.sectionId).pipe(
+      switchMap((id) =>
+        this.refresh$.pipe(
+          startWith(undefined),
+          switchMap(() => this.follow(id)),
+          scan(keepShown<SectionView>, { state: 'loading' } as Loaded<SectionView>),
+        ),
+      ),
+    ),
+    { initialValue: { state: 'loading' } as Loaded<SectionView> },
+  );
+  protected readonly section = computed(() => {
+    const l = this.loaded();
+    return l.state === 'ready' ? l.value : null;
+  });
+  protected readonly problem = computed(() => {
+    const l = this.loaded();
+    return l.state === 'error' ? l.problem : null;
+  });
+
+  private readonly batchTick = signal(0);
+  private readonly batchId = computed(() => this.section()?.batchId ?? null);
+  /** The batch, for its name, its submitter and its own review; the page works without it. */
+  protected readonly batch = toSignal(
+    combineLatest([toObservable(this.batchId), toObservable(this.batchTick)]).pipe(
+      switchMap(([id]) =>
+        id === null
+          ? of(null)
+          : this.api.batch(id).pipe(catchError(() => of<BatchSummary | null>(null))),
+      ),
+    ),
+    { initialValue: null },
+  );
+
+  protected readonly active = computed(() => {
+    const s = this.section();
+    return s !== null && isActive(s);
+  });
+  /** Changes when the run or its state changes: the drawing and the runs are fetched again. */
+  protected readonly version = computed(() => {
+    const s = this.section();
+    return s ? `${s.run}:${s.status}:${s.result?.timings.finishedAt ?? ''}` : '';
+  });
+  protected readonly fileName = computed(() => {
+    const s = this.section();
+    return s ? `${s.key.replace(/[^A-Za-z0-9._-]+/g, '_')}-run${s.run}.svg` : 'section.svg';
+  });
+  protected readonly submittedBy = computed(
+    () => this.section()?.submittedBy ?? this.batch()?.submittedBy ?? null,
+  );
+  protected readonly mayRerun = computed(() => this.auth.hasRole('admin', 'engineer'));
+  protected readonly station = computed(() => {
+    const s = this.section();
+    if (!s) return '';
+    return s.stationLabel ?? (s.station === null ? '' : plain(s.station, 3));
+  });
+  /** The verdict in words, with an icon (never by colour alone). */
+  protected readonly verdict = computed(() => {
+    const r = this.section()?.result;
+    if (!r) return null;
+    if (r.status === 'failed' || !r.governing)
+      return { kind: 'unsolved', icon: 'block', text: 'not solved' };
+    if (r.passes === true) return { kind: 'pass', icon: 'check_circle', text: 'pass' };
+    if (r.passes === false) return { kind: 'fail', icon: 'cancel', text: 'fail' };
+    return { kind: 'none', icon: 'remove_circle_outline', text: 'no required FS' };
+  });
+
+  protected readonly fsText = fsText;
+  protected readonly methodName = methodName;
+  protected readonly plain = plain;
+  protected readonly when = when;
+
+  constructor() {
+    effect(() => {
+      const s = this.section();
+      if (s) this.title.setTitle(`${s.key} · Section · Scarpline`);
+    });
+    // Say so when a followed run ends.
+    let wasActive: { id: number; run: number } | null = null;
+    effect(() => {
+      const s = this.section();
+      if (!s) return;
+      if (isActive(s)) {
+        wasActive = { id: s.id, run: s.run };
+      } else if (wasActive && wasActive.id === s.id && wasActive.run === s.run) {
+        wasActive = null;
+        const g = s.result?.governing;
+        this.snack.open(
+          g
+            ? `Run ${s.run} finished: FS ${fsText(g.fs)} (${methodName(g.method)}).`
+            : `Run ${s.run} finished without a factor of safety.`,
+          'OK',
+          { duration: 6000 },
+        );
+      }
+    });
+  }
+
+  /** The section, then again every POLL_MS while its run is queued or running. */
+  private follow(id: number): Observable<Loaded<SectionView>> {
+    if (!Number.isInteger(id) || id <= 0) {
+      return of({
+        state: 'error',
+        problem: { title: 'Not found', status: 404, detail: 'No such section.' },
+      });
+    }
+    const once = () => loadState(this.api.section(id));
+    return once().pipe(
+      expand((l) =>
+        l.state === 'ready' && isActive(l.value) ? timer(POLL_MS).pipe(switchMap(once)) : EMPTY,
+      ),
+    );
+  }
+
+  protected reload(): void {
+    this.refresh$.next();
+    this.batchTick.update((n) => n + 1);
+  }
+
+  protected onQueued(view: SectionView): void {
+    this.snack.open(`Queued as run ${view.run}.`, 'OK', { duration: 4000 });
+    this.refresh$.next();
+  }
+
+  protected onReviewed(): void {
+    this.reload();
+  }
+}

@@ -1,9 +1,12 @@
 import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 
-/** The words every result surface carries (the same text the solver puts in its outputs). */
+/**
+ * The words every result surface carries: the solver's CAUTION, word for word (a test in
+ * tests/web-caution.test.ts keeps the two the same).
+ */
 export const CAUTION_TEXT =
-  'Results need review by a qualified engineer before use. Local codes and licensed practice govern.';
+  'Results are for review by a qualified geotechnical engineer. The user is responsible for the inputs; local codes and licensed practice govern the design.';
 
 /** The engineering caution, shown on every page that shows a result. */
 @Component({

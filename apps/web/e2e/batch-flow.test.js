@@ -1,0 +1,218 @@
+/**
+ * The way a corridor goes through Scarpline, one step after the other: an engineer submits the
+ * corridor file and watches it finish; the failing sections are found and opened; a reviewer
+ * signs one off; a viewer reads it without the review buttons.
+ */
+const { after, before, test } = require('node:test');
+const assert = require('node:assert/strict');
+const path = require('node:path');
+const { NARROW, api, eventually, launch, scenario, shot, signIn, tokenOf } = require('./support');
+
+const CORRIDOR = path.resolve(__dirname, '../../../examples/corridor/corridor.json');
+const STATIONS = 61;
+/** A section file with a missing field and a word where a number belongs. */
+const BAD_PASTE = [
+  'format: scarpline/1',
+  'id: e2e-bad',
+  'units: si',
+  'ground:',
+  '  - [0, 10]',
+  '  - [x, 5]',
+  '',
+].join('\n');
+
+let browser;
+/** Set as the steps go: the new batch, its failing stations, the section opened. */
+const found = { batchId: null, belowRequired: null, sectionId: null };
+
+before(async () => {
+  browser = await launch();
+});
+after(() => browser?.close());
+
+/** "58 done · 3 failed · 61 total" → { done, failed, total } */
+function progressNumbers(text) {
+  const n = (word) => Number(new RegExp(`(\\d+)\\s*${word}`, 'i').exec(text)?.[1]);
+  return { done: n('done'), failed: n('failed'), total: n('total') };
+}
+
+/** Chooses "Fail" in the batch table's filter (a select or a group of toggles). */
+async function filterFail(page) {
+  const filter = page.getByTestId('pass-filter');
+  const tag = await filter.evaluate((e) => e.tagName.toLowerCase());
+  if (tag === 'mat-select') {
+    await filter.click();
+    await page.getByRole('option', { name: 'Fail', exact: true }).click();
+  } else {
+    await filter.getByText('Fail', { exact: true }).click();
+  }
+}
+
+async function failingRows(page, expected) {
+  await filterFail(page);
+  const rows = page.getByTestId('section-row');
+  await eventually(
+    async () => {
+      const texts = await rows.allInnerTexts();
+      return texts.length === expected && texts.every((t) => /fail/i.test(t));
+    },
+    { what: `${expected} rows, each marked as failing` },
+  );
+  return rows;
+}
+
+test(
+  'engineer: submits the corridor file and watches it finish',
+  { timeout: 150_000 },
+  async () => {
+    await scenario(browser, 'submit corridor', async ({ page, allowStatus }) => {
+      await signIn(page, 'engineer');
+      await page.getByRole('link', { name: 'Wendlecombe bypass' }).first().click();
+      await page.getByTestId('batch-list').waitFor();
+      await shot(page, 'project');
+      await page.getByTestId('submit-link').click();
+      await page.getByTestId('paste-input').waitFor();
+
+      // A bad paste: the API's located errors, and the text stays to be corrected.
+      allowStatus(400, 422);
+      await page.getByTestId('paste-input').fill(BAD_PASTE);
+      await page.getByTestId('submit-button').click();
+      const errors = page.getByTestId('located-errors');
+      await errors.waitFor();
+      const said = await errors.innerText();
+      assert.match(said, /ground\[1\]\[0\]/, 'the path of the wrong value');
+      assert.match(said, /(line\s*|:)6\b/, 'the line of the wrong value');
+      assert.equal(await page.getByTestId('paste-input').inputValue(), BAD_PASTE);
+      assert.match(new URL(page.url()).pathname, /\/submit$/, 'still on the submit page');
+      await shot(page, 'submit-error');
+
+      // The corridor file through the file input.
+      await page.getByTestId('paste-input').fill('');
+      await page.getByTestId('file-input').setInputFiles(CORRIDOR);
+      await page.getByTestId('submit-button').click();
+      await page.waitForURL(/\/batches\/\d+$/, { timeout: 30_000 });
+      found.batchId = Number(/\/batches\/(\d+)$/.exec(page.url())[1]);
+
+      const status = page.getByTestId('batch-status');
+      await eventually(async () => /\bdone\b/i.test(await status.innerText()), {
+        timeout: 120_000,
+        interval: 500,
+        what: 'the batch status to say done',
+      });
+      const progress = page.getByTestId('batch-progress');
+      const p = await eventually(
+        async () => {
+          const n = progressNumbers(await progress.innerText());
+          return n.total === STATIONS && n.done + n.failed === STATIONS ? n : null;
+        },
+        { what: `done + failed = ${STATIONS} in the progress` },
+      );
+      assert.equal(p.total, STATIONS);
+
+      // What the page should show, from the API: the corridor has stations below the required FS.
+      const batch = await api(await tokenOf(page), `/batches/${found.batchId}`);
+      assert.equal(batch.status, 200);
+      assert.equal(batch.body.progress.total, STATIONS);
+      found.belowRequired = batch.body.progress.belowRequiredFs;
+      assert.ok(found.belowRequired >= 1, 'the corridor has failing stations');
+
+      const rows = page.getByTestId('section-row');
+      await rows.first().waitFor();
+      assert.ok((await rows.count()) >= 10, 'the table lists the stations');
+      assert.match(await rows.first().innerText(), /1000/, 'the first station, 1000');
+      await page.getByTestId('chainage-chart').waitFor();
+      assert.equal(
+        await page.getByTestId('fail-marker').count(),
+        found.belowRequired,
+        'one marker per failing station',
+      );
+      await shot(page, 'batch');
+      await page.setViewportSize(NARROW);
+      await shot(page, 'batch-narrow');
+    });
+  },
+);
+
+test('engineer: filters to the failing sections and opens the first', async () => {
+  assert.ok(found.batchId, 'the batch of the step before');
+  await scenario(browser, 'open failing section', async ({ page }) => {
+    await signIn(page, 'engineer');
+    await page.goto(`/batches/${found.batchId}`);
+    const rows = await failingRows(page, found.belowRequired);
+    await rows.first().getByRole('link').first().click();
+    await page.waitForURL(/\/sections\/\d+$/);
+    found.sectionId = Number(/\/sections\/(\d+)$/.exec(page.url())[1]);
+
+    const drawing = page.getByTestId('section-drawing');
+    await drawing.locator('svg').first().waitFor();
+    const svg = await drawing
+      .locator('svg')
+      .first()
+      .evaluate((s) => s.outerHTML);
+    assert.ok(
+      /class="[^"]*critical/.test(svg) || /critical surface/i.test(svg),
+      'the drawing shows the critical surface',
+    );
+    assert.ok((await page.getByTestId('method-table').locator('tr').count()) >= 2, 'method rows');
+    assert.ok((await page.getByTestId('slice-table').locator('tr').count()) >= 2, 'slice rows');
+    await page.getByRole('note', { name: 'Engineering caution' }).waitFor();
+    assert.equal(await page.getByRole('note', { name: 'Engineering caution' }).isVisible(), true);
+
+    await page.getByTestId('review-state').waitFor();
+    await shot(page, 'section');
+    await page.setViewportSize(NARROW);
+    await shot(page, 'section-narrow');
+
+    // An engineer (here also the submitter) sees the review state but cannot sign off.
+    assert.equal(await page.getByTestId('sign-off').count(), 0);
+    assert.equal(await page.getByTestId('return').count(), 0);
+    assert.match(await page.getByTestId('review-state').first().innerText(), /pending/i);
+  });
+});
+
+test('reviewer: signs the section off with a comment; the batch table shows it', async () => {
+  assert.ok(found.sectionId, 'the section of the step before');
+  await scenario(browser, 'sign off', async ({ page }) => {
+    await signIn(page, 'reviewer');
+    await page.getByRole('link', { name: 'To review' }).click();
+    await page.getByTestId('review-queue').waitFor();
+    await shot(page, 'review-queue');
+
+    await page.goto(`/sections/${found.sectionId}`);
+    const state = page.getByTestId('review-state');
+    await state.waitFor();
+    assert.match(await state.innerText(), /pending/i);
+    await page
+      .getByTestId('review-comment')
+      .fill('Checked the critical surface and the strengths.');
+    await page.getByTestId('sign-off').click();
+    await eventually(async () => /approved/i.test(await state.innerText()), {
+      what: 'the review state to say approved',
+    });
+
+    const section = await api(await tokenOf(page), `/sections/${found.sectionId}`);
+    assert.equal(section.status, 200);
+    assert.match(JSON.stringify(section.body), /approved/);
+
+    await page.goto(`/batches/${found.batchId}`);
+    const rows = await failingRows(page, found.belowRequired);
+    const row = rows.filter({ has: page.locator(`a[href$="/sections/${found.sectionId}"]`) });
+    assert.equal(await row.count(), 1, 'the row of the section');
+    assert.match(await row.innerText(), /approved/i);
+  });
+});
+
+test('viewer: reads the same section without the review buttons', async () => {
+  assert.ok(found.sectionId, 'the section of the steps before');
+  await scenario(browser, 'viewer section', async ({ page }) => {
+    await signIn(page, 'viewer');
+    await page.goto(`/sections/${found.sectionId}`);
+    await page.getByTestId('section-drawing').locator('svg').first().waitFor();
+    const state = page.getByTestId('review-state');
+    await state.waitFor();
+    assert.match(await state.innerText(), /approved/i);
+    assert.equal(await page.getByTestId('sign-off').count(), 0);
+    assert.equal(await page.getByTestId('return').count(), 0);
+    await page.getByRole('note', { name: 'Engineering caution' }).waitFor();
+  });
+});

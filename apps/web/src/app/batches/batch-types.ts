@@ -1,0 +1,192 @@
+/**
+ * The shapes of the batch endpoints of the Scarpline API (apps/api/src/services/batches.ts,
+ * events.ts, exports.ts, reviews.ts, review-requests.ts).
+ */
+
+export type BatchStatus = 'running' | 'done';
+export type SectionStatus = 'queued' | 'running' | 'done' | 'failed';
+export type ReviewDecision = 'approved' | 'returned';
+export type ReviewState = ReviewDecision | 'pending';
+/** pass / fail against the required FS, none when no FS is required, failed when unsolved. */
+export type ResultStatus = 'pass' | 'fail' | 'none' | 'failed';
+
+/** How far a batch has come (services/batches.ts `progress`). */
+export interface BatchProgress {
+  total: number;
+  done: number;
+  failed: number;
+  queued: number;
+  running: number;
+  /** Sections whose current result is below their required FS. */
+  belowRequiredFs: number;
+  /** (done + failed) / total; 1 for an empty batch. */
+  fraction: number;
+}
+
+/** One recorded review decision (services/reviews.ts `reviewView`). */
+export interface Review {
+  id: number;
+  batchId: number;
+  sectionId: number | null;
+  run: number | null;
+  scope: 'batch' | 'section';
+  decision: ReviewDecision;
+  comment: string;
+  reviewer: { id: number; name?: string };
+  at: string;
+}
+
+export interface ReviewSummary {
+  state: ReviewState;
+  latest: Review | null;
+  history: Review[];
+}
+
+/** GET /batches/:id and each item of GET /projects/:id/batches. */
+export interface Batch {
+  id: number;
+  projectId: number;
+  /** The id written in the batch file (or the first section's id for loose section files). */
+  name: string;
+  title: string | null;
+  status: BatchStatus;
+  /** How it came in: json, upload, seed … */
+  source: string;
+  /** The user id of who submitted it. */
+  submittedBy: number;
+  createdAt: string;
+  finishedAt: string | null;
+  progress: BatchProgress;
+  review: ReviewSummary;
+  caution: string;
+}
+
+/** A located message of the input (warnings come back with a successful submission). */
+export interface InputMessage {
+  severity: 'error' | 'warning';
+  file: string;
+  line?: number;
+  column?: number;
+  path: string;
+  code: string;
+  message: string;
+}
+
+/** POST /projects/:id/batches and /projects/:id/uploads answer the batch and its warnings. */
+export interface SubmittedBatch extends Batch {
+  warnings: InputMessage[];
+}
+
+export interface ResultWarning {
+  code: string;
+  message: string;
+}
+
+/** A GeoJSON geometry as the corridor gave it (LineString for a section line). */
+export interface Geometry {
+  type: string;
+  coordinates?: unknown;
+}
+
+/** The current result of a listed section. */
+export interface SectionListResult {
+  status: ResultStatus;
+  governingMethod: string | null;
+  governingFs: number | null;
+  requiredFs: number | null;
+  /** null when no FS is required or nothing was solved. */
+  passes?: boolean | null;
+  warnings?: ResultWarning[];
+}
+
+/** One item of GET /batches/:id/sections. */
+export interface SectionListItem {
+  id: number;
+  /** The section's id in the input (`<batch id>@<station>` in a corridor). */
+  key: string;
+  station: number | null;
+  /** The chainage in the units of the section's file, e.g. 1+240 (si) or 150+00 (us). */
+  stationLabel?: string | null;
+  status: SectionStatus;
+  run: number;
+  failReason: string | null;
+  reviewState: ReviewState;
+  geometry?: Geometry | null;
+  result: SectionListResult | null;
+}
+
+export interface SectionPage {
+  page: number;
+  pageSize: number;
+  total: number;
+  items: SectionListItem[];
+  caution: string;
+}
+
+export type SectionSort = 'station' | 'fs';
+
+/** The query of GET /batches/:id/sections (pages count from 1; pageSize at most 500). */
+export interface SectionQuery {
+  sort?: SectionSort;
+  order?: 'asc' | 'desc';
+  page?: number;
+  pageSize?: number;
+  status?: SectionStatus;
+  pass?: boolean;
+}
+
+/** The properties of one feature of GET /batches/:id/results.geojson. */
+export interface ResultProperties {
+  id: string;
+  sectionId?: number;
+  station: number | null;
+  stationLabel?: string | null;
+  status: SectionStatus;
+  fs: number | null;
+  method: string | null;
+  required: number | null;
+  passes: boolean | null;
+  warningCount?: number | null;
+  reviewState: ReviewState;
+  caution: string;
+}
+
+export interface ResultFeature {
+  type: 'Feature';
+  id: string;
+  geometry: Geometry | null;
+  properties: ResultProperties;
+}
+
+export interface ResultCollection {
+  type: 'FeatureCollection';
+  name: string;
+  caution: string;
+  features: ResultFeature[];
+}
+
+/** The payload of the `done` event of GET /batches/:id/events. */
+export interface BatchDoneEvent {
+  id: number;
+  status: BatchStatus;
+  finishedAt: string | null;
+  progress: BatchProgress;
+  caution: string;
+}
+
+/** POST /batches/:id/review-requests. */
+export interface ReviewRequestResult {
+  batchId: number;
+  requestedBy: number;
+  recipients: string[];
+  comment: string;
+  /** false when no mail transport is configured. */
+  sent: boolean;
+  caution: string;
+}
+
+/** A file fetched for saving, with the name the API gave it. */
+export interface Download {
+  blob: Blob;
+  fileName: string;
+}

@@ -1,0 +1,108 @@
+import { HttpClient, HttpHeaders, HttpParams, type HttpResponse } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import { EMPTY, expand, map, reduce, type Observable } from 'rxjs';
+import type {
+  Batch,
+  Download,
+  ResultCollection,
+  ReviewRequestResult,
+  SectionListItem,
+  SectionPage,
+  SectionQuery,
+  SubmittedBatch,
+} from './batch-types';
+
+const API = '/api/v1';
+/** The largest page GET /batches/:id/sections gives. */
+export const MAX_PAGE_SIZE = 500;
+
+/** The file name in a Content-Disposition header (`attachment; filename="x.csv"`), or null. */
+export function fileNameOf(disposition: string | null): string | null {
+  if (!disposition) return null;
+  const star = /filename\*\s*=\s*(?:UTF-8'')?([^;]+)/i.exec(disposition);
+  if (star) {
+    try {
+      return decodeURIComponent(star[1].trim().replace(/^"|"$/g, ''));
+    } catch {
+      // fall through to the plain parameter
+    }
+  }
+  const plain = /filename\s*=\s*("([^"]*)"|[^;]+)/i.exec(disposition);
+  if (!plain) return null;
+  return (plain[2] ?? plain[1]).trim() || null;
+}
+
+/** Batches, their sections and their exports, over HttpClient. */
+@Injectable({ providedIn: 'root' })
+export class BatchesApi {
+  private readonly http = inject(HttpClient);
+
+  batch(id: number): Observable<Batch> {
+    return this.http.get<Batch>(`${API}/batches/${id}`);
+  }
+
+  /** One page of the sections of a batch, sorted and filtered by the server. */
+  sections(batchId: number, q: SectionQuery = {}): Observable<SectionPage> {
+    let params = new HttpParams();
+    if (q.sort) params = params.set('sort', q.sort);
+    if (q.order) params = params.set('order', q.order);
+    if (q.page !== undefined) params = params.set('page', q.page);
+    if (q.pageSize !== undefined) params = params.set('pageSize', q.pageSize);
+    if (q.status) params = params.set('status', q.status);
+    if (q.pass !== undefined) params = params.set('pass', String(q.pass));
+    return this.http.get<SectionPage>(`${API}/batches/${batchId}/sections`, { params });
+  }
+
+  /** Every section of a batch by station, a page of 500 at a time until all are read. */
+  allSections(batchId: number): Observable<SectionListItem[]> {
+    const page = (n: number) =>
+      this.sections(batchId, { sort: 'station', order: 'asc', page: n, pageSize: MAX_PAGE_SIZE });
+    return page(1).pipe(
+      expand((p) =>
+        p.page * p.pageSize < p.total && p.items.length > 0 ? page(p.page + 1) : EMPTY,
+      ),
+      reduce((all, p) => all.concat(p.items), [] as SectionListItem[]),
+    );
+  }
+
+  resultsGeoJson(batchId: number): Observable<ResultCollection> {
+    return this.http.get<ResultCollection>(`${API}/batches/${batchId}/results.geojson`);
+  }
+
+  /** The CSV or GeoJSON export as a file (the bearer token goes with it, unlike a plain link). */
+  download(batchId: number, kind: 'csv' | 'geojson'): Observable<Download> {
+    return this.http
+      .get(`${API}/batches/${batchId}/results.${kind}`, {
+        responseType: 'blob',
+        observe: 'response',
+      })
+      .pipe(
+        map((res: HttpResponse<Blob>) => ({
+          blob: res.body ?? new Blob([]),
+          fileName:
+            fileNameOf(res.headers.get('Content-Disposition')) ??
+            `batch-${batchId}-results.${kind}`,
+        })),
+      );
+  }
+
+  /** A batch as JSON text, sent as written so that the API's line numbers match it. */
+  submitJson(projectId: number, text: string): Observable<SubmittedBatch> {
+    return this.http.post<SubmittedBatch>(`${API}/projects/${projectId}/batches`, text, {
+      headers: new HttpHeaders({ 'Content-Type': 'application/json' }),
+    });
+  }
+
+  /** Files as multipart/form-data in the field "files" (a batch, a corridor or sections). */
+  upload(projectId: number, files: readonly File[]): Observable<SubmittedBatch> {
+    const body = new FormData();
+    for (const f of files) body.append('files', f, f.name);
+    return this.http.post<SubmittedBatch>(`${API}/projects/${projectId}/uploads`, body);
+  }
+
+  requestReview(batchId: number, comment: string): Observable<ReviewRequestResult> {
+    return this.http.post<ReviewRequestResult>(`${API}/batches/${batchId}/review-requests`, {
+      comment,
+    });
+  }
+}

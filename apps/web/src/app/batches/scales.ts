@@ -1,0 +1,71 @@
+/** Small pieces shared by the chart and the plan: scales, ticks, chainage and units. */
+
+export type Units = 'si' | 'us';
+
+/** A linear map from [d0, d1] onto [r0, r1]. */
+export function linear(d0: number, d1: number, r0: number, r1: number): (v: number) => number {
+  const k = d1 === d0 ? 0 : (r1 - r0) / (d1 - d0);
+  return (v) => r0 + (v - d0) * k;
+}
+
+/** The nearest of 1, 2, 2.5, 5 × 10ⁿ at or above `v` (v > 0). */
+export function niceStep(v: number): number {
+  if (!(v > 0) || !Number.isFinite(v)) return 1;
+  const p = 10 ** Math.floor(Math.log10(v));
+  const f = v / p;
+  const m = f <= 1 ? 1 : f <= 2 ? 2 : f <= 2.5 ? 2.5 : f <= 5 ? 5 : 10;
+  return m * p;
+}
+
+/** Round tick values covering [min, max] with about `count` intervals. */
+export function niceTicks(min: number, max: number, count = 5): number[] {
+  if (!Number.isFinite(min) || !Number.isFinite(max)) return [];
+  if (max < min) [min, max] = [max, min];
+  if (max === min) return [min];
+  const step = niceStep((max - min) / Math.max(1, count));
+  const first = Math.ceil(min / step - 1e-9) * step;
+  const out: number[] = [];
+  for (let v = first; v <= max + step * 1e-9; v += step) out.push(Number(v.toFixed(10)));
+  return out;
+}
+
+/**
+ * The units of a batch as its station labels show them: the API writes chainage as 1+240
+ * (metres: thousands, three digits) or 150+00 (feet: hundreds, two digits). Null when there
+ * is no label to tell.
+ */
+export function unitsFromLabels(labels: readonly (string | null | undefined)[]): Units | null {
+  for (const l of labels) {
+    if (!l) continue;
+    if (/\+\d{3}(\.\d+)?$/.test(l)) return 'si';
+    if (/\+\d{2}(\.\d+)?$/.test(l)) return 'us';
+  }
+  return null;
+}
+
+export function lengthUnit(units: Units | null): string {
+  return units === 'us' ? 'ft' : units === 'si' ? 'm' : '';
+}
+
+/** A station written as chainage: 1240 → 1+240 (si), 15000 → 150+00 (us), plain without units. */
+export function formatChainage(station: number, units: Units | null): string {
+  if (units === null) return formatNumber(station);
+  const unit = units === 'us' ? 100 : 1000;
+  const digits = units === 'us' ? 2 : 3;
+  const sign = station < 0 ? '-' : '';
+  const a = Math.abs(station);
+  const major = Math.floor(a / unit + 1e-9);
+  const minor = Number((a - major * unit).toFixed(3));
+  const [whole, frac] = String(minor).split('.');
+  return `${sign}${major}+${whole.padStart(digits, '0')}${frac ? `.${frac}` : ''}`;
+}
+
+/** A number with no more decimals than it needs (at most 3). */
+export function formatNumber(v: number): string {
+  return String(Number(v.toFixed(3)));
+}
+
+/** A factor of safety to two decimals. */
+export function formatFs(v: number | null | undefined): string {
+  return v === null || v === undefined || !Number.isFinite(v) ? '—' : v.toFixed(2);
+}

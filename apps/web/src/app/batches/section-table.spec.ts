@@ -1,0 +1,130 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestBed, type ComponentFixture } from '@angular/core/testing';
+import { provideRouter } from '@angular/router';
+import type { SectionListItem, SectionPage } from './batch-types';
+import { filterSections, SectionTable } from './section-table';
+
+function item(id: number, station: number | null, fs: number | null): SectionListItem {
+  const passes = fs === null ? null : fs >= 1.5;
+  return {
+    id,
+    key: `wcb@${station}`,
+    station,
+    stationLabel: station === null ? null : `1+${String(station - 1000).padStart(3, '0')}`,
+    status: fs === null ? 'failed' : 'done',
+    run: 1,
+    failReason: fs === null ? 'no method converged' : null,
+    reviewState: 'pending',
+    geometry: null,
+    result:
+      fs === null
+        ? null
+        : {
+            status: passes ? 'pass' : 'fail',
+            governingMethod: 'spencer',
+            governingFs: fs,
+            requiredFs: 1.5,
+            passes,
+            warnings: [{ code: 'w', message: 'a warning' }],
+          },
+  };
+}
+
+const ALL = [item(1, 1000, 2.1), item(2, 1020, 1.3), item(3, 1040, null), item(4, 1240, 1.4)];
+
+function pageOf(items: SectionListItem[], total = items.length): SectionPage {
+  return { page: 1, pageSize: 50, total, items, caution: 'c' };
+}
+
+describe('SectionTable', () => {
+  let fixture: ComponentFixture<SectionTable>;
+  let backend: HttpTestingController;
+  let el: HTMLElement;
+
+  beforeEach(async () => {
+    TestBed.configureTestingModule({
+      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+    });
+    backend = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(SectionTable);
+    fixture.componentRef.setInput('batchId', 7);
+    fixture.componentRef.setInput('all', ALL);
+    await fixture.whenStable();
+    el = fixture.nativeElement as HTMLElement;
+  });
+
+  afterEach(() => backend.verify());
+
+  const request = () => backend.expectOne((r) => r.url === '/api/v1/batches/7/sections');
+
+  it('shows a page from the server with links, pass/fail in words and icons', async () => {
+    const req = request();
+    expect(req.request.urlWithParams).toBe(
+      '/api/v1/batches/7/sections?sort=station&order=asc&page=1&pageSize=50',
+    );
+    req.flush(pageOf(ALL, 61));
+    await fixture.whenStable();
+    const rows = Array.from(el.querySelectorAll('[data-testid=section-row]'));
+    expect(rows).toHaveLength(4);
+    expect(rows[0].querySelector('a')?.getAttribute('href')).toBe('/sections/1');
+    expect(rows[0].textContent).toContain('Pass');
+    expect(rows[1].textContent).toContain('Fail');
+    expect(rows[1].querySelector('mat-icon')?.textContent).toBe('cancel');
+    expect(rows[2].textContent).toContain('Not solved');
+    expect(el.textContent).toContain('1 – 50 of 61');
+  });
+
+  it('asks the server for the failing ones only when the filter says Fail', async () => {
+    request().flush(pageOf(ALL));
+    await fixture.whenStable();
+    const fail = Array.from(el.querySelectorAll('[data-testid=pass-filter] button')).find(
+      (b) => b.textContent?.trim() === 'Fail',
+    ) as HTMLButtonElement;
+    fail.click();
+    await fixture.whenStable();
+    const req = request();
+    expect(req.request.params.get('pass')).toBe('false');
+    expect(req.request.params.get('page')).toBe('1');
+    req.flush(pageOf([ALL[1], ALL[3]]));
+    await fixture.whenStable();
+    expect(el.querySelectorAll('[data-testid=section-row]')).toHaveLength(2);
+  });
+
+  it('filters by text over every section without asking the server', async () => {
+    request().flush(pageOf(ALL));
+    await fixture.whenStable();
+    const input = el.querySelector('input[type=search]') as HTMLInputElement;
+    input.value = '1+2';
+    input.dispatchEvent(new Event('input'));
+    await fixture.whenStable();
+    backend.expectNone((r) => r.url === '/api/v1/batches/7/sections');
+    const rows = Array.from(el.querySelectorAll('[data-testid=section-row]'));
+    expect(rows.map((r) => r.querySelector('a')?.textContent?.trim())).toEqual(['wcb@1240']);
+  });
+
+  it('sorts and filters a list as the server does (nulls last)', () => {
+    request().flush(pageOf(ALL)); // the table's own first page
+    const by = (sort: 'station' | 'fs', direction: 'asc' | 'desc') =>
+      filterSections(ALL, { text: '', pass: 'all', status: '' }, { active: sort, direction }).map(
+        (s) => s.id,
+      );
+    expect(by('fs', 'asc')).toEqual([2, 4, 1, 3]);
+    expect(by('fs', 'desc')).toEqual([1, 4, 2, 3]);
+    expect(by('station', 'desc')).toEqual([4, 3, 2, 1]);
+    expect(
+      filterSections(
+        ALL,
+        { text: '', pass: 'fail', status: '' },
+        { active: 'station', direction: 'asc' },
+      ).map((s) => s.id),
+    ).toEqual([2, 4]);
+    expect(
+      filterSections(
+        ALL,
+        { text: '1040', pass: 'all', status: 'failed' },
+        { active: 'station', direction: 'asc' },
+      ).map((s) => s.id),
+    ).toEqual([3]);
+  });
+});

@@ -1,0 +1,212 @@
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatPaginatorModule, type PageEvent } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSortModule, type Sort } from '@angular/material/sort';
+import { MatTableModule } from '@angular/material/table';
+import { RouterLink } from '@angular/router';
+import { EMPTY, switchMap } from 'rxjs';
+import type { Problem } from '../core/models';
+import { loadState } from '../shared/load-state';
+import type {
+  SectionListItem,
+  SectionPage,
+  SectionQuery,
+  SectionSort,
+  SectionStatus,
+} from './batch-types';
+import { BatchesApi } from './batches-api';
+import { keepLast, nothingYet } from './keep-last';
+import { formatFs } from './scales';
+import { methodName, passesOf } from './words';
+
+export type PassFilter = 'all' | 'pass' | 'fail';
+
+/** The sections matching a text (station, its label or the section key), as the server sorts. */
+export function filterSections(
+  all: readonly SectionListItem[],
+  f: { text: string; pass: PassFilter; status: SectionStatus | '' },
+  sort: { active: SectionSort; direction: 'asc' | 'desc' },
+): SectionListItem[] {
+  const t = f.text.trim().toLowerCase();
+  const rows = all.filter((s) => {
+    if (f.status && s.status !== f.status) return false;
+    const p = passesOf(s.result);
+    if (f.pass === 'pass' && p !== true) return false;
+    if (f.pass === 'fail' && p !== false) return false;
+    if (!t) return true;
+    return (
+      s.key.toLowerCase().includes(t) ||
+      (s.stationLabel ?? '').toLowerCase().includes(t) ||
+      (s.station !== null && String(s.station).includes(t))
+    );
+  });
+  const value = (s: SectionListItem) =>
+    sort.active === 'fs' ? (s.result?.governingFs ?? null) : s.station;
+  const dir = sort.direction === 'desc' ? -1 : 1;
+  return rows.sort((a, b) => {
+    const va = value(a);
+    const vb = value(b);
+    if (va === null && vb === null) return a.id - b.id;
+    if (va === null) return 1; // nulls last either way, as the server has them
+    if (vb === null) return -1;
+    return (va - vb) * dir || a.id - b.id;
+  });
+}
+
+/**
+ * The sections of a batch as a Material table: sorted, filtered and paged by the server; a
+ * text filter (station or section) searches every section of the batch here instead.
+ */
+@Component({
+  selector: 'sl-section-table',
+  imports: [
+    RouterLink,
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatPaginatorModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    MatSortModule,
+    MatTableModule,
+  ],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './section-table.html',
+  styleUrl: './section-table.scss',
+})
+export class SectionTable {
+  private readonly api = inject(BatchesApi);
+
+  readonly batchId = input.required<number>();
+  /** Bumped by the page when the results change: the table reads its page again. */
+  readonly version = input(0);
+  /** Every section of the batch (for the text filter); null while loading. */
+  readonly all = input<readonly SectionListItem[] | null>(null);
+
+  protected readonly columns = [
+    'station',
+    'section',
+    'method',
+    'fs',
+    'required',
+    'verdict',
+    'warnings',
+    'review',
+    'status',
+  ];
+  protected readonly statuses: SectionStatus[] = ['queued', 'running', 'done', 'failed'];
+  protected readonly pageSizes = [25, 50, 100, 200];
+
+  protected readonly sort = signal<{ active: SectionSort; direction: 'asc' | 'desc' }>({
+    active: 'station',
+    direction: 'asc',
+  });
+  protected readonly page = signal({ index: 0, size: 50 });
+  protected readonly pass = signal<PassFilter>('all');
+  protected readonly status = signal<SectionStatus | ''>('');
+  protected readonly text = signal('');
+  private readonly retryTick = signal(0);
+
+  /** The server's query, or null while the text filter works over every section here. */
+  private readonly query = computed(() => {
+    if (this.text().trim()) return null;
+    const q: SectionQuery = {
+      sort: this.sort().active,
+      order: this.sort().direction,
+      page: this.page().index + 1,
+      pageSize: this.page().size,
+    };
+    if (this.status()) q.status = this.status() as SectionStatus;
+    if (this.pass() !== 'all') q.pass = this.pass() === 'pass';
+    return { batchId: this.batchId(), q, version: this.version(), retry: this.retryTick() };
+  });
+
+  private readonly server = toSignal(
+    toObservable(this.query).pipe(
+      switchMap((x) => (x === null ? EMPTY : loadState(this.api.sections(x.batchId, x.q)))),
+      keepLast<SectionPage>(),
+    ),
+    { initialValue: nothingYet<SectionPage>() },
+  );
+
+  private readonly local = computed(() => {
+    const all = this.all();
+    if (!this.text().trim()) return null;
+    if (all === null) return { loading: true, rows: [], total: 0 };
+    const rows = filterSections(
+      all,
+      { text: this.text(), pass: this.pass(), status: this.status() },
+      this.sort(),
+    );
+    const { index, size } = this.page();
+    return {
+      loading: false,
+      rows: rows.slice(index * size, index * size + size),
+      total: rows.length,
+    };
+  });
+
+  protected readonly view = computed(() => {
+    const local = this.local();
+    if (local) return { ...local, problem: null as Problem | null };
+    const s = this.server();
+    return {
+      loading: s.loading,
+      rows: s.value?.items ?? [],
+      total: s.value?.total ?? 0,
+      problem: s.problem,
+    };
+  });
+
+  protected readonly fs = formatFs;
+  protected readonly method = methodName;
+  protected readonly passes = passesOf;
+
+  protected onSort(e: Sort): void {
+    const active = e.active === 'fs' ? 'fs' : 'station';
+    this.sort.set({ active, direction: e.direction === 'desc' ? 'desc' : 'asc' });
+    this.page.update((p) => ({ ...p, index: 0 }));
+  }
+
+  protected onPage(e: PageEvent): void {
+    this.page.set({ index: e.pageIndex, size: e.pageSize });
+  }
+
+  protected setPass(v: PassFilter): void {
+    this.pass.set(v);
+    this.page.update((p) => ({ ...p, index: 0 }));
+  }
+
+  protected setStatus(v: SectionStatus | ''): void {
+    this.status.set(v);
+    this.page.update((p) => ({ ...p, index: 0 }));
+  }
+
+  protected setText(v: string): void {
+    this.text.set(v);
+    this.page.update((p) => ({ ...p, index: 0 }));
+  }
+
+  protected retry(): void {
+    this.retryTick.update((n) => n + 1);
+  }
+
+  protected warningCount(s: SectionListItem): string {
+    const w = s.result?.warnings;
+    return w === undefined ? '—' : String(w.length);
+  }
+
+  protected warningTitle(s: SectionListItem): string | null {
+    const w = s.result?.warnings;
+    return w && w.length > 0 ? w.map((x) => x.message).join('\n') : null;
+  }
+}

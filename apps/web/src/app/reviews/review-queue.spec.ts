@@ -1,0 +1,127 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { provideZonelessChangeDetection } from '@angular/core';
+import { TestBed, type ComponentFixture } from '@angular/core/testing';
+import { provideRouter } from '@angular/router';
+import type { Session } from '../core/models';
+import { ReviewQueue } from './review-queue';
+import type { BatchSummary, ReviewState } from './review-types';
+
+function batch(
+  id: number,
+  status: string,
+  state: ReviewState,
+  submittedBy: number,
+  below = 0,
+): BatchSummary {
+  return {
+    id,
+    projectId: 1,
+    name: `batch-${id}`,
+    title: null,
+    status,
+    source: 'json',
+    submittedBy,
+    createdAt: `2026-12-0${id}T08:00:00.000Z`,
+    finishedAt: status === 'done' ? `2026-12-0${id}T09:00:00.000Z` : null,
+    progress: {
+      total: 12,
+      done: 12,
+      failed: 0,
+      queued: 0,
+      running: 0,
+      belowRequiredFs: below,
+      fraction: 1,
+    },
+    review: { state, latest: null, history: [] },
+    caution: 'c',
+  };
+}
+
+describe('ReviewQueue', () => {
+  let fixture: ComponentFixture<ReviewQueue>;
+  let backend: HttpTestingController;
+
+  beforeEach(async () => {
+    const s: Session = {
+      token: 't',
+      expiresAt: new Date(Date.now() + 3600_000).toISOString(),
+      user: { id: 1, email: 'a@x.example', name: 'Ada', role: 'admin' },
+    };
+    sessionStorage.setItem('scarpline.session', JSON.stringify(s));
+    TestBed.configureTestingModule({
+      providers: [
+        provideZonelessChangeDetection(),
+        provideRouter([]),
+        provideHttpClient(),
+        provideHttpClientTesting(),
+      ],
+    });
+    backend = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(ReviewQueue);
+    await fixture.whenStable();
+  });
+
+  // An open request fails the test; the module is reset either way, so the next test starts clean.
+  afterEach(() => {
+    try {
+      backend.verify();
+    } finally {
+      TestBed.resetTestingModule();
+      sessionStorage.clear();
+    }
+  });
+
+  const el = () => fixture.nativeElement as HTMLElement;
+
+  it('lists the finished, pending batches of every project; one’s own apart', async () => {
+    backend.expectOne('/api/v1/projects').flush([
+      { id: 1, name: 'Wendlecombe bypass', description: null, createdAt: '' },
+      { id: 2, name: 'Second corridor', description: null, createdAt: '' },
+    ]);
+    await fixture.whenStable();
+    backend
+      .expectOne('/api/v1/projects/1/batches')
+      .flush([
+        batch(1, 'done', 'pending', 2, 5),
+        batch(2, 'running', 'pending', 2),
+        batch(3, 'done', 'approved', 2),
+      ]);
+    backend.expectOne('/api/v1/projects/2/batches').flush([batch(4, 'done', 'pending', 1)]);
+    await fixture.whenStable();
+
+    const queue = el().querySelector('[data-testid="review-queue"]') as HTMLElement;
+    const others = queue.querySelector('table[data-group="others"]') as HTMLElement;
+    const mine = queue.querySelector('table[data-group="mine"]') as HTMLElement;
+    expect(others.querySelectorAll('tbody tr').length).toBe(1);
+    expect(others.textContent).toContain('batch-1');
+    expect(others.textContent).toContain('5 failing');
+    expect(others.querySelector('a')?.getAttribute('href')).toBe('/batches/1');
+    expect(mine.querySelectorAll('tbody tr').length).toBe(1);
+    expect(mine.textContent).toContain('batch-4');
+    expect(mine.textContent).toContain('Second corridor');
+    expect(queue.textContent).toContain('Submitted by you (another reviewer signs off)');
+    expect(queue.textContent).not.toContain('batch-2');
+    expect(queue.textContent).not.toContain('batch-3');
+  });
+
+  it('says so when nothing waits', async () => {
+    backend
+      .expectOne('/api/v1/projects')
+      .flush([{ id: 1, name: 'Wendlecombe bypass', description: null, createdAt: '' }]);
+    await fixture.whenStable();
+    backend.expectOne('/api/v1/projects/1/batches').flush([batch(3, 'done', 'returned', 2)]);
+    await fixture.whenStable();
+    expect(el().querySelector('[data-testid="review-queue"]')?.textContent).toContain(
+      'Nothing waits for review',
+    );
+  });
+
+  it('shows the problem when the projects cannot be read', async () => {
+    backend
+      .expectOne('/api/v1/projects')
+      .flush({ title: 'Service Unavailable', status: 503 }, { status: 503, statusText: 'x' });
+    await fixture.whenStable();
+    expect(el().querySelector('[role="alert"]')?.textContent).toContain('Service Unavailable');
+  });
+});

@@ -1,0 +1,158 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  input,
+  output,
+  signal,
+} from '@angular/core';
+import { ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import type { LocatedError, Problem } from '../core/models';
+import { fromSi, plain, unitOf } from './format';
+import { toProblem } from '../core/problem';
+import {
+  buildModel,
+  buildPatch,
+  errorText,
+  newPoint,
+  placeErrors,
+  type Field,
+  type RerunModel,
+} from './rerun-model';
+import type { Point, SectionView } from './section-types';
+import { SectionsApi } from './sections-api';
+
+/**
+ * Re-run a section with edited parameters: each material's unit weights and strength, the
+ * water, the required FS. Values are SI, as the API takes edits; only what changed is sent,
+ * as a JSON merge patch. The API's located errors are shown by their fields and in a list.
+ */
+@Component({
+  selector: 'sl-rerun-form',
+  imports: [
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+  ],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './rerun-form.html',
+  styleUrl: './rerun-form.scss',
+})
+export class RerunForm {
+  private readonly api = inject(SectionsApi);
+
+  readonly section = input.required<SectionView>();
+  /** Emits the section as the API answers it, queued as its next run. */
+  readonly queued = output<SectionView>();
+
+  /** Rebuilt only when another section or another run is shown, never while editing. */
+  private readonly source = computed(
+    () => {
+      const s = this.section();
+      return { id: s.id, run: s.run, input: s.input };
+    },
+    { equal: (a, b) => a.id === b.id && a.run === b.run },
+  );
+  protected readonly model = computed<RerunModel>(() => buildModel(this.source().input));
+
+  protected readonly busy = signal(false);
+  protected readonly problem = signal<Problem | null>(null);
+  protected readonly located = signal<LocatedError[]>([]);
+  protected readonly notice = signal<string | null>(null);
+  protected readonly queuedRun = signal<number | null>(null);
+
+  protected readonly active = computed(() => {
+    const s = this.section().status;
+    return s === 'queued' || s === 'running';
+  });
+
+  protected readonly errorText = errorText;
+
+  /** For a file in US units: the value of a field in the file's own units. */
+  protected inFileUnits(f: Field): string {
+    const v = f.control.value;
+    if (this.section().input.units !== 'us' || !f.quantity || typeof v !== 'number') return '';
+    return `= ${plain(fromSi(v, f.quantity, 'us'), 3)} ${unitOf('us', f.quantity)}`;
+  }
+
+  protected fieldId(scope: string, f: Field): string {
+    return `rerun-${scope}-${f.key}`.replace(/[^A-Za-z0-9_-]/g, '_');
+  }
+
+  protected addPoint(): void {
+    const line = this.model().water.line;
+    if (!line) return;
+    const last = line.controls[line.length - 1]?.getRawValue();
+    const p: Point | null =
+      last && typeof last.x === 'number' && typeof last.y === 'number' ? [last.x, last.y] : null;
+    line.push(newPoint(p));
+    line.markAsDirty();
+  }
+
+  protected removePoint(i: number): void {
+    const line = this.model().water.line;
+    if (!line) return;
+    line.removeAt(i);
+    line.markAsDirty();
+  }
+
+  /** Puts the stored values back. */
+  protected reset(): void {
+    const m = this.model();
+    for (const mat of m.materials) for (const f of mat.fields) f.control.reset(f.shown);
+    m.water.unitWeight.control.reset(m.water.unitWeight.shown);
+    m.water.ru?.control.reset(m.water.ru.shown);
+    m.requiredFs.control.reset(m.requiredFs.shown);
+    const line = m.water.line;
+    if (line && m.water.originalLine) {
+      line.clear();
+      for (const p of m.water.originalLine) line.push(newPoint(p));
+    }
+    this.problem.set(null);
+    this.located.set([]);
+    this.notice.set(null);
+  }
+
+  protected submit(): void {
+    const m = this.model();
+    this.notice.set(null);
+    this.problem.set(null);
+    this.located.set([]);
+    m.form.markAllAsTouched();
+    if (m.form.invalid) {
+      this.notice.set('Some values are out of range: see the marked fields.');
+      return;
+    }
+    const patch = buildPatch(m);
+    if (Object.keys(patch).length === 0) {
+      this.notice.set('Nothing has changed: edit a value to run the section again.');
+      return;
+    }
+    this.busy.set(true);
+    this.api.rerun(this.section().id, patch).subscribe({
+      next: (view) => {
+        this.busy.set(false);
+        this.queuedRun.set(view.run);
+        this.queued.emit(view);
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        const p = toProblem(err);
+        this.problem.set(p);
+        if (p.errors?.length) {
+          placeErrors(m, p.errors);
+          this.located.set(p.errors);
+        }
+      },
+    });
+  }
+}

@@ -1,0 +1,234 @@
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatIconModule } from '@angular/material/icon';
+import { switchMap } from 'rxjs';
+import { Auth } from '../core/auth';
+import { loadState, type Loaded } from '../shared/load-state';
+import { PageState } from '../shared/page-state';
+import { fsText, methodName, when } from './format';
+import type { RunEntry, RunsView } from './section-types';
+import { SectionsApi } from './sections-api';
+
+/** The edits of a run as lines "materials.clay.strength.frictionAngle → 24". */
+export function describeChanges(changes: unknown): string[] {
+  if (changes === null || changes === undefined) return [];
+  const out: string[] = [];
+  const walk = (v: unknown, path: string) => {
+    if (Array.isArray(v)) {
+      out.push(`${path} → ${v.length} points`);
+    } else if (v !== null && typeof v === 'object') {
+      const entries = Object.entries(v as Record<string, unknown>);
+      if (entries.length === 0) out.push(`${path} → {}`);
+      for (const [k, x] of entries) walk(x, path ? `${path}.${k}` : k);
+    } else {
+      out.push(`${path} → ${v === null ? 'removed' : String(v)}`);
+    }
+  };
+  walk(changes, '');
+  return out;
+}
+
+/** Every run of the section, newest first: when, by whom, what was edited, its FS, pass/fail. */
+@Component({
+  selector: 'sl-run-history',
+  imports: [MatIconModule, PageState],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    @switch (loaded().state) {
+      @case ('ready') {
+        <div class="scroll" tabindex="0" role="region" aria-label="Runs, scrolls sideways">
+          <table data-testid="run-history">
+            <thead>
+              <tr>
+                <th scope="col" class="sl-num">Run</th>
+                <th scope="col">When</th>
+                <th scope="col">By</th>
+                <th scope="col">Edited</th>
+                <th scope="col" class="sl-num">Governing FS</th>
+                <th scope="col">Against required</th>
+              </tr>
+            </thead>
+            <tbody>
+              @for (r of rows(); track r.entry.run) {
+                <tr [class.current]="r.entry.current" [attr.data-run]="r.entry.run">
+                  <th scope="row" class="sl-num">
+                    {{ r.entry.run }}
+                    @if (r.entry.current) {
+                      <span class="current-mark">current</span>
+                    }
+                  </th>
+                  <td>{{ r.when }}</td>
+                  <td>{{ r.by }}</td>
+                  <td>
+                    @if (r.changes.length === 0) {
+                      <span class="muted">{{ r.entry.run === 1 ? 'as submitted' : '—' }}</span>
+                    } @else {
+                      <ul class="changes">
+                        @for (c of r.changes; track $index) {
+                          <li>
+                            <code>{{ c }}</code>
+                          </li>
+                        }
+                      </ul>
+                    }
+                  </td>
+                  <td class="sl-num">{{ r.fs }}</td>
+                  <td>
+                    @switch (r.verdict) {
+                      @case ('pass') {
+                        <span class="sl-pass verdict">
+                          <mat-icon aria-hidden="true">check_circle</mat-icon> pass
+                        </span>
+                      }
+                      @case ('fail') {
+                        <span class="sl-fail verdict">
+                          <mat-icon aria-hidden="true">cancel</mat-icon> fail
+                        </span>
+                      }
+                      @case ('pending') {
+                        <span class="muted">not finished</span>
+                      }
+                      @case ('unsolved') {
+                        <span class="sl-fail verdict">
+                          <mat-icon aria-hidden="true">block</mat-icon> not solved
+                        </span>
+                      }
+                      @default {
+                        <span class="muted">no required FS</span>
+                      }
+                    }
+                  </td>
+                </tr>
+              }
+            </tbody>
+          </table>
+        </div>
+      }
+      @default {
+        <sl-page-state
+          [state]="loaded().state"
+          [problem]="problem()"
+          loadingText="Loading the runs…"
+          (retry)="tries.set(tries() + 1)"
+        />
+      }
+    }
+  `,
+  styles: `
+    .scroll {
+      overflow-x: auto;
+    }
+    table {
+      border-collapse: collapse;
+      width: 100%;
+      min-width: 640px;
+      font-size: 14px;
+    }
+    th,
+    td {
+      padding: 7px 10px;
+      border-bottom: 1px solid var(--sl-line);
+      text-align: left;
+      vertical-align: top;
+    }
+    thead th {
+      color: var(--sl-muted);
+      font-weight: 600;
+      font-size: 13px;
+    }
+    .sl-num {
+      text-align: right;
+      font-variant-numeric: tabular-nums;
+    }
+    tr.current {
+      background: var(--sl-clay-soft);
+    }
+    .current-mark {
+      display: block;
+      font-size: 11px;
+      font-weight: 600;
+      color: var(--sl-clay);
+      text-transform: uppercase;
+      letter-spacing: 0.04em;
+    }
+    .changes {
+      margin: 0;
+      padding: 0;
+      list-style: none;
+    }
+    code {
+      font-size: 12px;
+      overflow-wrap: anywhere;
+    }
+    .muted {
+      color: var(--sl-muted);
+    }
+    .verdict {
+      display: inline-flex;
+      align-items: center;
+      gap: 4px;
+      font-weight: 600;
+    }
+    .verdict mat-icon {
+      font-size: 18px;
+      width: 18px;
+      height: 18px;
+    }
+  `,
+})
+export class RunHistory {
+  private readonly api = inject(SectionsApi);
+  private readonly auth = inject(Auth);
+
+  readonly sectionId = input.required<number>();
+  /** Changes when the run or its status changes: the list is fetched again. */
+  readonly version = input<string>('');
+
+  protected readonly tries = signal(0);
+  private readonly request = computed(() => ({
+    id: this.sectionId(),
+    version: this.version(),
+    tries: this.tries(),
+  }));
+  protected readonly loaded = toSignal(
+    toObservable(this.request).pipe(switchMap(({ id }) => loadState(this.api.runs(id)))),
+    { initialValue: { state: 'loading' } as Loaded<RunsView> },
+  );
+  protected readonly problem = computed(() => {
+    const l = this.loaded();
+    return l.state === 'error' ? l.problem : null;
+  });
+
+  protected readonly rows = computed(() => {
+    const l = this.loaded();
+    if (l.state !== 'ready') return [];
+    const me = this.auth.user()?.id;
+    return l.value.runs.map((entry: RunEntry) => {
+      const r = entry.result;
+      const verdict = !r
+        ? 'pending'
+        : r.status === 'failed'
+          ? 'unsolved'
+          : r.passes === true
+            ? 'pass'
+            : r.passes === false
+              ? 'fail'
+              : 'none';
+      return {
+        entry,
+        when: when(r?.timings.finishedAt ?? r?.timings.startedAt ?? null),
+        by:
+          entry.editedBy === null
+            ? entry.run === 1
+              ? 'submitted with the batch'
+              : '—'
+            : entry.editedBy === me
+              ? 'you'
+              : `user #${entry.editedBy}`,
+        changes: describeChanges(entry.changes),
+        fs: r?.governing ? `${fsText(r.governing.fs)} (${methodName(r.governing.method)})` : '—',
+        verdict,
+      };
+    });
+  });
+}

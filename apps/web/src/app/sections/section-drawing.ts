@@ -1,0 +1,169 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  input,
+  signal,
+  ViewEncapsulation,
+} from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatIconModule } from '@angular/material/icon';
+import { DomSanitizer, type SafeHtml } from '@angular/platform-browser';
+import { map, switchMap } from 'rxjs';
+import { loadState, type Loaded } from '../shared/load-state';
+import { PageState } from '../shared/page-state';
+import { SectionsApi } from './sections-api';
+
+interface Drawing {
+  text: string;
+  html: SafeHtml;
+}
+
+/**
+ * The cross-section as the server draws it for the current run (strata, water, loads, the
+ * critical surfaces, slices, the FS map of the search, axes, legend, caution), inlined so it
+ * scales with the page, with a download of the same SVG file. Reloads when `version` changes.
+ */
+@Component({
+  selector: 'sl-section-drawing',
+  imports: [MatButtonModule, MatButtonToggleModule, MatIconModule, PageState],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  // The SVG is inserted as HTML, so its sizing rules must reach outside the view's scope.
+  encapsulation: ViewEncapsulation.None,
+  template: `
+    <div class="sl-drawing-tools">
+      <mat-button-toggle-group
+        [value]="fit() ? 'fit' : 'full'"
+        (change)="fit.set($event.value === 'fit')"
+        aria-label="Drawing size"
+        hideSingleSelectionIndicator
+      >
+        <mat-button-toggle value="fit">Fit width</mat-button-toggle>
+        <mat-button-toggle value="full">Full size</mat-button-toggle>
+      </mat-button-toggle-group>
+      <button
+        mat-stroked-button
+        type="button"
+        data-testid="download-svg"
+        [disabled]="loaded().state !== 'ready'"
+        (click)="download()"
+      >
+        <mat-icon aria-hidden="true">download</mat-icon>
+        Download SVG
+      </button>
+    </div>
+    @switch (loaded().state) {
+      @case ('ready') {
+        <div
+          class="sl-drawing-box"
+          [class.sl-drawing-fit]="fit()"
+          data-testid="section-drawing"
+          tabindex="0"
+          role="region"
+          aria-label="Cross-section drawing"
+          [innerHTML]="drawing()?.html"
+        ></div>
+      }
+      @default {
+        <div data-testid="section-drawing-state" class="sl-drawing-state">
+          <sl-page-state
+            [state]="state()"
+            [problem]="problem()"
+            loadingText="Drawing the section…"
+            (retry)="retry()"
+          />
+        </div>
+      }
+    }
+  `,
+  styles: `
+    sl-section-drawing {
+      display: block;
+    }
+    .sl-drawing-tools {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 8px;
+      justify-content: flex-end;
+      margin-bottom: 8px;
+    }
+    .sl-drawing-box {
+      overflow: auto;
+      border: 1px solid var(--sl-line);
+      border-radius: 6px;
+      background: #fff;
+    }
+    .sl-drawing-box > svg {
+      display: block;
+    }
+    .sl-drawing-box.sl-drawing-fit > svg {
+      width: 100%;
+      height: auto;
+    }
+    .sl-drawing-state {
+      min-height: 120px;
+    }
+  `,
+})
+export class SectionDrawing {
+  private readonly api = inject(SectionsApi);
+  private readonly sanitizer = inject(DomSanitizer);
+
+  readonly sectionId = input.required<number>();
+  /** Changes when the run or its status changes: the drawing is fetched again. */
+  readonly version = input<string>('');
+  /** The name of the downloaded file. */
+  readonly fileName = input<string>('section.svg');
+
+  protected readonly fit = signal(true);
+  private readonly tries = signal(0);
+
+  private readonly request = computed(() => ({
+    id: this.sectionId(),
+    version: this.version(),
+    tries: this.tries(),
+  }));
+
+  protected readonly loaded = toSignal(
+    toObservable(this.request).pipe(
+      switchMap(({ id }) =>
+        loadState(
+          this.api.plotSvg(id).pipe(
+            // Our own server's drawing of the solver's result: trusted markup, inlined as is.
+            map((text): Drawing => ({ text, html: this.sanitizer.bypassSecurityTrustHtml(text) })),
+          ),
+        ),
+      ),
+    ),
+    { initialValue: { state: 'loading' } as Loaded<Drawing> },
+  );
+  protected readonly drawing = computed(() => {
+    const l = this.loaded();
+    return l.state === 'ready' ? l.value : null;
+  });
+  protected readonly state = computed(() => this.loaded().state);
+  protected readonly problem = computed(() => {
+    const l = this.loaded();
+    return l.state === 'error' ? l.problem : null;
+  });
+
+  protected retry(): void {
+    this.tries.update((n) => n + 1);
+  }
+
+  protected download(): void {
+    const d = this.drawing();
+    if (!d) return;
+    const url = URL.createObjectURL(new Blob([d.text], { type: 'image/svg+xml' }));
+    const a = document.createElement('a');
+    a.href = url;
+    a.download = this.fileName();
+    document.body.appendChild(a);
+    a.click();
+    a.remove();
+    setTimeout(() => URL.revokeObjectURL(url), 0);
+  }
+}

@@ -1,0 +1,221 @@
+import { ChangeDetectionStrategy, Component, computed, input, linkedSignal } from '@angular/core';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatSelectModule } from '@angular/material/select';
+import { fixed, methodName, surfaceText, unitOf } from './format';
+import type { MethodId, MethodReport, UnitSystem } from './section-types';
+
+/**
+ * The slices of one method (the governing one unless another is picked): every quantity the
+ * result holds for each slice, in the section's units.
+ */
+@Component({
+  selector: 'sl-slice-table',
+  imports: [MatFormFieldModule, MatSelectModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <div class="head">
+      <p class="note" data-testid="slice-note">
+        @if (governingWithout(); as g) {
+          {{ name(g) }} (governing) has no slices.
+        }
+        @if (shown(); as r) {
+          Slices of <strong>{{ name(r.method) }}</strong>
+          @if (r.method === governing()) {
+            (governing)
+          }
+          on the {{ surface() }} · {{ r.slices.length }} slices · forces per
+          {{ unitOf(units(), 'length') }} run
+        } @else {
+          No method of this result has slices.
+        }
+      </p>
+      @if (withSlices().length > 1) {
+        <mat-form-field appearance="outline" subscriptSizing="dynamic" class="pick">
+          <mat-label>Method</mat-label>
+          <mat-select [value]="picked()" (valueChange)="picked.set($event)">
+            @for (m of withSlices(); track m.method) {
+              <mat-option [value]="m.method">{{ name(m.method) }}</mat-option>
+            }
+          </mat-select>
+        </mat-form-field>
+      }
+    </div>
+    @if (shown(); as r) {
+      <div
+        class="scroll"
+        tabindex="0"
+        role="region"
+        [attr.aria-label]="'Slices of ' + name(r.method) + ', scrolls both ways'"
+      >
+        <table data-testid="slice-table">
+          <thead>
+            <tr>
+              <th scope="col" class="sl-num">#</th>
+              <th scope="col" class="sl-num">
+                x<span class="u">{{ u().length }}</span>
+              </th>
+              <th scope="col" class="sl-num">
+                width b<span class="u">{{ u().length }}</span>
+              </th>
+              <th scope="col" class="sl-num">base α<span class="u">°</span></th>
+              <th scope="col" class="sl-num">
+                base length l<span class="u">{{ u().length }}</span>
+              </th>
+              <th scope="col" class="sl-num">
+                weight W<span class="u">{{ u().force }}</span>
+              </th>
+              <th scope="col" class="sl-num">
+                pore pressure u<span class="u">{{ u().pressure }}</span>
+              </th>
+              <th scope="col" class="sl-num">
+                normal N′<span class="u">{{ u().force }}</span>
+              </th>
+              <th scope="col" class="sl-num">
+                shear S<span class="u">{{ u().force }}</span>
+              </th>
+              <th scope="col" class="sl-num">
+                interslice E<span class="u">{{ u().force }}</span>
+              </th>
+              <th scope="col" class="sl-num">
+                interslice X<span class="u">{{ u().force }}</span>
+              </th>
+              <th scope="col" class="sl-num">
+                line of thrust y<span class="u">{{ u().length }}</span>
+              </th>
+              <th scope="col">base material</th>
+            </tr>
+          </thead>
+          <tbody>
+            @for (s of r.slices; track $index) {
+              <tr>
+                <td class="sl-num">{{ $index + 1 }}</td>
+                <td class="sl-num">{{ f(s.x) }}</td>
+                <td class="sl-num">{{ f(s.width, 3) }}</td>
+                <td class="sl-num">{{ f(s.alpha, 1) }}</td>
+                <td class="sl-num">{{ f(s.baseLength, 3) }}</td>
+                <td class="sl-num">{{ f(s.weight) }}</td>
+                <td class="sl-num">{{ f(s.porePressure) }}</td>
+                <td class="sl-num" [class.neg]="s.normal < 0">{{ f(s.normal) }}</td>
+                <td class="sl-num">{{ f(s.shear) }}</td>
+                <td class="sl-num">{{ f(s.interslice.E) }}</td>
+                <td class="sl-num">{{ f(s.interslice.X) }}</td>
+                <td class="sl-num">{{ f(s.interslice.thrust) }}</td>
+                <td>{{ s.material }}</td>
+              </tr>
+            }
+          </tbody>
+        </table>
+      </div>
+      <p class="legend">
+        x: middle of the slice; α: inclination of the base, positive where it rises to the right;
+        N′: effective normal force on the base; S: mobilised shear on the base; E, X: interslice
+        normal and shear force on the slice's right side; line of thrust: height where E acts there
+        (— where undefined). A negative N′ is marked.
+      </p>
+    }
+  `,
+  styles: `
+    .head {
+      display: flex;
+      flex-wrap: wrap;
+      align-items: center;
+      justify-content: space-between;
+      gap: 8px 16px;
+      margin-bottom: 8px;
+    }
+    .note {
+      margin: 0;
+    }
+    .pick {
+      width: 240px;
+    }
+    .scroll {
+      overflow: auto;
+      max-height: 480px;
+      border: 1px solid var(--sl-line);
+      border-radius: 6px;
+    }
+    table {
+      border-collapse: separate;
+      border-spacing: 0;
+      width: 100%;
+      font-size: 13px;
+      font-variant-numeric: tabular-nums;
+    }
+    th,
+    td {
+      padding: 5px 8px;
+      border-bottom: 1px solid var(--sl-line);
+      white-space: nowrap;
+      text-align: left;
+    }
+    thead th {
+      position: sticky;
+      top: 0;
+      z-index: 1;
+      background: var(--sl-card);
+      color: var(--sl-ink-soft);
+      font-weight: 600;
+      vertical-align: bottom;
+      box-shadow: 0 1px 0 var(--sl-line);
+    }
+    .u {
+      display: block;
+      font-weight: 400;
+      color: var(--sl-muted);
+    }
+    .sl-num {
+      text-align: right;
+    }
+    .neg {
+      color: var(--sl-fail);
+      font-weight: 600;
+    }
+    .neg::after {
+      content: ' (tension)';
+      font-weight: 400;
+    }
+    .legend {
+      font-size: 12.5px;
+      color: var(--sl-muted);
+      margin: 8px 0 0;
+      line-height: 1.4;
+    }
+  `,
+})
+export class SliceTable {
+  readonly methods = input.required<readonly MethodReport[]>();
+  /** The governing method: shown first. */
+  readonly governing = input<MethodId | null>(null);
+  readonly units = input<UnitSystem>('si');
+
+  protected readonly withSlices = computed(() => this.methods().filter((m) => m.slices.length));
+  /** The method picked; the governing one (or the first with slices) until the user picks. */
+  protected readonly picked = linkedSignal<MethodId | null>(() => {
+    const list = this.withSlices();
+    const gov = this.governing();
+    return list.find((m) => m.method === gov)?.method ?? list[0]?.method ?? null;
+  });
+  /** The governing method when it has no slices (the infinite slope). */
+  protected readonly governingWithout = computed(() => {
+    const gov = this.governing();
+    return gov !== null && !this.withSlices().some((m) => m.method === gov) ? gov : null;
+  });
+  protected readonly shown = computed(
+    () => this.withSlices().find((m) => m.method === this.picked()) ?? null,
+  );
+  protected readonly surface = computed(() =>
+    surfaceText(this.shown()?.surface ?? null, this.units()),
+  );
+  protected readonly u = computed(() => ({
+    length: unitOf(this.units(), 'length'),
+    force: unitOf(this.units(), 'forcePerLength'),
+    pressure: unitOf(this.units(), 'pressure'),
+  }));
+  protected readonly unitOf = unitOf;
+  protected readonly name = methodName;
+
+  protected f(v: number | null, digits = 2): string {
+    return fixed(v, digits);
+  }
+}
