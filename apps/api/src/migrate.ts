@@ -3,12 +3,14 @@ import { Umzug, SequelizeStorage } from 'umzug';
 import type { QueryInterface, Sequelize } from 'sequelize';
 import * as initial from './migrations/0001-initial';
 import * as second from './migrations/0002-reviews-runs-geometry';
+import * as third from './migrations/0003-section-input-warnings';
 
 export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
   return new Umzug({
     migrations: [
       { name: '0001-initial', up: initial.up, down: initial.down },
       { name: '0002-reviews-runs-geometry', up: second.up, down: second.down },
+      { name: '0003-section-input-warnings', up: third.up, down: third.down },
     ],
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),

@@ -57,6 +57,22 @@ test('a 3-section corridor posted as JSON is solved by the worker; results reada
   const done = await waitForBatch(app, viewer, post.body.id);
   expect(done.progress).toMatchObject({ total: 3, done: 3, failed: 0, queued: 0, running: 0 });
 
+  // Who submitted it, by name, for every role (here a viewer), in the view and the project list.
+  const submitter = { id: users.engineer.id, name: 'batch engineer' };
+  expect(post.body.submitter).toEqual(submitter);
+  const view = await request(app)
+    .get(`/api/v1/batches/${post.body.id}`)
+    .auth(viewer, { type: 'bearer' });
+  expect(view.body).toMatchObject({ submittedBy: users.engineer.id, submitter });
+  expect(schemaErrors('Batch', view.body)).toEqual([]);
+  const listed = await request(app)
+    .get(`/api/v1/projects/${projectId}/batches`)
+    .auth(viewer, { type: 'bearer' });
+  expect(listed.status).toBe(200);
+  expect(listed.body.find((b: { id: number }) => b.id === post.body.id).submitter).toEqual(
+    submitter,
+  );
+
   const list = await request(app)
     .get(`/api/v1/batches/${post.body.id}/sections?sort=fs&order=asc`)
     .auth(viewer, { type: 'bearer' });
@@ -110,6 +126,8 @@ test('a 3-section corridor posted as JSON is solved by the worker; results reada
     station: list.body.items[0].station,
     stationLabel: list.body.items[0].stationLabel,
     submittedBy: users.engineer.id,
+    submitter: { id: users.engineer.id, name: 'batch engineer' },
+    inputWarnings: [],
     geometry: null,
     previous: [],
     review: { state: 'pending', latest: null, history: [] },

@@ -8,7 +8,7 @@ import { AuditEntry, ResultRow } from '../src/models';
 import { stopQueue } from '../src/queue';
 import { editSection } from '../src/services/rerun';
 import { startWorker } from '../src/worker';
-import { expectProblem, makeUsers, signIn, waitForBatch } from './helpers';
+import { expectProblem, makeUsers, schemaErrors, signIn, waitForBatch } from './helpers';
 
 const EXAMPLES = path.resolve(__dirname, '../../../examples');
 const app = createApp();
@@ -98,7 +98,11 @@ test('a re-run with edits: a new result with run 2, run 1 kept, the history of r
   ]);
   expect(runs.body.runs[0].changes).toEqual(changes);
   expect(runs.body.runs[0].editedBy).toBe(users.engineer.id);
+  expect(runs.body.runs[0].editor).toEqual({ id: users.engineer.id, name: 'rerun engineer' });
   expect(runs.body.runs[1].changes).toBeNull();
+  expect(runs.body.runs[1].editedBy).toBeNull();
+  expect(runs.body.runs[1].editor).toBeNull();
+  expect(schemaErrors('SectionRuns', runs.body)).toEqual([]);
   expect(runs.body.runs[1].input.materials['weathered-mudstone'].strength.frictionAngle).toBe(26);
   expect(runs.body.runs[0].input.materials['weathered-mudstone'].strength.frictionAngle).toBe(32);
   expect(

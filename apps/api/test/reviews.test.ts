@@ -65,7 +65,7 @@ test('a reviewer returns a section with a comment: review row, state on section 
     decision: 'returned',
     comment: 'Check the water table at this station.',
     run: 1,
-    reviewer: { id: users.reviewer.id },
+    reviewer: { id: users.reviewer.id, name: 'review reviewer' },
     caution: CAUTION,
   });
   const row = await Review.findByPk(res.body.id);
@@ -75,6 +75,10 @@ test('a reviewer returns a section with a comment: review row, state on section 
   const after = await request(app).get(`/api/v1/sections/${sectionIds[0]}`).auth(viewer, bearer);
   expect(after.body.review.state).toBe('returned');
   expect(after.body.review.latest.comment).toBe('Check the water table at this station.');
+  expect(after.body.review.latest.reviewer).toEqual({
+    id: users.reviewer.id,
+    name: 'review reviewer',
+  });
   const list = await request(app).get(`/api/v1/batches/${batchId}/sections`).auth(viewer, bearer);
   const states = Object.fromEntries(
     list.body.items.map((i: { id: number; reviewState: string }) => [i.id, i.reviewState]),

@@ -7,6 +7,7 @@ import {
   type InferAttributes,
   type InferCreationAttributes,
 } from 'sequelize';
+import type { Message } from '@scarpline/core';
 import { sequelize } from '../db';
 
 export const ROLES = ['admin', 'engineer', 'reviewer', 'viewer', 'integration'] as const;
@@ -138,6 +139,11 @@ export class SectionRow extends Model<
   declare failReason: string | null;
   /** The section line of a GeoJSON corridor feature, as given; null for other inputs. */
   declare geometry: CreationOptional<object | null>;
+  /**
+   * The warnings of the input checks that concern this section (located messages as the core
+   * gives them: severity, file, line, column, path, code, message); those of its current input.
+   */
+  declare inputWarnings: CreationOptional<Message[]>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -152,6 +158,7 @@ SectionRow.init(
     run: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
     failReason: { type: DataTypes.TEXT, allowNull: true },
     geometry: { type: DataTypes.JSONB, allowNull: true },
+    inputWarnings: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
   },

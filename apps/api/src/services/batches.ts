@@ -10,7 +10,7 @@ import { audit } from './audit';
 import { assertProject, type Principal } from './auth';
 import { batchReview, sectionReviewStates } from './reviews';
 import type { Parsed } from './validate';
-import { passes, stationLabel } from './views';
+import { passes, stationLabel, userRef } from './views';
 
 export async function submitBatch(p: Principal, projectId: number, parsed: Parsed, source: string) {
   assertProject(p, projectId);
@@ -40,6 +40,7 @@ export async function submitBatch(p: Principal, projectId: number, parsed: Parse
         status: 'queued' as const,
         failReason: null,
         geometry: parsed.geometries?.[s.id] ?? null,
+        inputWarnings: parsed.sectionWarnings[s.id] ?? [],
       })),
       { transaction: t, returning: true },
     );
@@ -96,6 +97,7 @@ export async function batchView(batchId: number) {
     status: b.status,
     source: b.source,
     submittedBy: b.submittedBy,
+    submitter: await userRef(b.submittedBy),
     createdAt: b.createdAt,
     finishedAt: b.finishedAt,
     progress: await progress(b.id),

@@ -3,7 +3,7 @@
  * stored, checked again by the section schema and the core's checks (located errors, 422),
  * queued as the next run. Older runs and their results are kept.
  */
-import type { Analysis, Material, Section, Water } from '@scarpline/core';
+import type { Analysis, Material, Message, Section, Water } from '@scarpline/core';
 import { CAUTION } from '@scarpline/core';
 import { sequelize } from '../db';
 import { conflict, invalid } from '../errors';
@@ -13,6 +13,7 @@ import { audit } from './audit';
 import type { Principal } from './auth';
 import { loadSection, resultView, sectionView } from './sections';
 import { parseSectionText } from './validate';
+import { userRefs } from './views';
 
 /** What an edit may change. Values are SI (the stored section is normalised to SI). */
 export const EDITABLE = [
@@ -91,8 +92,14 @@ export function sectionDocument(s: Section): Record<string, Json> {
   return JSON.parse(JSON.stringify(drop(doc))) as Record<string, Json>;
 }
 
-/** The edited section, checked; throws 422 with located errors (paths into the section). */
-export function editSection(stored: Section, changes: unknown): Section {
+/**
+ * The edited section, checked, with the warnings of the core's checks about it; throws 422 with
+ * located errors (paths into the section).
+ */
+export function checkEdits(
+  stored: Section,
+  changes: unknown,
+): { section: Section; warnings: Message[] } {
   if (!isObject(changes)) throw invalid('Send the changes as a JSON object.');
   const unknown = Object.keys(changes).filter((k) => !(EDITABLE as readonly string[]).includes(k));
   if (unknown.length > 0) {
@@ -114,7 +121,12 @@ export function editSection(stored: Section, changes: unknown): Section {
   const doc = mergePatch(sectionDocument(stored), patch);
   const edited = parseSectionText(JSON.stringify(doc, null, 2), 'edited-section.json');
   // Values are SI; results are still reported in the units of the file it came from.
-  return { ...edited, units: stored.units };
+  return { section: { ...edited.section, units: stored.units }, warnings: edited.warnings };
+}
+
+/** The edited section, checked (see checkEdits). */
+export function editSection(stored: Section, changes: unknown): Section {
+  return checkEdits(stored, changes).section;
 }
 
 export async function rerunSection(p: Principal, sectionId: number, changes: unknown) {
@@ -122,10 +134,14 @@ export async function rerunSection(p: Principal, sectionId: number, changes: unk
   if (section.status === 'queued' || section.status === 'running') {
     throw conflict(`Section ${section.key} is ${section.status}; re-run it when this run ends.`);
   }
-  const input = editSection(section.input as Section, changes);
+  const { section: input, warnings } = checkEdits(section.input as Section, changes);
   const run = section.run + 1;
   await sequelize.transaction(async (t) => {
-    await section.update({ input, run, status: 'queued', failReason: null }, { transaction: t });
+    // The section's input is now the edited one: so are the warnings about it.
+    await section.update(
+      { input, run, status: 'queued', failReason: null, inputWarnings: warnings },
+      { transaction: t },
+    );
     await Batch.update(
       { status: 'running', finishedAt: null },
       { where: { id: section.batchId }, transaction: t },
@@ -146,19 +162,21 @@ export async function sectionRuns(p: Principal, sectionId: number) {
   const edits = await AuditEntry.findAll({
     where: { action: 'rerun', entity: 'section', entityId: section.id },
   });
-  const editOf = (run: number) =>
-    (edits.find((e) => (e.details as { run?: number } | null)?.run === run)?.details as
-      { changes?: unknown } | undefined) ?? null;
+  const entryOf = (run: number) =>
+    edits.find((e) => (e.details as { run?: number } | null)?.run === run);
+  const editors = await userRefs(edits.map((e) => e.userId));
   const runs = [];
   for (let run = section.run; run >= 1; run--) {
     const r = results.find((x) => x.run === run);
-    const edit = editOf(run);
+    const entry = entryOf(run);
+    const editedBy = entry?.userId ?? null;
     runs.push({
       run,
       current: run === section.run,
-      changes: edit?.changes ?? null,
-      editedBy:
-        edits.find((e) => (e.details as { run?: number } | null)?.run === run)?.userId ?? null,
+      changes: (entry?.details as { changes?: unknown } | null | undefined)?.changes ?? null,
+      editedBy,
+      /** Who started this run with edits (null for the submitted run). */
+      editor: editedBy === null ? null : (editors.get(editedBy) ?? null),
       input: r?.input ?? (run === section.run ? section.input : null),
       result: r ? resultView(r) : null,
     });

@@ -5,7 +5,8 @@ import { ResultRow, SectionRow } from '../models';
 import type { Principal } from './auth';
 import { loadBatch } from './batches';
 import { sectionReview } from './reviews';
-import { passes, stationLabel } from './views';
+import { messageView } from './validate';
+import { passes, stationLabel, userRef } from './views';
 
 /** A run's result; with `search`, also the search report (FS map, trials) the drawing uses. */
 export function resultView(r: ResultRow, options: { search?: boolean } = {}) {
@@ -51,7 +52,10 @@ export async function sectionView(p: Principal, id: number) {
     failReason: s.failReason,
     /** Who submitted the batch: they may not review it. */
     submittedBy: batch.submittedBy,
+    submitter: await userRef(batch.submittedBy),
     input: s.input,
+    /** The warnings of the input checks about this section's current input. */
+    inputWarnings: s.inputWarnings.map(messageView),
     geometry: s.geometry ?? null,
     result: current ? resultView(current, { search: true }) : null,
     previous: results.filter((r) => r.run !== s.run).map((r) => resultView(r)),

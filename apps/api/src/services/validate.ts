@@ -11,6 +11,7 @@ import {
 import { parse as parseYaml } from 'yaml';
 import { batchSchema, sectionSchema } from '@scarpline/schemas';
 import { invalid } from '../errors';
+import { corridorWarnings, fileWarnings, type SectionWarnings } from './input-warnings';
 
 const ajv = new Ajv2020({ allErrors: true, strict: false });
 ajv.addSchema(sectionSchema);
@@ -29,13 +30,18 @@ export interface Parsed {
   title: string | null;
   /** Section id → the line geometry of its GeoJSON corridor feature, when there was one. */
   geometries?: Record<string, object>;
+  /** Section id → the warnings that concern it (see input-warnings.ts). */
+  sectionWarnings: SectionWarnings;
+}
+
+/** A located message as the API gives it: the message and its one-line `text`. */
+export function messageView(m: Message) {
+  return { ...m, text: formatMessage(m) };
 }
 
 function locatedError(messages: Message[]) {
   const errors = messages.filter((m) => m.severity === 'error');
-  return invalid(`${errors.length} error(s) in the input.`, {
-    errors: errors.map((m) => ({ ...m, text: formatMessage(m) })),
-  });
+  return invalid(`${errors.length} error(s) in the input.`, { errors: errors.map(messageView) });
 }
 
 /** A JSON body that must be a corridor batch: ajv first, then the core for located messages. */
@@ -64,6 +70,7 @@ export function parseBatchBody(body: unknown, rawText: string | undefined): Pars
     warnings: parsed.messages,
     name: b.id,
     title: b.title ?? null,
+    sectionWarnings: fileWarnings(text, 'batch.json', parsed),
   };
 }
 
@@ -90,11 +97,13 @@ export function parseFiles(files: InputFile[]): Parsed {
   let name: string | null = null;
   let title: string | null = null;
   const geometries: Record<string, object> = {};
+  const sectionWarnings: SectionWarnings = {};
   for (const f of files) {
     if (isGeoJsonCorridor(f.text)) {
       const c = parseGeoJsonCorridor(f.text, f.name);
       sections.push(...c.sections);
       messages.push(...c.messages);
+      Object.assign(sectionWarnings, corridorWarnings(f.text, f.name, c));
       name ??= c.batchId;
       for (const feature of c.features) {
         const g = feature.geometry;
@@ -104,6 +113,7 @@ export function parseFiles(files: InputFile[]): Parsed {
       const p = parseSections(f.text, f.name);
       sections.push(...p.sections);
       messages.push(...p.messages);
+      Object.assign(sectionWarnings, fileWarnings(f.text, f.name, p));
       const head = batchHeader(f.text);
       if (head) {
         name ??= head.id;
@@ -118,13 +128,23 @@ export function parseFiles(files: InputFile[]): Parsed {
     if (ids.has(s.id)) throw invalid(`Section id ${s.id} appears twice in the upload.`);
     ids.add(s.id);
   }
-  return { sections, warnings: messages, name: name ?? sections[0].id, title, geometries };
+  return {
+    sections,
+    warnings: messages,
+    name: name ?? sections[0].id,
+    title,
+    geometries,
+    sectionWarnings,
+  };
 }
 
-/** One section document (a re-run with edits). */
-export function parseSectionText(text: string, fileName: string): Section {
+/** One section document (a re-run with edits), with the warnings of the checks about it. */
+export function parseSectionText(
+  text: string,
+  fileName: string,
+): { section: Section; warnings: Message[] } {
   const p = parseSections(text, fileName);
   if (p.messages.some((m) => m.severity === 'error')) throw locatedError(p.messages);
   if (p.sections.length !== 1) throw invalid('Send exactly one section.');
-  return p.sections[0];
+  return { section: p.sections[0], warnings: p.messages.filter((m) => m.severity === 'warning') };
 }

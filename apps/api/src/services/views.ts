@@ -1,6 +1,7 @@
 /** Small pieces shared by the section views, the lists and the exports. */
+import { Op } from 'sequelize';
 import { chainageLabel, type Section } from '@scarpline/core';
-import type { ResultRow, SectionRow } from '../models';
+import { User, type ResultRow, type SectionRow } from '../models';
 
 /** A station as chainage in the units of the section's file ("1+240"); null without one. */
 export function stationLabel(s: SectionRow): string | null {
@@ -10,4 +11,26 @@ export function stationLabel(s: SectionRow): string | null {
 /** true / false against the required FS; null when none is required or nothing was solved. */
 export function passes(r: ResultRow | null | undefined): boolean | null {
   return r?.status === 'pass' ? true : r?.status === 'fail' ? false : null;
+}
+
+/** A user as every role may see them beside what they did: id and name, never the e-mail. */
+export interface UserRef {
+  id: number;
+  name: string;
+}
+
+/** The users of these ids that are on record (users are deactivated, never deleted). */
+export async function userRefs(ids: readonly (number | null)[]): Promise<Map<number, UserRef>> {
+  const wanted = [...new Set(ids.filter((id): id is number => id !== null))];
+  const users = wanted.length
+    ? await User.findAll({ where: { id: { [Op.in]: wanted } }, attributes: ['id', 'name'] })
+    : [];
+  return new Map(users.map((u) => [u.id, { id: u.id, name: u.name }]));
+}
+
+/** One user that must be on record (a batch's submitter: the foreign key keeps them). */
+export async function userRef(id: number): Promise<UserRef> {
+  const found = (await userRefs([id])).get(id);
+  if (!found) throw new Error(`user ${id} is not on record`);
+  return found;
 }
