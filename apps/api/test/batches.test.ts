@@ -83,6 +83,8 @@ test('a 3-section corridor posted as JSON is solved by the worker; results reada
   for (const item of list.body.items) {
     expect(item).toMatchObject({
       stationLabel: expect.stringMatching(/^1\+0[024]0$/),
+      title: expect.any(String),
+      units: 'si',
       status: 'done',
       reviewState: 'pending',
       geometry: null,

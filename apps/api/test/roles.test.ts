@@ -233,3 +233,24 @@ test('a revoked integration token is refused', async () => {
   expect(del.status).toBe(200);
   expectProblem(await request(app).get('/api/v1/me').auth(t.body.token, { type: 'bearer' }), 401);
 });
+
+test('a token lives 1 to 3650 whole days, and the list says when each was made', async () => {
+  for (const days of [0, -5, 2.5, 3651]) {
+    const res = await request(app)
+      .post('/api/v1/tokens')
+      .auth(tokens.admin, { type: 'bearer' })
+      .send({ userId: users.integration.id, name: `bad-${days}`, projectIds: [projectId], days });
+    expectProblem(res, 422);
+    expect(res.body.detail).toBe('days is a whole number of days from 1 to 3650.');
+  }
+  const ok = await request(app)
+    .post('/api/v1/tokens')
+    .auth(tokens.admin, { type: 'bearer' })
+    .send({ userId: users.integration.id, name: 'a-week', projectIds: [projectId], days: 7 });
+  expect(ok.status).toBe(201);
+  const week = new Date(ok.body.expiresAt).getTime() - new Date(ok.body.createdAt).getTime();
+  expect(Math.round(week / 3600_000)).toBe(7 * 24);
+  const list = await request(app).get('/api/v1/tokens').auth(tokens.admin, { type: 'bearer' });
+  const row = (list.body as { id: number; createdAt: string }[]).find((t) => t.id === ok.body.id);
+  expect(row?.createdAt).toBe(ok.body.createdAt);
+});

@@ -82,7 +82,11 @@ export async function createIntegrationToken(
   const user = await User.findByPk(body.userId);
   if (!user) throw notFound('user');
   if (user.role !== 'integration') throw invalid('API tokens are for users of role integration.');
-  const { token, row } = await issue(user, 'integration', (body.days ?? 365) * 24, {
+  const days = body.days ?? 365;
+  if (!Number.isInteger(days) || days < 1 || days > 3650) {
+    throw invalid('days is a whole number of days from 1 to 3650.');
+  }
+  const { token, row } = await issue(user, 'integration', days * 24, {
     name: body.name,
     projectIds: body.projectIds,
   });
@@ -99,6 +103,7 @@ export function tokenView(t: ApiToken) {
     expiresAt: t.expiresAt,
     revokedAt: t.revokedAt,
     lastUsedAt: t.lastUsedAt,
+    createdAt: t.createdAt,
   };
 }
 

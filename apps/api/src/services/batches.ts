@@ -166,6 +166,8 @@ export async function listSections(batch: Batch, q: SectionQuery) {
         key: s.key,
         station: s.station,
         stationLabel: stationLabel(s),
+        title: (s.input as Section).title,
+        units: (s.input as Section).units,
         status: s.status,
         run: s.run,
         failReason: s.failReason,
