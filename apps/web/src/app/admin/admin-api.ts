@@ -37,8 +37,8 @@ export interface ApiToken {
   userId: number;
   name: string | null;
   projectIds: number[] | null;
-  /** Not every version of the API sends it. */
-  createdAt?: string;
+  /** When it was made. */
+  createdAt: string;
   expiresAt: string;
   revokedAt: string | null;
   lastUsedAt: string | null;
@@ -48,6 +48,7 @@ export interface NewToken {
   userId: number;
   name: string;
   projectIds: number[];
+  /** How long it lives: a whole number of days from 1 to 3650 (the API refuses others, 422). */
   days: number;
 }
 

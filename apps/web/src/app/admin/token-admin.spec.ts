@@ -27,6 +27,13 @@ const TOKEN: ApiToken = {
 };
 const SECRET = 'sli_0123456789abcdefSECRET';
 
+/** The day of an instant as the page writes it (y-MM-dd, local time). */
+function localDay(iso: string): string {
+  const d = new Date(iso);
+  const two = (n: number) => String(n).padStart(2, '0');
+  return `${d.getFullYear()}-${two(d.getMonth() + 1)}-${two(d.getDate())}`;
+}
+
 describe('TokenAdmin', () => {
   let backend: HttpTestingController;
 
@@ -70,7 +77,9 @@ describe('TokenAdmin', () => {
     expect(row.textContent).toContain('Nightly feed');
     expect(row.textContent).toContain('GIS feed');
     expect(row.textContent).toContain('Wendlecombe bypass, Spur road');
-    expect(row.textContent).toContain('2026-03-01');
+    const created = row.querySelector('[data-label=Created]')?.textContent?.trim() ?? '';
+    expect(created).toMatch(/^\d{4}-\d\d-\d\d \d\d:\d\d$/);
+    expect(created.slice(0, 10)).toBe(localDay(TOKEN.createdAt));
     expect(row.textContent).toContain('never');
     expect(row.querySelector('[data-testid=token-state]')?.textContent).toContain('Active');
   });
@@ -92,8 +101,9 @@ describe('TokenAdmin', () => {
     const req = backend.expectOne('/api/v1/tokens');
     expect(req.request.method).toBe('POST');
     expect(req.request.body).toEqual({ userId: 5, name: 'Survey sync', projectIds: [2], days: 30 });
+    const createdAt = new Date().toISOString();
     req.flush(
-      { ...TOKEN, id: 8, name: 'Survey sync', projectIds: [2], token: SECRET },
+      { ...TOKEN, id: 8, name: 'Survey sync', projectIds: [2], createdAt, token: SECRET },
       { status: 201, statusText: 'Created' },
     );
     await fixture.whenStable();
@@ -108,6 +118,11 @@ describe('TokenAdmin', () => {
     // The table lists the new token, never its secret.
     expect(el.querySelector('[data-testid=token-table]')?.textContent).toContain('Survey sync');
     expect(el.querySelector('[data-testid=token-table]')?.textContent).not.toContain(SECRET);
+    // … with when it was made, as the API answered.
+    const made = Array.from(el.querySelectorAll('[data-testid=token-row]')).find((r) =>
+      r.textContent?.includes('Survey sync'),
+    );
+    expect(made?.querySelector('[data-label=Created]')?.textContent).toContain(localDay(createdAt));
 
     once!.querySelector<HTMLButtonElement>('[data-testid=close-token]')!.click();
     await fixture.whenStable();

@@ -5,7 +5,7 @@ import { provideRouter } from '@angular/router';
 import { Subject } from 'rxjs';
 import { BatchDetail } from './batch-detail';
 import { BatchEvents, type LiveProgress } from './batch-events';
-import type { Batch, BatchProgress } from './batch-types';
+import type { Batch, BatchProgress, SectionListItem, UserRef } from './batch-types';
 
 function progress(done: number, failed = 0, total = 3): BatchProgress {
   return {
@@ -19,7 +19,9 @@ function progress(done: number, failed = 0, total = 3): BatchProgress {
   };
 }
 
-function batch(status: 'running' | 'done', p: BatchProgress): Batch {
+const GINA: UserRef = { id: 9, name: 'Gina Gis' };
+
+function batch(status: 'running' | 'done', p: BatchProgress, submitter = GINA): Batch {
   return {
     id: 5,
     projectId: 1,
@@ -27,7 +29,8 @@ function batch(status: 'running' | 'done', p: BatchProgress): Batch {
     title: 'Live test',
     status,
     source: 'json',
-    submittedBy: 9,
+    submittedBy: submitter.id,
+    submitter,
     createdAt: '2026-01-01T00:00:00Z',
     finishedAt: status === 'done' ? '2026-01-01T00:05:00Z' : null,
     progress: p,
@@ -140,6 +143,95 @@ describe('BatchDetail', () => {
     expect(el.querySelector('[data-testid=batch-progress]')?.textContent).toContain('3 total');
     expect(el.querySelector('[data-testid=download-csv]')).not.toBeNull();
     expect(el.querySelector('[data-testid=download-geojson]')).not.toBeNull();
+    fixture.destroy();
+  });
+
+  it('names who submitted the batch, with "(you)" for the signed-in user', async () => {
+    const submitterOf = async (by: UserRef) => {
+      const fixture = TestBed.createComponent(BatchDetail);
+      fixture.componentRef.setInput('id', '5');
+      await fixture.whenStable();
+      backend.expectOne('/api/v1/batches/5').flush(batch('done', progress(3), by));
+      await fixture.whenStable();
+      flushData();
+      await fixture.whenStable();
+      const el = fixture.nativeElement as HTMLElement;
+      const text = el.querySelector('[data-testid=batch-submitter]')?.textContent?.trim();
+      fixture.destroy();
+      return text;
+    };
+    expect(await submitterOf(GINA)).toBe('Gina Gis');
+    expect(await submitterOf({ id: 2, name: 'Evan Engineer' })).toBe('Evan Engineer (you)');
+  });
+
+  it('draws the chart and the plan in the units the sections give', async () => {
+    const fixture = TestBed.createComponent(BatchDetail);
+    fixture.componentRef.setInput('id', '5');
+    await fixture.whenStable();
+    backend.expectOne('/api/v1/batches/5').flush(batch('done', progress(2, 0, 2)));
+    await fixture.whenStable();
+    // Stations in ft: 150+00 and 152+00 (no label, so nothing to read the units from but the field).
+    const items: SectionListItem[] = [15000, 15200].map((station, i) => ({
+      id: i + 1,
+      key: `wfs@${station}`,
+      station,
+      stationLabel: null,
+      title: `Freight spur, station ${station}`,
+      units: 'us',
+      status: 'done',
+      run: 1,
+      failReason: null,
+      reviewState: 'pending',
+      geometry: null,
+      result: {
+        status: 'pass',
+        governingMethod: 'bishop',
+        governingFs: 1.6 + i / 10,
+        requiredFs: 1.5,
+        passes: true,
+        warnings: [],
+      },
+    }));
+    for (const r of backend.match((req) => req.url === '/api/v1/batches/5/sections')) {
+      r.flush({ page: 1, pageSize: 500, total: 2, items, caution: 'c' });
+    }
+    backend.expectOne('/api/v1/batches/5/results.geojson').flush({
+      type: 'FeatureCollection',
+      name: 'wfs',
+      caution: 'c',
+      features: items.map((s, i) => ({
+        type: 'Feature',
+        id: s.key,
+        geometry: {
+          type: 'LineString',
+          coordinates: [
+            [1000, 200 * i],
+            [1100, 200 * i],
+          ],
+        },
+        properties: {
+          id: s.key,
+          sectionId: s.id,
+          station: s.station,
+          stationLabel: null,
+          status: 'done',
+          fs: s.result?.governingFs ?? null,
+          method: 'bishop',
+          required: 1.5,
+          passes: true,
+          reviewState: 'pending',
+          caution: 'c',
+        },
+      })),
+    });
+    flushData();
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    const chart = el.querySelector('[data-testid=chainage-chart]')?.textContent ?? '';
+    expect(chart).toContain('Chainage (ft)');
+    expect(chart).toContain('150+00');
+    const bar = el.querySelector('.scale-bar text[text-anchor=middle]')?.textContent?.trim();
+    expect(bar).toMatch(/^\d+(\.\d+)? ft$/);
     fixture.destroy();
   });
 

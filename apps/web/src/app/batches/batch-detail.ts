@@ -43,7 +43,9 @@ import { BatchesApi } from './batches-api';
 import { ChainageChart } from './chainage-chart';
 import { keepLast, nothingYet } from './keep-last';
 import { PlanView } from './plan-view';
+import { batchUnits } from './scales';
 import { SectionTable } from './section-table';
+import { userName } from './words';
 
 /** Saves a fetched file through an object URL (the download carried the bearer token). */
 function save(blob: Blob, fileName: string): void {
@@ -189,9 +191,10 @@ export class BatchDetail {
   protected readonly canAskReview = computed(() => this.auth.hasRole('admin', 'engineer'));
   protected readonly submittedByText = computed(() => {
     const b = this.batch();
-    if (!b) return '';
-    return b.submittedBy === this.auth.user()?.id ? 'you' : `user #${b.submittedBy}`;
+    return b ? userName(b.submitter, this.auth.user()?.id) : '';
   });
+  /** The units of the batch's sections, for the plan's scale bar. */
+  protected readonly units = computed(() => batchUnits(this.all().value ?? []));
 
   protected readonly downloading = signal<'csv' | 'geojson' | null>(null);
   protected readonly downloadProblem = signal<Problem | null>(null);

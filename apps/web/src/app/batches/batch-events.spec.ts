@@ -47,6 +47,7 @@ function batch(status: 'running' | 'done', p: BatchProgress): Batch {
     status,
     source: 'json',
     submittedBy: 3,
+    submitter: { id: 3, name: 'Rhea Reviewer' },
     createdAt: '2026-01-01T00:00:00Z',
     finishedAt: status === 'done' ? '2026-01-01T00:05:00Z' : null,
     progress: p,

@@ -3,6 +3,8 @@
  * events.ts, exports.ts, reviews.ts, review-requests.ts).
  */
 
+import type { Units } from './scales';
+
 export type BatchStatus = 'running' | 'done';
 export type SectionStatus = 'queued' | 'running' | 'done' | 'failed';
 export type ReviewDecision = 'approved' | 'returned';
@@ -21,6 +23,12 @@ export interface BatchProgress {
   belowRequiredFs: number;
   /** (done + failed) / total; 1 for an empty batch. */
   fraction: number;
+}
+
+/** A user as every role may see them beside what they did: id and name, never the e-mail. */
+export interface UserRef {
+  id: number;
+  name: string;
 }
 
 /** One recorded review decision (services/reviews.ts `reviewView`). */
@@ -54,6 +62,8 @@ export interface Batch {
   source: string;
   /** The user id of who submitted it. */
   submittedBy: number;
+  /** Who submitted it (views.ts `userRef`). */
+  submitter: UserRef;
   createdAt: string;
   finishedAt: string | null;
   progress: BatchProgress;
@@ -107,6 +117,10 @@ export interface SectionListItem {
   station: number | null;
   /** The chainage in the units of the section's file, e.g. 1+240 (si) or 150+00 (us). */
   stationLabel?: string | null;
+  /** The section's title as its input gives it. */
+  title: string;
+  /** The units of the section's file: chainage, lengths and plan coordinates are in these. */
+  units: Units;
   status: SectionStatus;
   run: number;
   failReason: string | null;

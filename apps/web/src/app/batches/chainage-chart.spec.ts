@@ -1,12 +1,14 @@
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import type { SectionListItem } from './batch-types';
-import { ChainageChart } from './chainage-chart';
+import { ChainageChart, chainagePoints } from './chainage-chart';
+import type { Units } from './scales';
 
 function item(
   id: number,
   station: number | null,
   fs: number | null,
   required: number | null = 1.5,
+  units: Units = 'si',
 ): SectionListItem {
   const passes = fs === null || required === null ? null : fs >= required;
   return {
@@ -17,6 +19,8 @@ function item(
       station === null
         ? null
         : `${Math.floor(station / 1000)}+${String(station % 1000).padStart(3, '0')}`,
+    title: `Test corridor, station ${station}`,
+    units,
     status: fs === null ? 'queued' : 'done',
     run: 1,
     failReason: null,
@@ -173,6 +177,35 @@ describe('ChainageChart', () => {
     pts[1].dispatchEvent(new MouseEvent('click', { bubbles: true }));
     pts[3].dispatchEvent(new KeyboardEvent('keydown', { key: 'Enter', bubbles: true }));
     expect(opened).toEqual([2, 4]);
+  });
+
+  it('writes the chainage in the units each section gives, not in a guess from its label', async () => {
+    const inFeet = (s: SectionListItem): SectionListItem => ({
+      ...s,
+      units: 'us',
+      stationLabel: null,
+    });
+    const f = await render(sections.map(inFeet));
+    const svg = f.nativeElement.querySelector('[data-testid=chainage-chart]') as SVGElement;
+    expect(svg.querySelector('text.axis-title')?.textContent?.trim()).toBe('Chainage (ft)');
+    const xTicks = Array.from(svg.querySelectorAll('text.tick[text-anchor=middle]')).map((t) =>
+      t.textContent?.trim(),
+    );
+    expect(xTicks.length).toBeGreaterThan(1);
+    for (const t of xTicks) expect(t).toMatch(/^\d+\+\d{2}$/); // 10+20: hundreds of feet
+    expect(f.nativeElement.querySelector('.summary')?.textContent).toContain('10+20, 10+60');
+
+    const m = await render(sections);
+    expect(m.nativeElement.querySelector('text.axis-title')?.textContent?.trim()).toBe(
+      'Chainage (m)',
+    );
+  });
+
+  it('names no length unit for a batch that mixes files in m and in ft', () => {
+    const mixed = [item(1, 1000, 1.8), item(2, 15000, 1.7, 1.5, 'us')];
+    expect(chainagePoints(mixed).units).toBeNull();
+    expect(chainagePoints([item(1, 1000, 1.8)]).units).toBe('si');
+    expect(chainagePoints([]).units).toBeNull();
   });
 
   it('says there is nothing to plot when no section has a result yet', async () => {

@@ -12,13 +12,13 @@ import {
 } from '@angular/core';
 import type { SectionListItem } from './batch-types';
 import {
+  batchUnits,
   formatChainage,
   formatFs,
   lengthUnit,
   linear,
   niceStep,
   niceTicks,
-  unitsFromLabels,
   type Units,
 } from './scales';
 import { passesOf } from './words';
@@ -40,7 +40,7 @@ export function chainagePoints(items: readonly SectionListItem[]): {
   units: Units | null;
   skipped: number;
 } {
-  const units = unitsFromLabels(items.map((i) => i.stationLabel));
+  const units = batchUnits(items);
   const points: ChainagePoint[] = [];
   for (const s of items) {
     const r = s.result;

@@ -1,6 +1,7 @@
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import type { ResultCollection, ResultFeature } from './batch-types';
 import { FS_RAMP, fsBin, fsBins, PlanView } from './plan-view';
+import type { Units } from './scales';
 
 function feature(
   n: number,
@@ -34,9 +35,14 @@ function collection(features: ResultFeature[]): ResultCollection {
   return { type: 'FeatureCollection', name: 'wcb-geo', caution: 'Results need review.', features };
 }
 
-async function render(c: ResultCollection, width = 800): Promise<ComponentFixture<PlanView>> {
+async function render(
+  c: ResultCollection,
+  width = 800,
+  units: Units | null = 'si',
+): Promise<ComponentFixture<PlanView>> {
   const fixture = TestBed.createComponent(PlanView);
   fixture.componentRef.setInput('results', c);
+  fixture.componentRef.setInput('units', units);
   fixture.componentRef.setInput('width', width);
   await fixture.whenStable();
   return fixture;
@@ -208,6 +214,36 @@ describe('PlanView', () => {
     expect(el.querySelectorAll('.fail-mark')).toHaveLength(1);
     expect(lines[0].querySelector('.fail-mark')).not.toBeNull();
     expect(el.querySelectorAll('.legend li')).toHaveLength(FS_RAMP.length + 1);
+  });
+
+  const twoLines = () =>
+    collection([
+      feature(
+        0,
+        [
+          [0, 0],
+          [400, 0],
+        ],
+        1.8,
+      ),
+      feature(
+        1,
+        [
+          [0, 100],
+          [400, 100],
+        ],
+        1.8,
+      ),
+    ]);
+  const barText = (f: ComponentFixture<PlanView>) =>
+    (f.nativeElement as HTMLElement)
+      .querySelector('.scale-bar text[text-anchor=middle]')
+      ?.textContent?.trim() ?? '';
+
+  it('writes the scale bar in the units the sections give (ft), or says it cannot', async () => {
+    // The labels are in m form; the units the page passes are what counts.
+    expect(barText(await render(twoLines(), 800, 'us'))).toMatch(/^\d+(\.\d+)? ft$/);
+    expect(barText(await render(twoLines(), 800, null))).toMatch(/^\d+(\.\d+)? coordinate units$/);
   });
 
   it('has a scale bar of a round length whose drawn length matches the scale', async () => {

@@ -11,15 +11,7 @@ import {
   signal,
 } from '@angular/core';
 import type { ResultCollection, ResultFeature } from './batch-types';
-import {
-  formatChainage,
-  formatFs,
-  formatNumber,
-  lengthUnit,
-  niceStep,
-  unitsFromLabels,
-  type Units,
-} from './scales';
+import { formatChainage, formatFs, formatNumber, lengthUnit, niceStep, type Units } from './scales';
 
 /**
  * The FS bins, as multiples of the required FS: below 1 fails, then ever larger margins.
@@ -118,15 +110,16 @@ const PAD = { left: 24, right: 64, top: 44, bottom: 52 };
 
 /**
  * The section lines in plan at one scale in x and y (north up): the corridor's bounding box
- * fitted into width × at most maxHeight, the height shrunk to what the drawing needs.
+ * fitted into width × at most maxHeight, the height shrunk to what the drawing needs. The
+ * coordinates are in the corridor's units (`units`, null when not known).
  */
 export function planLayout(
   collection: ResultCollection | null,
+  units: Units | null,
   width: number,
   maxHeight = 560,
 ): PlanLayout {
   const features = collection?.features ?? [];
-  const units = unitsFromLabels(features.map((f) => f.properties.stationLabel));
   const withCoords = features
     .map((feature) => ({ feature, coords: coordsOf(feature) }))
     .filter((f) => f.coords.length > 0);
@@ -255,6 +248,8 @@ export function planLayout(
 })
 export class PlanView {
   readonly results = input.required<ResultCollection | null>();
+  /** The units of the batch's sections: the coordinates are in these (null: not known). */
+  readonly units = input<Units | null>(null);
   /** The drawing width in px; measured from the container when not given. */
   readonly width = input<number | null>(null);
   readonly maxHeight = input(560);
@@ -266,7 +261,12 @@ export class PlanView {
   protected readonly focusIndex = signal(0);
 
   protected readonly layout = computed(() =>
-    planLayout(this.results(), this.width() ?? this.measured() ?? 960, this.maxHeight()),
+    planLayout(
+      this.results(),
+      this.units(),
+      this.width() ?? this.measured() ?? 960,
+      this.maxHeight(),
+    ),
   );
   protected readonly bins = computed(() =>
     fsBins(

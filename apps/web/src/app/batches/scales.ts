@@ -30,17 +30,12 @@ export function niceTicks(min: number, max: number, count = 5): number[] {
 }
 
 /**
- * The units of a batch as its station labels show them: the API writes chainage as 1+240
- * (metres: thousands, three digits) or 150+00 (feet: hundreds, two digits). Null when there
- * is no label to tell.
+ * The one unit system of a batch's sections (each says the units of its file): null when
+ * there are none, or when they mix files in m and in ft, which share no length axis.
  */
-export function unitsFromLabels(labels: readonly (string | null | undefined)[]): Units | null {
-  for (const l of labels) {
-    if (!l) continue;
-    if (/\+\d{3}(\.\d+)?$/.test(l)) return 'si';
-    if (/\+\d{2}(\.\d+)?$/.test(l)) return 'us';
-  }
-  return null;
+export function batchUnits(sections: readonly { units: Units }[]): Units | null {
+  const first = sections[0]?.units ?? null;
+  return sections.every((s) => s.units === first) ? first : null;
 }
 
 export function lengthUnit(units: Units | null): string {

@@ -12,6 +12,9 @@ function item(id: number, station: number | null, fs: number | null): SectionLis
     key: `wcb@${station}`,
     station,
     stationLabel: station === null ? null : `1+${String(station - 1000).padStart(3, '0')}`,
+    // A failed one whose title only repeats its key.
+    title: fs === null ? `wcb@${station}` : `Main line, right-hand side, station ${station}`,
+    units: 'si',
     status: fs === null ? 'failed' : 'done',
     run: 1,
     failReason: fs === null ? 'no method converged' : null,
@@ -73,6 +76,47 @@ describe('SectionTable', () => {
     expect(rows[1].querySelector('mat-icon')?.textContent).toBe('cancel');
     expect(rows[2].textContent).toContain('Not solved');
     expect(el.textContent).toContain('1 – 50 of 61');
+  });
+
+  it('shows each section’s title under its key, whole in the tooltip', async () => {
+    request().flush(pageOf(ALL));
+    await fixture.whenStable();
+    const rows = Array.from(el.querySelectorAll('[data-testid=section-row]'));
+    const cell = rows[0].querySelector('td.section-cell') as HTMLElement;
+    expect(cell.querySelector('a')?.textContent?.trim()).toBe('wcb@1000');
+    const title = cell.querySelector('[data-testid=section-title]') as HTMLElement;
+    expect(title.textContent?.trim()).toBe('Main line, right-hand side, station 1000');
+    expect(title.getAttribute('title')).toBe('Main line, right-hand side, station 1000');
+    // a title that only repeats the key is not shown twice
+    expect(rows[2].querySelector('[data-testid=section-title]')).toBeNull();
+  });
+
+  it('writes a station without a label as chainage in the section’s own units', async () => {
+    const feet: SectionListItem = {
+      ...item(9, 15000, 1.7),
+      key: 'wfs@15000',
+      stationLabel: null,
+      units: 'us',
+    };
+    const metres: SectionListItem = { ...item(10, 1240, 1.7), stationLabel: null };
+    request().flush(pageOf([feet, metres]));
+    await fixture.whenStable();
+    const stations = Array.from(el.querySelectorAll('[data-testid=section-row]')).map((r) =>
+      r.querySelector('td')?.textContent?.trim(),
+    );
+    expect(stations).toEqual(['150+00', '1+240']);
+  });
+
+  it('finds a section by its title too', async () => {
+    request().flush(pageOf(ALL));
+    await fixture.whenStable();
+    const input = el.querySelector('input[type=search]') as HTMLInputElement;
+    input.value = 'station 1020';
+    input.dispatchEvent(new Event('input'));
+    await fixture.whenStable();
+    backend.expectNone((r) => r.url === '/api/v1/batches/7/sections');
+    const rows = Array.from(el.querySelectorAll('[data-testid=section-row]'));
+    expect(rows.map((r) => r.querySelector('a')?.textContent?.trim())).toEqual(['wcb@1020']);
   });
 
   it('asks the server for the failing ones only when the filter says Fail', async () => {

@@ -23,12 +23,12 @@ import type {
 } from './batch-types';
 import { BatchesApi } from './batches-api';
 import { keepLast, nothingYet } from './keep-last';
-import { formatFs } from './scales';
+import { formatChainage, formatFs } from './scales';
 import { methodName, passesOf } from './words';
 
 export type PassFilter = 'all' | 'pass' | 'fail';
 
-/** The sections matching a text (station, its label or the section key), as the server sorts. */
+/** The sections matching a text (station, its label, the key or the title), as the server sorts. */
 export function filterSections(
   all: readonly SectionListItem[],
   f: { text: string; pass: PassFilter; status: SectionStatus | '' },
@@ -43,6 +43,7 @@ export function filterSections(
     if (!t) return true;
     return (
       s.key.toLowerCase().includes(t) ||
+      s.title.toLowerCase().includes(t) ||
       (s.stationLabel ?? '').toLowerCase().includes(t) ||
       (s.station !== null && String(s.station).includes(t))
     );
@@ -198,6 +199,12 @@ export class SectionTable {
 
   protected retry(): void {
     this.retryTick.update((n) => n + 1);
+  }
+
+  /** The station as the API writes it, or as chainage in the section's own units. */
+  protected stationText(s: SectionListItem): string {
+    if (s.stationLabel) return s.stationLabel;
+    return s.station === null ? '—' : formatChainage(s.station, s.units);
   }
 
   protected warningCount(s: SectionListItem): string {

@@ -1,5 +1,5 @@
 /** The words the batch pages use for the API's ids and states. */
-import type { SectionListResult } from './batch-types';
+import type { SectionListResult, UserRef } from './batch-types';
 
 const METHODS: Record<string, string> = {
   ordinary: 'Ordinary (Fellenius)',
@@ -30,4 +30,9 @@ export function formatBytes(n: number): string {
   if (n < 1000) return `${n} B`;
   if (n < 1_000_000) return `${(n / 1000).toFixed(1)} kB`;
   return `${(n / 1_000_000).toFixed(1)} MB`;
+}
+
+/** A user by name, "(you)" after it for the signed-in user: "Evan Engineer (you)". */
+export function userName(user: UserRef, me: number | null | undefined): string {
+  return user.id === me ? `${user.name} (you)` : user.name;
 }

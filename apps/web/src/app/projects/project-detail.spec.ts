@@ -2,10 +2,17 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
-import type { Batch } from '../batches/batch-types';
+import type { Batch, UserRef } from '../batches/batch-types';
 import { ProjectDetail, REFRESH_MS } from './project-detail';
 
-function batch(id: number, status: 'running' | 'done', done: number): Batch {
+const EVAN: UserRef = { id: 2, name: 'Evan Engineer' };
+
+function batch(
+  id: number,
+  status: 'running' | 'done',
+  done: number,
+  submitter: UserRef = EVAN,
+): Batch {
   return {
     id,
     projectId: 1,
@@ -13,7 +20,8 @@ function batch(id: number, status: 'running' | 'done', done: number): Batch {
     title: null,
     status,
     source: 'json',
-    submittedBy: 2,
+    submittedBy: submitter.id,
+    submitter,
     createdAt: '2026-01-01T00:00:00Z',
     finishedAt: status === 'done' ? '2026-01-01T00:05:00Z' : null,
     progress: {
@@ -116,6 +124,25 @@ describe('ProjectDetail', () => {
     fixture.destroy();
     vi.advanceTimersByTime(REFRESH_MS * 3);
     backend.expectNone('/api/v1/projects/1/batches');
+  });
+
+  it('names who submitted each batch, with "(you)" for the signed-in user', async () => {
+    signInAs('viewer'); // user 2
+    const fixture = setup();
+    await fixture.whenStable();
+    backend
+      .expectOne('/api/v1/projects/1')
+      .flush({ id: 1, name: 'W', description: null, createdAt: '' });
+    backend
+      .expectOne('/api/v1/projects/1/batches')
+      .flush([batch(2, 'done', 4, { id: 7, name: 'Gina Gis' }), batch(1, 'done', 4)]);
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    const by = Array.from(el.querySelectorAll('[data-testid=batch-list] tr.mat-mdc-row')).map(
+      (r) => /by (.*?) ·/.exec(r.textContent?.replace(/\s+/g, ' ') ?? '')?.[1],
+    );
+    expect(by).toEqual(['Gina Gis', 'Evan Engineer (you)']);
+    expect(el.textContent).not.toContain('user #');
   });
 
   it('offers "Submit a batch" to engineers only', async () => {

@@ -19,6 +19,7 @@ import {
   type Observable,
 } from 'rxjs';
 import type { Batch } from '../batches/batch-types';
+import { userName } from '../batches/words';
 import { Auth } from '../core/auth';
 import type { Problem } from '../core/models';
 import { toProblem } from '../core/problem';
@@ -112,7 +113,8 @@ export class ProjectDetail {
     this.tick.update((n) => n + 1);
   }
 
+  /** Who submitted the batch, by name ("(you)" for the signed-in user). */
   protected submitter(b: Batch): string {
-    return b.submittedBy === this.auth.user()?.id ? 'you' : `user #${b.submittedBy}`;
+    return userName(b.submitter, this.auth.user()?.id);
   }
 }

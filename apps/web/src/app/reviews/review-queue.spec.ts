@@ -7,6 +7,8 @@ import type { Session } from '../core/models';
 import { ReviewQueue } from './review-queue';
 import type { BatchSummary, ReviewState } from './review-types';
 
+const NAMES: Record<number, string> = { 1: 'Ada Admin', 2: 'Evan Engineer' };
+
 function batch(
   id: number,
   status: string,
@@ -22,6 +24,7 @@ function batch(
     status,
     source: 'json',
     submittedBy,
+    submitter: { id: submittedBy, name: NAMES[submittedBy] },
     createdAt: `2026-12-0${id}T08:00:00.000Z`,
     finishedAt: status === 'done' ? `2026-12-0${id}T09:00:00.000Z` : null,
     progress: {
@@ -103,6 +106,11 @@ describe('ReviewQueue', () => {
     expect(queue.textContent).toContain('Submitted by you (another reviewer signs off)');
     expect(queue.textContent).not.toContain('batch-2');
     expect(queue.textContent).not.toContain('batch-3');
+    // Who submitted: by name, "(you)" for the signed-in admin (user 1).
+    expect(others.querySelector('tbody td:nth-of-type(4)')?.textContent).toContain('Evan Engineer');
+    expect(others.textContent).not.toContain('(you)');
+    expect(mine.querySelector('tbody td:nth-of-type(4)')?.textContent).toContain('Ada Admin (you)');
+    expect(queue.textContent).not.toContain('user #');
   });
 
   it('says so when nothing waits', async () => {

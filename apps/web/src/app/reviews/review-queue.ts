@@ -3,6 +3,7 @@ import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import { switchMap } from 'rxjs';
+import { userName } from '../batches/words';
 import { Auth } from '../core/auth';
 import { Caution } from '../shared/caution';
 import { loadState, type Loaded } from '../shared/load-state';
@@ -202,11 +203,7 @@ export class ReviewQueue {
       )
       .map((item) => ({
         item,
-        by:
-          item.batch.submittedBy === me
-            ? 'you'
-            : (item.batch.submitter?.name ??
-              (item.batch.submittedBy === null ? '—' : `user #${item.batch.submittedBy}`)),
+        by: userName(item.batch.submitter, me),
         when: at(item.batch.createdAt),
         finished: at(item.batch.finishedAt),
       }));

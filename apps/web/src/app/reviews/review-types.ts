@@ -1,4 +1,5 @@
 /** The review shapes of the API (services/reviews.ts) and the batch fields the queue reads. */
+import type { UserRef } from '../batches/batch-types';
 
 /** The words the API takes in POST …/reviews. */
 export type Decision = 'approved' | 'returned';
@@ -49,9 +50,9 @@ export interface BatchSummary {
   status: BatchStatus;
   source: string;
   /** The user who submitted it: they may not review it. */
-  submittedBy: number | null;
-  /** Not every version of the API names the submitter. */
-  submitter?: { id: number; name: string } | null;
+  submittedBy: number;
+  /** Who submitted it, by name. */
+  submitter: UserRef;
   createdAt: string;
   finishedAt: string | null;
   progress: {

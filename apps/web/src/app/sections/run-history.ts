@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, inject, input, signal } f
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatIconModule } from '@angular/material/icon';
 import { switchMap } from 'rxjs';
+import { userName } from '../batches/words';
 import { Auth } from '../core/auth';
 import { loadState, type Loaded } from '../shared/load-state';
 import { PageState } from '../shared/page-state';
@@ -26,6 +27,14 @@ export function describeChanges(changes: unknown): string[] {
   };
   walk(changes, '');
   return out;
+}
+
+/** Who started a run: the editor by name ("(you)" for the signed-in user), or the batch. */
+export function runBy(entry: RunEntry, me: number | null | undefined): string {
+  if (entry.editor) return userName(entry.editor, me);
+  // An id without a name on record (users are deactivated, never deleted: not expected).
+  if (entry.editedBy !== null) return `user #${entry.editedBy}`;
+  return entry.run === 1 ? 'submitted with the batch' : '—';
 }
 
 /** Every run of the section, newest first: when, by whom, what was edited, its FS, pass/fail. */
@@ -217,14 +226,7 @@ export class RunHistory {
       return {
         entry,
         when: when(r?.timings.finishedAt ?? r?.timings.startedAt ?? null),
-        by:
-          entry.editedBy === null
-            ? entry.run === 1
-              ? 'submitted with the batch'
-              : '—'
-            : entry.editedBy === me
-              ? 'you'
-              : `user #${entry.editedBy}`,
+        by: runBy(entry, me),
         changes: describeChanges(entry.changes),
         fs: r?.governing ? `${fsText(r.governing.fs)} (${methodName(r.governing.method)})` : '—',
         verdict,

@@ -5,7 +5,8 @@ import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 import type { Role, Session } from '../core/models';
 import { POLL_MS, SectionDetail } from './section-detail';
-import type { RunResult, SectionInput, SectionView } from './section-types';
+import type { InputWarning, RunResult, SectionInput, SectionView } from './section-types';
+import { WARNING_EXPLANATIONS } from './warning-codes';
 
 const INPUT: SectionInput = {
   format: 'scarpline/1',
@@ -74,7 +75,23 @@ function result(run: number, fs: number): RunResult {
   };
 }
 
-function view(run: number, status: SectionView['status'], fs: number | null): SectionView {
+const HEAVY: InputWarning = {
+  severity: 'warning',
+  file: 'batch.json',
+  line: 14,
+  column: 21,
+  path: 'sections[1].materials.clay.unitWeight',
+  code: 'unit-weight-unusual',
+  message: '45 kN/m³ is unusual for soil (12 to 25)',
+  text: 'batch.json:14:21 warning: sections[1].materials.clay.unitWeight: 45 kN/m³ is unusual for soil (12 to 25)',
+};
+
+function view(
+  run: number,
+  status: SectionView['status'],
+  fs: number | null,
+  more: Partial<SectionView> = {},
+): SectionView {
   return {
     id: 7,
     batchId: 3,
@@ -85,11 +102,14 @@ function view(run: number, status: SectionView['status'], fs: number | null): Se
     run,
     failReason: null,
     submittedBy: 2,
+    submitter: { id: 2, name: 'Evan Engineer' },
     input: INPUT,
+    inputWarnings: [],
     result: fs === null ? null : result(run, fs),
     previous: [],
     review: { state: 'pending', latest: null, history: [] },
     caution: 'c',
+    ...more,
   };
 }
 
@@ -190,6 +210,90 @@ describe('SectionDetail', () => {
     // done: no more polling
     vi.advanceTimersByTime(POLL_MS * 3);
     backend.expectNone('/api/v1/sections/7');
+    backend.verify();
+  });
+
+  it('names who submitted the batch and who started each run, "(you)" for oneself', async () => {
+    await open('engineer'); // user 5
+    backend.expectOne('/api/v1/sections/7').flush(view(2, 'done', 1.7));
+    await fixture.whenStable();
+    backend.expectOne('/api/v1/sections/7/runs').flush({
+      sectionId: 7,
+      key: 'wcb-main@1000',
+      run: 2,
+      runs: [
+        {
+          run: 2,
+          current: true,
+          changes: { materials: { clay: { strength: { frictionAngle: 28 } } } },
+          editedBy: 5,
+          editor: { id: 5, name: 'Una User' },
+          input: INPUT,
+          result: result(2, 1.7),
+        },
+        {
+          run: 1,
+          current: false,
+          changes: null,
+          editedBy: null,
+          editor: null,
+          input: INPUT,
+          result: result(1, 1.2),
+        },
+      ],
+      caution: 'c',
+    });
+    await flushSide();
+    expect(q('section-submitter')?.textContent?.trim()).toBe('Evan Engineer');
+    const byOf = (run: number) =>
+      el()
+        .querySelector(`[data-testid="run-history"] tr[data-run="${run}"] td:nth-of-type(2)`)
+        ?.textContent?.trim();
+    expect(byOf(2)).toBe('Una User (you)');
+    expect(byOf(1)).toBe('submitted with the batch');
+    expect(el().textContent).not.toContain('user #');
+    backend.expectOne('/api/v1/sections/7/plot.svg').flush('<svg></svg>');
+    backend.verify();
+  });
+
+  it('says "(you)" after the name when the signed-in user submitted the batch', async () => {
+    await open('engineer'); // user 5
+    backend
+      .expectOne('/api/v1/sections/7')
+      .flush(view(1, 'done', 1.7, { submittedBy: 5, submitter: { id: 5, name: 'Una User' } }));
+    await flushSide();
+    expect(q('section-submitter')?.textContent?.trim()).toBe('Una User (you)');
+    backend.expectOne('/api/v1/sections/7/plot.svg').flush('<svg></svg>');
+    backend.verify();
+  });
+
+  it('lists the warnings of the input, explained and located in the file', async () => {
+    await open('viewer');
+    backend.expectOne('/api/v1/sections/7').flush(view(1, 'done', 1.7, { inputWarnings: [HEAVY] }));
+    await flushSide();
+    const item = el().querySelector('[data-testid="warning-list"] li.warning') as HTMLElement;
+    expect(item.dataset['code']).toBe('unit-weight-unusual');
+    expect(item.textContent).toContain(WARNING_EXPLANATIONS['unit-weight-unusual'].title);
+    expect(item.textContent).toContain(WARNING_EXPLANATIONS['unit-weight-unusual'].check);
+    expect(item.textContent).toContain(HEAVY.message);
+    const where = item.querySelector('[data-testid="warning-location"]')?.textContent ?? '';
+    expect(where.replace(/\s+/g, ' ')).toContain(
+      'batch.json:14:21 at sections[1].materials.clay.unitWeight',
+    );
+    backend.expectOne('/api/v1/sections/7/plot.svg').flush('<svg></svg>');
+    backend.verify();
+  });
+
+  it('shows the warnings of the input while the run has no result yet', async () => {
+    vi.useFakeTimers({ toFake: ['setInterval', 'clearInterval'] });
+    await open('viewer');
+    backend
+      .expectOne('/api/v1/sections/7')
+      .flush(view(1, 'queued', null, { inputWarnings: [HEAVY] }));
+    await flushSide();
+    expect(q('run-following')).not.toBeNull();
+    expect(q('warning-list')?.textContent).toContain('batch.json:14:21');
+    fixture.destroy();
     backend.verify();
   });
 

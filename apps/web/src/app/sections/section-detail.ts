@@ -25,6 +25,7 @@ import {
   timer,
   type Observable,
 } from 'rxjs';
+import { userName } from '../batches/words';
 import { Auth } from '../core/auth';
 import { ReviewPanel } from '../reviews/review-panel';
 import type { BatchSummary } from '../reviews/review-types';
@@ -113,7 +114,7 @@ export class SectionDetail {
 
   private readonly batchTick = signal(0);
   private readonly batchId = computed(() => this.section()?.batchId ?? null);
-  /** The batch, for its name, its submitter and its own review; the page works without it. */
+  /** The batch, for its name and its own review; the page works without it. */
   protected readonly batch = toSignal(
     combineLatest([toObservable(this.batchId), toObservable(this.batchTick)]).pipe(
       switchMap(([id]) =>
@@ -138,9 +139,12 @@ export class SectionDetail {
     const s = this.section();
     return s ? `${s.key.replace(/[^A-Za-z0-9._-]+/g, '_')}-run${s.run}.svg` : 'section.svg';
   });
-  protected readonly submittedBy = computed(
-    () => this.section()?.submittedBy ?? this.batch()?.submittedBy ?? null,
-  );
+  protected readonly submittedBy = computed(() => this.section()?.submittedBy ?? null);
+  /** Who submitted the batch, by name ("(you)" for the signed-in user). */
+  protected readonly submitterText = computed(() => {
+    const s = this.section();
+    return s ? userName(s.submitter, this.auth.user()?.id) : '';
+  });
   protected readonly mayRerun = computed(() => this.auth.hasRole('admin', 'engineer'));
   protected readonly station = computed(() => {
     const s = this.section();

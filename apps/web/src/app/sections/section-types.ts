@@ -3,7 +3,7 @@
  * and services/rerun.ts), with the result of the solver as packages/core/src/analyze.ts
  * reports it. Results are in the section's units; the stored input is normalised to SI.
  */
-import type { LocatedError } from '../core/models';
+import type { UserRef } from '../batches/batch-types';
 import type { ReviewSummary } from '../reviews/review-types';
 
 export type Point = [number, number];
@@ -176,6 +176,22 @@ export interface RunResult {
 
 export type SectionStatus = 'queued' | 'running' | 'done' | 'failed';
 
+/**
+ * A warning of the input checks (validate.ts `messageView`), located in the submitted file
+ * (edited-section.json after a re-run with edits); `text` is it as one line.
+ */
+export interface InputWarning {
+  severity: 'warning';
+  file: string;
+  line: number;
+  column: number;
+  /** Where in the file's data, e.g. sections[3].materials.clay.unitWeight; empty for the file. */
+  path: string;
+  code: string;
+  message: string;
+  text: string;
+}
+
 /** GET /sections/{id} (sectionView). */
 export interface SectionView {
   id: number;
@@ -187,11 +203,13 @@ export interface SectionView {
   status: SectionStatus;
   run: number;
   failReason: string | null;
-  /** Who submitted the batch (they may not review it); not every version of the API sends it. */
-  submittedBy?: number | null;
+  /** The user id of who submitted the batch (they may not review it). */
+  submittedBy: number;
+  /** Who submitted the batch, by name. */
+  submitter: UserRef;
   input: SectionInput;
-  /** Warnings the checks of the input raised, when the API keeps them with the section. */
-  inputWarnings?: LocatedError[];
+  /** The warnings of the input checks about the section's current input, located in its file. */
+  inputWarnings: InputWarning[];
   result: RunResult | null;
   previous: RunResult[];
   review: ReviewSummary;
@@ -204,7 +222,10 @@ export interface RunEntry {
   current: boolean;
   /** The merge patch that started the run; null for the run as submitted. */
   changes: unknown;
+  /** The user id of who started the run with edits; null for the run as submitted. */
   editedBy: number | null;
+  /** Who started the run with edits, by name; null for the run as submitted. */
+  editor: UserRef | null;
   input: SectionInput | null;
   result: RunResult | null;
 }

@@ -152,6 +152,20 @@ export const WARNING_EXPLANATIONS: Readonly<Record<string, WarningExplanation>> 
     meaning: 'A required factor of safety below 1 would accept a slope that is not stable.',
     check: 'Check the required FS of the design case.',
   },
+  'no-template': {
+    title: 'A corridor without shared settings',
+    meaning:
+      "The GeoJSON corridor came with no shared settings (its id, units and template), neither as a member of the FeatureCollection nor as a separate file: the batch id comes from the file name, the units are taken as si (m, kN), and every feature has to carry all of its section's settings itself.",
+    check:
+      "Check that the units are the corridor's and that each section has its materials, strata and analysis; give the corridor its shared settings to be sure.",
+  },
+  'looks-like-degrees': {
+    title: 'Coordinates look like longitude and latitude',
+    meaning:
+      'The section line is a tiny fraction of a unit long and its coordinates lie within ±180 and ±90, as degrees of longitude and latitude would: the ground profile along it would then be almost no length.',
+    check:
+      "Give the corridor in a projected coordinate system, x and y in the corridor's units (m or ft).",
+  },
   'yaml-warning': {
     title: 'YAML warning',
     meaning: 'The YAML reader reported something unusual in the file, without stopping.',

@@ -1,49 +1,77 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import type { LocatedError } from '../core/models';
 import { METHOD_NAMES, methodName } from './format';
-import type { MethodReport, Warning } from './section-types';
+import type { InputWarning, MethodReport, Warning } from './section-types';
 import { explain, type WarningExplanation } from './warning-codes';
 
-/** One warning to show: its code explained, the solver's words, and where it came from. */
+/** Where in its file a warning of the input is: `batch.yaml:12:5` and the path into the data. */
+export interface WarningLocation {
+  /** file:line:column. */
+  at: string;
+  /** e.g. sections[3].materials.clay.unitWeight; empty for the file itself. */
+  path: string;
+}
+
+/** One warning to show: its code explained, the message, and where it came from. */
 export interface WarningItem {
+  /** The input checks, or the result (the search and the methods). */
+  origin: 'input' | 'result';
   code: string;
   message: string;
   explanation: WarningExplanation | null;
-  /** Where it was raised: "the search", a method's name, or a path into the input. */
+  /** Where it was raised: "the input checks", "the analysis" or a method's name. */
   sources: string[];
+  /** For a warning of the input: each place in the file it is about. */
+  locations: WarningLocation[];
+}
+
+/** A warning of the input as file:line:column and its path. */
+export function locationOf(w: InputWarning): WarningLocation {
+  return { at: `${w.file}:${w.line}:${w.column}`, path: w.path };
 }
 
 /**
- * Every warning of the result (the search, each method) and of the input, each code in plain
- * words: what it means and what to check. A code without an explanation shows the message.
+ * Every warning of the input (located in its file) and of the result (the search, each
+ * method), each code in plain words: what it means and what to check. A code without an
+ * explanation shows the message.
  */
 export function warningItems(
   warnings: readonly Warning[],
   methods: readonly MethodReport[],
-  inputWarnings: readonly LocatedError[],
+  inputWarnings: readonly InputWarning[],
 ): WarningItem[] {
   const byKey = new Map<string, WarningItem>();
-  const add = (code: string, message: string, source: string) => {
-    const key = `${code}\u0000${message}`;
-    const seen = byKey.get(key);
-    if (seen) {
-      if (!seen.sources.includes(source)) seen.sources.push(source);
-      return;
+  const add = (
+    origin: WarningItem['origin'],
+    code: string,
+    message: string,
+    source: string,
+    location?: WarningLocation,
+  ) => {
+    const key = `${origin}\u0000${code}\u0000${message}`;
+    let item = byKey.get(key);
+    if (!item) {
+      item = { origin, code, message, explanation: explain(code), sources: [], locations: [] };
+      byKey.set(key, item);
     }
-    byKey.set(key, { code, message, explanation: explain(code), sources: [source] });
+    if (!item.sources.includes(source)) item.sources.push(source);
+    if (location && !item.locations.some((l) => l.at === location.at && l.path === location.path)) {
+      item.locations.push(location);
+    }
   };
   for (const w of inputWarnings) {
-    if (w.severity === 'warning') add(w.code, w.message, `input ${w.path || w.file}`.trim());
+    if (w.severity === 'warning') {
+      add('input', w.code, w.message, 'the input checks', locationOf(w));
+    }
   }
   for (const w of warnings) {
     // The result repeats a method's failure as "bishop: reason": shown once, under the method.
     const m = /^([a-z-]+): (.*)$/s.exec(w.message);
-    if (m && m[1] in METHOD_NAMES) add(w.code, m[2], methodName(m[1]));
-    else add(w.code, w.message, 'the analysis');
+    if (m && m[1] in METHOD_NAMES) add('result', w.code, m[2], methodName(m[1]));
+    else add('result', w.code, w.message, 'the analysis');
   }
   for (const r of methods) {
-    for (const w of r.warnings) add(w.code, w.message, methodName(r.method));
+    for (const w of r.warnings) add('result', w.code, w.message, methodName(r.method));
   }
   return [...byKey.values()];
 }
@@ -75,11 +103,27 @@ export function warningItems(
                   <strong>{{ w.explanation?.title ?? w.message }}</strong>
                   <span class="from">· {{ w.sources.join(', ') }}</span>
                 </div>
+                @if (w.locations.length) {
+                  <p class="where" data-testid="warning-location">
+                    <span class="label">Where:</span>
+                    @for (l of w.locations; track $index) {
+                      <span class="place"
+                        >{{ $first ? ' ' : '; ' }}<code>{{ l.at }}</code>
+                        @if (l.path) {
+                          at <code>{{ l.path }}</code>
+                        }
+                      </span>
+                    }
+                  </p>
+                }
                 @if (w.explanation; as e) {
                   <p class="meaning">{{ e.meaning }}</p>
                   <p class="check"><span class="label">What to check:</span> {{ e.check }}</p>
                   <p class="message">
-                    <span class="label">Solver:</span> {{ w.message }}
+                    <span class="label">{{
+                      w.origin === 'input' ? 'Input check:' : 'Solver:'
+                    }}</span>
+                    {{ w.message }}
                     <code>{{ w.code }}</code>
                   </p>
                 } @else {
@@ -147,6 +191,13 @@ export function warningItems(
       font-size: 13px;
       overflow-wrap: anywhere;
     }
+    .where {
+      font-size: 13px;
+      overflow-wrap: anywhere;
+    }
+    .where code {
+      margin-left: 0;
+    }
     code {
       font-size: 12px;
       background: var(--sl-paper);
@@ -161,8 +212,8 @@ export class WarningList {
   readonly warnings = input<readonly Warning[]>([]);
   /** The methods, whose warnings are listed under their names. */
   readonly methods = input<readonly MethodReport[]>([]);
-  /** Warnings of the input checks, when the API gives them. */
-  readonly inputWarnings = input<readonly LocatedError[]>([]);
+  /** The warnings of the input checks about the section, located in its file. */
+  readonly inputWarnings = input<readonly InputWarning[]>([]);
 
   protected readonly items = computed(() =>
     warningItems(this.warnings(), this.methods(), this.inputWarnings()),
