@@ -1,7 +1,8 @@
 /**
  * What the browser tests share: Debian's chromium through playwright-core, a fresh browser
- * context per scenario, and two checks every scenario gets for free: the page requests nothing
- * from any host but the API's, and the browser console shows no error.
+ * context per scenario, and the checks every scenario gets for free: the page requests nothing
+ * from any host but the API's, the browser console shows no error, and every page a test takes
+ * a screenshot of passes axe-core's WCAG 2 A and AA rules (contrast, names, labels, roles).
  */
 const assert = require('node:assert/strict');
 const fs = require('node:fs');
@@ -100,10 +101,37 @@ function slug(text) {
     .slice(0, 60);
 }
 
-/** A screenshot of the whole page into e2e/screenshots/<name>.png. */
+const AXE_SOURCE = fs.readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8');
+
+/**
+ * axe-core's WCAG 2.x A and AA rules on the page as it is now; fails with each violation's rule,
+ * the elements and axe's summary. Run through the DevTools protocol, so the page's own CSP
+ * (script-src 'self') stays as it is.
+ */
+async function accessible(page, name) {
+  await page.evaluate(AXE_SOURCE);
+  const violations = await page.evaluate(async () => {
+    // eslint-disable-next-line no-undef
+    const r = await window.axe.run(document, {
+      runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] },
+    });
+    return r.violations.map((v) => ({
+      rule: v.id,
+      impact: v.impact,
+      nodes: v.nodes.slice(0, 5).map((n) => `${n.target.join(' ')}: ${n.failureSummary}`),
+    }));
+  });
+  assert.deepEqual(violations, [], `accessibility of ${name}`);
+}
+
+/**
+ * A screenshot of the whole page into e2e/screenshots/<name>.png, after the page passed the
+ * accessibility rules.
+ */
 async function shot(page, name) {
   fs.mkdirSync(SHOTS, { recursive: true });
   await page.screenshot({ path: path.join(SHOTS, `${name}.png`), fullPage: true });
+  await accessible(page, name);
 }
 
 /**
@@ -167,6 +195,7 @@ module.exports = {
   LAPTOP,
   NARROW,
   USERS,
+  accessible,
   api,
   eventually,
   launch,

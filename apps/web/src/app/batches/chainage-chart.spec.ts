@@ -154,10 +154,9 @@ describe('ChainageChart', () => {
       '1020',
       '1060',
     ]);
-    expect(markers.map((m) => m.querySelector('text')?.textContent?.trim())).toEqual([
-      '1+020',
-      '1+060',
-    ]);
+    const labels = Array.from(el.querySelectorAll('.fail-labels text'));
+    expect(labels.map((t) => t.getAttribute('data-station'))).toEqual(['1020', '1060']);
+    expect(labels.map((t) => t.textContent?.trim())).toEqual(['1+020', '1+060']);
     expect(el.querySelector('.summary')?.textContent).toContain(
       '2 of 5 stations below the required FS: 1+020, 1+060.',
     );
