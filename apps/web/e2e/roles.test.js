@@ -106,3 +106,41 @@ async function signInExpectingRefusal(page, user) {
   await page.getByLabel('Password').fill(user.password);
   await page.getByRole('button', { name: 'Sign in' }).click();
 }
+
+test('the keyboard alone: sign in, reach a project and a batch, open a section from the table', async () => {
+  await scenario(browser, 'keyboard', async ({ page }) => {
+    const focused = () =>
+      page.evaluate(() => {
+        // eslint-disable-next-line no-undef
+        const el = document.activeElement;
+        return `${el?.tagName.toLowerCase()} ${(el?.getAttribute('aria-label') ?? el?.textContent ?? '').trim()}`;
+      });
+    /** Presses Tab until the focused element matches, at most `limit` times. */
+    async function tabTo(pattern, limit = 40) {
+      for (let i = 0; i < limit; i++) {
+        await page.keyboard.press('Tab');
+        if (pattern.test(await focused())) return;
+      }
+      throw new Error(`Tab never reached ${pattern} (last: ${await focused()})`);
+    }
+    await page.goto('/sign-in');
+    await tabTo(/^input/);
+    await page.keyboard.type(USERS.viewer.email);
+    await page.keyboard.press('Tab');
+    await page.keyboard.type(USERS.viewer.password);
+    await page.keyboard.press('Enter');
+    await page.waitForURL((url) => url.pathname === '/projects');
+    await tabTo(/Wendlecombe bypass/);
+    await page.keyboard.press('Enter');
+    await page.waitForURL((url) => /^\/projects\/\d+$/.test(url.pathname));
+    await page.getByTestId('batch-link').first().waitFor();
+    await tabTo(/^a wcb-main/);
+    await page.keyboard.press('Enter');
+    await page.waitForURL((url) => /^\/batches\/\d+$/.test(url.pathname));
+    await page.getByTestId('section-row').first().waitFor();
+    await tabTo(/^a wcb-main@/, 120);
+    await page.keyboard.press('Enter');
+    await page.waitForURL((url) => /^\/sections\/\d+$/.test(url.pathname));
+    await page.getByTestId('section-drawing').locator('svg').first().waitFor();
+  });
+});
