@@ -1,24 +1,14 @@
-import { provideHttpClient } from '@angular/common/http';
-import { provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
 import { App } from './app';
 import type { Role } from './core/models';
+import { apiTestProviders } from './testing/api-testing';
+import { signInAs } from './testing/sign-in-as';
 
 async function shellAs(role: Role | null): Promise<HTMLElement> {
-  if (role) {
-    sessionStorage.setItem(
-      'scarpline.session',
-      JSON.stringify({
-        token: 't',
-        expiresAt: new Date(Date.now() + 3600_000).toISOString(),
-        user: { id: 1, email: `${role}@x.example`, name: `The ${role}`, role },
-      }),
-    );
-  }
+  if (role) signInAs(role);
   TestBed.configureTestingModule({
     imports: [App],
-    providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+    providers: apiTestProviders(),
   });
   const fixture = TestBed.createComponent(App);
   await fixture.whenStable();

@@ -1,10 +1,9 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
-import { provideRouter } from '@angular/router';
 import type { ApiToken } from './admin-api';
 import { TokenAdmin, tokenState } from './token-admin';
+import { apiTestProviders } from '../testing/api-testing';
 
 const USERS = [
   { id: 1, email: 'ada@x.example', name: 'Ada Admin', role: 'admin', active: true },
@@ -41,9 +40,7 @@ describe('TokenAdmin', () => {
     TestBed.configureTestingModule({
       imports: [TokenAdmin],
       providers: [
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
+        ...apiTestProviders(),
         { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
       ],
     });

@@ -34,6 +34,7 @@ import { toProblem } from '../core/problem';
 import { loadState, type Loaded, valueOf } from '../shared/load-state';
 import { PageState } from '../shared/page-state';
 import { AdminApi, type AdminUser, type ApiToken, type CreatedToken } from './admin-api';
+import { AdminNotice, type Notice, refused } from './admin-notice';
 import { confirmAction } from './confirm-dialog';
 
 const DAY_MS = 24 * 3600 * 1000;
@@ -69,6 +70,7 @@ export function tokenState(t: ApiToken, now = Date.now()): 'revoked' | 'expired'
     MatSelectModule,
     MatTableModule,
     PageState,
+    AdminNotice,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './token-admin.html',
@@ -162,7 +164,7 @@ export class TokenAdmin {
   /** The token just made: in memory only until the admin closes the box. */
   protected readonly created = signal<CreatedToken | null>(null);
   protected readonly copied = signal<boolean | null>(null);
-  protected readonly notice = signal<{ ok: boolean; text: string } | null>(null);
+  protected readonly notice = signal<Notice | null>(null);
   protected readonly revoking = signal<number | null>(null);
 
   protected readonly byId = (_: number, t: ApiToken) => t.id;
@@ -251,11 +253,7 @@ export class TokenAdmin {
           },
           error: (err: unknown) => {
             this.revoking.set(null);
-            const p = toProblem(err);
-            this.notice.set({
-              ok: false,
-              text: `“${name}” was not revoked: ${p.detail ?? p.title}`,
-            });
+            this.notice.set(refused(`“${name}” was not revoked`, err));
           },
         });
       });

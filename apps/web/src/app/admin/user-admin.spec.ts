@@ -1,11 +1,10 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
-import { provideRouter } from '@angular/router';
-import type { Session } from '../core/models';
 import type { AdminUser } from './admin-api';
 import { inviteOutcome, lockReason, UserAdmin } from './user-admin';
+import { apiTestProviders } from '../testing/api-testing';
+import { signInAs } from '../testing/sign-in-as';
 
 const USERS: AdminUser[] = [
   { id: 1, email: 'ada@x.example', name: 'Ada Admin', role: 'admin', active: true },
@@ -13,26 +12,15 @@ const USERS: AdminUser[] = [
   { id: 5, email: 'feed@x.example', name: 'GIS feed', role: 'integration', active: true },
 ];
 
-function signInAs(id: number): void {
-  const s: Session = {
-    token: 't',
-    expiresAt: new Date(Date.now() + 3600_000).toISOString(),
-    user: { id, email: 'ada@x.example', name: 'Ada Admin', role: 'admin' },
-  };
-  sessionStorage.setItem('scarpline.session', JSON.stringify(s));
-}
-
 describe('UserAdmin', () => {
   let backend: HttpTestingController;
 
   beforeEach(() => {
-    signInAs(1);
+    signInAs('admin', { id: 1, email: 'ada@x.example', name: 'Ada Admin' });
     TestBed.configureTestingModule({
       imports: [UserAdmin],
       providers: [
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
+        ...apiTestProviders(),
         { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
       ],
     });

@@ -30,6 +30,7 @@ import { toProblem } from '../core/problem';
 import { loadState, type Loaded, valueOf } from '../shared/load-state';
 import { PageState } from '../shared/page-state';
 import { AdminApi, type AdminUser, type Invited } from './admin-api';
+import { AdminNotice, type Notice, refused } from './admin-notice';
 import { confirmAction } from './confirm-dialog';
 
 /** What each role may do, in the words the invite form and the table show. */
@@ -82,6 +83,7 @@ export function lockReason(user: AdminUser, myId: number | undefined): string | 
     MatSelectModule,
     MatTableModule,
     PageState,
+    AdminNotice,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './user-admin.html',
@@ -118,7 +120,7 @@ export class UserAdmin {
   /** Users with a change on its way to the API. */
   protected readonly pending = signal<ReadonlySet<number>>(new Set());
   /** The outcome of the last change in the table. */
-  protected readonly notice = signal<{ ok: boolean; text: string } | null>(null);
+  protected readonly notice = signal<Notice | null>(null);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     name: ['', [Validators.required, Validators.maxLength(255)]],
@@ -231,11 +233,7 @@ export class UserAdmin {
       error: (err: unknown) => {
         done();
         undo();
-        const p = toProblem(err);
-        this.notice.set({
-          ok: false,
-          text: `${user.name} was not changed: ${p.detail ?? p.title}`,
-        });
+        this.notice.set(refused(`${user.name} was not changed`, err));
       },
     });
   }

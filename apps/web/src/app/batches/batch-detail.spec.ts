@@ -1,42 +1,23 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
 import { Subject } from 'rxjs';
 import { BatchDetail } from './batch-detail';
 import { BatchEvents, type LiveProgress } from './batch-events';
-import type { Batch, BatchProgress, SectionListItem, UserRef } from './batch-types';
+import type { UserRef } from '../core/models';
+import type { Batch, BatchProgress, SectionListItem } from './batch-types';
+import { aBatch, progressOf } from '../testing/batch-fixtures';
+import { apiTestProviders } from '../testing/api-testing';
+import { signInAs } from '../testing/sign-in-as';
 
+/** Of three sections unless said otherwise. */
 function progress(done: number, failed = 0, total = 3): BatchProgress {
-  return {
-    total,
-    done,
-    failed,
-    queued: total - done - failed,
-    running: 0,
-    belowRequiredFs: 0,
-    fraction: (done + failed) / total,
-  };
+  return progressOf(done, total, failed);
 }
 
 const GINA: UserRef = { id: 9, name: 'Gina Gis' };
 
 function batch(status: 'running' | 'done', p: BatchProgress, submitter = GINA): Batch {
-  return {
-    id: 5,
-    projectId: 1,
-    name: 'wcb-live',
-    title: 'Live test',
-    status,
-    source: 'json',
-    submittedBy: submitter.id,
-    submitter,
-    createdAt: '2026-01-01T00:00:00Z',
-    finishedAt: status === 'done' ? '2026-01-01T00:05:00Z' : null,
-    progress: p,
-    review: { state: 'pending', latest: null, history: [] },
-    caution: 'Results need review.',
-  };
+  return aBatch({ id: 5, name: 'wcb-live', title: 'Live test', status, progress: p, submitter });
 }
 
 describe('BatchDetail', () => {
@@ -45,21 +26,12 @@ describe('BatchDetail', () => {
   let followed: number[];
 
   beforeEach(() => {
-    sessionStorage.setItem(
-      'scarpline.session',
-      JSON.stringify({
-        token: 't',
-        expiresAt: new Date(Date.now() + 3600_000).toISOString(),
-        user: { id: 2, email: 'e@x.example', name: 'E', role: 'engineer' },
-      }),
-    );
+    signInAs('engineer', { id: 2 });
     live = new Subject<LiveProgress>();
     followed = [];
     TestBed.configureTestingModule({
       providers: [
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
+        ...apiTestProviders(),
         {
           provide: BatchEvents,
           useValue: {

@@ -45,7 +45,7 @@ import { keepLast, nothingYet } from './keep-last';
 import { PlanView } from './plan-view';
 import { batchUnits } from './scales';
 import { SectionTable } from './section-table';
-import { userName } from './words';
+import { userName } from '../core/user-name';
 
 /** Saves a fetched file through an object URL (the download carried the bearer token). */
 function save(blob: Blob, fileName: string): void {

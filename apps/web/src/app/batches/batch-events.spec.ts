@@ -1,9 +1,10 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
 import { BatchEvents, EVENT_SOURCE, POLL_MS, type LiveProgress } from './batch-events';
 import type { Batch, BatchProgress } from './batch-types';
+import { aBatch, progressOf } from '../testing/batch-fixtures';
+import { apiTestProviders } from '../testing/api-testing';
+import { signInAs } from '../testing/sign-in-as';
 
 /** An EventSource stand-in: the test dispatches the server's events by hand. */
 class FakeEventSource extends EventTarget {
@@ -25,35 +26,12 @@ class FakeEventSource extends EventTarget {
   }
 }
 
-function progress(done: number, total = 4, failed = 0): BatchProgress {
-  const rest = total - done - failed;
-  return {
-    total,
-    done,
-    failed,
-    queued: rest,
-    running: 0,
-    belowRequiredFs: 0,
-    fraction: (done + failed) / total,
-  };
-}
+/** Of four sections. */
+const progress = (done: number): BatchProgress => progressOf(done, 4);
 
 function batch(status: 'running' | 'done', p: BatchProgress): Batch {
-  return {
-    id: 7,
-    projectId: 1,
-    name: 'wcb-test',
-    title: null,
-    status,
-    source: 'json',
-    submittedBy: 3,
-    submitter: { id: 3, name: 'Rhea Reviewer' },
-    createdAt: '2026-01-01T00:00:00Z',
-    finishedAt: status === 'done' ? '2026-01-01T00:05:00Z' : null,
-    progress: p,
-    review: { state: 'pending', latest: null, history: [] },
-    caution: 'Results need review.',
-  };
+  const submitter = { id: 3, name: 'Rhea Reviewer' };
+  return aBatch({ id: 7, name: 'wcb-test', status, progress: p, submitter });
 }
 
 describe('BatchEvents', () => {
@@ -62,20 +40,11 @@ describe('BatchEvents', () => {
   let backend: HttpTestingController;
 
   beforeEach(() => {
-    sessionStorage.setItem(
-      'scarpline.session',
-      JSON.stringify({
-        token: 'tok/1+2',
-        expiresAt: new Date(Date.now() + 3600_000).toISOString(),
-        user: { id: 3, email: 'e@x.example', name: 'E', role: 'engineer' },
-      }),
-    );
+    signInAs('engineer', { id: 3 }, { token: 'tok/1+2' });
     sources = [];
     TestBed.configureTestingModule({
       providers: [
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
+        ...apiTestProviders(),
         {
           provide: EVENT_SOURCE,
           useValue: (url: string) => {

@@ -1,8 +1,8 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
-import { provideRouter, Router } from '@angular/router';
+import { Router } from '@angular/router';
 import { BatchSubmit, detectPasted, lineRange } from './batch-submit';
+import { apiTestProviders } from '../testing/api-testing';
 
 const YAML = [
   'format: scarpline-section/1',
@@ -46,9 +46,7 @@ describe('BatchSubmit', () => {
   let el: HTMLElement;
 
   beforeEach(async () => {
-    TestBed.configureTestingModule({
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
-    });
+    TestBed.configureTestingModule({ providers: apiTestProviders() });
     backend = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(BatchSubmit);
     fixture.componentRef.setInput('id', '3');

@@ -2,13 +2,13 @@
  * The shapes of the batch endpoints of the Scarpline API (apps/api/src/services/batches.ts,
  * events.ts, exports.ts, reviews.ts, review-requests.ts).
  */
-
+import type { Message, Warning } from '@scarpline/core';
+import type { UserRef } from '../core/models';
+import type { ReviewState, ReviewSummary } from '../reviews/review-types';
 import type { Units } from './scales';
 
 export type BatchStatus = 'running' | 'done';
 export type SectionStatus = 'queued' | 'running' | 'done' | 'failed';
-export type ReviewDecision = 'approved' | 'returned';
-export type ReviewState = ReviewDecision | 'pending';
 /** pass / fail against the required FS, none when no FS is required, failed when unsolved. */
 export type ResultStatus = 'pass' | 'fail' | 'none' | 'failed';
 
@@ -23,31 +23,6 @@ export interface BatchProgress {
   belowRequiredFs: number;
   /** (done + failed) / total; 1 for an empty batch. */
   fraction: number;
-}
-
-/** A user as every role may see them beside what they did: id and name, never the e-mail. */
-export interface UserRef {
-  id: number;
-  name: string;
-}
-
-/** One recorded review decision (services/reviews.ts `reviewView`). */
-export interface Review {
-  id: number;
-  batchId: number;
-  sectionId: number | null;
-  run: number | null;
-  scope: 'batch' | 'section';
-  decision: ReviewDecision;
-  comment: string;
-  reviewer: { id: number; name?: string };
-  at: string;
-}
-
-export interface ReviewSummary {
-  state: ReviewState;
-  latest: Review | null;
-  history: Review[];
 }
 
 /** GET /batches/:id and each item of GET /projects/:id/batches. */
@@ -71,25 +46,12 @@ export interface Batch {
   caution: string;
 }
 
-/** A located message of the input (warnings come back with a successful submission). */
-export interface InputMessage {
-  severity: 'error' | 'warning';
-  file: string;
-  line?: number;
-  column?: number;
-  path: string;
-  code: string;
-  message: string;
-}
-
-/** POST /projects/:id/batches and /projects/:id/uploads answer the batch and its warnings. */
+/**
+ * POST /projects/:id/batches and /projects/:id/uploads answer the batch and the input's
+ * warnings: the core's located messages as they are.
+ */
 export interface SubmittedBatch extends Batch {
-  warnings: InputMessage[];
-}
-
-export interface ResultWarning {
-  code: string;
-  message: string;
+  warnings: Message[];
 }
 
 /** A GeoJSON geometry as the corridor gave it (LineString for a section line). */
@@ -106,7 +68,7 @@ export interface SectionListResult {
   requiredFs: number | null;
   /** null when no FS is required or nothing was solved. */
   passes?: boolean | null;
-  warnings?: ResultWarning[];
+  warnings?: Warning[];
 }
 
 /** One item of GET /batches/:id/sections. */

@@ -1,15 +1,15 @@
 import {
-  afterNextRender,
   ChangeDetectionStrategy,
   Component,
   computed,
-  DestroyRef,
   ElementRef,
   inject,
   input,
   output,
   signal,
 } from '@angular/core';
+import { observedWidth } from '../shared/observed-width';
+import { steppedIndex } from '../shared/stepped-index';
 import type { SectionListItem } from './batch-types';
 import {
   batchUnits,
@@ -228,7 +228,8 @@ export class ChainageChart {
   /** A click (or Enter) on a station: the section id. */
   readonly open = output<number>();
 
-  private readonly measured = signal<number | null>(null);
+  /** The width of the container, once measured. */
+  private readonly measured = observedWidth();
   protected readonly active = signal<number | null>(null);
   protected readonly focusIndex = signal(0);
 
@@ -279,19 +280,6 @@ export class ChainageChart {
 
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
 
-  constructor() {
-    const destroyRef = inject(DestroyRef);
-    afterNextRender(() => {
-      if (typeof ResizeObserver === 'undefined') return;
-      const ro = new ResizeObserver((entries) => {
-        const w = Math.round(entries[0]?.contentRect.width ?? 0);
-        if (w > 0) this.measured.set(w);
-      });
-      ro.observe(this.host.nativeElement);
-      destroyRef.onDestroy(() => ro.disconnect());
-    });
-  }
-
   protected describe(p: PlacedPoint): string {
     const verdict = p.passes === null ? 'no required FS' : p.passes ? 'meets it' : 'below it';
     const req = p.required === null ? '' : `, required ${formatFs(p.required)}`;
@@ -303,17 +291,13 @@ export class ChainageChart {
   }
 
   protected key(e: KeyboardEvent, i: number, p: PlacedPoint): void {
-    const n = this.layout().points.length;
-    let next = i;
-    if (e.key === 'ArrowRight' || e.key === 'ArrowDown') next = Math.min(n - 1, i + 1);
-    else if (e.key === 'ArrowLeft' || e.key === 'ArrowUp') next = Math.max(0, i - 1);
-    else if (e.key === 'Home') next = 0;
-    else if (e.key === 'End') next = n - 1;
-    else if (e.key === 'Enter' || e.key === ' ') {
+    if (e.key === 'Enter' || e.key === ' ') {
       e.preventDefault();
       this.choose(p);
       return;
-    } else return;
+    }
+    const next = steppedIndex(e.key, i, this.layout().points.length);
+    if (next === null) return;
     e.preventDefault();
     this.focusIndex.set(next);
     this.active.set(next);

@@ -35,6 +35,22 @@ function collection(features: ResultFeature[]): ResultCollection {
   return { type: 'FeatureCollection', name: 'wcb-geo', caution: 'Results need review.', features };
 }
 
+/** Parallel section lines from x = 0 to `length`, the i-th at y = i·gap, with these FS. */
+function rungs(length: number, gap: number, fs: (number | null)[]): ResultCollection {
+  return collection(
+    fs.map((v, i) =>
+      feature(
+        i,
+        [
+          [0, i * gap],
+          [length, i * gap],
+        ],
+        v,
+      ),
+    ),
+  );
+}
+
 async function render(
   c: ResultCollection,
   width = 800,
@@ -117,26 +133,7 @@ describe('PlanView', () => {
   });
 
   it('puts north up: a larger y is drawn higher', async () => {
-    const f = await render(
-      collection([
-        feature(
-          0,
-          [
-            [0, 0],
-            [10, 0],
-          ],
-          1.8,
-        ),
-        feature(
-          1,
-          [
-            [0, 500],
-            [10, 500],
-          ],
-          1.8,
-        ),
-      ]),
-    );
+    const f = await render(rungs(10, 500, [1.8, 1.8]));
     const lines = Array.from(f.nativeElement.querySelectorAll('polyline.stroke')) as Element[];
     const yOf = (p: Element) =>
       Number((p.getAttribute('points') ?? '').split(' ')[0].split(',')[1]);
@@ -164,42 +161,8 @@ describe('PlanView', () => {
   });
 
   it('colours each line by its bin, the failing ones thicker and marked', async () => {
-    const f = await render(
-      collection([
-        feature(
-          0,
-          [
-            [0, 0],
-            [10, 0],
-          ],
-          1.2,
-        ), // fails
-        feature(
-          1,
-          [
-            [0, 40],
-            [10, 40],
-          ],
-          1.6,
-        ),
-        feature(
-          2,
-          [
-            [0, 80],
-            [10, 80],
-          ],
-          3.5,
-        ),
-        feature(
-          3,
-          [
-            [0, 120],
-            [10, 120],
-          ],
-          null,
-        ),
-      ]),
-    );
+    // The first fails (1.2 against 1.5); the last has no FS.
+    const f = await render(rungs(10, 40, [1.2, 1.6, 3.5, null]));
     const el = f.nativeElement as HTMLElement;
     const lines = Array.from(el.querySelectorAll('g.line'));
     const stroke = (g: Element) => g.querySelector('polyline.stroke') as Element;
@@ -216,25 +179,7 @@ describe('PlanView', () => {
     expect(el.querySelectorAll('.legend li')).toHaveLength(FS_RAMP.length + 1);
   });
 
-  const twoLines = () =>
-    collection([
-      feature(
-        0,
-        [
-          [0, 0],
-          [400, 0],
-        ],
-        1.8,
-      ),
-      feature(
-        1,
-        [
-          [0, 100],
-          [400, 100],
-        ],
-        1.8,
-      ),
-    ]);
+  const twoLines = () => rungs(400, 100, [1.8, 1.8]);
   const barText = (f: ComponentFixture<PlanView>) =>
     (f.nativeElement as HTMLElement)
       .querySelector('.scale-bar text[text-anchor=middle]')
@@ -247,26 +192,7 @@ describe('PlanView', () => {
   });
 
   it('has a scale bar of a round length whose drawn length matches the scale', async () => {
-    const f = await render(
-      collection([
-        feature(
-          0,
-          [
-            [0, 0],
-            [400, 0],
-          ],
-          1.8,
-        ),
-        feature(
-          1,
-          [
-            [0, 100],
-            [400, 100],
-          ],
-          1.8,
-        ),
-      ]),
-    );
+    const f = await render(twoLines());
     const el = f.nativeElement as HTMLElement;
     const b = box(drawn(el));
     const pxPerUnit = b.w / 400;
@@ -280,26 +206,7 @@ describe('PlanView', () => {
   });
 
   it('opens the section of a line on click', async () => {
-    const f = await render(
-      collection([
-        feature(
-          0,
-          [
-            [0, 0],
-            [10, 0],
-          ],
-          1.8,
-        ),
-        feature(
-          1,
-          [
-            [0, 50],
-            [10, 50],
-          ],
-          1.2,
-        ),
-      ]),
-    );
+    const f = await render(rungs(10, 50, [1.8, 1.2]));
     const opened: (number | undefined)[] = [];
     f.componentInstance.open.subscribe((x) => opened.push(x.properties.sectionId));
     (f.nativeElement.querySelectorAll('g.line')[1] as Element).dispatchEvent(

@@ -1,15 +1,15 @@
 import {
-  afterNextRender,
   ChangeDetectionStrategy,
   Component,
   computed,
-  DestroyRef,
   ElementRef,
   inject,
   input,
   output,
   signal,
 } from '@angular/core';
+import { observedWidth } from '../shared/observed-width';
+import { steppedIndex } from '../shared/stepped-index';
 import type { ResultCollection, ResultFeature } from './batch-types';
 import { formatChainage, formatFs, formatNumber, lengthUnit, niceStep, type Units } from './scales';
 
@@ -256,7 +256,8 @@ export class PlanView {
   /** A click (or Enter) on a section line. */
   readonly open = output<ResultFeature>();
 
-  private readonly measured = signal<number | null>(null);
+  /** The width of the container, once measured. */
+  private readonly measured = observedWidth();
   protected readonly active = signal<number | null>(null);
   protected readonly focusIndex = signal(0);
 
@@ -287,19 +288,6 @@ export class PlanView {
 
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
 
-  constructor() {
-    const destroyRef = inject(DestroyRef);
-    afterNextRender(() => {
-      if (typeof ResizeObserver === 'undefined') return;
-      const ro = new ResizeObserver((entries) => {
-        const w = Math.round(entries[0]?.contentRect.width ?? 0);
-        if (w > 0) this.measured.set(w);
-      });
-      ro.observe(this.host.nativeElement);
-      destroyRef.onDestroy(() => ro.disconnect());
-    });
-  }
-
   protected points(part: [number, number][]): string {
     return part.map((p) => p.join(',')).join(' ');
   }
@@ -317,17 +305,13 @@ export class PlanView {
   }
 
   protected key(e: KeyboardEvent, i: number, l: PlanLine): void {
-    const n = this.layout().lines.length;
-    let next = i;
-    if (e.key === 'ArrowRight' || e.key === 'ArrowDown') next = Math.min(n - 1, i + 1);
-    else if (e.key === 'ArrowLeft' || e.key === 'ArrowUp') next = Math.max(0, i - 1);
-    else if (e.key === 'Home') next = 0;
-    else if (e.key === 'End') next = n - 1;
-    else if (e.key === 'Enter' || e.key === ' ') {
+    if (e.key === 'Enter' || e.key === ' ') {
       e.preventDefault();
       this.open.emit(l.feature);
       return;
-    } else return;
+    }
+    const next = steppedIndex(e.key, i, this.layout().lines.length);
+    if (next === null) return;
     e.preventDefault();
     this.focusIndex.set(next);
     this.active.set(next);

@@ -1,6 +1,8 @@
 /** Small pieces shared by the chart and the plan: scales, ticks, chainage and units. */
+import type { UnitSystem } from '@scarpline/core';
 
-export type Units = 'si' | 'us';
+/** The unit system of a section's file (the core's). */
+export type Units = UnitSystem;
 
 /** A linear map from [d0, d1] onto [r0, r1]. */
 export function linear(d0: number, d1: number, r0: number, r1: number): (v: number) => number {

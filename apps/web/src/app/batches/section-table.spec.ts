@@ -1,9 +1,8 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
 import type { SectionListItem, SectionPage } from './batch-types';
 import { filterSections, SectionTable } from './section-table';
+import { apiTestProviders } from '../testing/api-testing';
 
 function item(id: number, station: number | null, fs: number | null): SectionListItem {
   const passes = fs === null ? null : fs >= 1.5;
@@ -46,9 +45,7 @@ describe('SectionTable', () => {
   let el: HTMLElement;
 
   beforeEach(async () => {
-    TestBed.configureTestingModule({
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
-    });
+    TestBed.configureTestingModule({ providers: apiTestProviders() });
     backend = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(SectionTable);
     fixture.componentRef.setInput('batchId', 7);

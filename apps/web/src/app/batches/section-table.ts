@@ -24,7 +24,8 @@ import type {
 import { BatchesApi } from './batches-api';
 import { keepLast, nothingYet } from './keep-last';
 import { formatChainage, formatFs } from './scales';
-import { methodName, passesOf } from './words';
+import { methodName } from '../shared/method-names';
+import { passesOf } from './words';
 
 export type PassFilter = 'all' | 'pass' | 'fail';
 

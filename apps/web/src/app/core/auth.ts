@@ -4,11 +4,12 @@ import { Router } from '@angular/router';
 import { map, Observable, tap } from 'rxjs';
 import type { LoginResponse, Role, Session, User } from './models';
 
-const KEY = 'scarpline.session';
+/** Where the session is kept in sessionStorage. */
+export const SESSION_KEY = 'scarpline.session';
 
 function readSession(): Session | null {
   try {
-    const raw = sessionStorage.getItem(KEY);
+    const raw = sessionStorage.getItem(SESSION_KEY);
     if (!raw) return null;
     const s = JSON.parse(raw) as Session;
     return new Date(s.expiresAt).getTime() > Date.now() ? s : null;
@@ -65,12 +66,12 @@ export class Auth {
   }
 
   private keep(s: Session): void {
-    sessionStorage.setItem(KEY, JSON.stringify(s));
+    sessionStorage.setItem(SESSION_KEY, JSON.stringify(s));
     this.session.set(s);
   }
 
   private forget(): void {
-    sessionStorage.removeItem(KEY);
+    sessionStorage.removeItem(SESSION_KEY);
     this.session.set(null);
   }
 }

@@ -1,4 +1,5 @@
 /** The shapes the web app reads from the Scarpline API (/api/v1). */
+import type { Message } from '@scarpline/core';
 
 export type Role = 'admin' | 'engineer' | 'reviewer' | 'viewer' | 'integration';
 
@@ -25,15 +26,21 @@ export interface Session {
   user: User;
 }
 
-/** One located message of the API's 422 problems (file, line, column, path into the data). */
-export interface LocatedError {
-  severity: 'error' | 'warning';
-  file: string;
-  line?: number;
-  column?: number;
-  path: string;
-  code: string;
-  message: string;
+/** A user as every role may see them beside what they did: id and name, never the e-mail. */
+export interface UserRef {
+  id: number;
+  name: string;
+}
+
+/**
+ * One located message of the API's 422 problems: the core's input message with `text` (it as
+ * one line). Where the schema refused what the core could not place, the API leaves out the
+ * line and column; the errors of a re-run's edits (not editable) have no file either.
+ */
+export interface LocatedError
+  extends
+    Omit<Message, 'file' | 'line' | 'column'>,
+    Partial<Pick<Message, 'file' | 'line' | 'column'>> {
   text?: string;
 }
 

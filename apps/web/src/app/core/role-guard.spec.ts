@@ -1,19 +1,9 @@
 import { TestBed } from '@angular/core/testing';
-import { provideHttpClient } from '@angular/common/http';
-import { provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideRouter, Router, UrlTree, type ActivatedRouteSnapshot } from '@angular/router';
+import { Router, UrlTree, type ActivatedRouteSnapshot } from '@angular/router';
 import { Auth } from './auth';
 import { roleGuard } from './role-guard';
-import type { Session } from './models';
-
-function signInAs(role: Session['user']['role']): void {
-  const s: Session = {
-    token: 't',
-    expiresAt: new Date(Date.now() + 3600_000).toISOString(),
-    user: { id: 1, email: 'a@b.example', name: 'A', role },
-  };
-  sessionStorage.setItem('scarpline.session', JSON.stringify(s));
-}
+import { apiTestProviders } from '../testing/api-testing';
+import { signInAs } from '../testing/sign-in-as';
 
 function run(guard: ReturnType<typeof roleGuard>, url: string): boolean | UrlTree {
   return TestBed.runInInjectionContext(
@@ -25,9 +15,7 @@ describe('roleGuard', () => {
   afterEach(() => sessionStorage.clear());
 
   function setup(): Router {
-    TestBed.configureTestingModule({
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
-    });
+    TestBed.configureTestingModule({ providers: apiTestProviders() });
     return TestBed.inject(Router);
   }
 
@@ -52,14 +40,7 @@ describe('roleGuard', () => {
   });
 
   it('forgets a session whose token has expired', () => {
-    sessionStorage.setItem(
-      'scarpline.session',
-      JSON.stringify({
-        token: 't',
-        expiresAt: new Date(Date.now() - 1000).toISOString(),
-        user: { id: 1, email: 'a@b.example', name: 'A', role: 'admin' },
-      }),
-    );
+    signInAs('admin', {}, { expiresAt: new Date(Date.now() - 1000).toISOString() });
     setup();
     expect(TestBed.inject(Auth).signedIn()).toBe(false);
     expect(run(roleGuard(), '/projects') instanceof UrlTree).toBe(true);

@@ -1,9 +1,11 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
-import type { Batch, UserRef } from '../batches/batch-types';
+import type { Batch } from '../batches/batch-types';
+import type { UserRef } from '../core/models';
 import { ProjectDetail, REFRESH_MS } from './project-detail';
+import { aBatch, progressOf } from '../testing/batch-fixtures';
+import { apiTestProviders } from '../testing/api-testing';
+import { signInAs } from '../testing/sign-in-as';
 
 const EVAN: UserRef = { id: 2, name: 'Evan Engineer' };
 
@@ -13,53 +15,25 @@ function batch(
   done: number,
   submitter: UserRef = EVAN,
 ): Batch {
-  return {
-    id,
-    projectId: 1,
-    name: `wcb-${id}`,
-    title: null,
-    status,
-    source: 'json',
-    submittedBy: submitter.id,
-    submitter,
-    createdAt: '2026-01-01T00:00:00Z',
-    finishedAt: status === 'done' ? '2026-01-01T00:05:00Z' : null,
-    progress: {
-      total: 4,
-      done,
-      failed: 0,
-      queued: 4 - done,
-      running: 0,
-      belowRequiredFs: 0,
-      fraction: done / 4,
-    },
-    review: { state: 'pending', latest: null, history: [] },
-    caution: 'Results need review.',
-  };
-}
-
-function signInAs(role: 'engineer' | 'viewer'): void {
-  sessionStorage.setItem(
-    'scarpline.session',
-    JSON.stringify({
-      token: 't',
-      expiresAt: new Date(Date.now() + 3600_000).toISOString(),
-      user: { id: 2, email: 'a@x.example', name: 'A', role },
-    }),
-  );
+  return aBatch({ id, status, progress: progressOf(done, 4), submitter });
 }
 
 describe('ProjectDetail', () => {
   let backend: HttpTestingController;
 
   function setup() {
-    TestBed.configureTestingModule({
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
-    });
+    TestBed.configureTestingModule({ providers: apiTestProviders() });
     backend = TestBed.inject(HttpTestingController);
     const fixture = TestBed.createComponent(ProjectDetail);
     fixture.componentRef.setInput('id', '1');
     return fixture;
+  }
+
+  /** Answers the page's request for the project itself. */
+  function answerProject(name = 'W'): void {
+    backend
+      .expectOne('/api/v1/projects/1')
+      .flush({ id: 1, name, description: null, createdAt: '' });
   }
 
   afterEach(() => {
@@ -71,12 +45,10 @@ describe('ProjectDetail', () => {
   // With fake timers, change detection is run by hand (TestBed.tick) rather than awaited.
   it('lists the batches with links, and reads them again only while one runs', () => {
     vi.useFakeTimers();
-    signInAs('engineer');
+    signInAs('engineer', { id: 2 });
     const fixture = setup();
     TestBed.tick();
-    backend
-      .expectOne('/api/v1/projects/1')
-      .flush({ id: 1, name: 'Wendlecombe', description: null, createdAt: '' });
+    answerProject('Wendlecombe');
     backend
       .expectOne('/api/v1/projects/1/batches')
       .flush([batch(2, 'running', 1), batch(1, 'done', 4)]);
@@ -114,12 +86,10 @@ describe('ProjectDetail', () => {
 
   it('stops reading when the page is left', () => {
     vi.useFakeTimers();
-    signInAs('engineer');
+    signInAs('engineer', { id: 2 });
     const fixture = setup();
     TestBed.tick();
-    backend
-      .expectOne('/api/v1/projects/1')
-      .flush({ id: 1, name: 'W', description: null, createdAt: '' });
+    answerProject();
     backend.expectOne('/api/v1/projects/1/batches').flush([batch(2, 'running', 1)]);
     fixture.destroy();
     vi.advanceTimersByTime(REFRESH_MS * 3);
@@ -127,12 +97,10 @@ describe('ProjectDetail', () => {
   });
 
   it('names who submitted each batch, with "(you)" for the signed-in user', async () => {
-    signInAs('viewer'); // user 2
+    signInAs('viewer', { id: 2 });
     const fixture = setup();
     await fixture.whenStable();
-    backend
-      .expectOne('/api/v1/projects/1')
-      .flush({ id: 1, name: 'W', description: null, createdAt: '' });
+    answerProject();
     backend
       .expectOne('/api/v1/projects/1/batches')
       .flush([batch(2, 'done', 4, { id: 7, name: 'Gina Gis' }), batch(1, 'done', 4)]);
@@ -146,12 +114,10 @@ describe('ProjectDetail', () => {
   });
 
   it('offers "Submit a batch" to engineers only', async () => {
-    signInAs('viewer');
+    signInAs('viewer', { id: 2 });
     const fixture = setup();
     await fixture.whenStable();
-    backend
-      .expectOne('/api/v1/projects/1')
-      .flush({ id: 1, name: 'W', description: null, createdAt: '' });
+    answerProject();
     backend.expectOne('/api/v1/projects/1/batches').flush([]);
     await fixture.whenStable();
     const el = fixture.nativeElement as HTMLElement;

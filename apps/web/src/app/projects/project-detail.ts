@@ -19,7 +19,7 @@ import {
   type Observable,
 } from 'rxjs';
 import type { Batch } from '../batches/batch-types';
-import { userName } from '../batches/words';
+import { userName } from '../core/user-name';
 import { Auth } from '../core/auth';
 import type { Problem } from '../core/models';
 import { toProblem } from '../core/problem';

@@ -1,20 +1,10 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
-import type { Role, Session } from '../core/models';
+import type { Role } from '../core/models';
 import { ReviewPanel } from './review-panel';
 import type { ReviewSummary } from './review-types';
-
-function signInAs(role: Role, id: number): void {
-  const s: Session = {
-    token: 't',
-    expiresAt: new Date(Date.now() + 3600_000).toISOString(),
-    user: { id, email: `${role}@x.example`, name: role, role },
-  };
-  sessionStorage.setItem('scarpline.session', JSON.stringify(s));
-}
+import { apiTestProviders, verifyAndReset } from '../testing/api-testing';
+import { signInAs } from '../testing/sign-in-as';
 
 const RETURNED: ReviewSummary = {
   state: 'returned',
@@ -41,15 +31,8 @@ describe('ReviewPanel', () => {
     userId: number,
     inputs: { submittedBy?: number | null; finished?: boolean; review?: ReviewSummary } = {},
   ): Promise<void> {
-    signInAs(role, userId);
-    TestBed.configureTestingModule({
-      providers: [
-        provideZonelessChangeDetection(),
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-      ],
-    });
+    signInAs(role, { id: userId });
+    TestBed.configureTestingModule({ providers: apiTestProviders() });
     backend = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(ReviewPanel);
     fixture.componentRef.setInput('kind', 'section');
@@ -63,15 +46,7 @@ describe('ReviewPanel', () => {
     await fixture.whenStable();
   }
 
-  // An open request fails the test; the module is reset either way, so the next test starts clean.
-  afterEach(() => {
-    try {
-      backend.verify();
-    } finally {
-      TestBed.resetTestingModule();
-      sessionStorage.clear();
-    }
-  });
+  afterEach(() => verifyAndReset(backend));
 
   const el = () => fixture.nativeElement as HTMLElement;
   const q = (id: string) => el().querySelector(`[data-testid="${id}"]`) as HTMLElement | null;

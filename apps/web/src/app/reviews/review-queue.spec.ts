@@ -1,44 +1,31 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
-import type { Session } from '../core/models';
 import { ReviewQueue } from './review-queue';
-import type { BatchSummary, ReviewState } from './review-types';
+import type { Batch, BatchStatus } from '../batches/batch-types';
+import type { ReviewState } from './review-types';
+import { aBatch, progressOf } from '../testing/batch-fixtures';
+import { apiTestProviders, verifyAndReset } from '../testing/api-testing';
+import { signInAs } from '../testing/sign-in-as';
 
 const NAMES: Record<number, string> = { 1: 'Ada Admin', 2: 'Evan Engineer' };
 
 function batch(
   id: number,
-  status: string,
+  status: BatchStatus,
   state: ReviewState,
   submittedBy: number,
   below = 0,
-): BatchSummary {
-  return {
+): Batch {
+  return aBatch({
     id,
-    projectId: 1,
     name: `batch-${id}`,
-    title: null,
     status,
-    source: 'json',
-    submittedBy,
     submitter: { id: submittedBy, name: NAMES[submittedBy] },
     createdAt: `2026-12-0${id}T08:00:00.000Z`,
     finishedAt: status === 'done' ? `2026-12-0${id}T09:00:00.000Z` : null,
-    progress: {
-      total: 12,
-      done: 12,
-      failed: 0,
-      queued: 0,
-      running: 0,
-      belowRequiredFs: below,
-      fraction: 1,
-    },
+    progress: { ...progressOf(12, 12), belowRequiredFs: below },
     review: { state, latest: null, history: [] },
-    caution: 'c',
-  };
+  });
 }
 
 describe('ReviewQueue', () => {
@@ -46,34 +33,14 @@ describe('ReviewQueue', () => {
   let backend: HttpTestingController;
 
   beforeEach(async () => {
-    const s: Session = {
-      token: 't',
-      expiresAt: new Date(Date.now() + 3600_000).toISOString(),
-      user: { id: 1, email: 'a@x.example', name: 'Ada', role: 'admin' },
-    };
-    sessionStorage.setItem('scarpline.session', JSON.stringify(s));
-    TestBed.configureTestingModule({
-      providers: [
-        provideZonelessChangeDetection(),
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-      ],
-    });
+    signInAs('admin', { id: 1 });
+    TestBed.configureTestingModule({ providers: apiTestProviders() });
     backend = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(ReviewQueue);
     await fixture.whenStable();
   });
 
-  // An open request fails the test; the module is reset either way, so the next test starts clean.
-  afterEach(() => {
-    try {
-      backend.verify();
-    } finally {
-      TestBed.resetTestingModule();
-      sessionStorage.clear();
-    }
-  });
+  afterEach(() => verifyAndReset(backend));
 
   const el = () => fixture.nativeElement as HTMLElement;
 

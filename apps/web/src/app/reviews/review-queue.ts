@@ -3,7 +3,7 @@ import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import { switchMap } from 'rxjs';
-import { userName } from '../batches/words';
+import { userName } from '../core/user-name';
 import { Auth } from '../core/auth';
 import { Caution } from '../shared/caution';
 import { loadState, type Loaded } from '../shared/load-state';

@@ -1,5 +1,7 @@
-/** The review shapes of the API (services/reviews.ts) and the batch fields the queue reads. */
-import type { UserRef } from '../batches/batch-types';
+/**
+ * The review shapes of the API (services/reviews.ts). The batches the queue lists are the
+ * batch endpoints' `Batch` (batches/batch-types.ts).
+ */
 
 /** The words the API takes in POST …/reviews. */
 export type Decision = 'approved' | 'returned';
@@ -36,34 +38,5 @@ export interface ReviewBody {
 
 /** The answer to POST …/reviews: the decision recorded, with the caution. */
 export interface ReviewRecorded extends ReviewEntry {
-  caution: string;
-}
-
-export type BatchStatus = 'running' | 'done' | string;
-
-/** A batch as GET /batches/{id} and GET /projects/{id}/batches give it (batchView). */
-export interface BatchSummary {
-  id: number;
-  projectId: number;
-  name: string;
-  title: string | null;
-  status: BatchStatus;
-  source: string;
-  /** The user who submitted it: they may not review it. */
-  submittedBy: number;
-  /** Who submitted it, by name. */
-  submitter: UserRef;
-  createdAt: string;
-  finishedAt: string | null;
-  progress: {
-    total: number;
-    done: number;
-    failed: number;
-    queued: number;
-    running: number;
-    belowRequiredFs: number;
-    fraction: number;
-  };
-  review: ReviewSummary;
   caution: string;
 }

@@ -2,14 +2,15 @@ import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { forkJoin, map, of, switchMap, type Observable } from 'rxjs';
 import type { Project } from '../core/models';
-import type { BatchSummary, ReviewBody, ReviewRecorded } from './review-types';
+import type { Batch } from '../batches/batch-types';
+import type { ReviewBody, ReviewRecorded } from './review-types';
 
 const BASE = '/api/v1';
 
 /** A batch with the project it belongs to, for the review queue. */
 export interface QueuedBatch {
   project: Project;
-  batch: BatchSummary;
+  batch: Batch;
 }
 
 /** Reviews: record a decision on a section or a batch; the batches that wait for one. */
@@ -31,7 +32,7 @@ export class ReviewsApi {
           : forkJoin(
               projects.map((project) =>
                 this.http
-                  .get<BatchSummary[]>(`${BASE}/projects/${project.id}/batches`)
+                  .get<Batch[]>(`${BASE}/projects/${project.id}/batches`)
                   .pipe(map((batches) => batches.map((batch) => ({ project, batch })))),
               ),
             ),

@@ -1,21 +1,5 @@
-/** Words and numbers of the section page: method names, units, FS and other figures. */
-import type { MethodId, ReportedSurface, UnitSystem } from './section-types';
-
-/** The methods by the names of the papers they come from. */
-export const METHOD_NAMES: Record<MethodId, string> = {
-  ordinary: 'Ordinary method of slices',
-  bishop: "Bishop's simplified",
-  janbu: "Janbu's simplified",
-  spencer: "Spencer's method",
-  'morgenstern-price': 'Morgenstern–Price',
-  'swedish-circle': 'φ = 0 circle',
-  'log-spiral': 'Log spiral',
-  'infinite-slope': 'Infinite slope',
-};
-
-export function methodName(m: string): string {
-  return METHOD_NAMES[m as MethodId] ?? m;
-}
+/** Words and numbers of the section page: units, FS and other figures (method names: shared/). */
+import type { ReportedSurface, UnitSystem } from './section-types';
 
 /** The kinds of quantity whose unit differs between the unit systems. */
 export type Quantity =

@@ -1,6 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import { fixed, fsText, methodName, plain, surfaceText, unitOf } from './format';
+import { fixed, fsText, plain, surfaceText, unitOf } from './format';
+import { methodName } from '../shared/method-names';
 import type { MethodId, MethodReport, UnitSystem } from './section-types';
 
 /** A method's extra figures, in words (Janbu's correction, the φ = 0 circle's moment arm…). */

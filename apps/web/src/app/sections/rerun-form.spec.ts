@@ -1,9 +1,8 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { RerunForm } from './rerun-form';
 import type { SectionInput, SectionView } from './section-types';
+import { apiTestProviders, verifyAndReset } from '../testing/api-testing';
 
 function input(): SectionInput {
   return {
@@ -83,28 +82,14 @@ describe('RerunForm', () => {
   let backend: HttpTestingController;
 
   beforeEach(async () => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideZonelessChangeDetection(),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-      ],
-    });
+    TestBed.configureTestingModule({ providers: apiTestProviders() });
     backend = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(RerunForm);
     fixture.componentRef.setInput('section', view());
     await fixture.whenStable();
   });
 
-  // An open request fails the test; the module is reset either way, so the next test starts clean.
-  afterEach(() => {
-    try {
-      backend.verify();
-    } finally {
-      TestBed.resetTestingModule();
-      sessionStorage.clear();
-    }
-  });
+  afterEach(() => verifyAndReset(backend));
 
   const el = () => fixture.nativeElement as HTMLElement;
   const field = (path: string) =>

@@ -2,11 +2,12 @@ import { ChangeDetectionStrategy, Component, computed, inject, input, signal } f
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatIconModule } from '@angular/material/icon';
 import { switchMap } from 'rxjs';
-import { userName } from '../batches/words';
+import { userName } from '../core/user-name';
 import { Auth } from '../core/auth';
 import { loadState, type Loaded } from '../shared/load-state';
 import { PageState } from '../shared/page-state';
-import { fsText, methodName, when } from './format';
+import { fsText, when } from './format';
+import { methodName } from '../shared/method-names';
 import type { RunEntry, RunsView } from './section-types';
 import { SectionsApi } from './sections-api';
 

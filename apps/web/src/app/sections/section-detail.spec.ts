@@ -1,12 +1,11 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
-import type { Role, Session } from '../core/models';
+import type { Role } from '../core/models';
 import { POLL_MS, SectionDetail } from './section-detail';
 import type { InputWarning, RunResult, SectionInput, SectionView } from './section-types';
 import { WARNING_EXPLANATIONS } from './warning-codes';
+import { apiTestProviders } from '../testing/api-testing';
+import { signInAs } from '../testing/sign-in-as';
 
 const INPUT: SectionInput = {
   format: 'scarpline/1',
@@ -118,20 +117,8 @@ describe('SectionDetail', () => {
   let backend: HttpTestingController;
 
   async function open(role: Role): Promise<void> {
-    const s: Session = {
-      token: 't',
-      expiresAt: new Date(Date.now() + 3600_000).toISOString(),
-      user: { id: 5, email: 'u@x.example', name: 'U', role },
-    };
-    sessionStorage.setItem('scarpline.session', JSON.stringify(s));
-    TestBed.configureTestingModule({
-      providers: [
-        provideZonelessChangeDetection(),
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-      ],
-    });
+    signInAs(role, { id: 5 });
+    TestBed.configureTestingModule({ providers: apiTestProviders() });
     backend = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(SectionDetail);
     fixture.componentRef.setInput('id', '7');

@@ -25,14 +25,15 @@ import {
   timer,
   type Observable,
 } from 'rxjs';
-import { userName } from '../batches/words';
+import { userName } from '../core/user-name';
 import { Auth } from '../core/auth';
 import { ReviewPanel } from '../reviews/review-panel';
-import type { BatchSummary } from '../reviews/review-types';
+import type { Batch } from '../batches/batch-types';
 import { Caution } from '../shared/caution';
 import { loadState, type Loaded } from '../shared/load-state';
 import { PageState } from '../shared/page-state';
-import { fsText, methodName, plain, when } from './format';
+import { fsText, plain, when } from './format';
+import { methodName } from '../shared/method-names';
 import { MethodTable } from './method-table';
 import { RerunForm } from './rerun-form';
 import { RunHistory } from './run-history';
@@ -118,9 +119,7 @@ export class SectionDetail {
   protected readonly batch = toSignal(
     combineLatest([toObservable(this.batchId), toObservable(this.batchTick)]).pipe(
       switchMap(([id]) =>
-        id === null
-          ? of(null)
-          : this.api.batch(id).pipe(catchError(() => of<BatchSummary | null>(null))),
+        id === null ? of(null) : this.api.batch(id).pipe(catchError(() => of<Batch | null>(null))),
       ),
     ),
     { initialValue: null },

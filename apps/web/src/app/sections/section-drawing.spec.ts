@@ -1,8 +1,7 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { SectionDrawing } from './section-drawing';
+import { apiTestProviders, verifyAndReset } from '../testing/api-testing';
 
 const SVG =
   '<svg xmlns="http://www.w3.org/2000/svg" width="1100" height="508" viewBox="0 0 1100 508">' +
@@ -13,13 +12,7 @@ describe('SectionDrawing', () => {
   let backend: HttpTestingController;
 
   beforeEach(async () => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideZonelessChangeDetection(),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-      ],
-    });
+    TestBed.configureTestingModule({ providers: apiTestProviders() });
     backend = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(SectionDrawing);
     fixture.componentRef.setInput('sectionId', 7);
@@ -27,15 +20,7 @@ describe('SectionDrawing', () => {
     await fixture.whenStable();
   });
 
-  // An open request fails the test; the module is reset either way, so the next test starts clean.
-  afterEach(() => {
-    try {
-      backend.verify();
-    } finally {
-      TestBed.resetTestingModule();
-      sessionStorage.clear();
-    }
-  });
+  afterEach(() => verifyAndReset(backend));
 
   const el = () => fixture.nativeElement as HTMLElement;
 

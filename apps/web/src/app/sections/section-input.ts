@@ -3,7 +3,8 @@ import { ChangeDetectionStrategy, Component, computed, inject, input } from '@an
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSnackBar } from '@angular/material/snack-bar';
-import { fromSi, methodName, plain, pointText, unitOf, type Quantity } from './format';
+import { fromSi, plain, pointText, unitOf, type Quantity } from './format';
+import { methodName } from '../shared/method-names';
 import type { Load, Material, SectionInput } from './section-types';
 
 /**
@@ -317,13 +318,12 @@ export class SectionInputView {
     const sf = this.section().analysis.surface;
     if (!sf) return 'none given';
     if (sf.type === 'circle') {
-      const c = sf['center'] as [number, number];
-      const r = sf['radius'] as number;
+      const [cx, cy] = sf.center;
       const L = (x: number) => fromSi(x, 'length', this.units());
-      return `given circle: centre ${pointText([L(c[0]), L(c[1])])}, radius ${this.v(r, 'length')}`;
+      return `given circle: centre ${pointText([L(cx), L(cy)])}, radius ${this.v(sf.radius, 'length')}`;
     }
     if (sf.type === 'polyline') {
-      return `given polyline of ${(sf['points'] as unknown[]).length} points`;
+      return `given polyline of ${sf.points.length} points`;
     }
     const words: Record<string, string> = {
       grid: 'search: grid of circle centres',

@@ -1,194 +1,71 @@
 /**
  * The shapes of GET /sections/{id} and GET /sections/{id}/runs (apps/api services/sections.ts
- * and services/rerun.ts), with the result of the solver as packages/core/src/analyze.ts
- * reports it. Results are in the section's units; the stored input is normalised to SI.
+ * and services/rerun.ts). The stored input is the solver's normalised section (SI) and the
+ * results are the solver's reports (in the section's units): their types come from
+ * @scarpline/core, imported for their types only so that nothing of the solver is bundled.
  */
-import type { UserRef } from '../batches/batch-types';
+import type {
+  Message,
+  MethodReport,
+  ReportedSurface,
+  Section,
+  SectionResult,
+} from '@scarpline/core';
+import type { ResultStatus, SectionStatus } from '../batches/batch-types';
+import type { UserRef } from '../core/models';
 import type { ReviewSummary } from '../reviews/review-types';
 
-export type Point = [number, number];
-export type UnitSystem = 'si' | 'us';
+export type {
+  Load,
+  Material,
+  MethodId,
+  MethodReport,
+  Point,
+  ReportedSurface,
+  SliceReport,
+  Strength,
+  UnitSystem,
+  Warning,
+} from '@scarpline/core';
 
-export type MethodId =
-  | 'ordinary'
-  | 'bishop'
-  | 'janbu'
-  | 'spencer'
-  | 'morgenstern-price'
-  | 'swedish-circle'
-  | 'log-spiral'
-  | 'infinite-slope';
+/** The stored input: the validated, normalised section as the solver took it (SI). */
+export type SectionInput = Section;
 
-// ---- the stored input: the normalised section (packages/core/src/model/types.ts), SI ----
+/**
+ * The search report of a result. The core exports its own name `SearchReport` for the
+ * drawing's narrower type (without `noncircularMethod`), so the result's is taken from
+ * SectionResult.
+ */
+export type SearchReport = NonNullable<SectionResult['search']>;
 
-export interface MohrCoulombStrength {
-  model: 'mohr-coulomb';
-  cohesion: number;
-  frictionAngle: number;
-}
-
-export interface UndrainedStrength {
-  model: 'undrained';
-  su: number;
-  suRate: number;
-  suDatum: number | null;
-}
-
-export interface RigidStrength {
-  model: 'rigid';
-}
-
-export type Strength = MohrCoulombStrength | UndrainedStrength | RigidStrength;
-
-export interface Material {
-  name: string;
-  unitWeight: number;
-  saturatedUnitWeight: number;
-  strength: Strength;
-}
-
-export type Water =
-  | { kind: 'none'; unitWeight: number }
-  | { kind: 'piezometric'; line: Point[]; unitWeight: number }
-  | { kind: 'ru'; ru: number; unitWeight: number };
-
-export type Load =
-  | { type: 'strip'; from: number; to: number; pressure: number }
-  | { type: 'line'; x: number; force: number; angle: number };
-
-export interface SurfaceSpec {
-  type: 'circle' | 'polyline' | 'grid' | 'ground-ranges' | 'noncircular' | 'auto';
-  [setting: string]: unknown;
-}
-
-export interface Analysis {
-  methods: MethodId[];
-  slices: number;
-  interslice?: { shape: string; end?: number; ramp?: number };
-  surface: SurfaceSpec | null;
-  infiniteSlope: { angle: number; depth: number; waterRatio: number } | null;
-  case: string | null;
-  requiredFs: number | null;
-  searchEachMethod?: boolean;
-}
-
-export interface SectionInput {
-  format: string;
-  id: string;
-  title: string;
-  description?: string;
-  station: number | null;
-  offset: number | null;
-  units: UnitSystem;
-  ground: Point[];
-  materials: Record<string, Material>;
-  strata: { material: string; top: Point[] }[];
-  water: Water;
-  loads: Load[];
-  seismic: { kh: number; kv: number };
-  crack: { depth: number | 'auto'; waterDepth: number } | null;
-  analysis: Analysis;
-}
-
-// ---- the result (packages/core/src/analyze.ts), in the section's units ----
-
-export interface Warning {
-  code: string;
-  message: string;
-}
-
-export interface SliceReport {
-  x: number;
-  width: number;
-  /** Degrees, positive where the base rises to the right. */
-  alpha: number;
-  baseLength: number;
-  weight: number;
-  porePressure: number;
-  /** Effective base normal force N′ and mobilised shear S. */
-  normal: number;
-  shear: number;
-  /** On the slice's right side; thrust: height of the line of thrust there (null where undefined). */
-  interslice: { E: number; X: number; thrust: number | null };
-  material: string;
-}
-
-export type ReportedSurface =
-  | { type: 'circle'; center: Point; radius: number }
-  | { type: 'polyline'; points: Point[] }
-  | { type: 'plane'; angle: number; depth: number }
-  | { type: 'log-spiral'; pole: Point; r0: number; r1: number; points: Point[] };
-
-export interface MethodReport {
-  method: MethodId;
-  fs: number | null;
-  converged: boolean;
-  iterations: number;
-  reason?: string;
-  surface: ReportedSurface | null;
-  base?: Point[];
-  ends?: { upper: Point; lower: Point };
-  crack?: { x: number; depth: number; waterDepth: number; waterForce: number } | null;
-  slices: SliceReport[];
-  warnings: Warning[];
-  fsUncorrected?: number;
-  correction?: number;
-  lambda?: number;
-  theta?: number;
-  intersliceFunction?: string;
-  massWeight?: number;
-  leverArm?: number;
-}
-
-export interface SearchReport {
-  type: 'grid' | 'ground-ranges' | 'noncircular' | 'auto';
-  method: MethodId;
-  noncircularMethod?: MethodId;
-  trials: number;
-  moves: { reason: string; grid: unknown }[];
-  grid: unknown;
-  map: { xs: number[]; ys: number[]; fs: (number | null)[][] } | null;
-  lowest: { surface: ReportedSurface; fs: number }[];
-}
-
-/** pass / fail against the required FS; none: no FS required; failed: nothing solved. */
-export type ResultStatus = 'pass' | 'fail' | 'none' | 'failed';
-
-/** One run's result as the API stores it (resultView). */
-export interface RunResult {
+/**
+ * One run's result as the API stores it (resultView): the solver's result with the status,
+ * the run, the timings (ISO strings) and the attempt the API adds; `methods` is the solver's
+ * `results`, `criticalSurface` the governing method's surface.
+ */
+export interface RunResult extends Pick<
+  SectionResult,
+  'governing' | 'requiredFs' | 'passes' | 'warnings' | 'solverVersion' | 'caution'
+> {
   run: number;
   status: ResultStatus;
-  governing: { method: MethodId; fs: number } | null;
-  requiredFs: number | null;
-  passes: boolean | null;
   reason: string | null;
   criticalSurface: ReportedSurface | null;
   methods: MethodReport[];
-  warnings: Warning[];
-  solverVersion: string;
   inputHash: string;
   timings: { startedAt: string | null; finishedAt: string | null; durationMs: number | null };
   attempt: number;
   /** Only on the current run's result. */
   search?: SearchReport | null;
-  caution: string;
 }
 
-export type SectionStatus = 'queued' | 'running' | 'done' | 'failed';
-
 /**
- * A warning of the input checks (validate.ts `messageView`), located in the submitted file
- * (edited-section.json after a re-run with edits); `text` is it as one line.
+ * A warning of the input checks (validate.ts `messageView`: the core's message with `text`,
+ * it as one line), located in the submitted file (edited-section.json after a re-run with
+ * edits).
  */
-export interface InputWarning {
+export interface InputWarning extends Message {
   severity: 'warning';
-  file: string;
-  line: number;
-  column: number;
-  /** Where in the file's data, e.g. sections[3].materials.clay.unitWeight; empty for the file. */
-  path: string;
-  code: string;
-  message: string;
   text: string;
 }
 

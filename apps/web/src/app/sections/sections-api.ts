@@ -1,7 +1,7 @@
 import { HttpClient, HttpErrorResponse } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { catchError, throwError, type Observable } from 'rxjs';
-import type { BatchSummary } from '../reviews/review-types';
+import type { Batch } from '../batches/batch-types';
 import type { RunsView, SectionPatch, SectionView } from './section-types';
 
 const BASE = '/api/v1';
@@ -32,8 +32,8 @@ export class SectionsApi {
   }
 
   /** The batch the section belongs to (its name for the way back, its review, its submitter). */
-  batch(id: number): Observable<BatchSummary> {
-    return this.http.get<BatchSummary>(`${BASE}/batches/${id}`);
+  batch(id: number): Observable<Batch> {
+    return this.http.get<Batch>(`${BASE}/batches/${id}`);
   }
 
   /** The drawing of the current run as SVG text (the server's drawing of the solver's result). */

@@ -1,7 +1,8 @@
 import { ChangeDetectionStrategy, Component, computed, input, linkedSignal } from '@angular/core';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatSelectModule } from '@angular/material/select';
-import { fixed, methodName, surfaceText, unitOf } from './format';
+import { fixed, surfaceText, unitOf } from './format';
+import { methodName } from '../shared/method-names';
 import type { MethodId, MethodReport, UnitSystem } from './section-types';
 
 /**

@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import { METHOD_NAMES, methodName } from './format';
+import { METHOD_NAMES, methodName } from '../shared/method-names';
 import type { InputWarning, MethodReport, Warning } from './section-types';
 import { explain, type WarningExplanation } from './warning-codes';
 

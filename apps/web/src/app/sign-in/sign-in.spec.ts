@@ -1,8 +1,8 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter, Router } from '@angular/router';
+import { Router } from '@angular/router';
 import { SignIn } from './sign-in';
+import { apiTestProviders } from '../testing/api-testing';
 
 describe('SignIn', () => {
   let backend: HttpTestingController;
@@ -11,7 +11,7 @@ describe('SignIn', () => {
   beforeEach(() => {
     TestBed.configureTestingModule({
       imports: [SignIn],
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+      providers: apiTestProviders(),
     });
     backend = TestBed.inject(HttpTestingController);
     router = TestBed.inject(Router);
