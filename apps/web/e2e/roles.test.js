@@ -124,12 +124,19 @@ test('the keyboard alone: sign in, reach a project and a batch, open a section f
       throw new Error(`Tab never reached ${pattern} (last: ${await focused()})`);
     }
     await page.goto('/sign-in');
+    await page.getByRole('heading', { name: 'Sign in to Scarpline' }).waitFor();
     await tabTo(/^input/);
     await page.keyboard.type(USERS.viewer.email);
     await page.keyboard.press('Tab');
     await page.keyboard.type(USERS.viewer.password);
+    assert.equal(await page.getByLabel('E-mail').inputValue(), USERS.viewer.email);
+    assert.equal(await page.getByLabel('Password').inputValue(), USERS.viewer.password);
     await page.keyboard.press('Enter');
-    await page.waitForURL((url) => url.pathname === '/projects');
+    await page.waitForURL((url) => url.pathname === '/projects', { timeout: 30_000 });
+    await page
+      .getByRole('link', { name: /Wendlecombe bypass/ })
+      .first()
+      .waitFor();
     await tabTo(/Wendlecombe bypass/);
     await page.keyboard.press('Enter');
     await page.waitForURL((url) => /^\/projects\/\d+$/.test(url.pathname));
