@@ -24,10 +24,9 @@ import { refineCircle } from './search/refine-circle';
 import { type SearchOutcome, searchSection } from './search/search-section';
 import { Trials } from './search/trials';
 import type { CenterGrid } from './search/search-settings';
+import { CAUTION } from './caution';
 
-/** The caution every result surface carries. */
-export const CAUTION =
-  'Results are for review by a qualified geotechnical engineer. The user is responsible for the inputs; local codes and licensed practice govern the design.';
+export { CAUTION };
 
 /** The version of the solver, stored with every result. */
 export const SOLVER_VERSION = '0.1.0';

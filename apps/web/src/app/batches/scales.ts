@@ -1,3 +1,4 @@
+import { chainageLabel } from '@scarpline/core/chainage-label';
 /** Small pieces shared by the chart and the plan: scales, ticks, chainage and units. */
 import type { UnitSystem } from '@scarpline/core';
 
@@ -46,15 +47,7 @@ export function lengthUnit(units: Units | null): string {
 
 /** A station written as chainage: 1240 → 1+240 (si), 15000 → 150+00 (us), plain without units. */
 export function formatChainage(station: number, units: Units | null): string {
-  if (units === null) return formatNumber(station);
-  const unit = units === 'us' ? 100 : 1000;
-  const digits = units === 'us' ? 2 : 3;
-  const sign = station < 0 ? '-' : '';
-  const a = Math.abs(station);
-  const major = Math.floor(a / unit + 1e-9);
-  const minor = Number((a - major * unit).toFixed(3));
-  const [whole, frac] = String(minor).split('.');
-  return `${sign}${major}+${whole.padStart(digits, '0')}${frac ? `.${frac}` : ''}`;
+  return units === null ? formatNumber(station) : chainageLabel(station, units);
 }
 
 /** A number with no more decimals than it needs (at most 3). */

@@ -1,12 +1,9 @@
 import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
+import { CAUTION } from '@scarpline/core/caution';
 
-/**
- * The words every result surface carries: the solver's CAUTION, word for word (a test in
- * tests/web-caution.test.ts keeps the two the same).
- */
-export const CAUTION_TEXT =
-  'Results are for review by a qualified geotechnical engineer. The user is responsible for the inputs; local codes and licensed practice govern the design.';
+/** The words every result surface carries: the solver's own CAUTION (a module of its own, no solver code). */
+export const CAUTION_TEXT = CAUTION;
 
 /** The engineering caution, shown on every page that shows a result. */
 @Component({
