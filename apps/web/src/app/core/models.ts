@@ -3,8 +3,6 @@ import type { Message } from '@scarpline/core';
 
 export type Role = 'admin' | 'engineer' | 'reviewer' | 'viewer' | 'integration';
 
-export const ROLES: readonly Role[] = ['admin', 'engineer', 'reviewer', 'viewer', 'integration'];
-
 export interface User {
   id: number;
   email: string;

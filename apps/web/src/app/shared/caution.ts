@@ -2,9 +2,6 @@ import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { CAUTION } from '@scarpline/core/caution';
 
-/** The words every result surface carries: the solver's own CAUTION (a module of its own, no solver code). */
-export const CAUTION_TEXT = CAUTION;
-
 /** The engineering caution, shown on every page that shows a result. */
 @Component({
   selector: 'sl-caution',
@@ -33,5 +30,6 @@ export const CAUTION_TEXT = CAUTION;
   `,
 })
 export class Caution {
-  protected readonly text = CAUTION_TEXT;
+  /** The solver's own words (an import-free module of the core: no solver code comes along). */
+  protected readonly text = CAUTION;
 }

@@ -1,4 +1,3 @@
-import { signal, type Signal } from '@angular/core';
 import { catchError, map, of, startWith, type Observable } from 'rxjs';
 import { toProblem } from '../core/problem';
 import type { Problem } from '../core/models';
@@ -19,10 +18,4 @@ export function loadState<T>(source: Observable<T>): Observable<Loaded<T>> {
 /** The value of a Loaded, or undefined. */
 export function valueOf<T>(l: Loaded<T>): T | undefined {
   return l.state === 'ready' ? l.value : undefined;
-}
-
-/** A signal that counts reloads: bump it to run a request again. */
-export function reloadSignal(): { tick: Signal<number>; reload: () => void } {
-  const tick = signal(0);
-  return { tick, reload: () => tick.update((n) => n + 1) };
 }
