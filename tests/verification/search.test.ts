@@ -8,7 +8,7 @@ import { join } from 'node:path';
 import {
   analyzeSection,
   circlePolygonMoments,
-  fastBishopEvaluator,
+  bishopCircleEvaluator,
   nelderMead,
   parseSections,
   prepareSection,
@@ -189,7 +189,7 @@ describe('cohesionless slope (common practice: circles tend to the infinite slop
   const fInf = Math.tan((35 * Math.PI) / 180) / 0.5;
 
   test('circles through two points of the face approach tan φ′/tan β from above as the radius grows', () => {
-    const evaluate = fastBishopEvaluator(prepareSection(section), 60);
+    const evaluate = bishopCircleEvaluator(prepareSection(section), 60);
     // chord between x = 4 and x = 12 on the face (y = x/2), centres up the normal
     const a: Point = [4, 2];
     const b: Point = [12, 6];
@@ -228,7 +228,7 @@ describe('search quality: within 0.5 % of a dense exhaustive search on every exa
     const found = searchSection(prepared, { type: 'auto' });
     expect(found.circle).not.toBeNull();
     // dense: centres on a 36 × 36 grid over a wide window, 36 tangent elevations, same evaluator
-    const evaluate = fastBishopEvaluator(prepared, section.analysis.slices);
+    const evaluate = bishopCircleEvaluator(prepared, section.analysis.slices);
     const g = section.ground;
     const ys = g.map((p) => p[1]);
     const H = Math.max(...ys) - Math.min(...ys);

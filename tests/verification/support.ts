@@ -7,6 +7,8 @@ import {
   type Point,
   type Section,
   type SlicedSurface,
+  formatMessage,
+  parseSections,
   prepareSection,
   sliceSurface,
 } from '@scarpline/core';
@@ -102,3 +104,131 @@ export function circleOptions(sliced: SlicedSurface, center: Point, section: Sec
 }
 
 export const relErr = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
+
+/** A small deterministic generator (mulberry32), so that a seeded case repeats exactly. */
+export function seeded(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+export interface LayeredOptions {
+  /** Water: none, a piezometric line, or a pore-pressure ratio. */
+  water?: 'none' | 'line' | 'ru';
+  /** Add a strip surcharge behind the crest, kh, and a tension crack (for the evaluator check). */
+  extras?: boolean;
+}
+
+/**
+ * A test geometry (not a real site): a cut or an embankment of height 4–14 m at 1.5–3
+ * horizontal to 1 vertical, in a firm soil with a weak layer 0.2–2 m thick, horizontal or
+ * dipping out of the slope by up to 10°, crossing the face or lying below the toe, over a
+ * firmer soil; drawn from `seed`, written as a section file and read by parseSections (so
+ * the strata are clipped under the ground as for any file). The parameters span the ranges
+ * of the trade's textbooks; they describe no site.
+ */
+export function layeredSection(seed: number, options: LayeredOptions = {}): Section {
+  const rand = seeded(seed);
+  const pick = (a: number, b: number) => Math.round((a + (b - a) * rand()) * 1000) / 1000;
+  const H = pick(4, 14);
+  const run = pick(1.5, 3) * H;
+  const flat = Math.round(3 * H + 10);
+  // a cut rises away from the road (crest on the right); an embankment is the same shape mirrored
+  const mirror = rand() < 0.5 ? -1 : 1;
+  const X = (x: number) => Math.round(mirror * x * 1000) / 1000;
+  const line = (pts: Point[]): Point[] =>
+    (mirror < 0 ? [...pts].reverse() : pts).map(([x, y]) => [X(x), y]);
+  const ground = line([
+    [-flat, 0],
+    [0, 0],
+    [run, H],
+    [run + flat, H],
+  ]);
+  const x0 = -flat;
+  const x1 = run + flat;
+  const thick = pick(0.2, 2);
+  // an embankment: fill above the original ground (y = 0) and the weak layer in the foundation
+  const embankment = rand() < 0.4;
+  // the bottom of the weak layer: through the face (at 20–70 % of the height) or 0–4 m below the toe
+  const yb = !embankment && rand() < 0.6 ? pick(0.2, 0.7) * H : -thick - pick(0, 4);
+  // dipping out of the slope (down toward the toe) by 2–10°, half of the cases level
+  const dip = rand() < 0.5 ? 0 : pick(2, 10);
+  const k = Math.tan((dip * Math.PI) / 180);
+  const xm = 0.5 * run;
+  const boundary = (y: number) =>
+    line([
+      [x0, Math.round((y + k * (x0 - xm)) * 1000) / 1000],
+      [x1, Math.round((y + k * (x1 - xm)) * 1000) / 1000],
+    ]);
+  const undrained = rand() < 0.25;
+  const raw = {
+    format: 'scarpline/1',
+    id: `layered-${seed}`,
+    title: `layered test geometry ${seed}`,
+    units: 'si',
+    ground,
+    materials: {
+      fill: {
+        unitWeight: 20,
+        saturatedUnitWeight: 21,
+        strength: { model: 'mohr-coulomb', cohesion: pick(0, 8), frictionAngle: pick(30, 38) },
+      },
+      firm: {
+        unitWeight: 19,
+        saturatedUnitWeight: 20,
+        strength: { model: 'mohr-coulomb', cohesion: pick(6, 20), frictionAngle: pick(26, 36) },
+      },
+      weak: undrained
+        ? { unitWeight: 18, strength: { model: 'undrained', su: pick(10, 30) } }
+        : {
+            unitWeight: 18,
+            saturatedUnitWeight: 19,
+            strength: { model: 'mohr-coulomb', cohesion: pick(0, 5), frictionAngle: pick(10, 20) },
+          },
+      base: {
+        unitWeight: 20,
+        saturatedUnitWeight: 21,
+        strength: { model: 'mohr-coulomb', cohesion: pick(10, 30), frictionAngle: pick(28, 38) },
+      },
+    },
+    strata: [
+      ...(embankment
+        ? [{ material: 'fill' }, { material: 'firm', top: 0 }]
+        : [{ material: 'firm' }]),
+      { material: 'weak', top: boundary(yb + thick) },
+      { material: 'base', top: boundary(yb) },
+    ],
+    water: {} as Record<string, unknown>,
+    analysis: { methods: ['bishop'], slices: 30, surface: { type: 'auto' } },
+  } as Record<string, unknown> & { water: Record<string, unknown> };
+  const water = options.water ?? (['none', 'line', 'ru'] as const)[Math.floor(rand() * 3)];
+  if (water === 'line') {
+    const hw = pick(0.3, 0.8) * H;
+    raw.water = {
+      piezometric: line([
+        [x0, -0.5],
+        [0, -0.5],
+        [run, hw],
+        [x1, hw],
+      ]),
+    };
+  } else if (water === 'ru') raw.water = { ru: pick(0.05, 0.3) };
+  else delete (raw as { water?: unknown }).water;
+  if (options.extras) {
+    raw.loads = [{ type: 'strip', from: X(run + 2), to: X(run + 8), pressure: pick(5, 25) }].map(
+      (l) => ({ ...l, from: Math.min(l.from, l.to), to: Math.max(l.from, l.to) }),
+    );
+    raw.seismic = { kh: pick(0.05, 0.2) };
+    raw.crack = { depth: 'auto', waterDepth: pick(0, 1) };
+  }
+  const parsed = parseSections(JSON.stringify(raw), `layered-${seed}.json`);
+  const errors = parsed.messages.filter((m) => m.severity === 'error').map(formatMessage);
+  if (errors.length > 0 || parsed.sections.length !== 1)
+    throw new Error(`layered test geometry ${seed}: ${errors.join('; ')}`);
+  return parsed.sections[0];
+}

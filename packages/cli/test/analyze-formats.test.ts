@@ -97,8 +97,9 @@ describe('scarpline analyze: formats, units, overrides, stdin', () => {
     expect(code).toBe(0);
     const s = (JSON.parse(out) as Doc).sections[0];
     expect(s.results.map((m) => m.method)).toEqual(['bishop', 'janbu']);
+    // 25 equal slices, each vertex or crossing inside the mass (five here) cutting one in two
     expect(s.results[0].slices.length).toBeGreaterThanOrEqual(25);
-    expect(s.results[0].slices.length).toBeLessThanOrEqual(28); // boundaries add a slice or two
+    expect(s.results[0].slices.length).toBeLessThanOrEqual(31);
     expect(s.requiredFs).toBe(1.2);
   });
 

@@ -1,5 +1,7 @@
 // Benchmarks of the solver (npm run bench). Medians over repeated runs on this machine;
-// never part of the tests. Runs on the built core (packages/core/dist).
+// never part of the tests. Runs on the built core (packages/core/dist). With BENCH_SMOKE=1
+// every figure is measured once on a tiny size (the test command runs it so, to keep the
+// script working): the same lines, meaningless numbers.
 const { readFileSync, readdirSync } = require('node:fs');
 const { join } = require('node:path');
 const os = require('node:os');
@@ -8,7 +10,9 @@ const core = require('../dist/index.js');
 
 const ROOT = join(__dirname, '..', '..', '..');
 const EXAMPLES = join(ROOT, 'examples');
-const REPEATS = 7;
+const SMOKE = Boolean(process.env.BENCH_SMOKE);
+const REPEATS = SMOKE ? 1 : 7;
+const WINDOW_MS = SMOKE ? 20 : 400;
 
 const median = (xs) => {
   const s = [...xs].sort((a, b) => a - b);
@@ -20,7 +24,7 @@ const readExample = (file) =>
   core.parseSections(readFileSync(join(EXAMPLES, file), 'utf8'), file).sections;
 
 /** Rate (per second) of `fn(k)` over about `ms` milliseconds; returns the median of REPEATS runs. */
-function rate(fn, batch, ms = 400) {
+function rate(fn, batch, ms = WINDOW_MS) {
   // warm-up, not counted: let the compiler settle first
   for (let t0 = performance.now(), n = 0; performance.now() - t0 < ms; n += batch)
     for (let k = 0; k < batch; k++) fn(n + k);
@@ -53,9 +57,7 @@ function timeMs(fn, repeats = REPEATS) {
 const levee = readExample('levee-river-side.yaml')[0];
 const SLICES = 50;
 const prepared = core.prepareSection(levee);
-const fast = core.fastSection(prepared);
-const buffer = core.sliceBuffer(SLICES + 1);
-const ends = { xa: 0.5, xb: 0.5 };
+const evaluate = core.bishopCircleEvaluator(prepared, SLICES);
 const c0 = levee.analysis.surface;
 // trial circles around the given one: every one is admissible
 const circles = [];
@@ -64,23 +66,22 @@ for (let i = 0; i < 40; i++) {
     const xc = c0.center[0] + (i - 20) * 0.08;
     const yc = c0.center[1] + (j - 12) * 0.08;
     const r = c0.radius + (j - 12) * 0.06;
-    if (core.bishopCircle(fast, xc, yc, r, SLICES, 1.2, ends) > 0) circles.push([xc, yc, r]);
+    if (evaluate(xc, yc, r) > 0) circles.push([xc, yc, r]);
   }
 }
 
-// the search's evaluator: one pass from the circle to Bishop's terms, then the iteration
-let guess = 1.2;
+// the search's evaluator: each circle cut exactly into a reused workspace, then Bishop's iteration
 const bishopRate = rate((k) => {
   const [xc, yc, r] = circles[k % circles.length];
-  const f = core.bishopCircle(fast, xc, yc, r, SLICES, guess, ends);
-  if (f > 0) guess = f;
+  evaluate(xc, yc, r);
 }, 200);
 
 // the same arithmetic, hand-minimal, on precomputed slice arrays: the fixed-point iteration
 // F = Σ(C + N tan φ′)·aS / Σ −(N·aN + M0), N = (W′ − C sin α / F) / (cos α + sin α tan φ′ / F)
+const ws = core.sliceWorkspace(prepared);
 const pre = circles.map(([xc, yc, r]) => {
-  core.sliceCircleFast(fast, xc, yc, r, SLICES, buffer, ends);
-  const st = core.statics(buffer, levee.seismic, [buffer.mirrored ? -xc : xc, yc]);
+  core.cutCircle(ws, xc, yc, r, SLICES);
+  const st = core.statics(ws.slices, levee.seismic, [ws.mirrored ? -xc : xc, yc]);
   const n = st.n;
   const Wv = new Float64Array(n);
   for (let i = 0; i < n; i++) Wv[i] = -st.Hy[i];
@@ -116,12 +117,16 @@ let kg = 1.2;
 const kernelRate = rate((k) => {
   kg = kernel(pre[k % pre.length], kg);
 }, 200);
+const slicesPerCircle = pre.reduce((a, p) => a + p.n, 0) / pre.length;
 
-const spencerRate = rate((k) => {
-  const [xc, yc, r] = circles[k % circles.length];
-  core.sliceCircleFast(fast, xc, yc, r, SLICES, buffer, ends);
-  core.spencer(buffer, { seismic: levee.seismic, pivot: [buffer.mirrored ? -xc : xc, yc] });
-}, 50);
+const spencerRate = rate(
+  (k) => {
+    const [xc, yc, r] = circles[k % circles.length];
+    core.cutCircle(ws, xc, yc, r, SLICES);
+    core.spencer(ws.slices, { seismic: levee.seismic, pivot: [ws.mirrored ? -xc : xc, yc] });
+  },
+  SMOKE ? 5 : 50,
+);
 
 // --- a 5 000-circle grid search plus rigorous refinement (Spencer and Morgenstern–Price, exact slicing)
 const grid5000 = {
@@ -152,10 +157,20 @@ for (const file of readdirSync(EXAMPLES).filter((f) => f.endsWith('.yaml'))) {
       },
     };
     let result;
-    const ms = timeMs(() => {
-      result = core.analyzeSection(section);
-    }, 5);
-    autoRows.push([s.id, ms, result.search.trials, result.governing ? result.governing.fs : NaN]);
+    const ms = timeMs(
+      () => {
+        result = core.analyzeSection(section);
+      },
+      SMOKE ? 1 : 5,
+    );
+    const c = result.search.howFound?.candidates ?? { grid: 0, groundRanges: 0, polish: 0 };
+    autoRows.push([
+      s.id,
+      ms,
+      result.search.trials,
+      c,
+      result.governing ? result.governing.fs : NaN,
+    ]);
   }
 }
 
@@ -164,11 +179,11 @@ const corridor = core.parseSections(
   readFileSync(join(EXAMPLES, 'corridor', 'corridor.json'), 'utf8'),
   'corridor.json',
 ).sections;
-const many = Array.from({ length: 300 }, (_, i) => ({
+const many = Array.from({ length: SMOKE ? 6 : 300 }, (_, i) => ({
   ...corridor[i % corridor.length],
   id: `bench-${i}`,
 }));
-const CHUNK = 30;
+const CHUNK = SMOKE ? 3 : 30;
 async function corridorRun(workers) {
   const pool = Array.from({ length: workers }, () => new Worker(join(__dirname, 'worker.js')));
   // start-up (loading the core) is not counted: each worker first answers an empty chunk
@@ -202,7 +217,7 @@ async function corridorRun(workers) {
 (async () => {
   const cores = os.cpus().length;
   const corridorTimes = [];
-  for (let r = 0; r < 3; r++) corridorTimes.push(await corridorRun(cores));
+  for (let r = 0; r < (SMOKE ? 1 : 3); r++) corridorTimes.push(await corridorRun(cores));
   const oneCore = await corridorRun(1);
   const out = [];
   out.push(
@@ -213,7 +228,7 @@ async function corridorRun(workers) {
   );
   out.push('');
   out.push(
-    `Bishop circles per second, one core (slicing + Bishop, the search's evaluator): ${fmt(bishopRate)}`,
+    `Bishop circles per second, one core (exact slicing + Bishop, the search's evaluator; ${fmt(slicesPerCircle, 1)} slices a circle): ${fmt(bishopRate)}`,
   );
   out.push(
     `hand-minimal Bishop kernel on precomputed slice arrays:                      ${fmt(kernelRate)}`,
@@ -222,18 +237,18 @@ async function corridorRun(workers) {
     `ratio solver / kernel:                                          ${fmt(bishopRate / kernelRate, 2)}`,
   );
   out.push(
-    `Spencer circles per second, one core (fast slicing + Spencer):               ${fmt(spencerRate)}`,
+    `Spencer circles per second, one core (exact slicing + Spencer):              ${fmt(spencerRate)}`,
   );
   out.push(
     `grid search of ${fmt(trials5000)} trial surfaces + Spencer and Morgenstern–Price on the critical circle: ${fmt(search5000, 1)} ms`,
   );
   out.push('');
   out.push(
-    'auto search (grid + ground ranges + polish) with Bishop, Spencer, Morgenstern–Price on each example (median of 5):',
+    'auto search (grid with boundary tangents + ground ranges + polishes) with Bishop, Spencer, Morgenstern–Price on each example (median of 5):',
   );
-  for (const [id, ms, trials, fs] of autoRows)
+  for (const [id, ms, trials, c, fs] of autoRows)
     out.push(
-      `  ${id.padEnd(16)} ${fmt(ms, 1).padStart(7)} ms  ${fmt(trials).padStart(6)} trials  FS ${fs.toFixed(3)}`,
+      `  ${id.padEnd(16)} ${fmt(ms, 1).padStart(7)} ms  ${fmt(trials).padStart(6)} trials (grid ${c.grid}, ground ranges ${c.groundRanges}, polish ${c.polish})  FS ${fs.toFixed(3)}`,
     );
   out.push('');
   out.push(

@@ -23,100 +23,49 @@ import { type SliceOutcome, type SliceSet, sliceSurface } from './slices/slice-s
 import { refineCircle } from './search/refine-circle';
 import { type SearchOutcome, searchSection } from './search/search-section';
 import { Trials } from './search/trials';
-import type { CenterGrid } from './search/search-settings';
 import { CAUTION } from './caution';
+import type {
+  CircleOrigin,
+  GridReport,
+  HowFound,
+  MethodReport,
+  ReportedSurface,
+  SearchReport,
+  SectionResult,
+  SliceReport,
+  Warning,
+} from './result';
 
 export { CAUTION };
 
 /** The version of the solver, stored with every result. */
 export const SOLVER_VERSION = '0.1.0';
 
-/** One slice as reported (section coordinates and units; forces per unit run). */
-export interface SliceReport {
-  /** x of the slice middle, width b, base inclination α (degrees, positive where the base rises to the right). */
-  x: number;
-  width: number;
-  alpha: number;
-  baseLength: number;
-  weight: number;
-  porePressure: number;
-  /** Effective base normal force N′ and mobilised shear S. */
-  normal: number;
-  shear: number;
-  /** Interslice normal E and shear X on the slice's right side; thrust: height of the line of thrust there (null where undefined). */
-  interslice: { E: number; X: number; thrust: number | null };
-  material: string;
-}
-
-export type ReportedSurface =
-  | { type: 'circle'; center: Point; radius: number }
-  | { type: 'polyline'; points: Point[] }
-  | { type: 'plane'; angle: number; depth: number }
-  | { type: 'log-spiral'; pole: Point; r0: number; r1: number; points: Point[] };
-
-export interface Warning {
-  code: string;
-  message: string;
-}
-
-export interface MethodReport {
-  method: MethodId;
-  fs: number | null;
-  converged: boolean;
-  iterations: number;
-  reason?: string;
-  surface: ReportedSurface | null;
-  /** The slip surface actually used, after following a rigid base and cutting at a crack. */
-  base?: Point[];
-  ends?: { upper: Point; lower: Point };
-  crack?: { x: number; depth: number; waterDepth: number; waterForce: number } | null;
-  slices: SliceReport[];
-  warnings: Warning[];
-  /** Janbu: F0 and f0 (fs = f0·F0). */
-  fsUncorrected?: number;
-  correction?: number;
-  /** Spencer and Morgenstern–Price: λ (X = λ f E); Spencer: θ = atan λ (degrees). */
-  lambda?: number;
-  theta?: number;
-  intersliceFunction?: string;
-  /** φ = 0 circle: weight of the mass and its lever arm about the centre. */
-  massWeight?: number;
-  leverArm?: number;
-}
-
-export interface SectionResult {
-  id: string;
-  title: string;
-  station: number | null;
-  units: UnitSystem;
-  case: string | null;
-  requiredFs: number | null;
-  results: MethodReport[];
-  governing: { method: MethodId; fs: number } | null;
-  passes: boolean | null;
-  warnings: Warning[];
-  /** What the search did, when the surface was searched for. */
-  search: SearchReport | null;
-  solverVersion: string;
-  caution: string;
-}
-
-/** A grid of circle centres, in the section's units. */
-export type GridReport = CenterGrid;
-
-/** The search, in the section's units: trials, grid moves, the FS map over the centres, the lowest surfaces. */
-export interface SearchReport {
-  type: SearchSurface['type'];
-  /** The method the circles were searched with (the critical surface of each method is evaluated exactly). */
-  method: MethodId;
-  /** The method the noncircular polylines were searched with, when they were. */
-  noncircularMethod?: MethodId;
-  trials: number;
-  moves: { reason: string; grid: GridReport }[];
-  grid: GridReport | null;
-  /** fs[j][i]: the lowest FS over the radii at the centre (xs[i], ys[j]); null where no circle was admissible. */
-  map: { xs: number[]; ys: number[]; fs: (number | null)[][] } | null;
-  lowest: { surface: ReportedSurface; fs: number }[];
+function howFound(found: SearchOutcome): HowFound | null {
+  const c = found.circle;
+  if (!c || !found.confirmation) return null;
+  const name = (b: number) => (b >= 0 ? found.boundaries[b].material : null);
+  const origin = (t: { stage: CircleOrigin['stage']; boundary: number }): CircleOrigin => ({
+    stage: t.stage,
+    touching: name(t.boundary),
+  });
+  return {
+    candidates: {
+      grid: found.candidates.grid,
+      groundRanges: found.candidates['ground-ranges'],
+      polish: found.candidates.polish,
+    },
+    boundaries: found.boundaries.map((b) => b.material),
+    polishes: found.polishes.map((p) => ({
+      from: p.from.fs,
+      to: p.to.fs,
+      start: origin(p.from),
+      evaluations: p.evaluations,
+      touching: name(p.boundary),
+    })),
+    critical: origin(c),
+    confirmation: { method: 'bishop', ...found.confirmation },
+  };
 }
 
 function searchReport(found: SearchOutcome, units: UnitSystem): SearchReport {
@@ -151,6 +100,7 @@ function searchReport(found: SearchOutcome, units: UnitSystem): SearchReport {
       surface: { type: 'circle', center: [L(t.center[0]), L(t.center[1])], radius: L(t.radius) },
       fs: t.fs,
     })),
+    howFound: howFound(found),
   };
 }
 
@@ -173,11 +123,11 @@ function ownCircle(
   const f0 = evaluate(start.center[0], start.center[1], start.radius);
   if (!(f0 > 0)) return start;
   const best = refineCircle(
-    { center: start.center, radius: start.radius, fs: f0 },
+    { center: start.center, radius: start.radius, fs: f0, stage: 'polish', boundary: -1 },
     start.radius / 20,
     evaluate,
     new Trials(1),
-  );
+  ).to;
   return { type: 'circle', center: best.center, radius: best.radius };
 }
 

@@ -25,6 +25,13 @@ export { polylineCrossings } from './geometry/polyline-crossings';
 export { prepareSection, type PreparedSection, type Geometry } from './slices/prepare-section';
 export { type BasePiece } from './slices/base-curve';
 export {
+  sliceWorkspace,
+  cutCircle,
+  cutSurface,
+  type SliceWorkspace,
+  type RejectCode,
+} from './slices/cut-surface';
+export {
   sliceSurface,
   type SliceSet,
   type SliceOutcome,
@@ -37,10 +44,11 @@ export {
 export {
   searchSection,
   cohesionlessSlope,
-  fastBishopEvaluator,
   type SearchOutcome,
   type CohesionlessSlope,
 } from './search/search-section';
+export { bishopCircleEvaluator } from './search/circle-evaluator';
+export { boundaries, touchRadius, tangentRadii, type Boundary } from './search/boundary-tangents';
 export {
   searchSettings,
   slopeZone,
@@ -51,16 +59,13 @@ export {
 export { gridSearch, type GridOutcome } from './search/grid-search';
 export { groundRangesSearch } from './search/ground-ranges-search';
 export { noncircularSearch } from './search/noncircular-search';
-export { refineCircle } from './search/refine-circle';
-export { Trials, type CircleTrial, type CircleEvaluator } from './search/trials';
-export { fastSection, sliceBuffer, type FastSection } from './search/fast-section';
-export { sliceCircleFast } from './search/slice-circle-fast';
-export { bishopCircle } from './search/bishop-circle';
+export { refineCircle, refineTouching, type Polish } from './search/refine-circle';
+export { Trials, type CircleTrial, type CircleEvaluator, type TrialStage } from './search/trials';
 export { nelderMead } from './numeric/nelder-mead';
 
 // --- methods and the front door ---
 export { ordinary } from './methods/ordinary';
-export { bishop } from './methods/bishop';
+export { bishop, bishopIteration } from './methods/bishop';
 export { janbu, janbuCorrection } from './methods/janbu';
 export { spencer } from './methods/spencer';
 export { morgensternPrice, intersliceFunction } from './methods/morgenstern-price';
@@ -74,23 +79,24 @@ export {
 export { statics, type Statics } from './methods/statics';
 export { defaultPivot } from './methods/pivot';
 export type { SliceMethodResult, MethodWarning } from './methods/types';
-export {
-  analyzeSection,
-  CAUTION,
-  SOLVER_VERSION,
-  type SectionResult,
-  type MethodReport,
-  type SliceReport,
-  type ReportedSurface,
-  type Warning,
-  type GridReport,
-} from './analyze';
+export { analyzeSection, CAUTION, SOLVER_VERSION } from './analyze';
+export type {
+  SectionResult,
+  MethodReport,
+  SliceReport,
+  ReportedSurface,
+  Warning,
+  GridReport,
+  GridReport as SearchGrid,
+  SearchReport,
+  HowFound,
+  CircleOrigin,
+} from './result';
 
 // --- drawing and corridor input
 export { drawSection, type DrawableResult, type DrawSectionOptions } from './draw/draw-section';
 export { drawChainage, type ChainagePoint, type DrawChainageOptions } from './draw/draw-chainage';
 export { chainageLabel } from './draw/chainage-label';
-export type { SearchReport, SearchGrid } from './draw/types';
 export {
   parseGeoJsonCorridor,
   isGeoJsonCorridor,

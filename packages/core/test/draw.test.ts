@@ -13,7 +13,7 @@ import { pondedPolygons } from '../src/draw/ponded-polygons';
 import { circleBelowGround } from '../src/draw/circle-below-ground';
 import { fsMapDomain } from '../src/draw/fs-map-shape';
 import { wrapText } from '../src/draw/wrap-text';
-import type { SearchReport } from '../src/draw/types';
+import type { SearchReport } from '../src/result';
 
 const EXAMPLES = join(__dirname, '..', '..', '..', 'examples');
 const section = (file: string): Section =>
@@ -190,6 +190,7 @@ describe('drawSection', () => {
       grid: { x: [18, 24], y: [44, 48], nx: 4, ny: 3 },
       map: { xs, ys, fs },
       lowest: [{ surface: { type: 'circle', center: [22, 46], radius: 19 }, fs: 1.7 }],
+      howFound: null,
     };
     const r = { ...analyzeSection(s), search };
     const svg = drawSection(s, r);

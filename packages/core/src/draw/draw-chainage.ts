@@ -1,4 +1,4 @@
-import { CAUTION } from '../analyze';
+import { CAUTION } from '../caution';
 import type { UnitSystem } from '../model/types';
 import { axisBottom, axisLeft } from './axis';
 import { chainageLabel } from './chainage-label';

@@ -1,5 +1,5 @@
-import type { SectionResult } from '../analyze';
-import { CAUTION } from '../analyze';
+import type { SectionResult } from '../result';
+import { CAUTION } from '../caution';
 import type { Point, Section } from '../model/types';
 import { axisBottom, axisLeft } from './axis';
 import { colorBar } from './color-bar';
@@ -20,11 +20,10 @@ import {
 } from './surface-shapes';
 import { svgElement, svgText } from './svg-element';
 import { cautionBlock, cautionLines, svgDocument } from './svg-document';
-import type { SearchReport } from './types';
 import { waterShapes } from './water-shapes';
 
 /** A section result, with the search's report when a search ran. */
-export type DrawableResult = SectionResult & { search?: SearchReport | null };
+export type DrawableResult = SectionResult;
 
 export interface DrawSectionOptions {
   /** Width of the drawing in pixels (default 1100); the height follows the section. */

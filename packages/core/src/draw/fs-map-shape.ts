@@ -1,6 +1,7 @@
 import { fsColor, INK } from './palette';
 import { svgElement } from './svg-element';
-import type { Scales, SearchGrid, SearchReport } from './types';
+import type { GridReport as SearchGrid, SearchReport } from '../result';
+import type { Scales } from './types';
 
 /** The FS range a map's colours span: the least FS up to at most twice it (higher is clipped). */
 export function fsMapDomain(map: NonNullable<SearchReport['map']>): [number, number] | null {

@@ -1,4 +1,4 @@
-import type { SliceReport } from '../analyze';
+import type { SliceReport } from '../result';
 import { yAt } from '../geometry/y-at';
 import type { Point, Polyline } from '../model/types';
 import { INK } from './palette';

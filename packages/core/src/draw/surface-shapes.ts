@@ -1,9 +1,10 @@
-import type { MethodReport, SectionResult } from '../analyze';
+import type { MethodReport, SectionResult } from '../result';
 import type { MethodId, Point, Polyline } from '../model/types';
 import { circleBelowGround } from './circle-below-ground';
 import { ACCENT, INK, MUTED } from './palette';
 import { pathData, svgElement, svgText } from './svg-element';
-import { toPixels, type Scales, type SearchReport } from './types';
+import type { SearchReport } from '../result';
+import { toPixels, type Scales } from './types';
 
 /** Methods that found the same slip surface, drawn once. */
 export interface SurfaceGroup {

@@ -2,11 +2,46 @@ import type { Point, Seismic } from '../model/types';
 import type { SliceSet } from '../slices/slice-surface';
 import { failed } from './failed';
 import { mAlphaWarning } from './m-alpha-warning';
-import { march } from './march';
 import { sliceForces } from './slice-forces';
 import { solveFs } from './solve-fs';
-import { statics } from './statics';
+import { type Statics, statics } from './statics';
 import type { SliceMethodResult } from './types';
+
+/**
+ * Bishop's fixed-point iteration (Bishop 1955) on prepared statics: with the base normal of
+ * each slice from its vertical equilibrium, N = (−Hy − C sin α / F) / mα, mα = cos α +
+ * sin α tan φ′ / F, F = Σ (C + N tan φ′)·aS / Σ −(N·aN + M0) (moments about the centre),
+ * repeated from `guess` until F changes by less than `tol` relatively. Returns F (NaN where
+ * mα turns negative, F leaves (0, 10⁶) or 60 passes do not settle) and the passes made. The search calls it on every
+ * trial circle; bishop() calls it first and falls back to a bracketing search.
+ *
+ * @example bishopIteration(statics(slices, seismic, centre), 1, 1e-10).fs // → 1.42
+ */
+export function bishopIteration(
+  st: Statics,
+  guess: number,
+  tol: number,
+): { fs: number; iterations: number } {
+  const { n, sin, cos, C, t, Hy, aN, aS, M0 } = st;
+  let F = guess > 0 ? guess : 1;
+  for (let it = 1; it <= 60; it++) {
+    const iF = 1 / F;
+    let resist = 0;
+    let drive = 0;
+    for (let i = 0; i < n; i++) {
+      const den = t[i] * iF * sin[i] + cos[i];
+      if (den <= 1e-9) return { fs: NaN, iterations: it };
+      const N = (-Hy[i] - C[i] * iF * sin[i]) / den;
+      resist += (C[i] + N * t[i]) * aS[i];
+      drive -= N * aN[i] + M0[i];
+    }
+    const next = resist / drive;
+    if (!(next > 0) || !(next < 1e6)) return { fs: NaN, iterations: it };
+    if (Math.abs(next - F) <= tol * next) return { fs: next, iterations: it };
+    F = next;
+  }
+  return { fs: NaN, iterations: 60 };
+}
 
 /**
  * Bishop's simplified method (Bishop 1955, Géotechnique 5(1), eq. for F with interslice
@@ -14,8 +49,8 @@ import type { SliceMethodResult } from './types';
  *   N = [W(1 + kv) − Qy − (c′l − u·l·tan φ′) sin α / F] / mα,  mα = cos α + sin α tan φ′ / F,
  * and moment equilibrium about the circle centre gives F. Without loads this is the familiar
  *   F = Σ{[c′b + (W − u b) tan φ′] / mα} / Σ W sin α.
- * Solved by the classic fixed-point iteration, with a bracketing search as the fallback.
- * Warns where mα < 0.2 (Whitman & Bailey 1967).
+ * Solved by the classic fixed-point iteration (bishopIteration), with a bracketing search as
+ * the fallback. Warns where mα < 0.2 (Whitman & Bailey 1967).
  *
  * @example bishop(sliced.slices, { seismic: { kh: 0, kv: 0 }, pivot: [25, 42] }).fs
  */
@@ -25,32 +60,12 @@ export function bishop(
 ): SliceMethodResult {
   const st = statics(s, options.seismic, options.pivot);
   const n = s.n;
-  const N = new Float64Array(n);
-  const E = new Float64Array(n);
-  let F = 1;
-  let iterations = 0;
-  let converged = false;
-  for (; iterations < 60;) {
-    iterations++;
-    const r = march(st, F, 0, null, N, E);
-    if (!Number.isFinite(r.M)) break;
-    let resist = 0;
-    let drive = 0;
-    for (let i = 0; i < n; i++) {
-      resist += (st.C[i] + N[i] * st.t[i]) * st.aS[i];
-      drive -= N[i] * st.aN[i] + st.M0[i];
-    }
-    const next = resist / drive;
-    if (!(next > 0) || !Number.isFinite(next)) break;
-    if (Math.abs(next - F) <= 1e-10 * next) {
-      F = next;
-      converged = true;
-      break;
-    }
-    F = next;
-  }
+  const first = bishopIteration(st, 1, 1e-10);
+  let F = first.fs;
+  let converged = F > 0;
+  let iterations = first.iterations;
   if (!converged) {
-    const root = solveFs(st, 0, null, 'moment', 1, N, E);
+    const root = solveFs(st, 0, null, 'moment', 1, new Float64Array(n), new Float64Array(n));
     iterations += root.passes;
     converged = root.converged;
     F = root.fs;

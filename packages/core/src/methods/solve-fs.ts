@@ -33,9 +33,11 @@ export function solveFs(
   tol = 1e-10,
 ): FsRoot {
   let scale = 0;
-  for (let i = 0; i < st.n; i++)
+  let arm = balance === 'moment' ? 1e-9 : 1;
+  for (let i = 0; i < st.n; i++) {
     scale += Math.abs(st.Hx[i]) + Math.abs(st.Hy[i]) + Math.abs(st.C[i]);
-  const arm = balance === 'moment' ? Math.max(1e-9, ...Array.from(st.aS, Math.abs)) : 1;
+    if (balance === 'moment') arm = Math.max(arm, Math.abs(st.aS[i]));
+  }
   const residual = (F: number) => {
     const r = march(st, F, lambda, f, N, E);
     return balance === 'moment' ? r.M : r.En;

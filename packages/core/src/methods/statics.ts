@@ -28,18 +28,13 @@ export interface Statics {
   pivot: Point;
 }
 
-/**
- * Build the statics of a slice set about a pivot (the circle centre, or a point chosen above
- * a noncircular surface). Moments are counter-clockwise positive; a mass sliding toward −x
- * turns clockwise, so resisting moments are positive.
- */
-export function statics(s: SliceSet, seismic: Seismic, pivot: Point): Statics {
-  const n = s.n;
+/** Statics with room for `capacity` slices (arrays may be longer than n: only n are used). */
+function staticsBuffer(capacity: number, pivot: Point): Statics {
   // one backing buffer for all eleven arrays: typed-array allocation is costly, views are cheap
-  const buffer = new Float64Array(11 * n);
-  const view = (k: number) => buffer.subarray(k * n, (k + 1) * n);
-  const st: Statics = {
-    n,
+  const buffer = new Float64Array(11 * capacity);
+  const view = (k: number) => buffer.subarray(k * capacity, (k + 1) * capacity);
+  return {
+    n: 0,
     sin: view(0),
     cos: view(1),
     len: view(2),
@@ -53,31 +48,50 @@ export function statics(s: SliceSet, seismic: Seismic, pivot: Point): Statics {
     M0: view(10),
     pivot,
   };
-  const [xo, yo] = pivot;
+}
+
+/**
+ * Build the statics of a slice set about a pivot (the circle centre, or a point chosen above
+ * a noncircular surface). Moments are counter-clockwise positive; a mass sliding toward −x
+ * turns clockwise, so resisting moments are positive. With `into` (a previous result with
+ * room enough) its arrays are filled again instead of new ones made.
+ */
+export function statics(s: SliceSet, seismic: Seismic, pivot: Point, into?: Statics): Statics {
+  const n = s.n;
+  const st = into && into.sin.length >= n ? into : staticsBuffer(n, pivot);
+  st.n = n;
+  st.pivot = pivot;
+  const xo = pivot[0];
+  const yo = pivot[1];
   const kh = seismic.kh;
   const kv1 = 1 + seismic.kv;
+  // local handles: the loop then reads no properties
+  const { xl, xr, yBaseL, yBaseR, porePressure, tanPhi, cohesion, weight, qx, qy, qm, cx, cy } = s;
+  const { sin, cos, len, U: Ua, t, C, Hx, Hy, aN, aS, M0 } = st;
   for (let i = 0; i < n; i++) {
-    const b = s.xr[i] - s.xl[i];
-    const dy = s.yBaseR[i] - s.yBaseL[i];
+    const b = xr[i] - xl[i];
+    const dy = yBaseR[i] - yBaseL[i];
     const l = Math.sqrt(b * b + dy * dy);
     const sn = dy / l;
     const cs = b / l;
-    st.sin[i] = sn;
-    st.cos[i] = cs;
-    st.len[i] = l;
-    const U = s.porePressure[i] * l;
-    st.U[i] = U;
-    st.t[i] = s.tanPhi[i];
-    st.C[i] = s.cohesion[i] * l - U * s.tanPhi[i];
-    const W = s.weight[i];
-    st.Hx[i] = s.qx[i] - kh * W;
-    st.Hy[i] = s.qy[i] - kv1 * W;
-    const xm = 0.5 * (s.xl[i] + s.xr[i]) - xo;
-    const ym = 0.5 * (s.yBaseL[i] + s.yBaseR[i]) - yo;
-    st.aN[i] = xm * cs + ym * sn;
-    st.aS[i] = xm * sn - ym * cs;
-    st.M0[i] =
-      -(s.cx[i] - xo) * kv1 * W + (s.cy[i] - yo) * kh * W + (s.qm[i] - xo * s.qy[i] + yo * s.qx[i]);
+    sin[i] = sn;
+    cos[i] = cs;
+    len[i] = l;
+    const U = porePressure[i] * l;
+    const tp = tanPhi[i];
+    Ua[i] = U;
+    t[i] = tp;
+    C[i] = cohesion[i] * l - U * tp;
+    const W = weight[i];
+    const Qx = qx[i];
+    const Qy = qy[i];
+    Hx[i] = Qx - kh * W;
+    Hy[i] = Qy - kv1 * W;
+    const xm = 0.5 * (xl[i] + xr[i]) - xo;
+    const ym = 0.5 * (yBaseL[i] + yBaseR[i]) - yo;
+    aN[i] = xm * cs + ym * sn;
+    aS[i] = xm * sn - ym * cs;
+    M0[i] = -(cx[i] - xo) * kv1 * W + (cy[i] - yo) * kh * W + (qm[i] - xo * Qy + yo * Qx);
   }
   return st;
 }

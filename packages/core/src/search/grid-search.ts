@@ -1,5 +1,6 @@
+import { type Boundary, tangentRadii } from './boundary-tangents';
 import type { CenterGrid, GridSettings } from './search-settings';
-import type { CircleEvaluator, Trials } from './trials';
+import type { CircleEvaluator, CircleTrial, Trials } from './trials';
 
 export interface GridMove {
   reason: string;
@@ -13,6 +14,9 @@ export interface GridOutcome {
   xs: number[];
   ys: number[];
   fs: number[][];
+  /** radius[j][i] and boundary[j][i]: the radius of that lowest circle, and the boundary it touches (−1 when none). */
+  radius: number[][];
+  boundary: number[][];
   /** True when the minimum is still on the grid's edge after the last allowed move. */
   onEdge: boolean;
 }
@@ -22,17 +26,21 @@ const spaced = (a: number, b: number, n: number) =>
 
 /**
  * Circle-centre grid search: every centre of the grid with every radius (given radii, or the
- * radii that make the circle tangent to each given elevation). When the lowest FS lies on
+ * radii that make the circle tangent to each given elevation), and the circles tangent to
+ * each segment of each stratum boundary (and touching each boundary), so that a thin layer
+ * whose bottom governs is never stepped over. When the lowest FS lies on
  * the edge of the grid, the grid is moved so that this centre is in its middle, and searched
  * again, until the minimum is inside or `moves` is used up — what an engineer does by hand.
  *
- * @example gridSearch(settings.grid, evaluate, trials).fs
+ * @example gridSearch(settings.grid, boundaries(prepared), evaluate, trials).fs
  */
 export function gridSearch(
   settings: GridSettings,
+  bounds: readonly Boundary[],
   evaluate: CircleEvaluator,
   trials: Trials,
 ): GridOutcome {
+  const tangents: number[] = [];
   let grid = { ...settings.centers };
   const moves: GridMove[] = [];
   const radiiAt = (yc: number): number[] => {
@@ -44,6 +52,8 @@ export function gridSearch(
     const xs = spaced(grid.x[0], grid.x[1], grid.nx);
     const ys = spaced(grid.y[0], grid.y[1], grid.ny);
     const fs = ys.map(() => xs.map(() => NaN));
+    const radius = ys.map(() => xs.map(() => NaN));
+    const touching = ys.map(() => xs.map(() => -1));
     let bi = -1;
     let bj = -1;
     let best = Infinity;
@@ -52,7 +62,20 @@ export function gridSearch(
         let low = Infinity;
         for (const r of radiiAt(ys[j])) {
           const f = trials.try(evaluate, xs[i], ys[j], r);
-          if (f < low) low = f;
+          if (f < low) {
+            low = f;
+            radius[j][i] = r;
+          }
+        }
+        for (let b = 0; b < bounds.length; b++) {
+          for (const r of tangentRadii(bounds[b], xs[i], ys[j], tangents)) {
+            const f = trials.try(evaluate, xs[i], ys[j], r, b);
+            if (f < low) {
+              low = f;
+              radius[j][i] = r;
+              touching[j][i] = b;
+            }
+          }
         }
         if (low < Infinity) {
           fs[j][i] = low;
@@ -68,7 +91,7 @@ export function gridSearch(
     const edgeY = grid.ny > 2 && (bj === 0 || bj === grid.ny - 1);
     const onEdge = bi >= 0 && (edgeX || edgeY);
     if (!onEdge || moves.length >= settings.moves) {
-      return { grid, moves, xs, ys, fs, onEdge };
+      return { grid, moves, xs, ys, fs, radius, boundary: touching, onEdge };
     }
     const w = grid.x[1] - grid.x[0];
     const h = grid.y[1] - grid.y[0];
@@ -86,4 +109,37 @@ export function gridSearch(
       grid,
     });
   }
+}
+
+/**
+ * The grid's local minima (centres no higher than any admissible neighbour), lowest first, at
+ * most `count` of them, each with its radius: the starts of separate polishes, so that a
+ * second valley of the FS map is not left unexplored.
+ */
+export function gridMinima(grid: GridOutcome, count: number): CircleTrial[] {
+  const { xs, ys, fs } = grid;
+  const out: CircleTrial[] = [];
+  for (let j = 0; j < ys.length; j++) {
+    for (let i = 0; i < xs.length; i++) {
+      const f = fs[j][i];
+      if (!(f > 0)) continue;
+      let lowest = true;
+      for (let dj = -1; dj <= 1 && lowest; dj++) {
+        for (let di = -1; di <= 1; di++) {
+          const v = fs[j + dj]?.[i + di];
+          if ((di !== 0 || dj !== 0) && v !== undefined && v < f) lowest = false;
+        }
+      }
+      if (lowest) {
+        out.push({
+          center: [xs[i], ys[j]],
+          radius: grid.radius[j][i],
+          fs: f,
+          stage: 'grid',
+          boundary: grid.boundary[j][i],
+        });
+      }
+    }
+  }
+  return out.sort((a, b) => a.fs - b.fs).slice(0, count);
 }

@@ -1,17 +1,18 @@
 import { yAt } from '../geometry/y-at';
+import { bishop } from '../methods/bishop';
 import { defaultPivot } from '../methods/pivot';
 import { spencer } from '../methods/spencer';
 import type { Polyline, SearchSurface } from '../model/types';
 import type { PreparedSection } from '../slices/prepare-section';
 import { sliceSurface } from '../slices/slice-surface';
-import { bishopCircle } from './bishop-circle';
-import { fastSection } from './fast-section';
-import { type GridOutcome, gridSearch } from './grid-search';
+import { type Boundary, boundaries } from './boundary-tangents';
+import { bishopCircleEvaluator } from './circle-evaluator';
+import { type GridOutcome, gridMinima, gridSearch } from './grid-search';
 import { groundRangesSearch } from './ground-ranges-search';
 import { noncircularSearch } from './noncircular-search';
-import { refineCircle } from './refine-circle';
+import { type Polish, refineCircle, refineTouching } from './refine-circle';
 import { type SearchSettings, searchSettings } from './search-settings';
-import { type CircleEvaluator, type CircleTrial, Trials } from './trials';
+import { type CircleTrial, type TrialStage, Trials } from './trials';
 
 /** The infinite slope that governs when no material on the slope has cohesion. */
 export interface CohesionlessSlope {
@@ -28,26 +29,18 @@ export interface SearchOutcome {
   circle: CircleTrial | null;
   polyline: { points: Polyline; fs: number } | null;
   trials: number;
+  /** Trial circles by the stage that made them. */
+  candidates: Record<TrialStage, number>;
+  /** The stratum boundaries circles were made tangent to. */
+  boundaries: Boundary[];
+  /** The polishes run from the best candidates, in order. */
+  polishes: Polish[];
+  /** The critical circle evaluated again on its own, with Bishop's method in full (bishop()). */
+  confirmation: { searched: number; exact: number | null } | null;
   grid: GridOutcome | null;
   lowest: CircleTrial[];
   cohesionless: CohesionlessSlope | null;
   onEdge: boolean;
-}
-
-/**
- * A circle evaluator for the search: Bishop's simplified method on the one-pass fast
- * slicing (bishopCircle), each trial warm-started from the previous one's F.
- */
-export function fastBishopEvaluator(prepared: PreparedSection, slices: number): CircleEvaluator {
-  const fast = fastSection(prepared);
-  const ends = { xa: 0.5, xb: 0.5 };
-  let guess = 1;
-  return (xc, yc, r) => {
-    if (!(r > 0)) return NaN;
-    const f = bishopCircle(fast, xc, yc, r, slices, guess, ends);
-    if (f > 0) guess = f;
-    return f;
-  };
 }
 
 /** When every soil stratum is Mohr–Coulomb with c′ = 0: the infinite slope on the steepest ground. */
@@ -92,13 +85,16 @@ export function cohesionlessSlope(prepared: PreparedSection): CohesionlessSlope 
 }
 
 /**
- * Search a section for its critical slip surface (DESIGN §5): a grid of circle centres with
- * radii (moved automatically while its minimum is on the edge) and circles through ground
- * ranges, polished by a simplex search on (xc, yc, R), all evaluated with the fast slicing
- * and Bishop's method; then, when asked, a noncircular polyline started from the best
- * circle and evaluated with Spencer's method on the exact slicing. When no soil has
- * cohesion the circles would drift toward an infinite radius: the infinite slope of the
- * steepest ground is reported instead and the grid is not chased.
+ * Search a section for its critical slip surface (DESIGN §5). Candidates: a grid of circle
+ * centres with radii (moved automatically while its minimum is on the edge), at every centre
+ * also the circles tangent to each stratum boundary, and circles through ground ranges; all
+ * evaluated with Bishop's method on the exact slicing (bishopCircleEvaluator). Polish: the
+ * best circle by a simplex on (xc, yc, R); the best circle touching each boundary by a simplex
+ * on its centre, keeping it touching, and the best of those again on (xc, yc, R). Confirmation:
+ * the critical circle cut afresh and solved by bishop() in full. Then, when asked, a
+ * noncircular polyline started from the best circle and evaluated with Spencer's method. When
+ * no soil has cohesion the circles would drift toward an infinite radius: the infinite slope
+ * of the steepest ground is reported instead and the grid is not chased.
  *
  * @example searchSection(prepareSection(section), { type: 'auto' }).circle
  */
@@ -112,13 +108,18 @@ export function searchSection(prepared: PreparedSection, spec: SearchSurface): S
   const settings = searchSettings(spec, section.units, section.ground, deepest);
   const cohesionless = cohesionlessSlope(prepared);
   if (cohesionless && settings.grid) settings.grid.moves = 0;
-  const evaluate = fastBishopEvaluator(prepared, slices);
+  const evaluate = bishopCircleEvaluator(prepared, slices);
+  const bounds = boundaries(prepared);
   const trials = new Trials(10);
   let grid: GridOutcome | null = null;
-  if (settings.grid) grid = gridSearch(settings.grid, evaluate, trials);
+  trials.stage = 'grid';
+  if (settings.grid) grid = gridSearch(settings.grid, bounds, evaluate, trials);
+  trials.stage = 'ground-ranges';
   if (settings.groundRanges) {
     groundRangesSearch(settings.groundRanges, (x) => yAt(section.ground, x), evaluate, trials);
   }
+  trials.stage = 'polish';
+  const polishes: Polish[] = [];
   let circle = trials.best;
   if (circle) {
     const c = settings.grid?.centers;
@@ -128,7 +129,41 @@ export function searchSection(prepared: PreparedSection, spec: SearchSurface): S
           (c.y[1] - c.y[0]) / Math.max(1, c.ny - 1),
         )
       : circle.radius / 10;
-    circle = refineCircle(circle, step, evaluate, trials);
+    // free polishes from the best circle and from the grid's other valleys
+    const free: CircleTrial[] = [circle];
+    for (const m of grid ? gridMinima(grid, 3) : []) {
+      const apart = free.every(
+        (t) => Math.hypot(t.center[0] - m.center[0], t.center[1] - m.center[1]) > 1.5 * step,
+      );
+      if (apart && free.length < 3) free.push(m);
+    }
+    for (const start of free) polishes.push(refineCircle(start, step, evaluate, trials));
+    // polishes that keep touching each boundary, and the best of them polished freely
+    let touching: CircleTrial | null = null;
+    bounds.forEach((b, k) => {
+      const start = trials.tangent[k];
+      if (!start) return;
+      const p = refineTouching(start, b, k, step, evaluate, trials);
+      polishes.push(p);
+      if (!touching || p.to.fs < touching.fs) touching = p.to;
+    });
+    if (touching) polishes.push(refineCircle(touching, 0.25 * step, evaluate, trials));
+    circle = polishes.reduce((best, p) => (p.to.fs < best.fs ? p.to : best), circle);
+  }
+  let confirmation: SearchOutcome['confirmation'] = null;
+  if (circle) {
+    const cut = sliceSurface(
+      prepared,
+      { type: 'circle', center: circle.center, radius: circle.radius },
+      slices,
+    );
+    const exact = cut.ok
+      ? bishop(cut.slices, {
+          seismic: section.seismic,
+          pivot: [(cut.slices.mirrored ? -1 : 1) * circle.center[0], circle.center[1]],
+        })
+      : null;
+    confirmation = { searched: circle.fs, exact: exact?.converged ? exact.fs : null };
   }
   let polyline: SearchOutcome['polyline'] = null;
   let count = trials.count;
@@ -166,6 +201,10 @@ export function searchSection(prepared: PreparedSection, spec: SearchSurface): S
     circle,
     polyline,
     trials: count,
+    candidates: { ...trials.byStage },
+    boundaries: bounds,
+    polishes,
+    confirmation,
     grid,
     lowest: trials.lowest,
     cohesionless,

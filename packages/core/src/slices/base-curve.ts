@@ -1,3 +1,4 @@
+import { NumberList } from '../geometry/number-list';
 import type { Polyline } from '../model/types';
 
 /**
@@ -48,7 +49,7 @@ function pieceSegmentMeets(
   y1: number,
   lo: number,
   hi: number,
-  out: number[],
+  out: NumberList,
 ): void {
   const m = x1 > x0 ? (y1 - y0) / (x1 - x0) : 0;
   if (!p.arc) {
@@ -71,66 +72,129 @@ function pieceSegmentMeets(
   if (disc < 0) return;
   const s = Math.sqrt(disc);
   const q = b >= 0 ? -(b + s) / 2 : -(b - s) / 2;
-  const roots = q !== 0 ? [q / a, c / q] : [0];
-  for (const x of roots) {
-    if (x >= lo && x <= hi && m * x + k <= 1e-12 * p.r) out.push(x);
-  }
+  const r1 = q !== 0 ? q / a : 0;
+  if (r1 >= lo && r1 <= hi && m * r1 + k <= 1e-12 * p.r) out.push(r1);
+  if (q === 0) return;
+  const r2 = c / q;
+  if (r2 >= lo && r2 <= hi && m * r2 + k <= 1e-12 * p.r) out.push(r2);
 }
 
 /**
- * Every x in [from, to] where the surface meets a polyline (crossings and touches),
- * sorted, not deduplicated.
+ * Every x in [from, to] where the surface meets a polyline (crossings and touches), added to
+ * `out`, not sorted, not deduplicated.
  */
+export function meetsInto(
+  pieces: readonly BasePiece[],
+  line: Polyline,
+  from: number,
+  to: number,
+  out: NumberList,
+): void {
+  for (let i = 0; i + 1 < line.length; i++) {
+    const p0 = line[i];
+    const p1 = line[i + 1];
+    const x0 = p0[0];
+    const x1 = p1[0];
+    if (x1 <= x0 || x1 < from || x0 > to) continue;
+    for (let j = 0; j < pieces.length; j++) {
+      const p = pieces[j];
+      const lo = Math.max(x0, p.x0, from);
+      const hi = Math.min(x1, p.x1, to);
+      if (hi < lo) continue;
+      pieceSegmentMeets(p, x0, p0[1], x1, p1[1], lo, hi, out);
+    }
+  }
+}
+
+/** Every x in [from, to] where the surface meets a polyline (crossings and touches), sorted, not deduplicated. */
 export function curvePolylineMeets(
   pieces: readonly BasePiece[],
   line: Polyline,
   from: number,
   to: number,
 ): number[] {
-  const out: number[] = [];
-  for (let i = 0; i + 1 < line.length; i++) {
-    const [x0, y0] = line[i];
-    const [x1, y1] = line[i + 1];
-    if (x1 <= x0 || x1 < from || x0 > to) continue;
-    for (const p of pieces) {
-      const lo = Math.max(x0, p.x0, from);
-      const hi = Math.min(x1, p.x1, to);
-      if (hi < lo) continue;
-      pieceSegmentMeets(p, x0, y0, x1, y1, lo, hi, out);
-    }
-  }
-  return out.sort((a, b) => a - b);
+  const out = new NumberList();
+  meetsInto(pieces, line, from, to, out);
+  out.sort();
+  return out.toArray();
 }
 
-/** ∫ y dx, ∫ x·y dx and ∫ y² dx of one piece over [a, b] (a, b inside the piece). */
-export function pieceIntegrals(p: BasePiece, a: number, b: number): [number, number, number] {
-  if (!p.arc) {
-    // Simpson's rule is exact for these polynomials of degree ≤ 2
-    const ya = pieceY(p, a);
-    const yb = pieceY(p, b);
-    const xm = (a + b) / 2;
-    const ym = (ya + yb) / 2;
-    const w = (b - a) / 6;
-    return [
-      w * (ya + 4 * ym + yb),
-      w * (a * ya + 4 * xm * ym + b * yb),
-      w * (ya * ya + 4 * ym * ym + yb * yb),
-    ];
-  }
-  // y = yc − s(u), s = √(r² − u²), u = x − xc
-  const { xc, yc, r } = p;
+/**
+ * ∫ y dx, ∫ x·y dx and ∫ y² dx of a straight line from (a, ya) to (b, yb), written into
+ * out[k], out[k + 1], out[k + 2] (Simpson's rule, exact for these polynomials of degree ≤ 2).
+ */
+export function lineIntegrals(
+  a: number,
+  b: number,
+  ya: number,
+  yb: number,
+  out: Float64Array,
+  k: number,
+): void {
+  const xm = 0.5 * (a + b);
+  const ym = 0.5 * (ya + yb);
+  const w = (b - a) / 6;
+  out[k] = (b - a) * ym;
+  out[k + 1] = w * (a * ya + 4 * xm * ym + b * yb);
+  out[k + 2] = w * (ya * ya + 4 * ym * ym + yb * yb);
+}
+
+/**
+ * The point of an arc at x, for arcIntegrals: u = x − xc (clamped to the circle), s = √(r² − u²)
+ * (so y = yc − s on the lower half) and asin(u/r), written into out[k…k + 2].
+ */
+export function arcPoint(xc: number, r: number, x: number, out: Float64Array, k: number): void {
+  const u0 = x - xc;
+  const u = u0 < -r ? -r : u0 > r ? r : u0;
+  const s2 = r * r - u * u;
+  out[k] = u;
+  out[k + 1] = s2 > 0 ? Math.sqrt(s2) : 0;
+  out[k + 2] = Math.asin(u / r);
+}
+
+/**
+ * ∫ y dx, ∫ x·y dx and ∫ y² dx under the lower half of a circle between two of its points
+ * given by arcPoint (at a: ua, sa, asin(ua/r); at b: ub, sb, asin(ub/r)), into out[k…k + 2].
+ */
+export function arcIntegrals(
+  xc: number,
+  yc: number,
+  r: number,
+  ua: number,
+  sa: number,
+  asa: number,
+  ub: number,
+  sb: number,
+  asb: number,
+  out: Float64Array,
+  k: number,
+): void {
   const r2 = r * r;
-  const clamp = (u: number) => (u < -r ? -r : u > r ? r : u);
-  const ua = clamp(a - xc);
-  const ub = clamp(b - xc);
-  const sa = Math.sqrt(Math.max(0, r2 - ua * ua));
-  const sb = Math.sqrt(Math.max(0, r2 - ub * ub));
   const du = ub - ua;
-  const iS = 0.5 * (ub * sb - ua * sa + r2 * (Math.asin(ub / r) - Math.asin(ua / r))); // ∫ s du
+  const iS = 0.5 * (ub * sb - ua * sa + r2 * (asb - asa)); // ∫ s du
   const iUS = -(sb * sb * sb - sa * sa * sa) / 3; // ∫ u s du
   const iU = (ub * ub - ua * ua) / 2; // ∫ u du
-  const iY = yc * du - iS;
-  const iXY = yc * (iU + xc * du) - iUS - xc * iS;
-  const iY2 = yc * yc * du - 2 * yc * iS + (r2 * du - (ub * ub * ub - ua * ua * ua) / 3);
-  return [iY, iXY, iY2];
+  out[k] = yc * du - iS;
+  out[k + 1] = yc * (iU + xc * du) - iUS - xc * iS;
+  out[k + 2] = yc * yc * du - 2 * yc * iS + (r2 * du - (ub * ub * ub - ua * ua * ua) / 3);
+}
+
+/** ∫ y dx, ∫ x·y dx and ∫ y² dx of one piece over [a, b] (a, b inside the piece), into out[k…k + 2]. */
+export function pieceIntegrals(
+  p: BasePiece,
+  a: number,
+  b: number,
+  out: Float64Array = new Float64Array(3),
+  k = 0,
+): Float64Array {
+  if (!p.arc) {
+    lineIntegrals(a, b, pieceY(p, a), pieceY(p, b), out, k);
+    return out;
+  }
+  // y = yc − s(u), s = √(r² − u²), u = x − xc
+  const pts = new Float64Array(6);
+  arcPoint(p.xc, p.r, a, pts, 0);
+  arcPoint(p.xc, p.r, b, pts, 3);
+  arcIntegrals(p.xc, p.yc, p.r, pts[0], pts[1], pts[2], pts[3], pts[4], pts[5], out, k);
+  return out;
 }

@@ -1,3 +1,5 @@
+import { type Lookup, lookup } from '../geometry/lookup';
+import { polylineCrossings } from '../geometry/polyline-crossings';
 import type { Material, Polyline, Section } from '../model/types';
 
 /** A line load resolved into components (kN/m; x right, y up). */
@@ -23,6 +25,37 @@ export interface Geometry {
   lineLoads: PointForce[];
   xMin: number;
   xMax: number;
+  /** The same polylines as constant-time lookups: ground, tops (tops[0] the ground), rigid top, piezometric line. */
+  at: {
+    ground: Lookup;
+    tops: Lookup[];
+    rigid: Lookup | null;
+    piezometric: Lookup | null;
+  };
+  /** Highest elevation of each stratum top: a surface whose lowest point is below it may reach that stratum. */
+  topMax: Float64Array;
+  /**
+   * Slice edges that do not depend on the slip surface, sorted: vertices of the ground, the
+   * strata tops and the piezometric line, crossings of the piezometric line with the tops,
+   * and the edges of loads.
+   */
+  fixedEdges: Float64Array;
+}
+
+/**
+ * Material properties by stratum index (strata above the rigid base), as flat arrays for the
+ * slicer's inner loop: unit weights, and the strength parameters of the two soil models.
+ */
+export interface StratumProperties {
+  gamma: Float64Array;
+  gammaSat: Float64Array;
+  /** c′ (Mohr–Coulomb) or Su at its datum (undrained), kPa. */
+  c: Float64Array;
+  /** tan φ′ (0 for undrained). */
+  tanPhi: Float64Array;
+  /** Rate of increase of Su with depth below its datum (kPa/m) and the datum (NaN when constant). */
+  suRate: Float64Array;
+  suDatum: Float64Array;
 }
 
 /**
@@ -37,12 +70,39 @@ export interface PreparedSection {
   tol: number;
   normal: Geometry;
   mirrored: Geometry;
+  /** By stratum (the same in both orientations). */
+  strata: StratumProperties;
 }
 
 function mirrorLine(line: Polyline): Polyline {
   const out: Polyline = [];
   for (let i = line.length - 1; i >= 0; i--) out.push([-line[i][0], line[i][1]]);
   return out;
+}
+
+function fixedEdges(
+  tops: Polyline[],
+  soil: number,
+  piezometric: Polyline | null,
+  strips: Geometry['strips'],
+  lineLoads: PointForce[],
+): Float64Array {
+  const xs: number[] = [];
+  const vertices = (line: Polyline | null) => {
+    if (line) for (const p of line) xs.push(p[0]);
+  };
+  vertices(tops[0]);
+  for (let i = 1; i <= Math.min(soil, tops.length - 1); i++) vertices(tops[i]);
+  vertices(piezometric);
+  if (piezometric) {
+    const from = tops[0][0][0];
+    const to = tops[0][tops[0].length - 1][0];
+    for (let i = 0; i < Math.min(soil, tops.length); i++)
+      xs.push(...polylineCrossings(piezometric, tops[i], from, to));
+  }
+  for (const s of strips) xs.push(s.from, s.to);
+  for (const l of lineLoads) xs.push(l.x);
+  return Float64Array.from(xs).sort();
 }
 
 function geometryOf(
@@ -79,18 +139,58 @@ function geometryOf(
     }
   }
   const ground = tops[0];
+  const rigidTop = soilStrata < tops.length ? tops[soilStrata] : null;
+  const piezometric = section.water.kind === 'piezometric' ? m(section.water.line) : null;
   return {
     ground,
     tops,
     stratumMaterial,
     soilStrata,
-    rigidTop: soilStrata < tops.length ? tops[soilStrata] : null,
-    piezometric: section.water.kind === 'piezometric' ? m(section.water.line) : null,
+    rigidTop,
+    piezometric,
     strips,
     lineLoads,
     xMin: ground[0][0],
     xMax: ground[ground.length - 1][0],
+    at: {
+      ground: lookup(ground),
+      tops: tops.map(lookup),
+      rigid: rigidTop ? lookup(rigidTop) : null,
+      piezometric: piezometric ? lookup(piezometric) : null,
+    },
+    topMax: Float64Array.from(tops, (t) => Math.max(...t.map((p) => p[1]))),
+    fixedEdges: fixedEdges(tops, soilStrata, piezometric, strips, lineLoads),
   };
+}
+
+function stratumProperties(section: Section, materials: Material[], index: number[]) {
+  const n = section.strata.length;
+  const p: StratumProperties = {
+    gamma: new Float64Array(n),
+    gammaSat: new Float64Array(n),
+    c: new Float64Array(n),
+    tanPhi: new Float64Array(n),
+    suRate: new Float64Array(n),
+    suDatum: new Float64Array(n).fill(NaN),
+  };
+  for (let k = 0; k < n; k++) {
+    const m = materials[index[k]];
+    if (!m) continue;
+    p.gamma[k] = m.unitWeight;
+    p.gammaSat[k] = m.saturatedUnitWeight;
+    const st = m.strength;
+    if (st.model === 'mohr-coulomb') {
+      p.c[k] = st.cohesion;
+      p.tanPhi[k] = Math.tan((st.frictionAngle * Math.PI) / 180);
+    } else if (st.model === 'undrained') {
+      p.c[k] = st.su;
+      if (st.suDatum !== null) {
+        p.suRate[k] = st.suRate;
+        p.suDatum[k] = st.suDatum;
+      }
+    }
+  }
+  return p;
 }
 
 /**
@@ -104,11 +204,13 @@ export function prepareSection(section: Section): PreparedSection {
   const materialIndex = new Map(names.map((n, i) => [n, i]));
   const ground = section.ground;
   const width = ground[ground.length - 1][0] - ground[0][0];
+  const normal = geometryOf(section, materialIndex, false);
   return {
     section,
     materials,
     tol: 1e-9 * Math.max(width, 1),
-    normal: geometryOf(section, materialIndex, false),
+    normal,
     mirrored: geometryOf(section, materialIndex, true),
+    strata: stratumProperties(section, materials, normal.stratumMaterial),
   };
 }

@@ -1,0 +1,128 @@
+/**
+ * The result contract: what analyzeSection returns, in the section's own units, for the CLI,
+ * the API, the web app and the drawings alike. schemas/result.schema.json describes the same
+ * shape as JSON; a test checks every example's result against it.
+ */
+import type { MethodId, Point, SearchSurface, UnitSystem } from './model/types';
+
+/** One slice as reported (section coordinates and units; forces per unit run). */
+export interface SliceReport {
+  /** x of the slice middle, width b, base inclination α (degrees, positive where the base rises to the right). */
+  x: number;
+  width: number;
+  alpha: number;
+  baseLength: number;
+  weight: number;
+  porePressure: number;
+  /** Effective base normal force N′ and mobilised shear S. */
+  normal: number;
+  shear: number;
+  /** Interslice normal E and shear X on the slice's right side; thrust: height of the line of thrust there (null where undefined). */
+  interslice: { E: number; X: number; thrust: number | null };
+  material: string;
+}
+
+export type ReportedSurface =
+  | { type: 'circle'; center: Point; radius: number }
+  | { type: 'polyline'; points: Point[] }
+  | { type: 'plane'; angle: number; depth: number }
+  | { type: 'log-spiral'; pole: Point; r0: number; r1: number; points: Point[] };
+
+export interface Warning {
+  code: string;
+  message: string;
+}
+
+export interface MethodReport {
+  method: MethodId;
+  fs: number | null;
+  converged: boolean;
+  iterations: number;
+  reason?: string;
+  surface: ReportedSurface | null;
+  /** The slip surface actually used, after following a rigid base and cutting at a crack. */
+  base?: Point[];
+  ends?: { upper: Point; lower: Point };
+  crack?: { x: number; depth: number; waterDepth: number; waterForce: number } | null;
+  slices: SliceReport[];
+  warnings: Warning[];
+  /** Janbu: F0 and f0 (fs = f0·F0). */
+  fsUncorrected?: number;
+  correction?: number;
+  /** Spencer and Morgenstern–Price: λ (X = λ f E); Spencer: θ = atan λ (degrees). */
+  lambda?: number;
+  theta?: number;
+  intersliceFunction?: string;
+  /** φ = 0 circle: weight of the mass and its lever arm about the centre. */
+  massWeight?: number;
+  leverArm?: number;
+}
+
+export interface SectionResult {
+  id: string;
+  title: string;
+  station: number | null;
+  units: UnitSystem;
+  case: string | null;
+  requiredFs: number | null;
+  results: MethodReport[];
+  governing: { method: MethodId; fs: number } | null;
+  passes: boolean | null;
+  warnings: Warning[];
+  /** What the search did, when the surface was searched for. */
+  search: SearchReport | null;
+  solverVersion: string;
+  caution: string;
+}
+
+/** A grid of circle centres, in the section's units: x and y ranges and the number of centres along each. */
+export interface GridReport {
+  x: [number, number];
+  y: [number, number];
+  nx: number;
+  ny: number;
+}
+
+/** The search, in the section's units: trials, grid moves, the FS map over the centres, the lowest surfaces. */
+export interface SearchReport {
+  type: SearchSurface['type'];
+  /** The method the circles were searched with (the critical surface of each method is evaluated exactly). */
+  method: MethodId;
+  /** The method the noncircular polylines were searched with, when they were. */
+  noncircularMethod?: MethodId;
+  trials: number;
+  moves: { reason: string; grid: GridReport }[];
+  grid: GridReport | null;
+  /** fs[j][i]: the lowest FS over the radii at the centre (xs[i], ys[j]); null where no circle was admissible. */
+  map: { xs: number[]; ys: number[]; fs: (number | null)[][] } | null;
+  lowest: { surface: ReportedSurface; fs: number }[];
+  /** How the critical circle was found and confirmed, for a checker. */
+  howFound: HowFound | null;
+}
+
+/** Where a trial circle came from: a stage of the search, and the boundary it touched. */
+export interface CircleOrigin {
+  stage: 'grid' | 'ground-ranges' | 'polish';
+  /** The material below the stratum boundary the circle was made to touch, or null. */
+  touching: string | null;
+}
+
+/** The search's account of the critical circle: candidates, polishes, confirmation. */
+export interface HowFound {
+  /** Trial circles by stage: the grid (with the circles tangent to each boundary), the ground ranges, the polishes. */
+  candidates: { grid: number; groundRanges: number; polish: number };
+  /** The stratum boundaries (named by the material below each) that circles were made tangent to. */
+  boundaries: string[];
+  /** Each polish: its start and end FS, the circles it tried, and the boundary it kept touching (null when free). */
+  polishes: {
+    from: number;
+    to: number;
+    start: CircleOrigin;
+    evaluations: number;
+    touching: string | null;
+  }[];
+  /** Where the critical circle came from. */
+  critical: CircleOrigin;
+  /** The critical circle's FS as the search found it, and cut afresh and solved by Bishop's method in full. */
+  confirmation: { method: MethodId; searched: number; exact: number | null };
+}

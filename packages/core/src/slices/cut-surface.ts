@@ -1,0 +1,575 @@
+import { lookupY } from '../geometry/lookup';
+import { NumberList } from '../geometry/number-list';
+import type { CircleSurface, PolylineSurface } from '../model/types';
+import {
+  type BasePiece,
+  arcIntegrals,
+  arcPoint,
+  curveY,
+  lineIntegrals,
+  meetsInto,
+  pieceY,
+} from './base-curve';
+import type { Geometry, PreparedSection } from './prepare-section';
+import { type SliceSet, sliceSet } from './slice-set';
+import { crackDepth, crackX } from './tension-crack';
+
+/** Why a slip surface cannot be sliced. */
+export type RejectCode =
+  | 'misses-ground'
+  | 'leaves-section'
+  | 'reemerges'
+  | 'not-admissible'
+  | 'crack-too-deep'
+  | 'no-soil';
+
+/**
+ * Everything one cut of a slip surface produces, kept from cut to cut so that the search can
+ * slice thousands of surfaces without allocating: the slices (in a buffer that grows), the
+ * orientation, the ends, the surface as pieces, the crack, and scratch space. Not shared
+ * between threads or calls in flight: each caller makes its own (`sliceWorkspace`).
+ */
+export interface SliceWorkspace {
+  prepared: PreparedSection;
+  slices: SliceSet;
+  /** The orientation used: the section's geometry, mirrored when the mass moves toward +x. */
+  g: Geometry;
+  mirrored: boolean;
+  /** Ends of the mass in sliding orientation (xb at the crack when there is one). */
+  xa: number;
+  xb: number;
+  /** The slip surface between the ends, in sliding orientation. */
+  pieces: BasePiece[];
+  /** The crack at the upper end: its depth and the depth of water in it (0 when none). */
+  crackDepth: number;
+  crackWater: number;
+  /** Numbers for the words of a rejection (x values in the section's coordinates, a side). */
+  detail: {
+    a: number;
+    b: number;
+    side: 'left' | 'right';
+    atEdge: boolean;
+    depth: number;
+    /** misses-ground: the surface does not even lie under the ground's x-range. */
+    outside: boolean;
+  };
+  // scratch, reused
+  arc: BasePiece & { arc: true };
+  arcMirrored: BasePiece & { arc: true };
+  one: BasePiece[];
+  oneMirrored: BasePiece[];
+  xs: NumberList;
+  meets: NumberList;
+  edges: NumberList;
+  topL: Float64Array;
+  topR: Float64Array;
+  integrals: Float64Array;
+}
+
+/** A workspace for slicing surfaces of one prepared section. */
+export function sliceWorkspace(prepared: PreparedSection, capacity = 64): SliceWorkspace {
+  const tops = prepared.normal.tops.length + 1;
+  const arc = () => ({ arc: true as const, x0: 0, x1: 0, xc: 0, yc: 0, r: 1 });
+  return {
+    prepared,
+    slices: sliceSet(capacity),
+    g: prepared.normal,
+    mirrored: false,
+    xa: 0,
+    xb: 0,
+    pieces: [],
+    crackDepth: 0,
+    crackWater: 0,
+    detail: { a: 0, b: 0, side: 'left', atEdge: false, depth: 0, outside: false },
+    arc: arc(),
+    arcMirrored: arc(),
+    one: [],
+    oneMirrored: [],
+    xs: new NumberList(),
+    meets: new NumberList(),
+    edges: new NumberList(),
+    topL: new Float64Array(tops),
+    topR: new Float64Array(tops),
+    integrals: new Float64Array(15),
+  };
+}
+
+/** Ends of the sliding mass in the section's coordinates: one run of soil above the surface between two ground meets. */
+function findEnds(
+  ws: SliceWorkspace,
+  pieces: readonly BasePiece[],
+  tol: number,
+): RejectCode | null {
+  const g = ws.prepared.normal;
+  const ground = g.at.ground;
+  const lo = Math.max(pieces[0].x0, g.xMin);
+  const hi = Math.min(pieces[pieces.length - 1].x1, g.xMax);
+  const d = ws.detail;
+  d.outside = hi - lo <= tol;
+  if (d.outside) return 'misses-ground';
+  const depth = (x: number) => lookupY(ground, x) - curveY(pieces, x);
+  const meets = ws.meets;
+  meets.clear();
+  meetsInto(pieces, g.ground, lo, hi, meets);
+  if (Math.abs(depth(lo)) <= 10 * tol) meets.push(lo);
+  if (Math.abs(depth(hi)) <= 10 * tol) meets.push(hi);
+  const pts = ws.xs;
+  pts.clear();
+  pts.push(lo);
+  pts.push(hi);
+  for (let i = 0; i < meets.length; i++) pts.push(meets.values[i]);
+  pts.sortUnique(tol);
+  const v = pts.values;
+  let runs = 0;
+  let xa = NaN;
+  let xb = NaN;
+  for (let i = 0; i + 1 < pts.length; i++) {
+    const a = v[i];
+    const b = v[i + 1];
+    if (depth((a + b) / 2) <= tol) continue;
+    if (runs > 0 && xb === a) {
+      xb = b;
+      continue;
+    }
+    if (++runs > 1) {
+      d.a = xb;
+      d.b = a;
+      return 'reemerges';
+    }
+    xa = a;
+    xb = b;
+  }
+  if (runs === 0) return 'misses-ground';
+  const isMeet = (x: number) => {
+    for (let i = 0; i < meets.length; i++) if (Math.abs(meets.values[i] - x) <= tol) return true;
+    return false;
+  };
+  const bad = !isMeet(xa) ? xa : !isMeet(xb) ? xb : NaN;
+  if (!Number.isNaN(bad)) {
+    d.side = bad === xa ? 'left' : 'right';
+    d.atEdge = bad === g.xMin || bad === g.xMax;
+    return 'leaves-section';
+  }
+  ws.xa = xa;
+  ws.xb = xb;
+  return null;
+}
+
+/** A piece restricted to [a, b]. */
+function restrict(p: BasePiece, a: number, b: number): BasePiece {
+  return p.arc
+    ? { ...p, x0: a, x1: b }
+    : { arc: false, x0: a, x1: b, y0: pieceY(p, a), y1: pieceY(p, b) };
+}
+
+/** Lowest elevation of the pieces. */
+function lowest(pieces: readonly BasePiece[]): number {
+  let y = Infinity;
+  for (const p of pieces) {
+    if (p.arc) {
+      const x = p.xc < p.x0 ? p.x0 : p.xc > p.x1 ? p.x1 : p.xc;
+      y = Math.min(y, pieceY(p, x));
+    } else y = Math.min(y, p.y0, p.y1);
+  }
+  return y;
+}
+
+/** Restrict the pieces to [xa, xb], following the rigid top wherever the surface dips below it. */
+function clipPieces(
+  ws: SliceWorkspace,
+  pieces: readonly BasePiece[],
+  xa: number,
+  xb: number,
+  followRigid: boolean,
+  tol: number,
+): BasePiece[] {
+  // the common case, a circle above any rigid base: one arc, no allocation
+  if (pieces.length === 1 && pieces[0].arc) {
+    const p = pieces[0];
+    p.x0 = Math.max(p.x0, xa);
+    p.x1 = Math.min(p.x1, xb);
+    const g = ws.g;
+    const rigid = g.rigidTop;
+    if (!followRigid || !rigid || lowest(pieces) >= g.topMax[g.soilStrata]) {
+      ws.one[0] = p;
+      return ws.one;
+    }
+  }
+  const within: BasePiece[] = [];
+  for (const p of pieces) {
+    const a = Math.max(p.x0, xa);
+    const b = Math.min(p.x1, xb);
+    if (b - a > tol) within.push(restrict(p, a, b));
+  }
+  const rigid = ws.g.rigidTop;
+  if (!followRigid || !rigid) return within;
+  const rigidAt = ws.g.at.rigid!;
+  const cuts = new NumberList();
+  meetsInto(within, rigid, xa, xb, cuts);
+  cuts.push(xa);
+  cuts.push(xb);
+  cuts.sortUnique(tol);
+  const out: BasePiece[] = [];
+  for (let i = 0; i + 1 < cuts.length; i++) {
+    const a = cuts.values[i];
+    const b = cuts.values[i + 1];
+    const m = (a + b) / 2;
+    if (curveY(within, m) >= lookupY(rigidAt, m) - tol) {
+      for (const p of within) {
+        const pa = Math.max(p.x0, a);
+        const pb = Math.min(p.x1, b);
+        if (pb - pa > tol) out.push(restrict(p, pa, pb));
+      }
+    } else {
+      const xs = new NumberList();
+      xs.push(a);
+      xs.push(b);
+      for (const q of rigid) if (q[0] > a && q[0] < b) xs.push(q[0]);
+      xs.sortUnique(tol);
+      for (let k = 0; k + 1 < xs.length; k++) {
+        const u = xs.values[k];
+        const w = xs.values[k + 1];
+        out.push({ arc: false, x0: u, x1: w, y0: lookupY(rigidAt, u), y1: lookupY(rigidAt, w) });
+      }
+    }
+  }
+  return out;
+}
+
+/** The pieces of a polyline surface, in the orientation asked for. */
+export function polylinePieces(surface: PolylineSurface, mirror: boolean): BasePiece[] {
+  const pts = mirror ? [...surface.points].reverse().map((p) => [-p[0], p[1]]) : surface.points;
+  const pieces: BasePiece[] = [];
+  for (let i = 0; i + 1 < pts.length; i++) {
+    pieces.push({ arc: false, x0: pts[i][0], x1: pts[i + 1][0], y0: pts[i][1], y1: pts[i + 1][1] });
+  }
+  return pieces;
+}
+
+/**
+ * Slice edges between xa and xb: `count` slices of equal width, each cut again at every
+ * break inside it — the surface's joints, the fixed edges of the geometry (vertices,
+ * piezometric crossings, load edges), where the surface crosses a stratum top or the
+ * piezometric line. As a surface moves, a break crosses an equal edge through a slice of
+ * zero width, so the factor of safety changes continuously with the surface.
+ */
+function sliceEdges(ws: SliceWorkspace, count: number, tol: number): void {
+  const g = ws.g;
+  const { xa, xb, pieces } = ws;
+  const e = ws.edges;
+  e.clear();
+  e.push(xa);
+  e.push(xb);
+  const fixed = g.fixedEdges;
+  let lo = 0;
+  let hi = fixed.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (fixed[mid] < xa) lo = mid + 1;
+    else hi = mid;
+  }
+  for (let i = lo; i < fixed.length && fixed[i] <= xb; i++) e.push(fixed[i]);
+  for (let i = 1; i < pieces.length; i++)
+    if (pieces[i].x0 > xa && pieces[i].x0 < xb) e.push(pieces[i].x0);
+  const bottom = lowest(pieces);
+  const soilTops = Math.min(g.soilStrata, g.tops.length);
+  for (let i = 1; i < soilTops; i++) {
+    if (g.topMax[i] >= bottom) meetsInto(pieces, g.tops[i], xa, xb, e);
+  }
+  if (g.piezometric) meetsInto(pieces, g.piezometric, xa, xb, e);
+  const target = Math.max(1, Math.floor(count));
+  for (let k = 1; k < target; k++) e.push(xa + ((xb - xa) * k) / target);
+  e.sortUnique(Math.max(tol, 1e-9 * (xb - xa)));
+  // the last edge is xb (a point just below it was kept in its place)
+  e.values[e.length - 1] = xb;
+}
+
+/**
+ * Cut the mass above the surface into slices, given the ends and pieces in `ws`: every
+ * per-slice quantity — weight by stratum, base strength, pore pressure, surface loads, crack
+ * water — is computed here and only here. Returns false when there is no soil above it.
+ */
+function fillSlices(ws: SliceWorkspace): boolean {
+  const { prepared, g, pieces } = ws;
+  const edges = ws.edges.values;
+  const n = ws.edges.length - 1;
+  const tol = prepared.tol;
+  const { gamma, gammaSat, c: cohesion, tanPhi, suRate, suDatum } = prepared.strata;
+  const stratumMaterial = g.stratumMaterial;
+  const water = prepared.section.water;
+  const gw = water.unitWeight;
+  const ru = water.kind === 'ru' ? water.ru : 0;
+  if (ws.slices.xl.length < n) ws.slices = sliceSet(Math.max(n, 2 * ws.slices.xl.length));
+  const S = ws.slices;
+  S.n = n;
+  S.mirrored = ws.mirrored;
+  const { xl, xr, yTopL, yTopR, yBaseL, yBaseR, area, weight, cx, cy, porePressure } = S;
+  const outC = S.cohesion;
+  const outT = S.tanPhi;
+  const outM = S.material;
+  const outQx = S.qx;
+  const outQy = S.qy;
+  const outQm = S.qm;
+  for (let i = 0; i < n; i++) {
+    xl[i] = edges[i];
+    xr[i] = edges[i + 1];
+  }
+  const at = g.at;
+  const soil = g.soilStrata;
+  // strata tops that can reach the surface (tops are ordered: none below them can)
+  const bottom = lowest(pieces);
+  let nt = 1;
+  while (nt < g.tops.length && g.topMax[nt] >= bottom) nt++;
+  const pz = at.piezometric;
+  const tops = at.tops;
+  const strips = g.strips;
+  const lineLoads = g.lineLoads;
+  // I[0..2]: the boundary above, I[3..5]: the one below, I[6..8]: the piezometric line,
+  // I[9..14]: the arc at the slice's left and right edges (arcPoint)
+  const I = ws.integrals;
+  let topL = ws.topL;
+  let topR = ws.topR;
+  for (let k = 0; k < nt; k++) topL[k] = lookupY(tops[k], xl[0]);
+  let pL = pz ? lookupY(pz, xl[0]) : 0;
+  let piece = 0;
+  let arcAt = -1; // the piece whose arc point is cached at the left edge
+  let total = 0;
+  for (let i = 0; i < n; i++) {
+    const x0 = xl[i];
+    const x1 = xr[i];
+    const xm = 0.5 * (x0 + x1);
+    const b = x1 - x0;
+    while (piece + 1 < pieces.length && pieces[piece + 1].x0 <= xm) piece++;
+    const p = pieces[piece];
+    let yb0: number;
+    let yb1: number;
+    let ybm: number;
+    if (p.arc) {
+      if (arcAt !== piece) arcPoint(p.xc, p.r, x0, I, 9);
+      arcPoint(p.xc, p.r, x1, I, 12);
+      arcAt = piece;
+      yb0 = p.yc - I[10];
+      yb1 = p.yc - I[13];
+      ybm = pieceY(p, xm);
+    } else {
+      yb0 = pieceY(p, x0);
+      yb1 = pieceY(p, x1);
+      ybm = 0.5 * (yb0 + yb1);
+    }
+    for (let k = 0; k < nt; k++) topR[k] = lookupY(tops[k], x1);
+    const pR = pz ? lookupY(pz, x1) : 0;
+    const g0 = topL[0];
+    const g1 = topR[0];
+    yTopL[i] = g0;
+    yTopR[i] = g1;
+    yBaseL[i] = yb0;
+    yBaseR[i] = yb1;
+    const pm = 0.5 * (pL + pR);
+
+    // weight, stratum by stratum, between linear boundaries and the base
+    let A = 0;
+    let W = 0;
+    let WX = 0;
+    let WY = 0;
+    let base = 0;
+    lineIntegrals(x0, x1, g0, g1, I, 0);
+    for (let k = 0; k < soil; k++) {
+      const tm = 0.5 * (topL[k] + topR[k]);
+      if (tm <= ybm + tol) break;
+      const b0 = k + 1 < nt ? topL[k + 1] : -Infinity;
+      const b1 = k + 1 < nt ? topR[k + 1] : -Infinity;
+      const bm = 0.5 * (b0 + b1);
+      const full = bm > ybm + tol;
+      if (full) lineIntegrals(x0, x1, b0, b1, I, 3);
+      else if (p.arc) arcIntegrals(p.xc, p.yc, p.r, I[9], I[10], I[11], I[12], I[13], I[14], I, 3);
+      else lineIntegrals(x0, x1, yb0, yb1, I, 3);
+      const lowerMid = full ? bm : ybm;
+      base = k;
+      const gk = gamma[k];
+      const gs = gammaSat[k];
+      if (pz && gs !== gk && pm > lowerMid && pm < tm) {
+        // the part below the piezometric line is saturated
+        lineIntegrals(x0, x1, pL, pR, I, 6);
+        const a1 = I[0] - I[6];
+        const a2 = I[6] - I[3];
+        A += a1 + a2;
+        W += gk * a1 + gs * a2;
+        WX += gk * (I[1] - I[7]) + gs * (I[7] - I[4]);
+        WY += 0.5 * (gk * (I[2] - I[8]) + gs * (I[8] - I[5]));
+      } else {
+        const gu = pz && pm >= tm ? gs : gk;
+        const a = I[0] - I[3];
+        A += a;
+        W += gu * a;
+        WX += gu * (I[1] - I[4]);
+        WY += gu * 0.5 * (I[2] - I[5]);
+      }
+      if (!full) break;
+      I[0] = I[3];
+      I[1] = I[4];
+      I[2] = I[5];
+    }
+    area[i] = A;
+    weight[i] = W;
+    cx[i] = W > 0 ? WX / W : xm;
+    cy[i] = W > 0 ? WY / W : 0.5 * (ybm + 0.5 * (g0 + g1));
+    total += W;
+
+    // pore pressure and strength at the middle of the base
+    porePressure[i] = pz ? (pm > ybm ? gw * (pm - ybm) : 0) : ru > 0 ? (ru * W) / b : 0;
+    outM[i] = stratumMaterial[base];
+    const datum = suDatum[base];
+    outC[i] = cohesion[base] + (datum > ybm ? suRate[base] * (datum - ybm) : 0);
+    outT[i] = tanPhi[base];
+
+    // forces on the top: ponded water, strip surcharges, line loads
+    let qx = 0;
+    let qy = 0;
+    let qm = 0;
+    if (pz) {
+      const hm = pm - 0.5 * (g0 + g1);
+      if (hm > 0) {
+        const h0 = pL > g0 ? pL - g0 : 0;
+        const h1 = pR > g1 ? pR - g1 : 0;
+        const slope = (g1 - g0) / b;
+        const gm = 0.5 * (g0 + g1);
+        const h6 = b / 6;
+        // per unit x: fy = −γw h, fx = γw h g′; moment x·fy − g·fx (Simpson, exact: degree 2)
+        const fy = -gw * h6 * (h0 + 4 * hm + h1);
+        qy += fy;
+        qx += -slope * fy;
+        qm +=
+          -gw * h6 * ((x0 + g0 * slope) * h0 + 4 * (xm + gm * slope) * hm + (x1 + g1 * slope) * h1);
+      }
+    }
+    for (let k = 0; k < strips.length; k++) {
+      const st = strips[k];
+      const a = st.from > x0 ? st.from : x0;
+      const c = st.to < x1 ? st.to : x1;
+      if (c > a) {
+        const f = -st.pressure * (c - a);
+        qy += f;
+        qm += 0.5 * (a + c) * f;
+      }
+    }
+    for (let k = 0; k < lineLoads.length; k++) {
+      const l = lineLoads[k];
+      if ((l.x >= x0 && l.x < x1) || (i === n - 1 && l.x === x1)) {
+        const yq = lookupY(at.ground, l.x);
+        qx += l.fx;
+        qy += l.fy;
+        qm += l.x * l.fy - yq * l.fx;
+      }
+    }
+    outQx[i] = qx;
+    outQy[i] = qy;
+    outQm[i] = qm;
+    pL = pR;
+    const swap = topL;
+    topL = topR;
+    topR = swap;
+    I[9] = I[12];
+    I[10] = I[13];
+    I[11] = I[14];
+  }
+  if (ws.crackWater > 0) {
+    // pushes the mass toward −x, acting hw/3 above the bottom of the crack
+    const Pw = 0.5 * gw * ws.crackWater * ws.crackWater;
+    outQx[n - 1] -= Pw;
+    outQm[n - 1] += (yBaseR[n - 1] + ws.crackWater / 3) * Pw;
+  }
+  return total > 0;
+}
+
+/**
+ * Slice the surface given as pieces in the section's coordinates (and the same pieces
+ * mirrored): ends, orientation, the rigid base followed, the crack, the slices.
+ */
+function cutPieces(
+  ws: SliceWorkspace,
+  normal: readonly BasePiece[],
+  mirrored: readonly BasePiece[] | (() => BasePiece[]),
+  count: number,
+): RejectCode | null {
+  const prepared = ws.prepared;
+  const tol = prepared.tol;
+  const ends = findEnds(ws, normal, tol);
+  if (ends) return ends;
+  const gN = prepared.normal.at.ground;
+  const flip = lookupY(gN, ws.xa) > lookupY(gN, ws.xb);
+  ws.mirrored = flip;
+  ws.g = flip ? prepared.mirrored : prepared.normal;
+  if (flip) {
+    const xa = ws.xa;
+    ws.xa = -ws.xb;
+    ws.xb = -xa;
+  }
+  const oriented = !flip ? normal : typeof mirrored === 'function' ? mirrored() : mirrored;
+  let pieces = clipPieces(ws, oriented, ws.xa, ws.xb, true, tol);
+  ws.crackDepth = 0;
+  ws.crackWater = 0;
+  const spec = prepared.section.crack;
+  if (spec) {
+    const depth = crackDepth(prepared, ws.g, ws.xb);
+    if (depth > tol) {
+      const xc = crackX(ws.g, pieces, ws.xa, ws.xb, depth, tol, ws.xs);
+      if (!(xc - ws.xa > tol)) {
+        ws.detail.depth = depth;
+        return 'crack-too-deep';
+      }
+      ws.crackDepth = depth;
+      ws.crackWater = Math.min(spec.waterDepth, depth);
+      ws.xb = xc;
+      pieces = clipPieces(ws, pieces, ws.xa, ws.xb, false, tol);
+    }
+  }
+  ws.pieces = pieces;
+  sliceEdges(ws, count, tol);
+  return fillSlices(ws) ? null : 'no-soil';
+}
+
+/**
+ * Slice the mass above a circle (its lower arc) into about `count` slices, into the
+ * workspace: null when done, or why the circle is not admissible. Allocates nothing in the
+ * common case (a circle above any rigid base), so the search can call it millions of times.
+ *
+ * @example cutCircle(sliceWorkspace(prepared), 25, 42, 24, 30) // → null; ws.slices holds them
+ */
+export function cutCircle(
+  ws: SliceWorkspace,
+  xc: number,
+  yc: number,
+  r: number,
+  count: number,
+): RejectCode | null {
+  if (!(r > 0)) return 'not-admissible';
+  const a = ws.arc;
+  a.x0 = xc - r;
+  a.x1 = xc + r;
+  a.xc = xc;
+  a.yc = yc;
+  a.r = r;
+  const m = ws.arcMirrored;
+  m.x0 = -xc - r;
+  m.x1 = -xc + r;
+  m.xc = -xc;
+  m.yc = yc;
+  m.r = r;
+  ws.one[0] = a;
+  ws.oneMirrored[0] = m;
+  return cutPieces(ws, ws.one, ws.oneMirrored, count);
+}
+
+/**
+ * Slice the mass above a circle or a polyline (checked to be one: x increasing) into the
+ * workspace: null when done, or why the surface is not admissible.
+ */
+export function cutSurface(
+  ws: SliceWorkspace,
+  surface: CircleSurface | PolylineSurface,
+  count: number,
+): RejectCode | null {
+  if (surface.type === 'circle')
+    return cutCircle(ws, surface.center[0], surface.center[1], surface.radius, count);
+  return cutPieces(ws, polylinePieces(surface, false), () => polylinePieces(surface, true), count);
+}
