@@ -1,4 +1,4 @@
-import { type Boundary, tangentRadii } from './boundary-tangents';
+import { type Boundary, touchRadius } from './boundary-tangents';
 import type { CenterGrid, GridSettings } from './search-settings';
 import type { CircleEvaluator, CircleTrial, Trials } from './trials';
 
@@ -26,9 +26,9 @@ const spaced = (a: number, b: number, n: number) =>
 
 /**
  * Circle-centre grid search: every centre of the grid with every radius (given radii, or the
- * radii that make the circle tangent to each given elevation), and the circles tangent to
- * each segment of each stratum boundary (and touching each boundary), so that a thin layer
- * whose bottom governs is never stepped over. When the lowest FS lies on
+ * radii that make the circle tangent to each given elevation), and the circle that touches
+ * each stratum boundary (tangent to it from above, however it is inclined), so that a thin
+ * layer whose bottom governs is never stepped over. When the lowest FS lies on
  * the edge of the grid, the grid is moved so that this centre is in its middle, and searched
  * again, until the minimum is inside or `moves` is used up — what an engineer does by hand.
  *
@@ -40,7 +40,6 @@ export function gridSearch(
   evaluate: CircleEvaluator,
   trials: Trials,
 ): GridOutcome {
-  const tangents: number[] = [];
   let grid = { ...settings.centers };
   const moves: GridMove[] = [];
   const radiiAt = (yc: number): number[] => {
@@ -68,13 +67,13 @@ export function gridSearch(
           }
         }
         for (let b = 0; b < bounds.length; b++) {
-          for (const r of tangentRadii(bounds[b], xs[i], ys[j], tangents)) {
-            const f = trials.try(evaluate, xs[i], ys[j], r, b);
-            if (f < low) {
-              low = f;
-              radius[j][i] = r;
-              touching[j][i] = b;
-            }
+          const r = touchRadius(bounds[b], xs[i], ys[j]);
+          if (!(r > 0)) continue;
+          const f = trials.try(evaluate, xs[i], ys[j], r, b);
+          if (f < low) {
+            low = f;
+            radius[j][i] = r;
+            touching[j][i] = b;
           }
         }
         if (low < Infinity) {

@@ -29,7 +29,7 @@ export function refineCircle(
     },
     [start.center[0], start.center[1], start.radius],
     [step, step, step],
-    1e-7,
+    1e-6,
     300,
   );
   const to: CircleTrial =
@@ -63,7 +63,7 @@ export function refineTouching(
     },
     [start.center[0], start.center[1]],
     [step, step],
-    1e-7,
+    1e-6,
     200,
   );
   const rad = touchRadius(b, r.x[0], r.x[1]);

@@ -129,25 +129,28 @@ export function searchSection(prepared: PreparedSection, spec: SearchSurface): S
           (c.y[1] - c.y[0]) / Math.max(1, c.ny - 1),
         )
       : circle.radius / 10;
-    // free polishes from the best circle and from the grid's other valleys
+    // free polishes from the best circle and from the grid's other valleys close to it
     const free: CircleTrial[] = [circle];
     for (const m of grid ? gridMinima(grid, 3) : []) {
       const apart = free.every(
         (t) => Math.hypot(t.center[0] - m.center[0], t.center[1] - m.center[1]) > 1.5 * step,
       );
-      if (apart && free.length < 3) free.push(m);
+      if (apart && free.length < 3 && m.fs < 1.1 * circle.fs) free.push(m);
     }
     for (const start of free) polishes.push(refineCircle(start, step, evaluate, trials));
-    // polishes that keep touching each boundary, and the best of them polished freely
+    const freeBest = polishes.reduce((best, p) => (p.to.fs < best.fs ? p.to : best), circle);
+    // polishes that keep touching each boundary (from the best circle touching it, unless far
+    // above), and the best of them polished freely when it comes near the best free circle
     let touching: CircleTrial | null = null;
     bounds.forEach((b, k) => {
       const start = trials.tangent[k];
-      if (!start) return;
+      if (!start || start.fs > 1.5 * freeBest.fs) return;
       const p = refineTouching(start, b, k, step, evaluate, trials);
       polishes.push(p);
       if (!touching || p.to.fs < touching.fs) touching = p.to;
     });
-    if (touching) polishes.push(refineCircle(touching, 0.25 * step, evaluate, trials));
+    if (touching && (touching as CircleTrial).fs < 1.02 * freeBest.fs)
+      polishes.push(refineCircle(touching, 0.25 * step, evaluate, trials));
     circle = polishes.reduce((best, p) => (p.to.fs < best.fs ? p.to : best), circle);
   }
   let confirmation: SearchOutcome['confirmation'] = null;

@@ -11,11 +11,7 @@ export type BasePiece =
 
 /** Elevation of one piece at x (x inside the piece). */
 export function pieceY(p: BasePiece, x: number): number {
-  if (p.arc) {
-    const u = x - p.xc;
-    const s = p.r * p.r - u * u;
-    return p.yc - (s > 0 ? Math.sqrt(s) : 0);
-  }
+  if (p.arc) return p.yc - arcS(x - p.xc, p.r);
   const dx = p.x1 - p.x0;
   return dx > 0 ? p.y0 + ((p.y1 - p.y0) * (x - p.x0)) / dx : p.y0;
 }
@@ -139,22 +135,20 @@ export function lineIntegrals(
   out[k + 2] = w * (ya * ya + 4 * ym * ym + yb * yb);
 }
 
-/**
- * The point of an arc at x, for arcIntegrals: u = x − xc (clamped to the circle), s = √(r² − u²)
- * (so y = yc − s on the lower half) and asin(u/r), written into out[k…k + 2].
- */
-export function arcPoint(xc: number, r: number, x: number, out: Float64Array, k: number): void {
-  const u0 = x - xc;
-  const u = u0 < -r ? -r : u0 > r ? r : u0;
-  const s2 = r * r - u * u;
-  out[k] = u;
-  out[k + 1] = s2 > 0 ? Math.sqrt(s2) : 0;
-  out[k + 2] = Math.asin(u / r);
+/** u = x − xc clamped to the circle [−r, r]. */
+export function arcU(u: number, r: number): number {
+  return u < -r ? -r : u > r ? r : u;
+}
+
+/** s = √(r² − u²): the depth of the lower arc below the centre at u (0 beyond the circle). */
+export function arcS(u: number, r: number): number {
+  const q = r * r - u * u;
+  return q > 0 ? Math.sqrt(q) : 0;
 }
 
 /**
  * ∫ y dx, ∫ x·y dx and ∫ y² dx under the lower half of a circle between two of its points
- * given by arcPoint (at a: ua, sa, asin(ua/r); at b: ub, sb, asin(ub/r)), into out[k…k + 2].
+ * (at a: ua = arcU(a − xc), sa = arcS(ua), asin(ua/r); the same at b), into out[k…k + 2].
  */
 export function arcIntegrals(
   xc: number,
@@ -192,9 +186,10 @@ export function pieceIntegrals(
     return out;
   }
   // y = yc − s(u), s = √(r² − u²), u = x − xc
-  const pts = new Float64Array(6);
-  arcPoint(p.xc, p.r, a, pts, 0);
-  arcPoint(p.xc, p.r, b, pts, 3);
-  arcIntegrals(p.xc, p.yc, p.r, pts[0], pts[1], pts[2], pts[3], pts[4], pts[5], out, k);
+  const ua = arcU(a - p.xc, p.r);
+  const ub = arcU(b - p.xc, p.r);
+  const sa = arcS(ua, p.r);
+  const sb = arcS(ub, p.r);
+  arcIntegrals(p.xc, p.yc, p.r, ua, sa, Math.asin(ua / p.r), ub, sb, Math.asin(ub / p.r), out, k);
   return out;
 }

@@ -4,7 +4,8 @@ import type { CircleSurface, PolylineSurface } from '../model/types';
 import {
   type BasePiece,
   arcIntegrals,
-  arcPoint,
+  arcS,
+  arcU,
   curveY,
   lineIntegrals,
   meetsInto,
@@ -90,7 +91,7 @@ export function sliceWorkspace(prepared: PreparedSection, capacity = 64): SliceW
     edges: new NumberList(),
     topL: new Float64Array(tops),
     topR: new Float64Array(tops),
-    integrals: new Float64Array(15),
+    integrals: new Float64Array(9),
   };
 }
 
@@ -324,15 +325,21 @@ function fillSlices(ws: SliceWorkspace): boolean {
   const tops = at.tops;
   const strips = g.strips;
   const lineLoads = g.lineLoads;
-  // I[0..2]: the boundary above, I[3..5]: the one below, I[6..8]: the piezometric line,
-  // I[9..14]: the arc at the slice's left and right edges (arcPoint)
+  // I[0..2]: the boundary above, I[3..5]: the one below, I[6..8]: the piezometric line
   const I = ws.integrals;
   let topL = ws.topL;
   let topR = ws.topR;
   for (let k = 0; k < nt; k++) topL[k] = lookupY(tops[k], xl[0]);
   let pL = pz ? lookupY(pz, xl[0]) : 0;
   let piece = 0;
-  let arcAt = -1; // the piece whose arc point is cached at the left edge
+  // an arc at the slice's left and right edges: u = x − xc, s = √(r² − u²), asin(u/r)
+  let arcAt = -1;
+  let uL = 0;
+  let sL = 0;
+  let aL = 0;
+  let uR = 0;
+  let sR = 0;
+  let aR = 0;
   let total = 0;
   for (let i = 0; i < n; i++) {
     const x0 = xl[i];
@@ -345,12 +352,19 @@ function fillSlices(ws: SliceWorkspace): boolean {
     let yb1: number;
     let ybm: number;
     if (p.arc) {
-      if (arcAt !== piece) arcPoint(p.xc, p.r, x0, I, 9);
-      arcPoint(p.xc, p.r, x1, I, 12);
-      arcAt = piece;
-      yb0 = p.yc - I[10];
-      yb1 = p.yc - I[13];
-      ybm = pieceY(p, xm);
+      const r = p.r;
+      if (arcAt !== piece) {
+        uL = arcU(x0 - p.xc, r);
+        sL = arcS(uL, r);
+        aL = Math.asin(uL / r);
+        arcAt = piece;
+      }
+      uR = arcU(x1 - p.xc, r);
+      sR = arcS(uR, r);
+      aR = Math.asin(uR / r);
+      yb0 = p.yc - sL;
+      yb1 = p.yc - sR;
+      ybm = p.yc - arcS(arcU(xm - p.xc, r), r);
     } else {
       yb0 = pieceY(p, x0);
       yb1 = pieceY(p, x1);
@@ -381,7 +395,7 @@ function fillSlices(ws: SliceWorkspace): boolean {
       const bm = 0.5 * (b0 + b1);
       const full = bm > ybm + tol;
       if (full) lineIntegrals(x0, x1, b0, b1, I, 3);
-      else if (p.arc) arcIntegrals(p.xc, p.yc, p.r, I[9], I[10], I[11], I[12], I[13], I[14], I, 3);
+      else if (p.arc) arcIntegrals(p.xc, p.yc, p.r, uL, sL, aL, uR, sR, aR, I, 3);
       else lineIntegrals(x0, x1, yb0, yb1, I, 3);
       const lowerMid = full ? bm : ybm;
       base = k;
@@ -468,9 +482,9 @@ function fillSlices(ws: SliceWorkspace): boolean {
     const swap = topL;
     topL = topR;
     topR = swap;
-    I[9] = I[12];
-    I[10] = I[13];
-    I[11] = I[14];
+    uL = uR;
+    sL = sR;
+    aL = aR;
   }
   if (ws.crackWater > 0) {
     // pushes the mass toward −x, acting hw/3 above the bottom of the crack
