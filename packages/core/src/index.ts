@@ -48,7 +48,7 @@ export {
   type CohesionlessSlope,
 } from './search/search-section';
 export { bishopCircleEvaluator } from './search/circle-evaluator';
-export { boundaries, touchRadius, tangentRadii, type Boundary } from './search/boundary-tangents';
+export { boundaries, touchRadius, type Boundary } from './search/boundaries';
 export {
   searchSettings,
   slopeZone,

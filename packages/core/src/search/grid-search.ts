@@ -1,4 +1,4 @@
-import { type Boundary, touchRadius } from './boundary-tangents';
+import { type Boundary, touchRadius } from './boundaries';
 import type { CenterGrid, GridSettings } from './search-settings';
 import type { CircleEvaluator, CircleTrial, Trials } from './trials';
 

@@ -1,5 +1,5 @@
 import { nelderMead } from '../numeric/nelder-mead';
-import { type Boundary, touchRadius } from './boundary-tangents';
+import { type Boundary, touchRadius } from './boundaries';
 import type { CircleEvaluator, CircleTrial, Trials } from './trials';
 
 /** One polish: where it started, where it ended, and how many circles it tried. */

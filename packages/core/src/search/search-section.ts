@@ -5,7 +5,7 @@ import { spencer } from '../methods/spencer';
 import type { Polyline, SearchSurface } from '../model/types';
 import type { PreparedSection } from '../slices/prepare-section';
 import { sliceSurface } from '../slices/slice-surface';
-import { type Boundary, boundaries } from './boundary-tangents';
+import { type Boundary, boundaries } from './boundaries';
 import { bishopCircleEvaluator } from './circle-evaluator';
 import { type GridOutcome, gridMinima, gridSearch } from './grid-search';
 import { groundRangesSearch } from './ground-ranges-search';

@@ -13,7 +13,7 @@ export interface Boundary {
 }
 
 /**
- * The stratum boundaries a slip circle can be made tangent to: the top of every stratum below
+ * The stratum boundaries a slip circle can be made to touch: the top of every stratum below
  * the first, down to and including the top of a rigid base, where it lies below the ground.
  * Thin weak layers govern through circles that touch such a boundary (common practice: the
  * critical circle runs along the bottom of the weakest layer it can reach).
@@ -75,32 +75,4 @@ export function touchRadius(b: Boundary, xc: number, yc: number): number {
     if (d < best) best = d;
   }
   return best < Infinity ? best : NaN;
-}
-
-/**
- * Radii of the circles centred at (xc, yc) tangent to each segment of the boundary (the foot
- * of the perpendicular inside the segment and below the centre), and the touching radius,
- * written into `out` (emptied first), without near-repeats.
- */
-export function tangentRadii(b: Boundary, xc: number, yc: number, out: number[]): number[] {
-  out.length = 0;
-  const { xs, ys, below } = b;
-  for (let i = 0; i + 1 < xs.length; i++) {
-    if (!below[i]) continue;
-    const dx = xs[i + 1] - xs[i];
-    const dy = ys[i + 1] - ys[i];
-    const t = ((xc - xs[i]) * dx + (yc - ys[i]) * dy) / (dx * dx + dy * dy);
-    if (t < 0 || t > 1) continue;
-    const py = ys[i] + t * dy;
-    if (py >= yc) continue;
-    out.push(Math.hypot(xs[i] + t * dx - xc, py - yc));
-  }
-  const touch = touchRadius(b, xc, yc);
-  if (touch > 0) out.push(touch);
-  out.sort((u, v) => u - v);
-  let m = 0;
-  for (let i = 0; i < out.length; i++)
-    if (m === 0 || out[i] - out[m - 1] > 1e-9 * out[i]) out[m++] = out[i];
-  out.length = m;
-  return out;
 }
