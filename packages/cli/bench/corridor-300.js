@@ -5,7 +5,9 @@
 // stations. Prints the wall time and the peak resident memory of the process (the worker
 // threads included), and the peak memory sampled every 200 ms, to show it stays flat.
 //
-//   npm run build && node packages/cli/bench/corridor-300.js [sections] [out-dir]
+//   npm run bench:corridor                                  builds the core and the CLI first
+//   node packages/cli/bench/corridor-300.js [sections] [out-dir]
+//   BENCH_SMOKE=1 node packages/cli/bench/corridor-300.js   4 sections: checks the bench works
 'use strict';
 
 const fs = require('node:fs');
@@ -13,7 +15,8 @@ const os = require('node:os');
 const path = require('node:path');
 const { runBatch } = require('../dist/batch/run-batch');
 
-const count = Number(process.argv[2] ?? 300);
+const SMOKE = process.env.BENCH_SMOKE === '1';
+const count = process.argv[2] ? Number(process.argv[2]) : SMOKE ? 4 : 300;
 const out = process.argv[3] ?? fs.mkdtempSync(path.join(os.tmpdir(), 'scarpline-300-'));
 const corridor = JSON.parse(
   fs.readFileSync(
@@ -43,9 +46,12 @@ runBatch(
   const s = (Date.now() - t0) / 1000;
   const mb = (b) => `${(b / 1048576).toFixed(0)} MB`;
   const q = (f) => samples[Math.floor(f * (samples.length - 1))] ?? 0;
+  if (SMOKE) console.log('smoke run (BENCH_SMOKE=1): the figures are not a measurement');
   console.log(`${count} sections in ${s.toFixed(1)} s (exit code ${code}), results in ${out}`);
   console.log(`peak resident memory ${mb(process.resourceUsage().maxRSS * 1024)}`);
   console.log(
     `resident memory at 25/50/75/100% of the run: ${[0.25, 0.5, 0.75, 1].map((f) => mb(q(f))).join(' / ')}`,
   );
+  // 2 only says that a section is below its required FS; 1 is an invalid input or no FS
+  if (code !== 0 && code !== 2) process.exitCode = 1;
 });

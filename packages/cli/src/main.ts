@@ -3,13 +3,12 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { Command, Option } from 'commander';
 import type { UnitSystem } from '@scarpline/core';
-import { analyzeFiles } from './analyze-files';
-import { runBatch } from './batch/run-batch';
 import { initFile, STARTERS } from './init-file';
-import { checkOverrides } from './overrides';
-import { plotFile } from './plot-file';
 import { UserError } from './read-input';
-import { validateFiles } from './validate-files';
+
+// Start-up: this module loads only commander and the starter files (text). Each other command
+// loads what it needs when it runs (`import()` compiles to a require at that point), so that
+// `scarpline --version`, `--help` and `init` never load the solver, the YAML parser or ajv.
 
 const { version } = JSON.parse(readFileSync(join(__dirname, '..', 'package.json'), 'utf8')) as {
   version: string;
@@ -60,7 +59,8 @@ Example:
 
 Exit status: 0 when every file is valid, 1 otherwise.`,
   )
-  .action((files: string[]) => {
+  .action(async (files: string[]) => {
+    const { validateFiles } = await import('./validate-files');
     process.exitCode = validateFiles(files, print);
   });
 
@@ -89,7 +89,7 @@ Examples:
 ${EXIT}`,
   )
   .action(
-    (
+    async (
       files: string[],
       opts: {
         json?: boolean;
@@ -101,6 +101,8 @@ ${EXIT}`,
       },
     ) => {
       if (opts.json && opts.csv) throw new UserError('give --json or --csv, not both');
+      const { checkOverrides } = await import('./overrides');
+      const { analyzeFiles } = await import('./analyze-files');
       process.exitCode = analyzeFiles(
         files,
         { json: opts.json, csv: opts.csv, units: opts.units, ...checkOverrides(opts) },
@@ -161,6 +163,8 @@ ${EXIT}
       const jobs = opts.jobs === undefined ? undefined : Number(opts.jobs);
       if (jobs !== undefined && (!Number.isInteger(jobs) || jobs < 1))
         throw new UserError(`--jobs: ${opts.jobs} is not a whole number of 1 or more`);
+      const { checkOverrides } = await import('./overrides');
+      const { runBatch } = await import('./batch/run-batch');
       process.exitCode = await runBatch(
         file,
         {
@@ -200,7 +204,7 @@ Examples:
 Exit status: 0 when drawn, 1 when the file is invalid.`,
   )
   .action(
-    (
+    async (
       file: string,
       opts: {
         svg: string;
@@ -214,6 +218,8 @@ Exit status: 0 when drawn, 1 when the file is invalid.`,
       const width = Number(opts.width);
       if (!Number.isFinite(width) || width < 640)
         throw new UserError(`--width: ${opts.width} is not a number of pixels of 640 or more`);
+      const { checkOverrides } = await import('./overrides');
+      const { plotFile } = await import('./plot-file');
       process.exitCode = plotFile(
         file,
         { svg: opts.svg, section: opts.section, ...checkOverrides(opts), width },

@@ -8,6 +8,11 @@ export type { Message } from './input/types';
 export {
   US_TO_SI,
   UNIT_LABELS,
+  QUANTITY_KINDS,
+  FOOT_IN_M,
+  POUND_IN_KG,
+  STANDARD_GRAVITY,
+  POUND_FORCE_IN_N,
   toSi,
   fromSi,
   rawSectionToSi,

@@ -1,8 +1,23 @@
-import { fromSi, rawSectionToSi, toSi, US_TO_SI, type RawSection } from '@scarpline/core';
+import { create, all, unit, type BigNumber } from 'mathjs';
+import {
+  FOOT_IN_M,
+  fromSi,
+  POUND_FORCE_IN_N,
+  POUND_IN_KG,
+  QUANTITY_KINDS,
+  rawSectionToSi,
+  STANDARD_GRAVITY,
+  toSi,
+  US_TO_SI,
+  type QuantityKind,
+  type RawSection,
+} from '@scarpline/core';
 
-// Exact definitions, NIST SP 811 (2008), Appendix B: 1 ft = 0.3048 m, 1 in = 0.0254 m and
-// 1 lbf = 4.4482216152605 N, all exact. Every expected factor below is computed from these
-// numbers here, independently of mathjs, which the product uses.
+// Exact definitions, NIST SP 811 (2008), Appendix B.8: 1 ft = 0.3048 m, 1 in = 0.0254 m,
+// 1 lb = 0.45359237 kg, standard gravity g_n = 9.80665 m/s² (all exact), hence
+// 1 lbf = 1 lb × g_n = 4.4482216152605 N exactly. The factors are checked twice: against the
+// exact decimal value worked out here in 60-digit arithmetic, and against mathjs's own unit
+// definitions (a general-purpose reference library, independent of Scarpline's constants).
 const FT = 0.3048; // m
 const IN = 0.0254; // m
 const LBF = 4.4482216152605; // N
@@ -12,7 +27,52 @@ function expectExact(actual: number, expected: number): void {
   expect(Math.abs(actual - expected)).toBeLessThanOrEqual(4 * Number.EPSILON * Math.abs(expected));
 }
 
+const big = create(all, { number: 'BigNumber', precision: 60 });
+const B = (text: string): BigNumber => big.bignumber(text);
+const ftExact = B('0.3048');
+const lbfExact = B('0.45359237').times(B('9.80665')); // N
+
+/** Each us unit in SI (m, kN, kN/m, kPa, kN/m³, kPa/m), exact to 60 digits. */
+const EXACT: Record<QuantityKind, BigNumber> = {
+  length: ftExact,
+  force: lbfExact.div(1000),
+  forcePerLength: lbfExact.div(ftExact).div(1000),
+  pressure: lbfExact.div(ftExact.pow(2)).div(1000),
+  unitWeight: lbfExact.div(ftExact.pow(3)).div(1000),
+  pressurePerLength: lbfExact.div(ftExact.pow(3)).div(1000),
+};
+
+/** The same factors through mathjs's unit conversions (its ft, lbf, kN, kPa definitions). */
+const MATHJS: Record<QuantityKind, [string, string]> = {
+  length: ['ft', 'm'],
+  force: ['lbf', 'kN'],
+  forcePerLength: ['lbf/ft', 'kN/m'],
+  pressure: ['lbf/ft^2', 'kPa'],
+  unitWeight: ['lbf/ft^3', 'kN/m^3'],
+  pressurePerLength: ['lbf/ft^2/ft', 'kPa/m'],
+};
+
 describe('US_TO_SI (NIST SP 811 exact definitions)', () => {
+  test('the constants are the exact definitions', () => {
+    expect(FOOT_IN_M).toBe(0.3048);
+    expect(POUND_IN_KG).toBe(0.45359237);
+    expect(STANDARD_GRAVITY).toBe(9.80665);
+  });
+  test('1 lbf = 0.45359237 kg × 9.80665 m/s² = 4.4482216152605 N exactly', () => {
+    expect(lbfExact.equals(B('4.4482216152605'))).toBe(true);
+    expect(POUND_FORCE_IN_N).toBe(4.4482216152605);
+  });
+  test.each(QUANTITY_KINDS)('%s: the double nearest the exact value', (kind) => {
+    const exact = EXACT[kind];
+    const error = big.bignumber(US_TO_SI[kind]).minus(exact).abs().div(exact);
+    // a double carries 53 bits: the nearest one is within 2^-53 relative, and a product of a
+    // few exact decimals rounds at each step; allow 4 units in the last place
+    expect(error.toNumber()).toBeLessThanOrEqual(4 * Number.EPSILON);
+  });
+  test.each(QUANTITY_KINDS)("%s: equal to mathjs's conversion", (kind) => {
+    const [us, si] = MATHJS[kind];
+    expectExact(US_TO_SI[kind], unit(1, us).toNumber(si));
+  });
   test('length: 1 ft = 0.3048 m = 12 in', () => {
     expectExact(US_TO_SI.length, FT);
     expectExact(US_TO_SI.length, 12 * IN);

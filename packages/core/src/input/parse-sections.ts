@@ -10,6 +10,7 @@ import { isRecord } from './guards';
 import { locateInDocument, type Location } from './locate-in-document';
 import type { Issue, Message, PathKey } from './types';
 import { validateAgainstSchema } from './validate-against-schema';
+import { readValuesWithUnits } from './values-with-units';
 import { pathText } from './words';
 
 export interface ParsedSections {
@@ -217,7 +218,9 @@ function readDocument(
     return;
   }
 
-  const issues: Issue[] = [];
+  // Values written with their unit (`cohesion: 250 psf`) become numbers in the file's units.
+  const withUnits = readValuesWithUnits(data, 'section', unitsOf(data));
+  const issues: Issue[] = [...withUnits.issues];
   if (data.format === undefined) {
     issues.push({
       severity: 'error',
@@ -234,14 +237,15 @@ function readDocument(
     });
   }
   // The format is reported above in words of its own; validate the rest as a section.
+  const read = withUnits.data;
   issues.push(
-    ...validateAgainstSchema({ ...data, format: SECTION_FORMAT }, 'section', unitsOf(data)),
+    ...validateAgainstSchema({ ...read, format: SECTION_FORMAT }, 'section', unitsOf(read)),
   );
-  issues.push(...checkSection(data));
+  issues.push(...checkSection(read));
   issues.forEach(report);
   const section = issues.some((i) => i.severity === 'error')
     ? null
-    : normaliseSection(rawSectionToSi(data as unknown as RawSection));
+    : normaliseSection(rawSectionToSi(read as unknown as RawSection));
   if (typeof data.id === 'string') {
     produced.push({ id: data.id, location: locate(['id']), path: 'id', section });
   }
@@ -249,13 +253,19 @@ function readDocument(
 
 /** A corridor batch: its own schema and checks, then every expanded section. */
 function readBatch(
-  batch: Record<string, unknown>,
+  document: Record<string, unknown>,
   locate: (path: readonly PathKey[], atKey?: boolean) => Location,
   push: Push,
   produced: Produced[],
 ): void {
-  const units = unitsOf(batch);
-  const batchIssues = [...validateAgainstSchema(batch, 'batch', units), ...checkBatch(batch)];
+  const units = unitsOf(document);
+  // Values written with their unit (`depth: 12 ft`) become numbers in the batch's units.
+  const { data: batch, issues: unitIssues } = readValuesWithUnits(document, 'batch', units);
+  const batchIssues = [
+    ...unitIssues,
+    ...validateAgainstSchema(batch, 'batch', units),
+    ...checkBatch(batch),
+  ];
   const reported = new Set<string>();
   const report = (issue: Issue, path: PathKey[] = issue.path, prefix = ''): void => {
     const location = locate(path, issue.key);

@@ -1,5 +1,7 @@
 import type { ErrorObject } from 'ajv/dist/2020';
 import type { UnitSystem } from '../model/types';
+import { UNIT_LABELS, type QuantityKind } from '../model/units';
+import { isValueWithUnit, quantityWords } from '../model/value-with-unit';
 import type { Issue, PathKey } from './types';
 import { closest, listWords, num, quote, unitSuffix } from './words';
 
@@ -52,6 +54,12 @@ function expectedWords(types: string[], title: unknown): string {
   return listWords(types.map((t) => TYPE_WORDS[t] ?? t)).replace(/ and (?=[^,]*$)/, ' or ');
 }
 
+/** What a quantity setting takes: a number in the file's unit or a value with its unit. */
+function quantityExpected(kind: QuantityKind, units: UnitSystem): string {
+  const { noun, examples } = quantityWords(kind);
+  return `${noun} (a number in ${UNIT_LABELS[units][kind]}, or a value with its unit such as ${examples})`;
+}
+
 /** Hints that make a "missing" message useful. */
 const MISSING_HINTS: Record<string, string> = {
   top: 'every stratum below the first gives its top boundary',
@@ -68,7 +76,8 @@ const NAME_RULE = 'use letters, digits and . _ - + @, starting with a letter or 
 /**
  * One ajv error (draft 2020-12, allErrors, verbose) in plain words, or null for the errors that
  * only repeat another one (`if`, the summary of `propertyNames`). `units` gives the unit names
- * in messages; `root` is the validated data (to tell array indices from names).
+ * in messages; `root` is the validated data (to tell array indices from names); `quantityAt`
+ * says which kind of quantity the schema puts at a path (those take a value with its unit).
  *
  * @example
  * translateSchemaError(maximumError, data, 'si').message // → '95 is above 90°'
@@ -77,6 +86,7 @@ export function translateSchemaError(
   error: ErrorObject,
   root: unknown,
   units: UnitSystem,
+  quantityAt: (path: readonly PathKey[]) => QuantityKind | undefined = () => undefined,
 ): Issue | null {
   const path = pointerToPath(error.instancePath, root);
   const field = path[path.length - 1];
@@ -84,6 +94,8 @@ export function translateSchemaError(
   const params = error.params as Record<string, unknown>;
   const parent = (error.parentSchema ?? {}) as Record<string, unknown>;
   const u = unitSuffix(field, units);
+  // a setting that takes a number or a value with its unit (a boundary says so in its own words)
+  const quantity = parent.title === 'boundary' ? undefined : quantityAt(path);
   const issue = (code: string, message: string, at: PathKey[] = path, key = false): Issue => ({
     severity: 'error',
     path: at,
@@ -120,9 +132,18 @@ export function translateSchemaError(
       if (types.length === 1 && types[0] === 'integer' && typeof value === 'number') {
         return issue('wrong-type', `expected a whole number, got ${num(value)}`);
       }
+      if (quantity) {
+        return issue(
+          'wrong-type',
+          `expected ${quantityExpected(quantity, units)}, got ${describeValue(value)}`,
+        );
+      }
+      // a unit on a plain number: an angle, a ratio, a count, the station, a point
+      const plain =
+        typeof value === 'string' && isValueWithUnit(value) ? ': a plain number here' : '';
       return issue(
         'wrong-type',
-        `expected ${expectedWords(types, parent.title)}, got ${describeValue(value)}`,
+        `expected ${expectedWords(types, parent.title)}, got ${describeValue(value)}${plain}`,
       );
     }
     case 'enum': {
@@ -184,6 +205,19 @@ export function translateSchemaError(
       return issue('too-long', `is longer than ${num(Number(params.limit))} characters`);
     case 'pattern':
       if (error.schemaPath.includes('/propertyNames/')) return null;
+      // text where a number or a value with its unit belongs
+      if (quantity) {
+        return issue(
+          'wrong-type',
+          `expected ${quantityExpected(quantity, units)}, got ${describeValue(value)}`,
+        );
+      }
+      if (parent.title === 'boundary') {
+        return issue(
+          'wrong-type',
+          `expected ${expectedWords([], 'boundary')}, got ${describeValue(value)}`,
+        );
+      }
       return issue('bad-name', `${quote(value)} is not a valid identifier: ${NAME_RULE}`);
     case 'propertyNames': {
       const name = String(params.propertyName);

@@ -1,10 +1,9 @@
 /**
  * Units: Scarpline computes in SI (m, kN, kPa, kN/m³). A file in `us` units (ft, lbf, psf,
- * pcf) is converted on input, and results go back in the file's units. Every factor is derived
- * here, once, from mathjs's unit definitions (1 ft = 0.3048 m and 1 lbf = 4.4482216152605 N
- * exactly, NIST SP 811).
+ * pcf) is converted on input, and results go back in the file's units. This module is the only
+ * place with conversion factors: each is derived below from the exact definitions of NIST
+ * SP 811 (2008), Appendix B, and checked against mathjs in packages/core/test/units.test.ts.
  */
-import { unit } from 'mathjs';
 import type { RawBoundary, RawSection } from './raw-section';
 import type { Point, SurfaceSpec, UnitSystem } from './types';
 
@@ -12,30 +11,47 @@ import type { Point, SurfaceSpec, UnitSystem } from './types';
 export type QuantityKind =
   'length' | 'force' | 'forcePerLength' | 'pressure' | 'unitWeight' | 'pressurePerLength';
 
-const MATHJS_UNITS: Record<QuantityKind, { us: string; si: string }> = {
-  length: { us: 'ft', si: 'm' },
-  force: { us: 'lbf', si: 'kN' },
-  forcePerLength: { us: 'lbf/ft', si: 'kN/m' },
-  pressure: { us: 'lbf/ft^2', si: 'kPa' },
-  unitWeight: { us: 'lbf/ft^3', si: 'kN/m^3' },
-  pressurePerLength: { us: 'lbf/ft^2/ft', si: 'kPa/m' },
-};
+/** Every quantity kind, in a fixed order. */
+export const QUANTITY_KINDS: readonly QuantityKind[] = [
+  'length',
+  'force',
+  'forcePerLength',
+  'pressure',
+  'unitWeight',
+  'pressurePerLength',
+];
 
-function deriveFactors(): Record<QuantityKind, number> {
-  const out = {} as Record<QuantityKind, number>;
-  for (const kind of Object.keys(MATHJS_UNITS) as QuantityKind[]) {
-    const { us, si } = MATHJS_UNITS[kind];
-    out[kind] = unit(1, us).toNumber(si);
-  }
-  return out;
-}
+/** 1 ft in m, exactly (NIST SP 811, B.8: the international foot). */
+export const FOOT_IN_M = 0.3048;
+/** 1 lb (avoirdupois pound) in kg, exactly (NIST SP 811, B.8). */
+export const POUND_IN_KG = 0.45359237;
+/** Standard acceleration of gravity g_n in m/s², exactly (NIST SP 811, B.8; CGPM 1901). */
+export const STANDARD_GRAVITY = 9.80665;
+/**
+ * 1 lbf in N: the weight of one pound under standard gravity, 0.45359237 kg × 9.80665 m/s² =
+ * 4.4482216152605 N exactly (NIST SP 811, B.8); the product of the two doubles is the double
+ * nearest to that decimal (checked in the units test).
+ */
+export const POUND_FORCE_IN_N = POUND_IN_KG * STANDARD_GRAVITY;
+
+const N = POUND_FORCE_IN_N;
+const FT = FOOT_IN_M;
 
 /**
- * SI value of one `us` unit of each kind: multiply a us value by it to get SI.
+ * SI value of one `us` unit of each kind: multiply a us value by it to get SI. psf = lbf/ft²,
+ * pcf = lbf/ft³ and lbf/ft are derived from the foot and the pound-force (in N, then to kN);
+ * a rate of Su with depth (psf/ft) has the dimension of a unit weight.
  *
  * @example US_TO_SI.length // → 0.3048 (m per ft)
  */
-export const US_TO_SI: Readonly<Record<QuantityKind, number>> = Object.freeze(deriveFactors());
+export const US_TO_SI: Readonly<Record<QuantityKind, number>> = Object.freeze({
+  length: FT,
+  force: N / 1000,
+  forcePerLength: N / FT / 1000,
+  pressure: N / FT ** 2 / 1000,
+  unitWeight: N / FT ** 3 / 1000,
+  pressurePerLength: N / FT ** 2 / FT / 1000,
+});
 
 /** Unit symbols for messages and output. */
 export const UNIT_LABELS: Readonly<Record<UnitSystem, Readonly<Record<QuantityKind, string>>>> = {

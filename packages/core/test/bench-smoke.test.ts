@@ -1,0 +1,51 @@
+import { spawnSync } from 'node:child_process';
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { parseSections } from '@scarpline/core';
+
+// The solver's benchmarks are not tests, but they must keep working: `npm run bench` runs here
+// at a tiny size (BENCH_SMOKE=1), to completion, and prints its usual lines. No figure is
+// checked: speed is for the benchmark to report, never for a test to assert.
+const ROOT = join(__dirname, '..', '..', '..');
+const EXAMPLES = join(ROOT, 'examples');
+
+test('solver bench (packages/core/bench/run.js)', () => {
+  if (!existsSync(join(ROOT, 'packages', 'core', 'dist', 'index.js')))
+    throw new Error('packages/core/dist is missing: run npm run build first');
+  const r = spawnSync(process.execPath, [join(ROOT, 'packages', 'core', 'bench', 'run.js')], {
+    cwd: ROOT,
+    encoding: 'utf8',
+    env: { ...process.env, BENCH_SMOKE: '1' },
+  });
+  expect(r.stderr).toBe('');
+  expect(r.status).toBe(0);
+  const out = r.stdout;
+  const number = String.raw`[\d,]+(\.\d+)?`;
+  expect(out).toMatch(/^Scarpline solver benchmarks — node v\d+/);
+  expect(out).toMatch(new RegExp(`^Bishop circles per second, one core .*: +${number}$`, 'm'));
+  expect(out).toMatch(new RegExp(`^Spencer circles per second, one core .*: +${number}$`, 'm'));
+  expect(out).toMatch(
+    new RegExp(`^grid search of ${number} trial surfaces .*: ${number} ms$`, 'm'),
+  );
+  expect(out).toMatch(/^auto search .* on each example/m);
+  // a row for every section of every example: a moved or renamed example shows here
+  const ids = readdirSync(EXAMPLES)
+    .filter((f) => f.endsWith('.yaml'))
+    .flatMap((f) => parseSections(readFileSync(join(EXAMPLES, f), 'utf8'), f).sections)
+    .map((s) => s.id);
+  expect(ids.length).toBeGreaterThan(5);
+  for (const id of ids) {
+    expect(out).toMatch(
+      new RegExp(
+        `^  ${id.replace(/[.+]/g, '\\$&')} +${number} ms +${number} trials +FS \\d+\\.\\d{3}$`,
+        'm',
+      ),
+    );
+  }
+  expect(out).toMatch(
+    new RegExp(
+      `^\\d+-section corridor through the core .*: ${number} ms; one worker: ${number} ms; speed-up ${number}$`,
+      'm',
+    ),
+  );
+}, 180_000);
