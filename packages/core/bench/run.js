@@ -135,7 +135,9 @@ const grid5000 = {
     ...levee.analysis,
     methods: ['bishop', 'spencer', 'morgenstern-price'],
     slices: SLICES,
-    surface: { type: 'grid', centers: { nx: 20, ny: 25 }, tangents: { count: 10 }, moves: 0 },
+    surface: SMOKE
+      ? { type: 'grid', centers: { nx: 4, ny: 4 }, tangents: { count: 3 }, moves: 0 }
+      : { type: 'grid', centers: { nx: 20, ny: 25 }, tangents: { count: 10 }, moves: 0 },
   },
 };
 let trials5000 = 0;
@@ -226,6 +228,10 @@ async function corridorRun(workers) {
   out.push(
     `medians of ${REPEATS} runs unless said otherwise; ${SLICES} slices; section: ${levee.id} (two soils, piezometric line, ponded water)`,
   );
+  if (SMOKE)
+    out.push(
+      'smoke run (BENCH_SMOKE=1): one run of each figure on a tiny size; the figures are not a measurement',
+    );
   out.push('');
   out.push(
     `Bishop circles per second, one core (exact slicing + Bishop, the search's evaluator; ${fmt(slicesPerCircle, 1)} slices a circle): ${fmt(bishopRate)}`,

@@ -22,6 +22,7 @@ test('solver bench (packages/core/bench/run.js)', () => {
   const out = r.stdout;
   const number = String.raw`[\d,]+(\.\d+)?`;
   expect(out).toMatch(/^Scarpline solver benchmarks — node v\d+/);
+  expect(out).toMatch(/^smoke run \(BENCH_SMOKE=1\)/m);
   expect(out).toMatch(new RegExp(`^Bishop circles per second, one core .*: +${number}$`, 'm'));
   expect(out).toMatch(new RegExp(`^Spencer circles per second, one core .*: +${number}$`, 'm'));
   expect(out).toMatch(
@@ -37,7 +38,7 @@ test('solver bench (packages/core/bench/run.js)', () => {
   for (const id of ids) {
     expect(out).toMatch(
       new RegExp(
-        `^  ${id.replace(/[.+]/g, '\\$&')} +${number} ms +${number} trials +FS \\d+\\.\\d{3}$`,
+        `^  ${id.replace(/[.+]/g, '\\$&')} +${number} ms +${number} trials \\(grid ${number}, ground ranges ${number}, polish ${number}\\) +FS \\d+\\.\\d{3}$`,
         'm',
       ),
     );
