@@ -25,6 +25,7 @@ import { type SearchOutcome, searchSection } from './search/search-section';
 import { Trials } from './search/trials';
 import type { CenterGrid } from './search/search-settings';
 import { CAUTION } from './caution';
+import { verdictOf, type Verdict } from './verdict';
 
 export { CAUTION };
 
@@ -93,7 +94,8 @@ export interface SectionResult {
   requiredFs: number | null;
   results: MethodReport[];
   governing: { method: MethodId; fs: number } | null;
-  passes: boolean | null;
+  /** The governing FS against the required FS (verdict.ts); never `input-error` here. */
+  verdict: Verdict;
   warnings: Warning[];
   /** What the search did, when the surface was searched for. */
   search: SearchReport | null;
@@ -423,7 +425,7 @@ function runOnSurface(
  * Analyse one validated, normalised section: each requested method on the given slip
  * surface (a circle or a polyline) or, for the infinite slope, on analysis.infiniteSlope.
  * The result is plain JSON in the section's own units, with the governing (lowest converged)
- * factor of safety, pass/fail against the required FS, the warnings and the caution.
+ * factor of safety, its verdict against the required FS, the warnings and the caution.
  *
  * @example analyzeSection(parseSections(text, 'cut.yaml').sections[0]).governing
  */
@@ -531,7 +533,7 @@ export function analyzeSection(section: Section): SectionResult {
     requiredFs: required,
     results,
     governing,
-    passes: governing === null || required === null ? null : governing.fs >= required,
+    verdict: verdictOf(governing?.fs ?? null, required),
     warnings,
     search: found ? searchReport(found, section.units) : null,
     solverVersion: SOLVER_VERSION,
