@@ -263,3 +263,59 @@ test('an SVG before any result is a 409 problem', async () => {
   expectProblem(res, 409);
   expect(res.body.detail).toMatch(/no result/);
 });
+
+test('sections without a result: no verdict while queued, no-fs with the reason once failed', async () => {
+  const b = await Batch.create({
+    projectId,
+    submittedBy: users.engineer.id,
+    name: 'unfinished',
+    title: null,
+    status: 'running',
+    total: 2,
+    source: 'json',
+    finishedAt: null,
+  });
+  // Rows written by hand, without a job: one still queued, one that ran out of retries.
+  for (const [i, status, failReason] of [
+    [0, 'queued', null],
+    [1, 'failed', 'the job ran out of time or retries'],
+  ] as const) {
+    await SectionRow.create({
+      batchId: b.id,
+      key: `unfinished@${i * 20}`,
+      position: i,
+      station: i * 20,
+      input: { format: 'scarpline/1' },
+      status,
+      failReason,
+    });
+  }
+  const res = await request(app).get(`/api/v1/batches/${b.id}/results.csv`).auth(viewer, bearer);
+  expect(res.status).toBe(200);
+  const [, queued, failed] = parseCsv(res.text);
+  expect(queued).toEqual([
+    '0',
+    '0+000',
+    'unfinished@0',
+    '',
+    '',
+    '',
+    '',
+    '',
+    '',
+    '',
+    CAUTION,
+    'pending',
+    'queued',
+  ]);
+  expect(failed.slice(7, 10)).toEqual(['no-fs', '', 'the job ran out of time or retries']);
+  expect(failed.slice(-1)).toEqual(['failed']);
+  const geo = await request(app)
+    .get(`/api/v1/batches/${b.id}/results.geojson`)
+    .auth(viewer, bearer);
+  const fc = JSON.parse(geo.text);
+  expect(schemaErrors('ResultsGeoJson', fc)).toEqual([]);
+  expect(
+    fc.features.map((f: { properties: { verdict: string | null } }) => f.properties.verdict),
+  ).toEqual([null, 'no-fs']);
+});

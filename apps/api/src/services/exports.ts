@@ -37,13 +37,16 @@ interface Row {
 
 /** A section's row of the results table, from its current result (or why it has none). */
 function recordOf(section: SectionRow, result: ResultRow | null): ExportRecord {
-  const input = section.input as Section;
+  // The stored input is a normalised section; a row written by hand may hold less.
+  const input = section.input as Partial<Section>;
+  const units = input.units ?? 'si';
+  const analysis = input.analysis;
   if (result) {
     return exportRecord({
       id: section.key,
       station: section.station,
-      units: input.units,
-      case: input.analysis.case,
+      units,
+      case: analysis?.case ?? null,
       requiredFs: result.requiredFs,
       governing:
         result.governingMethod !== null && result.governingFs !== null
@@ -59,9 +62,9 @@ function recordOf(section: SectionRow, result: ResultRow | null): ExportRecord {
   return unanalysedRecord({
     id: section.key,
     station: section.station,
-    units: input.units,
-    case: input.analysis.case,
-    requiredFs: input.analysis.requiredFs,
+    units,
+    case: analysis?.case ?? null,
+    requiredFs: analysis?.requiredFs ?? null,
     verdict: failed ? 'no-fs' : null,
     note: failed ? section.failReason : null,
   });
