@@ -15,3 +15,9 @@ export declare const batchSchema: JsonSchemaDocument;
 
 /** The section result schema (schemas/result.schema.json): what analyzeSection returns. */
 export declare const resultSchema: JsonSchemaDocument;
+
+/**
+ * The results table of a corridor (schemas/export-table.schema.json): a row of results.csv, or
+ * the properties of a results.geojson feature; it refers to the result schema.
+ */
+export declare const exportTableSchema: JsonSchemaDocument;

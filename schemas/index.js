@@ -2,5 +2,6 @@
 const sectionSchema = require('./section.schema.json');
 const batchSchema = require('./batch.schema.json');
 const resultSchema = require('./result.schema.json');
+const exportTableSchema = require('./export-table.schema.json');
 
-module.exports = { sectionSchema, batchSchema, resultSchema };
+module.exports = { sectionSchema, batchSchema, resultSchema, exportTableSchema };

@@ -21,6 +21,7 @@ const SCHEMA_FILES = [
   'batch.schema.json',
   'section.schema.json',
   'result.schema.json',
+  'export-table.schema.json',
 ];
 
 /**

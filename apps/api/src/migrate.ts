@@ -4,6 +4,7 @@ import type { QueryInterface, Sequelize } from 'sequelize';
 import * as initial from './migrations/0001-initial';
 import * as second from './migrations/0002-reviews-runs-geometry';
 import * as third from './migrations/0003-section-input-warnings';
+import * as fourth from './migrations/0004-verdicts-feature-properties';
 
 export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
   return new Umzug({
@@ -11,6 +12,7 @@ export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
       { name: '0001-initial', up: initial.up, down: initial.down },
       { name: '0002-reviews-runs-geometry', up: second.up, down: second.down },
       { name: '0003-section-input-warnings', up: third.up, down: third.down },
+      { name: '0004-verdicts-feature-properties', up: fourth.up, down: fourth.down },
     ],
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),

@@ -89,10 +89,9 @@ test('a 3-section corridor posted as JSON is solved by the worker; results reada
       reviewState: 'pending',
       geometry: null,
       result: {
-        status: expect.stringMatching(/^(pass|fail)$/),
+        verdict: expect.stringMatching(/^(meets|below)$/),
         governingMethod: expect.any(String),
         requiredFs: 1.5,
-        passes: item.result.status === 'pass',
         warnings: expect.any(Array),
       },
     });
@@ -167,10 +166,16 @@ test('section files uploaded with multipart become a batch', async () => {
   const done = await waitForBatch(app, engineer, res.body.id);
   expect(done.progress.done + done.progress.failed).toBe(2);
   const failing = await request(app)
-    .get(`/api/v1/batches/${res.body.id}/sections?pass=false`)
+    .get(`/api/v1/batches/${res.body.id}/sections?verdict=below`)
     .auth(engineer, { type: 'bearer' });
   expect(failing.status).toBe(200);
-  for (const item of failing.body.items) expect(item.result.status).toBe('fail');
+  for (const item of failing.body.items) expect(item.result.verdict).toBe('below');
+  // the old words are not codes of the vocabulary
+  const old = await request(app)
+    .get(`/api/v1/batches/${res.body.id}/sections?verdict=fail`)
+    .auth(engineer, { type: 'bearer' });
+  expectProblem(old, 400);
+  expect(old.body.detail).toMatch(/meets, below, no-fs, no-requirement, input-error/);
 });
 
 test('an invalid batch → 422 with located messages, nothing written', async () => {

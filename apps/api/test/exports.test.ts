@@ -28,7 +28,7 @@ function geoCorridor(n: number) {
     scarpline: { ...header, id: 'wcb-geo' },
     features: sections.slice(0, n).map((s: { station: number; ground: number[][] }) => ({
       type: 'Feature',
-      properties: { station: s.station },
+      properties: { station: s.station } as Record<string, unknown>,
       geometry: {
         type: 'LineString',
         coordinates: s.ground.map(([o, z]) => [451200 + o, 102300 + s.station, z]),
@@ -82,7 +82,7 @@ afterAll(async () => {
   await sequelize.close();
 });
 
-test('CSV: one row per station with FS, requirement, pass, status, review state and the caution', async () => {
+test('CSV: the core’s results table, a row per station, then review state and job state', async () => {
   await request(app)
     .post(`/api/v1/sections/${jsonBatch.sections[1].id}/reviews`)
     .auth(reviewer, bearer)
@@ -97,14 +97,18 @@ test('CSV: one row per station with FS, requirement, pass, status, review state 
   const [head, ...body] = parseCsv(res.text);
   expect(head).toEqual([
     'station',
-    'id',
+    'chainage',
+    'section_id',
+    'case',
     'governing_method',
     'fs',
     'required_fs',
-    'passes',
-    'status',
-    'review_state',
+    'verdict',
+    'warnings',
+    'note',
     'caution',
+    'review_state',
+    'job_state',
   ]);
   expect(body).toHaveLength(3);
   const sections = await Promise.all(
@@ -116,20 +120,24 @@ test('CSV: one row per station with FS, requirement, pass, status, review state 
     const s = sections[i].body;
     expect(row).toEqual([
       String(s.station),
+      s.stationLabel,
       s.key,
+      s.input.analysis.case,
       s.result.governing.method,
       s.result.governing.fs.toFixed(3),
       '1.5',
-      s.result.passes ? 'yes' : 'no',
-      'done',
-      i === 1 ? 'returned' : 'pending',
+      s.result.verdict,
+      expect.stringMatching(/^\d+$/),
+      '',
       CAUTION,
+      i === 1 ? 'returned' : 'pending',
+      'done',
     ]);
   });
   expect(body.map((r) => Number(r[0]))).toEqual([1000, 1020, 1040]);
 });
 
-test('GeoJSON from JSON input: features with null geometry and the result properties', async () => {
+test('GeoJSON from JSON input: features with null geometry and the results table’s properties', async () => {
   const res = await request(app)
     .get(`/api/v1/batches/${jsonBatch.id}/results.geojson`)
     .auth(viewer, bearer);
@@ -140,6 +148,7 @@ test('GeoJSON from JSON input: features with null geometry and the result proper
   );
   const fc = JSON.parse(res.text);
   expect(fc.type).toBe('FeatureCollection');
+  expect(fc.name).toBe('wcb-export');
   expect(fc.features).toHaveLength(3);
   const one = await request(app)
     .get(`/api/v1/sections/${jsonBatch.sections[0].id}`)
@@ -149,28 +158,30 @@ test('GeoJSON from JSON input: features with null geometry and the result proper
     id: one.body.key,
     geometry: null,
     properties: {
-      id: one.body.key,
-      sectionId: one.body.id,
       station: 1000,
-      stationLabel: '1+000',
-      status: 'done',
-      fs: one.body.result.governing.fs,
-      method: one.body.result.governing.method,
-      required: 1.5,
-      passes: one.body.result.passes,
-      warningCount: one.body.result.warnings.length,
-      reviewState: 'pending',
+      chainage: '1+000',
+      section_id: one.body.key,
+      case: one.body.input.analysis.case,
+      governing_method: one.body.result.governing.method,
+      fs: Number(one.body.result.governing.fs.toFixed(3)),
+      required_fs: 1.5,
+      verdict: one.body.result.verdict,
+      warnings: expect.any(Number),
+      note: null,
       caution: CAUTION,
+      review_state: 'pending',
+      job_state: 'done',
     },
   });
   expect(schemaErrors('ResultsGeoJson', fc)).toEqual([]);
   expect(
-    fc.features.map((f: { properties: { stationLabel: string } }) => f.properties.stationLabel),
+    fc.features.map((f: { properties: { chainage: string } }) => f.properties.chainage),
   ).toEqual(['1+000', '1+020', '1+040']);
 });
 
 test('GeoJSON from a GeoJSON corridor keeps each section line as its geometry', async () => {
   const geo = geoCorridor(2);
+  geo.features[1].properties.name = 'XS-1020';
   const up = await request(app)
     .post(`/api/v1/projects/${projectId}/uploads`)
     .auth(engineer, bearer)
@@ -188,6 +199,13 @@ test('GeoJSON from a GeoJSON corridor keeps each section line as its geometry', 
     expect(f.properties.fs).toBeGreaterThan(0);
     expect(f.properties.caution).toBe(CAUTION);
   }
+  // The feature's own attributes come back first, as the command line gives them.
+  expect(Object.keys(fc.features[1].properties).slice(0, 3)).toEqual([
+    'station',
+    'name',
+    'chainage',
+  ]);
+  expect(fc.features[1].properties.name).toBe('XS-1020');
   // The sections list and the section view give the web app the same line.
   const list = await request(app)
     .get(`/api/v1/batches/${up.body.id}/sections?sort=station`)
@@ -195,9 +213,10 @@ test('GeoJSON from a GeoJSON corridor keeps each section line as its geometry', 
   expect(list.body.items.map((i: { geometry: unknown }) => i.geometry)).toEqual(
     geo.features.map((f: { geometry: unknown }) => f.geometry),
   );
-  const one = await request(app)
-    .get(`/api/v1/sections/${fc.features[1].properties.sectionId}`)
-    .auth(viewer, bearer);
+  const listed = list.body.items.find(
+    (i: { key: string }) => i.key === fc.features[1].properties.section_id,
+  );
+  const one = await request(app).get(`/api/v1/sections/${listed.id}`).auth(viewer, bearer);
   expect(one.body.geometry).toEqual(geo.features[1].geometry);
   expect(one.body.key).toBe(fc.features[1].id);
 });
@@ -243,4 +262,60 @@ test('an SVG before any result is a 409 problem', async () => {
   const res = await request(app).get(`/api/v1/sections/${s.id}/plot.svg`).auth(viewer, bearer);
   expectProblem(res, 409);
   expect(res.body.detail).toMatch(/no result/);
+});
+
+test('sections without a result: no verdict while queued, no-fs with the reason once failed', async () => {
+  const b = await Batch.create({
+    projectId,
+    submittedBy: users.engineer.id,
+    name: 'unfinished',
+    title: null,
+    status: 'running',
+    total: 2,
+    source: 'json',
+    finishedAt: null,
+  });
+  // Rows written by hand, without a job: one still queued, one that ran out of retries.
+  for (const [i, status, failReason] of [
+    [0, 'queued', null],
+    [1, 'failed', 'the job ran out of time or retries'],
+  ] as const) {
+    await SectionRow.create({
+      batchId: b.id,
+      key: `unfinished@${i * 20}`,
+      position: i,
+      station: i * 20,
+      input: { format: 'scarpline/1' },
+      status,
+      failReason,
+    });
+  }
+  const res = await request(app).get(`/api/v1/batches/${b.id}/results.csv`).auth(viewer, bearer);
+  expect(res.status).toBe(200);
+  const [, queued, failed] = parseCsv(res.text);
+  expect(queued).toEqual([
+    '0',
+    '0+000',
+    'unfinished@0',
+    '',
+    '',
+    '',
+    '',
+    '',
+    '',
+    '',
+    CAUTION,
+    'pending',
+    'queued',
+  ]);
+  expect(failed.slice(7, 10)).toEqual(['no-fs', '', 'the job ran out of time or retries']);
+  expect(failed.slice(-1)).toEqual(['failed']);
+  const geo = await request(app)
+    .get(`/api/v1/batches/${b.id}/results.geojson`)
+    .auth(viewer, bearer);
+  const fc = JSON.parse(geo.text);
+  expect(schemaErrors('ResultsGeoJson', fc)).toEqual([]);
+  expect(
+    fc.features.map((f: { properties: { verdict: string | null } }) => f.properties.verdict),
+  ).toEqual([null, 'no-fs']);
 });

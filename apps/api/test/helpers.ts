@@ -5,6 +5,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import Ajv2020 from 'ajv/dist/2020';
+import { exportTableSchema, resultSchema } from '@scarpline/schemas';
 import request from 'supertest';
 import type { Express } from 'express';
 import { ROLES, type Role } from '../src/models';
@@ -71,7 +72,12 @@ let ajv: Ajv2020 | null = null;
 /** What does not conform to components/schemas/<name> of the OpenAPI document ([] if all does). */
 export function schemaErrors(name: string, value: unknown): string[] {
   ajv ??= new Ajv2020({ strict: false, validateFormats: false, allErrors: true });
-  if (!ajv.getSchema('openapi')) ajv.addSchema(openapi, 'openapi');
+  if (!ajv.getSchema('openapi')) {
+    // The document's relative references (./result.schema.json) resolve beside it, as served.
+    ajv.addSchema(resultSchema);
+    ajv.addSchema(exportTableSchema);
+    ajv.addSchema({ ...openapi, $id: 'https://scarpline.example/schemas/openapi.json' }, 'openapi');
+  }
   const validate = ajv.getSchema(`openapi#/components/schemas/${name}`);
   if (!validate) throw new Error(`the OpenAPI document has no schema ${name}`);
   return validate(value)

@@ -36,15 +36,15 @@ function progressNumbers(text) {
   return { done: n('done'), failed: n('failed'), total: n('total') };
 }
 
-/** Chooses "Fail" in the batch table's filter (a select or a group of toggles). */
+/** Chooses "Below" (the required FS) in the batch table's filter (a select or a group of toggles). */
 async function filterFail(page) {
   const filter = page.getByTestId('pass-filter');
   const tag = await filter.evaluate((e) => e.tagName.toLowerCase());
   if (tag === 'mat-select') {
     await filter.click();
-    await page.getByRole('option', { name: 'Fail', exact: true }).click();
+    await page.getByRole('option', { name: 'Below', exact: true }).click();
   } else {
-    await filter.getByText('Fail', { exact: true }).click();
+    await filter.getByText('Below', { exact: true }).click();
   }
 }
 
@@ -54,7 +54,7 @@ async function failingRows(page, expected) {
   await eventually(
     async () => {
       const texts = await rows.allInnerTexts();
-      return texts.length === expected && texts.every((t) => /fail/i.test(t));
+      return texts.length === expected && texts.every((t) => /\bbelow\b/i.test(t));
     },
     { what: `${expected} rows, each marked as failing` },
   );

@@ -24,8 +24,8 @@ export interface AnalyzeOptions extends Overrides {
  * of safety (no method converged), else 2 when one is below its required FS, else 0.
  */
 export function exitCode(bad: boolean, results: readonly SectionResult[]): number {
-  if (bad || results.some((r) => r.governing === null)) return 1;
-  return results.some((r) => r.passes === false) ? 2 : 0;
+  if (bad || results.some((r) => r.verdict === 'no-fs')) return 1;
+  return results.some((r) => r.verdict === 'below') ? 2 : 0;
 }
 
 /**
@@ -75,6 +75,7 @@ export function analyzeFiles(
   if (options.json) {
     out(JSON.stringify({ caution: CAUTION, sections: results.map((r) => r.result) }, null, 2));
   } else if (options.csv) {
+    // every record ends CRLF: the last one's LF is the line's own
     out(analyzeCsv(results).replace(/\n$/, ''));
   } else {
     for (const { result } of results) {

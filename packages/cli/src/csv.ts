@@ -1,5 +1,4 @@
-import { stringify } from 'csv-stringify/sync';
-import { CAUTION, type SectionResult } from '@scarpline/core';
+import { CAUTION, csvRecord, fsText, type SectionResult } from '@scarpline/core';
 
 /** The columns of `scarpline analyze --csv`: a row per section and method. */
 export const ANALYZE_COLUMNS = [
@@ -13,46 +12,40 @@ export const ANALYZE_COLUMNS = [
   'converged',
   'governing',
   'required_fs',
-  'section_passes',
+  'verdict',
   'reason',
   'caution',
 ] as const;
 
-const cell = (v: number | boolean | string | null | undefined): string =>
-  v === null || v === undefined
-    ? ''
-    : typeof v === 'number'
-      ? String(Number(v.toPrecision(10)))
-      : String(v);
-
 /**
- * CSV of analysed sections: a row per section and method, with the caution on every row (it
- * travels with any row copied out of the file).
+ * CSV of analysed sections: a row per section and method, with the section's verdict (a code
+ * of the core's vocabulary) and the caution on every row (it travels with any row copied out
+ * of the file). FS with the core's three decimals, CSV as the exports write it (RFC 4180).
  *
- * @example analyzeCsv([{ file: 'cut.yaml', result }]) // → 'file,id,station,…\ncut.yaml,wcb-1240-L,…'
+ * @example analyzeCsv([{ file: 'cut.yaml', result }]) // → 'file,id,station,…\r\ncut.yaml,wcb-1240-L,…'
  */
 export function analyzeCsv(rows: readonly { file: string; result: SectionResult }[]): string {
-  const records: string[][] = [];
+  const lines = [csvRecord(ANALYZE_COLUMNS)];
   for (const { file, result: r } of rows) {
     for (const m of r.results) {
-      records.push(
-        [
+      lines.push(
+        csvRecord([
           file,
           r.id,
           r.station,
           r.case,
           r.units,
           m.method,
-          m.fs,
-          m.converged,
-          r.governing?.method === m.method,
+          m.fs === null ? null : fsText(m.fs),
+          String(m.converged),
+          String(r.governing?.method === m.method),
           r.requiredFs,
-          r.passes,
+          r.verdict,
           m.converged ? '' : (m.reason ?? ''),
           CAUTION,
-        ].map(cell),
+        ]),
       );
     }
   }
-  return stringify(records, { header: true, columns: [...ANALYZE_COLUMNS] });
+  return lines.join('');
 }

@@ -3,6 +3,7 @@ import {
   analyzeSection,
   drawSection,
   formatMessage,
+  fsText,
   isGeoJsonCorridor,
   parseGeoJsonCorridor,
   parseSections,
@@ -70,7 +71,7 @@ export function plotFile(
     const path = chosen.length === 1 ? options.svg : svgNameFor(options.svg, s.id);
     writeFileSync(path, `${drawSection(section, result, { width: options.width })}\n`);
     const fs = result.governing
-      ? `governing FS ${result.governing.fs.toFixed(3)} (${result.governing.method})`
+      ? `governing FS ${fsText(result.governing.fs)} (${result.governing.method})`
       : 'no method converged';
     out(`wrote ${path}: ${s.id}, ${fs}`);
   }

@@ -1,4 +1,11 @@
-import { UNIT_LABELS, type MethodReport, type SectionResult } from '@scarpline/core';
+import {
+  distinctWarnings,
+  fsText,
+  UNIT_LABELS,
+  VERDICT_WORDS,
+  type MethodReport,
+  type SectionResult,
+} from '@scarpline/core';
 
 const fmt = (v: number | null, digits = 3) => (v === null ? '—' : v.toFixed(digits));
 
@@ -14,16 +21,9 @@ export function surfaceText(m: MethodReport, length: string): string {
   return `plane at ${s.angle}°, ${fmt(s.depth, 2)} ${length} deep`;
 }
 
-/** The verdict of a section in words: PASS, FAIL, or why there is none. */
-export function verdict(r: SectionResult): string {
-  if (!r.governing) return 'NO RESULT';
-  if (r.passes === null) return 'no required FS';
-  return r.passes ? 'PASS' : 'FAIL';
-}
-
 /**
  * A readable report of one section: a row per method (FS, converged, surface or the reason
- * it gave none), the governing FS against the required FS with PASS or FAIL, and the
+ * it gave none), the governing FS against the required FS with the verdict in words, and the
  * warnings in plain words, each once.
  *
  * @example sectionTable(result) // → ['wcb-1240-L  Wendlecombe bypass, …', '  method  FS …', …]
@@ -34,27 +34,18 @@ export function sectionTable(r: SectionResult): string[] {
   lines.push('  method             FS       converged  surface');
   for (const m of r.results) {
     lines.push(
-      `  ${m.method.padEnd(18)} ${fmt(m.fs).padStart(6)}   ${(m.converged ? 'yes' : 'no').padEnd(9)}  ${m.converged ? surfaceText(m, length) : (m.reason ?? '')}`,
+      `  ${m.method.padEnd(18)} ${(m.fs === null ? '—' : fsText(m.fs)).padStart(6)}   ${(m.converged ? 'yes' : 'no').padEnd(9)}  ${m.converged ? surfaceText(m, length) : (m.reason ?? '')}`,
     );
   }
+  const words = VERDICT_WORDS[r.verdict];
   if (r.governing) {
-    const v = r.passes === null ? '' : r.passes ? '  PASS' : '  FAIL';
+    const against = r.requiredFs !== null ? ` against required ${r.requiredFs}` : '';
     lines.push(
-      `  governing: ${r.governing.method} FS ${fmt(r.governing.fs)}${r.requiredFs !== null ? ` against required ${r.requiredFs}` : ' (no required FS given)'}${v}`,
+      `  governing: ${r.governing.method} FS ${fsText(r.governing.fs)}${against}: ${words}`,
     );
-  } else lines.push('  governing: no method converged: no factor of safety for this section');
-  const seen = new Set<string>();
-  for (const m of r.results) {
-    for (const w of m.warnings) {
-      const key = `${w.code}:${w.message}`;
-      if (seen.has(key) || w.code === 'not-applicable' || w.code === 'no-convergence') continue;
-      seen.add(key);
-      lines.push(`  warning (${m.method}): ${w.message}`);
-    }
-  }
-  for (const w of r.warnings) {
-    if (w.code === 'no-convergence') continue;
-    lines.push(`  warning: ${w.message}`);
+  } else lines.push(`  governing: no method converged: ${words}`);
+  for (const w of distinctWarnings(r)) {
+    lines.push(`  warning${w.method ? ` (${w.method})` : ''}: ${w.message}`);
   }
   return lines;
 }

@@ -43,13 +43,15 @@ describe('scarpline analyze: formats, units, overrides, stdin', () => {
       'converged',
       'governing',
       'required_fs',
-      'section_passes',
+      'verdict',
       'reason',
       'caution',
     ]);
     expect(rows).toHaveLength(4 + 2 + 2); // four methods, then two sections of two
     expect(rows.filter((r) => r.governing === 'true')).toHaveLength(3);
+    expect(new Set(rows.map((r) => r.verdict))).toEqual(new Set(['meets', 'below']));
     for (const r of rows) {
+      expect(r.fs).toMatch(/^\d+\.\d{3}$/);
       expect(Number(r.fs)).toBeGreaterThan(0.5);
       expect(r.caution).toMatch(/qualified geotechnical engineer/);
     }

@@ -45,10 +45,12 @@ describe('scarpline batch', () => {
     expect(r.err).toMatch(
       /small-corridor\.yaml:28:\d+ sections\[2\]\.ground\[2\]: x = 15 does not increase/,
     );
-    expect(r.out).toMatch(/1200 +wcb-test@1200 +bishop +\d\.\d{3} +1\.3 +PASS/);
-    expect(r.out).toMatch(/1240 +wcb-test@1240 .*ERROR/);
-    expect(r.out).toMatch(/1260 +wcb-test@1260 +bishop +\d\.\d{3} +1\.7 +FAIL/);
-    expect(r.out).toContain('4 of 4 sections: 2 pass, 1 below the required FS');
+    expect(r.out).toMatch(/1200 +wcb-test@1200 +bishop +\d\.\d{3} +1\.3 +meets/);
+    expect(r.out).toMatch(/1240 +wcb-test@1240 .*input error/);
+    expect(r.out).toMatch(/1260 +wcb-test@1260 +bishop +\d\.\d{3} +1\.7 +below/);
+    expect(r.out).toContain(
+      '4 of 4 sections: meets the required FS: 2, below the required FS: 1, no factor of safety: 0, no requirement given: 0, input error: 1',
+    );
     expect(r.out).toMatch(/Caution: /);
     // not a terminal: a plain line per section on standard error
     expect(r.err.match(/^\[\d\/4\] /gm)).toHaveLength(4);
@@ -72,29 +74,32 @@ describe('scarpline batch', () => {
     expect(doc.complete).toBe(true);
   });
 
-  test('results.csv: station, governing method, FS, required, pass (and status, note, caution)', () => {
+  test('results.csv: the core’s results table, a row per station with its verdict', () => {
     const rows = parse(readFileSync(join(out, 'results.csv'), 'utf8'), { columns: true }) as Record<
       string,
       string
     >[];
     expect(Object.keys(rows[0])).toEqual([
       'station',
-      'id',
+      'chainage',
+      'section_id',
       'case',
       'governing_method',
       'fs',
       'required_fs',
-      'pass',
-      'status',
+      'verdict',
+      'warnings',
       'note',
       'caution',
     ]);
-    expect(rows.map((x) => [x.station, x.status, x.pass])).toEqual([
-      ['1200', 'pass', 'true'],
-      ['1220', 'pass', 'true'],
-      ['1240', 'error', ''],
-      ['1260', 'fail', 'false'],
+    expect(rows.map((x) => [x.station, x.verdict])).toEqual([
+      ['1200', 'meets'],
+      ['1220', 'meets'],
+      ['1240', 'input-error'],
+      ['1260', 'below'],
     ]);
+    for (const x of rows.filter((x) => x.fs)) expect(x.fs).toMatch(/^\d+\.\d{3}$/);
+    expect(rows[2].note).toMatch(/^sections\[2\]\.ground\[2\]: x = 15 does not increase/);
     expect(Number(rows[3].fs)).toBeLessThan(Number(rows[3].required_fs));
     for (const x of rows) expect(x.caution).toMatch(/licensed practice/);
   });
@@ -106,9 +111,9 @@ describe('scarpline batch', () => {
     expect(doc.features.every((f: { geometry: unknown }) => f.geometry === null)).toBe(true);
     expect(doc.features[0].properties).toMatchObject({
       station: 1200,
-      fs_method: 'bishop',
-      passes: true,
-      status: 'pass',
+      section_id: 'wcb-test@1200',
+      governing_method: 'bishop',
+      verdict: 'meets',
     });
     expect(doc.features[0].properties.caution).toMatch(/qualified/);
   });
@@ -142,11 +147,11 @@ describe('scarpline batch', () => {
       station: 1200,
       name: 'XS-1200',
       section_id: 'wcb-gis@1200',
-      status: 'pass',
+      verdict: 'meets',
     });
-    expect(doc.features[1].properties).toMatchObject({ fs_required: 1.6, status: 'fail' });
+    expect(doc.features[1].properties).toMatchObject({ required_fs: 1.6, verdict: 'below' });
     expect(doc.features[1].properties.analysis).toBeUndefined(); // settings are not attributes
-    expect(doc.features[2].properties.status).toBe('error');
+    expect(doc.features[2].properties.verdict).toBe('input-error');
     expect(readdirSync(dir)).not.toContain('sections');
   });
 

@@ -24,6 +24,7 @@ import { refineCircle } from './search/refine-circle';
 import { type SearchOutcome, searchSection } from './search/search-section';
 import { Trials } from './search/trials';
 import { CAUTION } from './caution';
+import { verdictOf } from './verdict';
 import type {
   CircleOrigin,
   GridReport,
@@ -373,7 +374,7 @@ function runOnSurface(
  * Analyse one validated, normalised section: each requested method on the given slip
  * surface (a circle or a polyline) or, for the infinite slope, on analysis.infiniteSlope.
  * The result is plain JSON in the section's own units, with the governing (lowest converged)
- * factor of safety, pass/fail against the required FS, the warnings and the caution.
+ * factor of safety, its verdict against the required FS, the warnings and the caution.
  *
  * @example analyzeSection(parseSections(text, 'cut.yaml').sections[0]).governing
  */
@@ -481,7 +482,7 @@ export function analyzeSection(section: Section): SectionResult {
     requiredFs: required,
     results,
     governing,
-    passes: governing === null || required === null ? null : governing.fs >= required,
+    verdict: verdictOf(governing?.fs ?? null, required),
     warnings,
     search: found ? searchReport(found, section.units) : null,
     solverVersion: SOLVER_VERSION,

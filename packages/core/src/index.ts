@@ -4,7 +4,9 @@ export * from './model/types';
 // --- input: parsing, validation, units, normalisation ---
 export { parseSections, type ParsedSections } from './input/parse-sections';
 export { formatMessage } from './input/format-message';
-export type { Message } from './input/types';
+export { sectionDocument, readSectionDocument } from './input/section-document';
+export type { Message, BatchHeader, SectionEntry } from './input/types';
+export { SECTION_FORMAT, BATCH_FORMAT, corridorSectionId } from './formats';
 export {
   US_TO_SI,
   UNIT_LABELS,
@@ -106,6 +108,39 @@ export {
   parseGeoJsonCorridor,
   isGeoJsonCorridor,
   type ParsedCorridor,
+  type CorridorEntry,
   type CorridorFeature,
   type HeaderFile,
 } from './input/geojson-corridor';
+
+// --- the one vocabulary of results and the export table
+export {
+  VERDICTS,
+  VERDICT_WORDS,
+  VERDICT_SHORT,
+  JOB_STATES,
+  JOB_STATE_WORDS,
+  FS_DECIMALS,
+  verdictOf,
+  fsText,
+  fsRounded,
+  type Verdict,
+  type JobState,
+} from './verdict';
+export {
+  EXPORT_COLUMNS,
+  exportRecord,
+  unanalysedRecord,
+  distinctWarnings,
+  unsolvedReason,
+  csvRecord,
+  exportCsvHeader,
+  exportCsvRow,
+  exportFeature,
+  exportCollection,
+  type ExportColumn,
+  type ExportRecord,
+  type ExportValue,
+  type ExportableResult,
+  type ExportFeature,
+} from './export/export-table';

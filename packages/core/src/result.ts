@@ -4,6 +4,7 @@
  * shape as JSON; a test checks every example's result against it.
  */
 import type { MethodId, Point, SearchSurface, UnitSystem } from './model/types';
+import type { Verdict } from './verdict';
 
 /** One slice as reported (section coordinates and units; forces per unit run). */
 export interface SliceReport {
@@ -67,7 +68,8 @@ export interface SectionResult {
   requiredFs: number | null;
   results: MethodReport[];
   governing: { method: MethodId; fs: number } | null;
-  passes: boolean | null;
+  /** The governing FS against the required FS (verdict.ts); never `input-error` here. */
+  verdict: Verdict;
   warnings: Warning[];
   /** What the search did, when the surface was searched for. */
   search: SearchReport | null;

@@ -154,7 +154,7 @@ describe('drawSection', () => {
     expect(joined).toContain('ponded water');
     expect(joined).toContain('piezometric line');
     expect(joined).toContain(`FS ${r.governing?.fs.toFixed(3)}`);
-    expect(joined).toMatch(/BELOW the required FS/);
+    expect(joined).toMatch(/: below the required FS/);
     expect(joined).toContain('x (m)');
     expect(joined).toContain('elevation (m)');
     expect(joined.replace(/\s+/g, ' ')).toContain('Results are for review by a qualified');

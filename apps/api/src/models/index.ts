@@ -7,7 +7,7 @@ import {
   type InferAttributes,
   type InferCreationAttributes,
 } from 'sequelize';
-import type { Message } from '@scarpline/core';
+import type { JobState, Message, Verdict } from '@scarpline/core';
 import { sequelize } from '../db';
 
 export const ROLES = ['admin', 'engineer', 'reviewer', 'viewer', 'integration'] as const;
@@ -119,7 +119,8 @@ Batch.init(
   { sequelize, tableName: 'batches' },
 );
 
-export type SectionStatus = 'queued' | 'running' | 'done' | 'failed';
+/** The state of a section's job: the core's job states (verdict.ts). */
+export type SectionStatus = JobState;
 
 export class SectionRow extends Model<
   InferAttributes<SectionRow>,
@@ -143,7 +144,9 @@ export class SectionRow extends Model<
    * The warnings of the input checks that concern this section (located messages as the core
    * gives them: severity, file, line, column, path, code, message); those of its current input.
    */
-  declare inputWarnings: CreationOptional<Message[]>;
+  declare inputWarnings: CreationOptional<Omit<Message, 'sections'>[]>;
+  /** The properties of its GeoJSON corridor feature, as given (JSON: their order kept); null for other inputs. */
+  declare featureProperties: CreationOptional<Record<string, unknown> | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -159,6 +162,7 @@ SectionRow.init(
     failReason: { type: DataTypes.TEXT, allowNull: true },
     geometry: { type: DataTypes.JSONB, allowNull: true },
     inputWarnings: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
+    featureProperties: { type: DataTypes.JSON, allowNull: true },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
   },
@@ -172,8 +176,8 @@ export class ResultRow extends Model<
   declare id: CreationOptional<number>;
   declare sectionId: ForeignKey<number>;
   declare run: number;
-  /** pass / fail against the required FS, `none` when no FS is required, `failed` when unsolved. */
-  declare status: 'pass' | 'fail' | 'none' | 'failed';
+  /** The verdict of the run (the core's codes, verdict.ts): never `input-error` here. */
+  declare verdict: Verdict;
   declare governingMethod: string | null;
   declare governingFs: number | null;
   declare requiredFs: number | null;
@@ -199,7 +203,7 @@ ResultRow.init(
   {
     id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
     run: { type: DataTypes.INTEGER, allowNull: false },
-    status: { type: DataTypes.STRING, allowNull: false },
+    verdict: { type: DataTypes.STRING, allowNull: false },
     governingMethod: { type: DataTypes.STRING, allowNull: true },
     governingFs: { type: DataTypes.DOUBLE, allowNull: true },
     requiredFs: { type: DataTypes.DOUBLE, allowNull: true },

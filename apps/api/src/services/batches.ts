@@ -1,7 +1,7 @@
 /** Batches and their sections: submission (one transaction with its jobs), progress, listing. */
 import { Op, QueryTypes, type WhereOptions } from 'sequelize';
-import type { Section } from '@scarpline/core';
-import { CAUTION } from '@scarpline/core';
+import type { Section, Verdict } from '@scarpline/core';
+import { CAUTION, JOB_STATES, VERDICTS } from '@scarpline/core';
 import { sequelize } from '../db';
 import { badRequest, notFound } from '../errors';
 import { Batch, Project, ResultRow, SectionRow } from '../models';
@@ -9,8 +9,8 @@ import { enqueueSections } from '../queue';
 import { audit } from './audit';
 import { assertProject, type Principal } from './auth';
 import { batchReview, sectionReviewStates } from './reviews';
-import type { Parsed } from './validate';
-import { passes, stationLabel, userRef } from './views';
+import { sectionMessage, type Parsed } from './validate';
+import { stationLabel, userRef } from './views';
 
 export async function submitBatch(p: Principal, projectId: number, parsed: Parsed, source: string) {
   assertProject(p, projectId);
@@ -40,7 +40,8 @@ export async function submitBatch(p: Principal, projectId: number, parsed: Parse
         status: 'queued' as const,
         failReason: null,
         geometry: parsed.geometries?.[s.id] ?? null,
-        inputWarnings: parsed.sectionWarnings[s.id] ?? [],
+        featureProperties: parsed.featureProperties?.[s.id] ?? null,
+        inputWarnings: (parsed.sectionWarnings[s.id] ?? []).map(sectionMessage),
       })),
       { transaction: t, returning: true },
     );
@@ -60,11 +61,7 @@ export async function progress(batchId: number) {
     { bind: [batchId], type: QueryTypes.SELECT },
   );
   const count = (s: string) => Number(rows.find((r) => r.status === s)?.n ?? 0);
-  const below = await sequelize.query<{ n: string }>(
-    `SELECT count(*) AS n FROM results r JOIN sections s ON s.id = r.section_id AND r.run = s.run
-      WHERE s.batch_id = $1 AND r.status = 'fail'`,
-    { bind: [batchId], type: QueryTypes.SELECT },
-  );
+  const below = (await verdictCounts(batchId)).below;
   const done = count('done');
   const failed = count('failed');
   const total = done + failed + count('queued') + count('running');
@@ -74,9 +71,22 @@ export async function progress(batchId: number) {
     failed,
     queued: count('queued'),
     running: count('running'),
-    belowRequiredFs: Number(below[0]?.n ?? 0),
+    belowRequiredFs: below,
     fraction: total ? (done + failed) / total : 1,
   };
+}
+
+/** How many sections of a batch have each verdict, by their current result. */
+export async function verdictCounts(batchId: number): Promise<Record<Verdict, number>> {
+  const rows = await sequelize.query<{ verdict: Verdict; n: string }>(
+    `SELECT r.verdict, count(*) AS n FROM results r
+       JOIN sections s ON s.id = r.section_id AND r.run = s.run
+      WHERE s.batch_id = $1 GROUP BY r.verdict`,
+    { bind: [batchId], type: QueryTypes.SELECT },
+  );
+  const counts = Object.fromEntries(VERDICTS.map((v) => [v, 0])) as Record<Verdict, number>;
+  for (const r of rows) counts[r.verdict] = Number(r.n);
+  return counts;
 }
 
 export async function loadBatch(p: Principal, batchId: number): Promise<Batch> {
@@ -115,7 +125,7 @@ export async function listBatches(p: Principal, projectId: number) {
 
 export interface SectionQuery {
   status?: string;
-  pass?: string;
+  verdict?: string;
   sort?: string;
   order?: string;
   page?: string;
@@ -128,15 +138,17 @@ export async function listSections(batch: Batch, q: SectionQuery) {
   const pageSize = Math.min(500, Math.max(1, Number(q.pageSize ?? 50) || 50));
   const where: WhereOptions = { batchId: batch.id };
   if (q.status) {
-    if (!['queued', 'running', 'done', 'failed'].includes(q.status)) {
-      throw badRequest('status is one of queued, running, done, failed.');
+    if (!(JOB_STATES as readonly string[]).includes(q.status)) {
+      throw badRequest(`status is one of ${JOB_STATES.join(', ')}.`);
     }
     Object.assign(where, { status: q.status });
   }
   const resultWhere: WhereOptions = { run: { [Op.eq]: sequelize.col('SectionRow.run') } };
-  if (q.pass !== undefined) {
-    if (!['true', 'false'].includes(q.pass)) throw badRequest('pass is true or false.');
-    Object.assign(resultWhere, { status: q.pass === 'true' ? 'pass' : 'fail' });
+  if (q.verdict !== undefined) {
+    if (!(VERDICTS as readonly string[]).includes(q.verdict)) {
+      throw badRequest(`verdict is one of ${VERDICTS.join(', ')}.`);
+    }
+    Object.assign(resultWhere, { verdict: q.verdict });
   }
   const dir = q.order === 'desc' ? 'DESC' : 'ASC';
   const sort = q.sort ?? 'station';
@@ -147,7 +159,7 @@ export async function listSections(batch: Batch, q: SectionQuery) {
       : [[sort, `${dir} NULLS LAST`]];
   const { rows, count } = await SectionRow.findAndCountAll({
     where,
-    include: [{ model: ResultRow, where: resultWhere, required: q.pass !== undefined }],
+    include: [{ model: ResultRow, where: resultWhere, required: q.verdict !== undefined }],
     // eslint-disable-next-line @typescript-eslint/no-explicit-any
     order: [...(order as any), ['id', 'ASC']],
     limit: pageSize,
@@ -176,11 +188,10 @@ export async function listSections(batch: Batch, q: SectionQuery) {
         geometry: s.geometry ?? null,
         result: r
           ? {
-              status: r.status,
+              verdict: r.verdict,
               governingMethod: r.governingMethod,
               governingFs: r.governingFs,
               requiredFs: r.requiredFs,
-              passes: passes(r),
               warnings: r.warnings,
             }
           : null,

@@ -1,16 +1,73 @@
-/** Exports of a batch's current results (CSV, GeoJSON) and a section's plot (SVG). */
-import { CAUTION, drawSection, type DrawableResult, type Section } from '@scarpline/core';
+/**
+ * Exports of a batch's current results (CSV, GeoJSON) and a section's plot (SVG). The CSV
+ * columns and GeoJSON properties are the core's results table (export/export-table.ts,
+ * schemas/export-table.schema.json), the same as `scarpline batch` writes, with the service's
+ * own columns at the end: the review state and the job state.
+ */
+import {
+  CAUTION,
+  drawSection,
+  exportCollection,
+  exportCsvHeader,
+  exportCsvRow,
+  exportFeature,
+  exportRecord,
+  unanalysedRecord,
+  type DrawableResult,
+  type ExportRecord,
+  type ExportValue,
+  type MethodReport,
+  type Section,
+  type Warning,
+} from '@scarpline/core';
 import { conflict } from '../errors';
 import { Batch, ResultRow, SectionRow } from '../models';
 import type { Principal } from './auth';
 import { sectionReviewStates } from './reviews';
 import { loadSection } from './sections';
-import { passes, stationLabel } from './views';
+
+/** The columns the service adds after the table's: what only it knows. */
+export const SERVICE_COLUMNS = ['review_state', 'job_state'] as const;
 
 interface Row {
   section: SectionRow;
-  result: ResultRow | null;
-  reviewState: string;
+  record: ExportRecord;
+  service: Record<(typeof SERVICE_COLUMNS)[number], ExportValue>;
+}
+
+/** A section's row of the results table, from its current result (or why it has none). */
+function recordOf(section: SectionRow, result: ResultRow | null): ExportRecord {
+  // The stored input is a normalised section; a row written by hand may hold less.
+  const input = section.input as Partial<Section>;
+  const units = input.units ?? 'si';
+  const analysis = input.analysis;
+  if (result) {
+    return exportRecord({
+      id: section.key,
+      station: section.station,
+      units,
+      case: analysis?.case ?? null,
+      requiredFs: result.requiredFs,
+      governing:
+        result.governingMethod !== null && result.governingFs !== null
+          ? { method: result.governingMethod as MethodReport['method'], fs: result.governingFs }
+          : null,
+      verdict: result.verdict,
+      warnings: result.warnings as Warning[],
+      results: result.methods as MethodReport[],
+    });
+  }
+  // No result: the job has not finished, or it failed without one (out of time or retries).
+  const failed = section.status === 'failed';
+  return unanalysedRecord({
+    id: section.key,
+    station: section.station,
+    units,
+    case: analysis?.case ?? null,
+    requiredFs: analysis?.requiredFs ?? null,
+    verdict: failed ? 'no-fs' : null,
+    note: failed ? section.failReason : null,
+  });
 }
 
 async function rows(batch: Batch): Promise<Row[]> {
@@ -23,16 +80,17 @@ async function rows(batch: Batch): Promise<Row[]> {
   });
   const results = await ResultRow.findAll({ where: { sectionId: sections.map((s) => s.id) } });
   const reviews = await sectionReviewStates(batch.id);
-  return sections.map((section) => ({
-    section,
-    result: results.find((r) => r.sectionId === section.id && r.run === section.run) ?? null,
-    reviewState: reviews.get(section.id)?.decision ?? 'pending',
-  }));
-}
-
-function cell(v: unknown): string {
-  const s = v === null || v === undefined ? '' : String(v);
-  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+  return sections.map((section) => {
+    const result = results.find((r) => r.sectionId === section.id && r.run === section.run);
+    return {
+      section,
+      record: recordOf(section, result ?? null),
+      service: {
+        review_state: reviews.get(section.id)?.decision ?? 'pending',
+        job_state: section.status,
+      },
+    };
+  });
 }
 
 export function fileName(batch: Batch, ext: string): string {
@@ -40,65 +98,30 @@ export function fileName(batch: Batch, ext: string): string {
 }
 
 export async function batchCsv(batch: Batch): Promise<string> {
-  const head = [
-    'station',
-    'id',
-    'governing_method',
-    'fs',
-    'required_fs',
-    'passes',
-    'status',
-    'review_state',
-    'caution',
-  ];
-  const lines = [head.join(',')];
-  for (const { section, result, reviewState } of await rows(batch)) {
-    const p = passes(result);
+  const lines = [exportCsvHeader(SERVICE_COLUMNS)];
+  for (const { record, service } of await rows(batch)) {
     lines.push(
-      [
-        section.station,
-        section.key,
-        result?.governingMethod,
-        result?.governingFs?.toFixed(3),
-        result?.requiredFs,
-        p === null ? '' : p ? 'yes' : 'no',
-        section.status,
-        reviewState,
-        CAUTION,
-      ]
-        .map(cell)
-        .join(','),
+      exportCsvRow(
+        record,
+        SERVICE_COLUMNS.map((c) => service[c]),
+      ),
     );
   }
-  return lines.join('\r\n') + '\r\n';
+  return lines.join('');
 }
 
 export async function batchGeoJson(batch: Batch) {
-  return {
-    type: 'FeatureCollection',
-    name: batch.name,
-    caution: CAUTION,
-    features: (await rows(batch)).map(({ section, result, reviewState }) => ({
-      type: 'Feature',
-      id: section.key,
-      // The section line as the corridor gave it; null when the input had no coordinates.
-      geometry: section.geometry ?? null,
-      properties: {
-        id: section.key,
-        sectionId: section.id,
-        station: section.station,
-        stationLabel: stationLabel(section),
-        status: section.status,
-        fs: result?.governingFs ?? null,
-        method: result?.governingMethod ?? null,
-        required: result?.requiredFs ?? null,
-        passes: passes(result),
-        warningCount: result ? (result.warnings as unknown[]).length : null,
-        reviewState,
-        caution: CAUTION,
-      },
-    })),
-  };
+  return exportCollection(
+    batch.name,
+    (await rows(batch)).map(({ section, record, service }) =>
+      exportFeature(record, {
+        // The section line as the corridor gave it; null when the input had no coordinates.
+        geometry: section.geometry ?? null,
+        input: section.featureProperties,
+        extra: service,
+      }),
+    ),
+  );
 }
 
 /** The section drawn with its current result (drawSection from the core carries the caution). */
@@ -116,7 +139,7 @@ export async function sectionSvg(p: Principal, sectionId: number) {
     requiredFs: r.requiredFs,
     results: r.methods,
     governing: r.governingMethod ? { method: r.governingMethod, fs: r.governingFs } : null,
-    passes: passes(r),
+    verdict: r.verdict,
     warnings: r.warnings,
     search: r.search,
     solverVersion: r.solverVersion,

@@ -5,10 +5,10 @@
  */
 import nodemailer, { type Transporter } from 'nodemailer';
 import { SMTPServer } from 'smtp-server';
-import { CAUTION } from '@scarpline/core';
+import { CAUTION, fsText, JOB_STATE_WORDS, VERDICT_WORDS, VERDICTS } from '@scarpline/core';
 import { config } from '../config';
 import { Batch, SectionRow, User } from '../models';
-import { progress } from './batches';
+import { progress, verdictCounts } from './batches';
 
 export interface FakeMessage {
   from: string;
@@ -111,18 +111,26 @@ async function recipients(batch: Batch): Promise<string[]> {
   return [...new Set(list.filter((s): s is string => Boolean(s)))];
 }
 
+/** A batch in numbers, in the words of the core's vocabulary: its jobs, then its verdicts. */
+async function summary(batchId: number): Promise<string[]> {
+  const p = await progress(batchId);
+  const v = await verdictCounts(batchId);
+  return [
+    `Sections: ${p.total}; ${JOB_STATE_WORDS.done}: ${p.done}; ${JOB_STATE_WORDS.failed}: ${p.failed}.`,
+    `Verdicts: ${VERDICTS.filter((k) => k !== 'input-error')
+      .map((k) => `${VERDICT_WORDS[k]}: ${v[k]}`)
+      .join('; ')}.`,
+  ];
+}
+
 export async function batchFinished(batchId: number): Promise<void> {
   const batch = await Batch.findByPk(batchId);
   if (!batch) return;
   const p = await progress(batchId);
   await send(
     await recipients(batch),
-    `Scarpline batch ${batch.name} finished: ${p.belowRequiredFs} of ${p.total} below the required FS`,
-    [
-      `Batch ${batch.id} (${batch.name}) has finished.`,
-      `Sections: ${p.total}; solved: ${p.done}; failed to solve: ${p.failed}.`,
-      `Below the required factor of safety: ${p.belowRequiredFs}.`,
-    ].join('\n'),
+    `Scarpline batch ${batch.name} finished: ${p.belowRequiredFs} of ${p.total} ${VERDICT_WORDS.below}`,
+    [`Batch ${batch.id} (${batch.name}) has finished.`, ...(await summary(batchId))].join('\n'),
   );
 }
 
@@ -135,8 +143,8 @@ export async function sectionBelowFs(
   if (!batch) return;
   await send(
     await recipients(batch),
-    `Scarpline: section ${section.key} is below its required FS`,
-    `Section ${section.key} (batch ${batch.name}): FS ${fs?.toFixed(3)} against required ${required}.`,
+    `Scarpline: section ${section.key} is ${VERDICT_WORDS.below}`,
+    `Section ${section.key} (batch ${batch.name}): FS ${fs === null ? '—' : fsText(fs)} against required ${required}: ${VERDICT_WORDS.below}.`,
   );
 }
 
@@ -147,13 +155,12 @@ export async function reviewRequested(
   to: string[],
   comment: string,
 ): Promise<boolean> {
-  const p = await progress(batch.id);
   return send(
     to,
     `Scarpline: review requested for batch ${batch.name}`,
     [
       `${requester.name} <${requester.email}> asks for a review of batch ${batch.id} (${batch.name}).`,
-      `Sections: ${p.total}; solved: ${p.done}; failed to solve: ${p.failed}; below the required factor of safety: ${p.belowRequiredFs}.`,
+      ...(await summary(batch.id)),
       ...(comment ? ['', comment] : []),
       '',
       `Results: /api/v1/batches/${batch.id}/sections; sign off: POST /api/v1/batches/${batch.id}/reviews.`,

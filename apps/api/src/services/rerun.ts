@@ -1,10 +1,11 @@
 /**
- * Re-running a section with edits: a JSON merge (RFC 7396) of changes onto the section as
- * stored, checked again by the section schema and the core's checks (located errors, 422),
- * queued as the next run. Older runs and their results are kept.
+ * Re-running a section with edits: a JSON merge patch (RFC 7396) of changes onto the stored
+ * section written as a document by the core (sectionDocument, the inverse of reading one, in
+ * SI), read again by the core's checks (located errors, 422), queued as the next run. Older
+ * runs and their results are kept.
  */
-import type { Analysis, Material, Message, Section, Water } from '@scarpline/core';
-import { CAUTION } from '@scarpline/core';
+import type { Message, Section } from '@scarpline/core';
+import { CAUTION, sectionDocument } from '@scarpline/core';
 import { sequelize } from '../db';
 import { conflict, invalid } from '../errors';
 import { AuditEntry, Batch, ResultRow } from '../models';
@@ -12,7 +13,7 @@ import { enqueueSections } from '../queue';
 import { audit } from './audit';
 import type { Principal } from './auth';
 import { loadSection, resultView, sectionView } from './sections';
-import { parseSectionText } from './validate';
+import { readEditedSection, sectionMessage } from './validate';
 import { userRefs } from './views';
 
 /** What an edit may change. Values are SI (the stored section is normalised to SI). */
@@ -45,56 +46,9 @@ export function mergePatch(target: Json, patch: Json): Json {
   return out;
 }
 
-function drop<T extends object>(o: T): Partial<T> {
-  return Object.fromEntries(
-    Object.entries(o).filter(([, v]) => v !== null && v !== undefined),
-  ) as Partial<T>;
-}
-
-/** The stored (normalised, SI) section written back as a section document in SI units. */
-export function sectionDocument(s: Section): Record<string, Json> {
-  const materials: Record<string, unknown> = {};
-  for (const [name, m] of Object.entries(s.materials) as [string, Material][]) {
-    // An undrained strength without growth with depth has suRate 0 and no datum: write neither.
-    const strength =
-      m.strength.model === 'undrained'
-        ? drop({ ...m.strength, suRate: m.strength.suRate || null })
-        : { ...m.strength };
-    materials[name] =
-      m.strength.model === 'rigid' && m.unitWeight === 0
-        ? { strength }
-        : { unitWeight: m.unitWeight, saturatedUnitWeight: m.saturatedUnitWeight, strength };
-  }
-  const w: Water = s.water;
-  const water =
-    w.kind === 'piezometric'
-      ? { piezometric: w.line, unitWeight: w.unitWeight }
-      : w.kind === 'ru'
-        ? { ru: w.ru, unitWeight: w.unitWeight }
-        : { unitWeight: w.unitWeight };
-  const a: Analysis = s.analysis;
-  const doc = {
-    format: s.format,
-    id: s.id,
-    title: s.title,
-    station: s.station,
-    offset: s.offset,
-    units: 'si',
-    ground: s.ground,
-    materials,
-    strata: s.strata.map((st, i) => (i === 0 ? { material: st.material } : st)),
-    water,
-    loads: s.loads,
-    seismic: s.seismic,
-    crack: s.crack,
-    analysis: drop({ ...a }),
-  };
-  return JSON.parse(JSON.stringify(drop(doc))) as Record<string, Json>;
-}
-
 /**
  * The edited section, checked, with the warnings of the core's checks about it; throws 422 with
- * located errors (paths into the section).
+ * located errors (paths into the section). Results stay in the units of the section's file.
  */
 export function checkEdits(
   stored: Section,
@@ -118,10 +72,8 @@ export function checkEdits(
   if (requiredFs !== undefined) {
     patch.analysis = mergePatch(patch.analysis ?? {}, { requiredFs });
   }
-  const doc = mergePatch(sectionDocument(stored), patch);
-  const edited = parseSectionText(JSON.stringify(doc, null, 2), 'edited-section.json');
-  // Values are SI; results are still reported in the units of the file it came from.
-  return { section: { ...edited.section, units: stored.units }, warnings: edited.warnings };
+  const doc = mergePatch(sectionDocument(stored) as unknown as Json, patch);
+  return readEditedSection(doc, stored.units);
 }
 
 /** The edited section, checked (see checkEdits). */
@@ -139,7 +91,13 @@ export async function rerunSection(p: Principal, sectionId: number, changes: unk
   await sequelize.transaction(async (t) => {
     // The section's input is now the edited one: so are the warnings about it.
     await section.update(
-      { input, run, status: 'queued', failReason: null, inputWarnings: warnings },
+      {
+        input,
+        run,
+        status: 'queued',
+        failReason: null,
+        inputWarnings: warnings.map(sectionMessage),
+      },
       { transaction: t },
     );
     await Batch.update(

@@ -6,16 +6,15 @@ import type { Principal } from './auth';
 import { loadBatch } from './batches';
 import { sectionReview } from './reviews';
 import { messageView } from './validate';
-import { passes, stationLabel, userRef } from './views';
+import { stationLabel, userRef } from './views';
 
 /** A run's result; with `search`, also the search report (FS map, trials) the drawing uses. */
 export function resultView(r: ResultRow, options: { search?: boolean } = {}) {
   return {
     run: r.run,
-    status: r.status,
+    verdict: r.verdict,
     governing: r.governingMethod ? { method: r.governingMethod, fs: r.governingFs } : null,
     requiredFs: r.requiredFs,
-    passes: passes(r),
     reason: r.reason,
     criticalSurface: r.criticalSurface,
     methods: r.methods,

@@ -1,6 +1,6 @@
 /** Solving one section (the worker's job): analyse, write the result once per run, close the batch. */
 import crypto from 'node:crypto';
-import { analyzeSection, SOLVER_VERSION, type Section } from '@scarpline/core';
+import { analyzeSection, SOLVER_VERSION, unsolvedReason, type Section } from '@scarpline/core';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../db';
 import { ResultRow, SectionRow } from '../models';
@@ -14,8 +14,8 @@ export function inputHash(input: object): string {
 /**
  * Runs a section's job. Idempotent: the result is keyed by (section, run), so a retried or
  * duplicated job overwrites its own row. A job for an older run (superseded by a re-run) is
- * dropped. A section the solver cannot solve (no method converged) ends `failed` with the
- * reasons; an exception is rethrown so the queue retries it, and the dead-letter handler ends
+ * dropped. A section the solver cannot solve (no method converged: verdict `no-fs`) ends
+ * `failed` with the reasons; an exception is rethrown so the queue retries it, and the dead-letter handler ends
  * it `failed` when the retries are used up.
  */
 export async function solveSection(job: SectionJob, attempt = 0): Promise<void> {
@@ -44,25 +44,15 @@ async function solveOnce(job: SectionJob, attempt: number): Promise<void> {
     throw new Error(`solver error: ${(e as Error).message}`);
   }
   const finishedAt = new Date();
-  const unsolved = result.governing === null;
-  const reason = unsolved
-    ? result.results.map((m) => `${m.method}: ${m.reason ?? 'no solution'}`).join('; ') ||
-      'no method applies to this section'
-    : null;
-  const status = unsolved
-    ? 'failed'
-    : result.passes === null
-      ? 'none'
-      : result.passes
-        ? 'pass'
-        : 'fail';
+  const unsolved = result.verdict === 'no-fs';
+  const reason = unsolved ? unsolvedReason(result.results) : null;
   const governing = result.results.find((m) => m.method === result.governing?.method);
   await sequelize.transaction(async (transaction) => {
     await ResultRow.upsert(
       {
         sectionId: section.id,
         run: job.run,
-        status,
+        verdict: result.verdict,
         governingMethod: result.governing?.method ?? null,
         governingFs: result.governing?.fs ?? null,
         requiredFs: result.requiredFs,
@@ -90,7 +80,7 @@ async function solveOnce(job: SectionJob, attempt: number): Promise<void> {
       { transaction },
     );
   });
-  if (status === 'fail')
+  if (result.verdict === 'below')
     await sectionBelowFs(section, result.governing?.fs ?? null, result.requiredFs);
   await closeBatchIfLast(section.batchId);
 }

@@ -1,17 +1,20 @@
-/** Validation of submitted files: ajv with the shared schemas, located messages from the core. */
+/**
+ * Validation of submitted files: ajv with the shared schemas, and the core's reading of them —
+ * located messages, the batch header, and the sections each message concerns.
+ */
 import Ajv2020 from 'ajv/dist/2020';
 import {
   formatMessage,
   isGeoJsonCorridor,
   parseGeoJsonCorridor,
   parseSections,
+  readSectionDocument,
   type Message,
   type Section,
+  type UnitSystem,
 } from '@scarpline/core';
-import { parse as parseYaml } from 'yaml';
 import { batchSchema, sectionSchema } from '@scarpline/schemas';
 import { invalid } from '../errors';
-import { corridorWarnings, fileWarnings, type SectionWarnings } from './input-warnings';
 
 const ajv = new Ajv2020({ allErrors: true, strict: false });
 ajv.addSchema(sectionSchema);
@@ -22,6 +25,21 @@ export interface InputFile {
   text: string;
 }
 
+/**
+ * A message kept with the one section it concerns: as the core gives it, without the ids of
+ * the sections (the section that keeps it is the one).
+ */
+export type SectionMessage = Omit<Message, 'sections'>;
+
+/** Section id → the warnings of the input checks that concern it, in the order of the file. */
+export type SectionWarnings = Record<string, Message[]>;
+
+/** A message as a section keeps it. */
+export function sectionMessage(m: Message): SectionMessage {
+  const { sections: _ids, ...kept } = m;
+  return kept;
+}
+
 export interface Parsed {
   sections: Section[];
   warnings: Message[];
@@ -30,12 +48,17 @@ export interface Parsed {
   title: string | null;
   /** Section id → the line geometry of its GeoJSON corridor feature, when there was one. */
   geometries?: Record<string, object>;
-  /** Section id → the warnings that concern it (see input-warnings.ts). */
+  /** Section id → the properties of its GeoJSON corridor feature, when there was one. */
+  featureProperties?: Record<string, Record<string, unknown>>;
+  /** Section id → the warnings that concern it (the ids the core gives each message). */
   sectionWarnings: SectionWarnings;
 }
 
-/** A located message as the API gives it: the message and its one-line `text`. */
-export function messageView(m: Message) {
+/**
+ * A located message as the API gives it: the message and its one-line `text` (and, in a
+ * submission's answer, the ids of the sections it concerns).
+ */
+export function messageView(m: Message | SectionMessage) {
   return { ...m, text: formatMessage(m) };
 }
 
@@ -44,13 +67,23 @@ function locatedError(messages: Message[]) {
   return invalid(`${errors.length} error(s) in the input.`, { errors: errors.map(messageView) });
 }
 
+/** The warnings given to the sections they concern: each message names its sections' ids. */
+function warningsBySection(messages: readonly Message[]): SectionWarnings {
+  const out: SectionWarnings = {};
+  for (const m of messages) {
+    if (m.severity !== 'warning') continue;
+    for (const id of m.sections) (out[id] ??= []).push(m);
+  }
+  return out;
+}
+
 /** A JSON body that must be a corridor batch: ajv first, then the core for located messages. */
 export function parseBatchBody(body: unknown, rawText: string | undefined): Parsed {
   const text = rawText ?? JSON.stringify(body, null, 2);
   const ok = validateBatch(body);
   const parsed = parseSections(text, 'batch.json');
   const errors = parsed.messages.filter((m) => m.severity === 'error');
-  if (!ok || errors.length > 0) {
+  if (!ok || errors.length > 0 || !parsed.batch) {
     if (errors.length > 0) throw locatedError(parsed.messages);
     // The schema said no but the core located nothing: report ajv's paths.
     throw invalid('The batch does not match batch.schema.json.', {
@@ -64,30 +97,13 @@ export function parseBatchBody(body: unknown, rawText: string | undefined): Pars
       })),
     });
   }
-  const b = body as { id: string; title?: string };
   return {
     sections: parsed.sections,
     warnings: parsed.messages,
-    name: b.id,
-    title: b.title ?? null,
-    sectionWarnings: fileWarnings(text, 'batch.json', parsed),
+    name: parsed.batch.id,
+    title: parsed.batch.title,
+    sectionWarnings: warningsBySection(parsed.messages),
   };
-}
-
-/** The id and title of a batch file (YAML or JSON), or null when it is not a batch. */
-function batchHeader(text: string): { id: string; title: string | null } | null {
-  try {
-    const doc: unknown = parseYaml(text);
-    if (doc && typeof doc === 'object' && !Array.isArray(doc)) {
-      const d = doc as Record<string, unknown>;
-      if (d.format === 'scarpline-batch/1' && typeof d.id === 'string') {
-        return { id: d.id, title: typeof d.title === 'string' ? d.title : null };
-      }
-    }
-  } catch {
-    // several documents or a syntax error: the core has reported it already
-  }
-  return null;
 }
 
 /** Uploaded files: a batch (YAML/JSON), a GeoJSON corridor, or many section files. */
@@ -97,28 +113,22 @@ export function parseFiles(files: InputFile[]): Parsed {
   let name: string | null = null;
   let title: string | null = null;
   const geometries: Record<string, object> = {};
-  const sectionWarnings: SectionWarnings = {};
+  const featureProperties: Record<string, Record<string, unknown>> = {};
   for (const f of files) {
-    if (isGeoJsonCorridor(f.text)) {
-      const c = parseGeoJsonCorridor(f.text, f.name);
-      sections.push(...c.sections);
-      messages.push(...c.messages);
-      Object.assign(sectionWarnings, corridorWarnings(f.text, f.name, c));
-      name ??= c.batchId;
-      for (const feature of c.features) {
-        const g = feature.geometry;
-        if (feature.sectionId && g && typeof g === 'object') geometries[feature.sectionId] = g;
-      }
-    } else {
-      const p = parseSections(f.text, f.name);
-      sections.push(...p.sections);
-      messages.push(...p.messages);
-      Object.assign(sectionWarnings, fileWarnings(f.text, f.name, p));
-      const head = batchHeader(f.text);
-      if (head) {
-        name ??= head.id;
-        title ??= head.title;
-      }
+    const corridor = isGeoJsonCorridor(f.text) ? parseGeoJsonCorridor(f.text, f.name) : null;
+    const p = corridor ?? parseSections(f.text, f.name);
+    sections.push(...p.sections);
+    messages.push(...p.messages);
+    if (p.batch) {
+      name ??= p.batch.id;
+      title ??= p.batch.title;
+    }
+    // A GeoJSON corridor's sections keep their feature's line and attributes for the exports.
+    for (const e of corridor?.entries ?? []) {
+      if (!e.id) continue;
+      const { geometry, properties } = e.feature;
+      if (geometry && typeof geometry === 'object') geometries[e.id] = geometry;
+      featureProperties[e.id] = properties;
     }
   }
   if (messages.some((m) => m.severity === 'error')) throw locatedError(messages);
@@ -134,17 +144,22 @@ export function parseFiles(files: InputFile[]): Parsed {
     name: name ?? sections[0].id,
     title,
     geometries,
-    sectionWarnings,
+    featureProperties,
+    sectionWarnings: warningsBySection(messages),
   };
 }
 
-/** One section document (a re-run with edits), with the warnings of the checks about it. */
-export function parseSectionText(
-  text: string,
-  fileName: string,
+/**
+ * An edited section document (SI, as the core's sectionDocument writes it), read back as a
+ * section reported in `units`; with the warnings of the checks about it. Throws 422 with the
+ * errors located in the document as written (`edited-section.json`).
+ */
+export function readEditedSection(
+  doc: unknown,
+  units: UnitSystem,
 ): { section: Section; warnings: Message[] } {
-  const p = parseSections(text, fileName);
-  if (p.messages.some((m) => m.severity === 'error')) throw locatedError(p.messages);
-  if (p.sections.length !== 1) throw invalid('Send exactly one section.');
-  return { section: p.sections[0], warnings: p.messages.filter((m) => m.severity === 'warning') };
+  const read = readSectionDocument(doc, 'edited-section.json', units);
+  if (read.messages.some((m) => m.severity === 'error')) throw locatedError(read.messages);
+  if (!read.section) throw invalid('Send exactly one section.');
+  return { section: read.section, warnings: read.messages.filter((m) => m.severity === 'warning') };
 }

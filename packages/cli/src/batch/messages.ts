@@ -1,5 +1,5 @@
 /** Messages between the batch command and its worker threads. */
-import type { Section } from '@scarpline/core';
+import type { ExportRecord, Section } from '@scarpline/core';
 
 export interface Task {
   index: number;
@@ -9,19 +9,10 @@ export interface Task {
   units: 'si' | 'us' | null;
 }
 
-/** What the batch keeps of a section: small, so that a long corridor stays small in memory. */
-export interface Summary {
-  id: string;
-  station: number | null;
-  case: string | null;
-  governing: string | null;
-  fs: number | null;
-  requiredFs: number | null;
-  passes: boolean | null;
-  warnings: number;
-  reason: string | null;
-}
-
+/**
+ * A worker's answer: the result as JSON text (for results.json) and the section's row of the
+ * results table (small, so that a long corridor stays small in memory), or why it failed.
+ */
 export type Reply =
-  | { index: number; ok: true; json: string; summary: Summary }
+  | { index: number; ok: true; json: string; record: ExportRecord }
   | { index: number; ok: false; error: string };

@@ -1,24 +1,34 @@
-import { mkdirSync } from 'node:fs';
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import { SingleBar, Presets } from 'cli-progress';
-import { parseAllDocuments } from 'yaml';
 import {
   CAUTION,
   drawChainage,
+  exportCsvHeader,
+  exportCsvRow,
   formatMessage,
+  fromSi,
+  fsText,
   isGeoJsonCorridor,
   parseGeoJsonCorridor,
   parseSections,
-  type Message,
+  toSi,
+  unanalysedRecord,
+  VERDICT_SHORT,
+  VERDICT_WORDS,
+  VERDICTS,
+  type CorridorFeature,
+  type ExportRecord,
   type Section,
+  type SectionEntry,
   type UnitSystem,
+  type Verdict,
 } from '@scarpline/core';
-import { writeFileSync } from 'node:fs';
 import { applyOverrides, type Overrides } from '../overrides';
 import { readInput, UserError } from '../read-input';
 import type { Reply, Task } from './messages';
-import { csvHeader, csvRow, Output, resultsGeoJson, status, type Row } from './outputs';
+import { Output, resultsGeoJson } from './outputs';
 import { WorkerPool } from './pool';
 
 export interface BatchOptions extends Overrides {
@@ -31,145 +41,97 @@ export interface BatchOptions extends Overrides {
   tty?: boolean;
 }
 
-interface Entry extends Row {
+/** One station of the batch: its section until it is analysed, then its row of the results table. */
+interface Entry {
+  label: string;
+  station: number | null;
+  units: UnitSystem;
   section: Section | null;
+  /** Why the section did not read (its errors), when it did not. */
+  inputError: string | null;
+  feature: CorridorFeature | null;
+  record: ExportRecord | null;
+  /** Its result is in results.json. */
+  analysed: boolean;
 }
 
-const isRecord = (v: unknown): v is Record<string, unknown> =>
-  v !== null && typeof v === 'object' && !Array.isArray(v);
+/** The errors of a section that did not read, as one note. */
+function inputErrorOf(e: SectionEntry): string | null {
+  if (e.section) return null;
+  const errors = e.messages.filter((m) => m.severity === 'error');
+  return errors.length
+    ? errors.map((m) => `${m.path ? `${m.path}: ` : ''}${m.message}`).join('; ')
+    : 'the section did not read (see the messages above)';
+}
 
-/** The messages of a batch item or a feature: their path starts with `sections[i]` / `features[i]`. */
-const itemOf = (m: Message, list: string): number | null => {
-  const r = new RegExp(`^${list}\\[(\\d+)\\]`).exec(m.path);
-  return r ? Number(r[1]) : null;
-};
-
-/** Every station of the file, read or not, in the order of the file. */
+/** Every station of the file, read or not, in the order of the file (the core's entries). */
 function entriesOf(
   file: string,
   text: string,
   name: string,
   templateFile?: string,
-): { entries: Entry[]; messages: Message[]; units: UnitSystem | null; id: string } {
+): { entries: Entry[]; messages: string[]; units: UnitSystem | null; id: string } {
+  let parsed;
   if (isGeoJsonCorridor(text)) {
     const header = templateFile ? readInput(templateFile) : undefined;
-    const parsed = parseGeoJsonCorridor(
+    parsed = parseGeoJsonCorridor(
       text,
       name,
       header ? { text: header.text, fileName: header.name } : undefined,
     );
-    const byId = new Map(parsed.sections.map((s) => [s.id, s]));
-    const entries = parsed.features.map((f): Entry => {
-      const section = f.sectionId ? (byId.get(f.sectionId) ?? null) : null;
-      const own = parsed.messages.filter(
-        (m) => m.severity === 'error' && m.file === name && itemOf(m, 'features') === f.index,
+  } else {
+    if (templateFile)
+      throw new UserError(
+        '--template applies to a GeoJSON corridor; a batch file has its own template',
       );
-      return {
-        id: f.sectionId ?? `features[${f.index}]`,
-        station: f.station,
-        section,
-        summary: null,
-        error: section
-          ? null
-          : own.length
-            ? own.map((m) => `${m.path}: ${m.message}`).join('; ')
-            : 'the section did not read (see the messages above)',
-        feature: f,
-      };
-    });
-    return {
-      entries,
-      messages: parsed.messages,
-      units: parsed.sections[0]?.units ?? null,
-      id: parsed.batchId,
-    };
+    parsed = parseSections(text, name);
   }
-  if (templateFile)
-    throw new UserError(
-      '--template applies to a GeoJSON corridor; a batch file has its own template',
-    );
-  const parsed = parseSections(text, name);
-  const byId = new Map(parsed.sections.map((s) => [s.id, s]));
-  const claimed = new Set<string>();
-  const entries: Entry[] = [];
-  let batchId = '';
-  const docs = parseAllDocuments(text);
-  for (const doc of Array.isArray(docs) ? docs : []) {
-    let data: unknown;
-    try {
-      data = doc.toJS();
-    } catch {
-      continue;
-    }
-    if (!isRecord(data)) continue;
-    if (data.format === 'scarpline-batch/1' && Array.isArray(data.sections)) {
-      batchId ||= String(data.id);
-      data.sections.forEach((item: unknown, i: number) => {
-        const station = isRecord(item) && typeof item.station === 'number' ? item.station : null;
-        const id = `${String(data.id)}@${station ?? `sections[${i}]`}`;
-        const section = !claimed.has(id) ? (byId.get(id) ?? null) : null;
-        if (section) claimed.add(id);
-        const own = parsed.messages.filter(
-          (m) => m.severity === 'error' && itemOf(m, 'sections') === i,
-        );
-        entries.push({
-          id,
-          station,
-          section,
-          summary: null,
-          error: section
-            ? null
-            : own.length
-              ? own.map((m) => `${m.path}: ${m.message}`).join('; ')
-              : 'the section did not read (see the messages above)',
-          feature: null,
-        });
-      });
-    } else if (typeof data.id === 'string') {
-      const section = !claimed.has(data.id) ? (byId.get(data.id) ?? null) : null;
-      if (section) claimed.add(data.id);
-      entries.push({
-        id: data.id,
-        station: typeof data.station === 'number' ? data.station : null,
-        section,
-        summary: null,
-        error: section ? null : 'the section did not read (see the messages above)',
-        feature: null,
-      });
-    }
-  }
-  for (const s of parsed.sections)
-    if (!claimed.has(s.id))
-      entries.push({
-        id: s.id,
-        station: s.station,
-        section: s,
-        summary: null,
-        error: null,
-        feature: null,
-      });
+  const units = parsed.batch?.units ?? parsed.sections[0]?.units ?? null;
+  const entries = parsed.entries.map((e): Entry => ({
+    label: e.label,
+    station: e.station,
+    units: e.section?.units ?? units ?? 'si',
+    section: e.section,
+    inputError: inputErrorOf(e),
+    feature: 'feature' in e ? (e.feature as CorridorFeature) : null,
+    record: null,
+    analysed: false,
+  }));
   return {
     entries,
-    messages: parsed.messages,
-    units: parsed.sections[0]?.units ?? null,
-    id: batchId || file,
+    messages: parsed.messages.map(formatMessage),
+    units,
+    id: parsed.batch?.id ?? file,
   };
 }
 
-const fmt = (v: number | null) => (v === null ? '—' : v.toFixed(3));
+/** The row of a station without a result, in the units shown. */
+function unanalysed(
+  e: Entry,
+  shown: UnitSystem,
+  verdict: 'input-error' | 'no-fs',
+  note: string,
+): ExportRecord {
+  const station =
+    e.station === null ? null : fromSi(toSi(e.station, 'length', e.units), 'length', shown);
+  return unanalysedRecord({
+    id: e.label,
+    station,
+    units: shown,
+    case: e.section?.analysis.case ?? null,
+    requiredFs: e.section?.analysis.requiredFs ?? null,
+    verdict,
+    note,
+  });
+}
 
-function line(row: Row): string {
-  const s = row.summary;
-  const st = row.station === null ? '—' : String(row.station);
-  const verdict = {
-    pass: 'PASS',
-    fail: 'FAIL',
-    'no-result': 'NO RESULT',
-    'no-required': 'no required FS',
-    error: 'ERROR',
-  }[status(row)];
-  const note = row.error ?? s?.reason ?? '';
-  return `  ${st.padStart(9)}  ${row.id.padEnd(22)} ${(s?.governing ?? '—').padEnd(18)} ${fmt(s?.fs ?? null).padStart(6)}  ${(s?.requiredFs ?? '—').toString().padStart(5)}  ${verdict}${note && status(row) !== 'pass' && status(row) !== 'fail' ? `  (${note})` : ''}`;
+/** A station's line of the table printed at the end. */
+function line(r: ExportRecord): string {
+  const st = r.station === null ? '—' : String(r.station);
+  const fs = r.fs === null ? '—' : fsText(r.fs);
+  const v = r.verdict ?? 'no-fs';
+  const note = r.note && v !== 'meets' && v !== 'below' ? `  (${r.note})` : '';
+  return `  ${st.padStart(9)}  ${r.section_id.padEnd(22)} ${(r.governing_method ?? '—').padEnd(18)} ${fs.padStart(6)}  ${(r.required_fs ?? '—').toString().padStart(5)}  ${VERDICT_SHORT[v]}${note}`;
 }
 
 /**
@@ -193,7 +155,7 @@ export async function runBatch(
     input.name,
     options.template,
   );
-  for (const m of messages) err(formatMessage(m));
+  for (const m of messages) err(m);
   const runnable = entries.filter((e) => e.section);
   if (entries.length === 0 || runnable.length === 0) {
     err(`${input.name}: no section could be read; nothing analysed`);
@@ -209,7 +171,7 @@ export async function runBatch(
   await json?.write(
     `{"caution":${JSON.stringify(CAUTION)},"corridor":${JSON.stringify({ id, file: input.name, units: shownUnits })},"sections":[\n`,
   );
-  await csv?.write(csvHeader());
+  await csv?.write(exportCsvHeader());
 
   const jobs = Math.max(1, Math.min(options.jobs ?? availableParallelism(), runnable.length));
   const total = entries.length;
@@ -249,7 +211,7 @@ export async function runBatch(
         const task: Task = {
           index: queued,
           section,
-          svgPath: drawings ? join(drawings, `${safe(e.id)}.svg`) : null,
+          svgPath: drawings ? join(drawings, `${safe(e.label)}.svg`) : null,
           units: options.units ?? null,
         };
         pool.run(task);
@@ -269,16 +231,17 @@ export async function runBatch(
         if (!reply) break;
         replies.delete(next);
         if (reply.ok) {
-          e.summary = reply.summary;
+          e.record = reply.record;
+          e.analysed = true;
           await json?.write(`${written > 0 ? ',\n' : ''}${reply.json}`);
           written++;
-        } else e.error = `the solver failed: ${reply.error}`;
-      }
+        } else e.record = unanalysed(e, shownUnits, 'no-fs', `the solver failed: ${reply.error}`);
+      } else e.record = unanalysed(e, shownUnits, 'input-error', e.inputError ?? '');
       e.section = null; // done with it: let it go
-      await csv?.write(csvRow(e));
+      await csv?.write(exportCsvRow(e.record));
       next++;
-      if (bar) bar.update(next, { last: e.id });
-      else err(`[${next}/${total}] ${line(e).trim()}`);
+      if (bar) bar.update(next, { last: e.label });
+      else err(`[${next}/${total}] ${line(e.record).trim()}`);
       dispatch();
     }
     draining = false;
@@ -301,22 +264,29 @@ export async function runBatch(
   await pool.terminate();
   bar?.stop();
 
-  const done = entries.slice(0, next);
+  const done = entries
+    .slice(0, next)
+    .map((e) => ({ record: e.record as ExportRecord, feature: e.feature, analysed: e.analysed }));
   const failures = done
-    .filter((e) => status(e) === 'error')
-    .map((e) => ({ id: e.id, station: e.station, error: e.error }));
+    .filter((e) => !e.analysed)
+    .map(({ record: r }) => ({
+      id: r.section_id,
+      station: r.station,
+      verdict: r.verdict,
+      error: r.note,
+    }));
   await json?.write(
     `\n],"failures":${JSON.stringify(failures)},"complete":${!signalled},"stations":${total},"written":${done.length}}\n`,
   );
   await json?.close();
   await csv?.close();
   if (outDir) {
-    writeFileSync(join(outDir, 'results.geojson'), resultsGeoJson(done));
+    writeFileSync(join(outDir, 'results.geojson'), resultsGeoJson(id, done));
     const points = done
-      .map((e) => ({
-        station: e.station ?? Number.NaN,
-        fs: e.summary?.fs ?? null,
-        requiredFs: e.summary?.requiredFs ?? null,
+      .map(({ record: r }) => ({
+        station: r.station ?? Number.NaN,
+        fs: r.fs,
+        requiredFs: r.required_fs,
       }))
       .filter((p) => Number.isFinite(p.station));
     writeFileSync(
@@ -326,11 +296,11 @@ export async function runBatch(
   }
 
   out('  station    id                     method                 FS  req.   verdict');
-  for (const e of done) out(line(e));
-  const count = (s: string) => done.filter((e) => status(e) === s).length;
+  for (const e of done) out(line(e.record));
+  const count = (v: Verdict) => done.filter((e) => e.record.verdict === v).length;
   out('');
   out(
-    `${done.length} of ${total} sections: ${count('pass')} pass, ${count('fail')} below the required FS, ${count('no-result')} without a factor of safety, ${count('no-required')} without a required FS, ${count('error')} not analysed`,
+    `${done.length} of ${total} sections: ${VERDICTS.map((v) => `${VERDICT_WORDS[v]}: ${count(v)}`).join(', ')}`,
   );
   if (outDir) {
     const svgs = drawings ? `, sections/*.svg (${written})` : '';
@@ -342,6 +312,6 @@ export async function runBatch(
     );
   out(`Caution: ${CAUTION}`);
   if (signalled) return 130;
-  if (count('error') || count('no-result')) return 1;
-  return count('fail') ? 2 : 0;
+  if (count('input-error') || count('no-fs')) return 1;
+  return count('below') ? 2 : 0;
 }

@@ -1,30 +1,13 @@
 /**
  * A batch worker thread: analyses the sections it is sent with the built core and answers
- * with the result as JSON text (written to results.json by the main thread) and a summary,
- * writing the section's drawing itself when asked.
+ * with the result as JSON text (written to results.json by the main thread) and its row of the
+ * results table, writing the section's drawing itself when asked.
  */
 import { writeFileSync } from 'node:fs';
 import { parentPort } from 'node:worker_threads';
-import { analyzeSection, drawSection, type DrawableResult } from '@scarpline/core';
+import { analyzeSection, drawSection, exportRecord, type DrawableResult } from '@scarpline/core';
 import { convertResult } from '../convert-result';
-import type { Reply, Summary, Task } from './messages';
-
-function summarise(r: DrawableResult): Summary {
-  const reason = r.governing
-    ? null
-    : (r.results.find((m) => !m.converged)?.reason ?? 'no method converged');
-  return {
-    id: r.id,
-    station: r.station,
-    case: r.case,
-    governing: r.governing?.method ?? null,
-    fs: r.governing?.fs ?? null,
-    requiredFs: r.requiredFs,
-    passes: r.passes,
-    warnings: r.warnings.length + r.results.reduce((n, m) => n + m.warnings.length, 0),
-    reason,
-  };
-}
+import type { Reply, Task } from './messages';
 
 parentPort?.on('message', (task: Task) => {
   let reply: Reply;
@@ -33,7 +16,12 @@ parentPort?.on('message', (task: Task) => {
     if (task.svgPath)
       writeFileSync(task.svgPath, `${drawSection(task.section, result, { idPrefix: 'sl' })}\n`);
     const shown = task.units ? convertResult(result, task.units) : result;
-    reply = { index: task.index, ok: true, json: JSON.stringify(shown), summary: summarise(shown) };
+    reply = {
+      index: task.index,
+      ok: true,
+      json: JSON.stringify(shown),
+      record: exportRecord(shown),
+    };
   } catch (e) {
     reply = { index: task.index, ok: false, error: e instanceof Error ? e.message : String(e) };
   }

@@ -8,6 +8,7 @@ import { scaleLinear } from './scale-linear';
 import { pathData, svgElement, svgText } from './svg-element';
 import { cautionBlock, cautionLines, svgDocument } from './svg-document';
 import type { Frame } from './types';
+import { VERDICT_WORDS } from '../verdict';
 
 /** One station of a corridor: its governing FS (null when none) and required FS. */
 export interface ChainagePoint {
@@ -162,9 +163,9 @@ export function drawChainage(
     {
       swatch: 'none',
       style: {},
-      label: `● meets the required FS (${pts.length - none - below - above})`,
+      label: `● ${VERDICT_WORDS.meets} (${pts.length - none - below - above})`,
     },
-    { swatch: 'none', style: {}, label: `□ below the required FS (${below})` },
+    { swatch: 'none', style: {}, label: `□ ${VERDICT_WORDS.below} (${below})` },
   ];
   if (above)
     items.push({
@@ -172,7 +173,8 @@ export function drawChainage(
       style: {},
       label: `▲ above ${yMax.toFixed(2)}, off the axis (${above})`,
     });
-  if (none) items.push({ swatch: 'none', style: {}, label: `× without a result (${none})` });
+  if (none)
+    items.push({ swatch: 'none', style: {}, label: `× ${VERDICT_WORDS['no-fs']} (${none})` });
   const title = options.title ?? 'Factor of safety along the chainage';
   const cautionTop = top + plotH + 62;
   const caution = cautionLines(options.caution ?? CAUTION, width);

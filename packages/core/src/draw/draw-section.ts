@@ -1,6 +1,7 @@
 import type { SectionResult } from '../result';
 import { CAUTION } from '../caution';
 import type { Point, Section } from '../model/types';
+import { fsText, VERDICT_WORDS } from '../verdict';
 import { axisBottom, axisLeft } from './axis';
 import { colorBar } from './color-bar';
 import { equalScaleFrame, type Bounds } from './frame';
@@ -245,13 +246,13 @@ export function drawSection(
     }),
   );
   let verdict: string;
-  if (!result.governing) verdict = 'no method converged: no factor of safety';
+  if (!result.governing) verdict = `no method converged: ${VERDICT_WORDS['no-fs']}`;
   else {
-    const fs = `governing FS ${result.governing.fs.toFixed(3)} (${result.governing.method})`;
+    const fs = `governing FS ${fsText(result.governing.fs)} (${result.governing.method})`;
     verdict =
       result.requiredFs === null
-        ? `${fs}; no required FS given`
-        : `${fs} against required ${result.requiredFs}: ${result.passes ? 'meets the required FS' : 'BELOW the required FS'}`;
+        ? `${fs}: ${VERDICT_WORDS['no-requirement']}`
+        : `${fs} against required ${result.requiredFs}: ${VERDICT_WORDS[result.verdict]}`;
   }
   const caseText = result.case ? `  ·  case: ${result.case}` : '';
   const station = result.station !== null ? `  ·  station ${result.station}` : '';
@@ -259,7 +260,7 @@ export function drawSection(
     svgText(24, 50, `${verdict}${caseText}${station}`, {
       'font-size': 12.5,
       fill: INK,
-      'font-weight': result.passes === false ? 700 : 400,
+      'font-weight': result.verdict === 'below' ? 700 : 400,
     }),
   );
 

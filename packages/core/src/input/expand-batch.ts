@@ -1,3 +1,4 @@
+import { corridorSectionId, SECTION_FORMAT } from '../formats';
 import type { Point } from '../model/types';
 import { isNumber, isPointList, isRecord } from './guards';
 import type { PathKey } from './types';
@@ -58,9 +59,9 @@ export function expandBatch(batch: Record<string, unknown>): ExpandedSection[] {
     /** Paths of values computed from the ground (strata and water given by depth). */
     const fromGround: PathKey[][] = [];
 
-    data.format = 'scarpline/1';
+    data.format = SECTION_FORMAT;
     map(['format'], ['format'], true);
-    data.id = `${String(batch.id)}@${station}`;
+    data.id = corridorSectionId(String(batch.id), station);
     map(['id'], [...S, 'station'], true);
     if (typeof item.title === 'string') {
       data.title = item.title;

@@ -1,9 +1,11 @@
 import { isMap, isScalar, isSeq, LineCounter, parseDocument, type Document } from 'yaml';
+import { BATCH_FORMAT, corridorSectionId } from '../formats';
 import type { Point } from '../model/types';
+import { Concerns } from './concerns';
 import { isNumber, isRecord } from './guards';
 import { locateInDocument, type Location } from './locate-in-document';
 import { parseSections, type ParsedSections } from './parse-sections';
-import type { Message, PathKey } from './types';
+import type { BatchHeader, Message, PathKey, SectionEntry } from './types';
 import { pathText } from './words';
 
 /** A LineString feature of a corridor, as given, with the id of the section made from it. */
@@ -17,9 +19,16 @@ export interface CorridorFeature {
   properties: Record<string, unknown>;
 }
 
+/** A section of a GeoJSON corridor: the entry of its feature. */
+export interface CorridorEntry extends SectionEntry {
+  feature: CorridorFeature;
+}
+
 export interface ParsedCorridor extends ParsedSections {
   batchId: string;
   features: CorridorFeature[];
+  /** One entry per feature, in the order of the features. */
+  entries: CorridorEntry[];
 }
 
 /** A file read beside the corridor: the batch header (id, units, template) as YAML or JSON. */
@@ -178,14 +187,17 @@ export function parseGeoJsonCorridor(
 ): ParsedCorridor {
   const messages: Message[] = [];
   const features: CorridorFeature[] = [];
+  const entries: CorridorEntry[] = [];
+  const concerns = new Concerns();
+  let batch: BatchHeader | null = null;
   const push = (
     severity: Message['severity'],
     at: Location & { file: string },
     path: PathKey[],
     code: string,
     message: string,
-  ): void => {
-    messages.push({
+  ): Message => {
+    const m: Message = {
       severity,
       file: at.file,
       line: at.line,
@@ -193,13 +205,17 @@ export function parseGeoJsonCorridor(
       path: pathText(path),
       code,
       message,
-    });
+      sections: [],
+    };
+    messages.push(m);
+    return m;
   };
   const done = (batchId: string): ParsedCorridor => {
     messages.sort((a, b) =>
       a.file === b.file ? a.line - b.line || a.column - b.column : a.file < b.file ? -1 : 1,
     );
-    return { sections: [], messages, batchId, features };
+    concerns.resolve(messages, entries);
+    return { sections: [], messages, batch, entries, batchId, features };
   };
 
   const syntax = jsonSyntax(text);
@@ -286,22 +302,44 @@ export function parseGeoJsonCorridor(
     );
   }
   const batchId = typeof head.id === 'string' ? head.id : idFromFileName(fileName);
+  batch = {
+    id: batchId,
+    title: typeof head.title === 'string' ? head.title : null,
+    units: head.units === 'us' ? 'us' : 'si',
+    ...at(headerSource, [...headerBase, 'id']),
+  };
 
   // --- the features: one section each
   const items: Record<string, unknown>[] = [];
   const itemFeature: number[] = [];
   data.features.forEach((f: unknown, index: number) => {
     const fp: PathKey[] = ['features', index];
-    const problem = (path: PathKey[], code: string, message: string) =>
-      push('error', at(geo, [...fp, ...path]), [...fp, ...path], code, message);
+    const problem = (path: PathKey[], code: string, message: string) => {
+      concerns.note(push('error', at(geo, [...fp, ...path]), [...fp, ...path], code, message), [
+        index,
+      ]);
+    };
     const props = isRecord(f) && isRecord(f.properties) ? f.properties : {};
     const station = isNumber(props.station) ? props.station : null;
-    features.push({
+    const feature: CorridorFeature = {
       index,
       station,
-      sectionId: station === null ? null : `${batchId}@${station}`,
+      sectionId: station === null ? null : corridorSectionId(batchId, station),
       geometry: isRecord(f) ? f.geometry : null,
       properties: { ...props },
+    };
+    features.push(feature);
+    const idPath: PathKey[] = station === null ? fp : [...fp, 'properties', 'station'];
+    entries.push({
+      id: feature.sectionId,
+      label: feature.sectionId ?? pathText(fp),
+      station,
+      batch: batchId,
+      ...at(geo, idPath),
+      path: pathText(idPath),
+      section: null,
+      messages: [],
+      feature,
     });
     if (!isRecord(f) || f.type !== 'Feature')
       return problem([], 'not-a-feature', 'expected a GeoJSON Feature');
@@ -344,12 +382,15 @@ export function parseGeoJsonCorridor(
     });
     const degrees = coords.every((c) => Math.abs(c[0]) <= 180 && Math.abs(c[1]) <= 90);
     if (degrees && run < 0.05)
-      push(
-        'warning',
-        at(geo, [...fp, 'geometry', 'coordinates']),
-        [...fp, 'geometry', 'coordinates'],
-        'looks-like-degrees',
-        `the line is ${run.toPrecision(2)} long: are these longitude and latitude? Give projected x and y in the corridor's units`,
+      concerns.note(
+        push(
+          'warning',
+          at(geo, [...fp, 'geometry', 'coordinates']),
+          [...fp, 'geometry', 'coordinates'],
+          'looks-like-degrees',
+          `the line is ${run.toPrecision(2)} long: are these longitude and latitude? Give projected x and y in the corridor's units`,
+        ),
+        [index],
       );
     const item: Record<string, unknown> = { station, ground };
     for (const key of SECTION_KEYS) if (props[key] !== undefined) item[key] = props[key];
@@ -367,14 +408,14 @@ export function parseGeoJsonCorridor(
     return done(batchId);
   }
 
-  const batch: Record<string, unknown> = {
+  const asBatch: Record<string, unknown> = {
     ...head,
-    format: head.format ?? 'scarpline-batch/1',
+    format: head.format ?? BATCH_FORMAT,
     id: batchId,
     units: head.units ?? 'si',
     sections: items,
   };
-  const synthetic = JSON.stringify(batch, null, 1);
+  const synthetic = JSON.stringify(asBatch, null, 1);
   const parsed = parseSections(synthetic, 'corridor.json');
   const sdoc = read(synthetic, 'corridor.json', true).doc;
 
@@ -390,12 +431,26 @@ export function parseGeoJsonCorridor(
     if (path[0] === 'sections') return { src: geo, path: ['features'] };
     return { src: headerSource, path: [...headerBase, ...path] };
   };
+  // The synthetic batch's item k is feature itemFeature[k]: its messages concern that feature.
+  const about = new Map<Message, number[]>();
+  parsed.entries.forEach((e, k) => {
+    for (const m of e.messages) about.set(m, [...(about.get(m) ?? []), itemFeature[k]]);
+    entries[itemFeature[k]].section = e.section;
+  });
   for (const m of parsed.messages) {
     const path = pathAt(sdoc, offsetOf(synthetic, m.line, m.column));
     const o = origin(path);
     const loc = at(o.src, o.path);
     const field = m.path ? pathText(origin(parsePath(m.path)).path) : '';
-    messages.push({ ...m, file: loc.file, line: loc.line, column: loc.column, path: field });
+    const moved: Message = {
+      ...m,
+      file: loc.file,
+      line: loc.line,
+      column: loc.column,
+      path: field,
+    };
+    messages.push(moved);
+    concerns.note(moved, about.get(m) ?? []);
   }
   const result = done(batchId);
   result.sections = parsed.sections;

@@ -3,12 +3,14 @@ import { normaliseSection } from '../model/normalise-section';
 import type { RawSection } from '../model/raw-section';
 import type { Section, UnitSystem } from '../model/types';
 import { rawSectionToSi } from '../model/units';
+import { BATCH_FORMAT, corridorSectionId, SECTION_FORMAT } from '../formats';
 import { checkBatch } from './check-batch';
+import { Concerns } from './concerns';
 import { checkSection } from './check-section';
 import { expandBatch } from './expand-batch';
 import { isRecord } from './guards';
 import { locateInDocument, type Location } from './locate-in-document';
-import type { Issue, Message, PathKey } from './types';
+import type { BatchHeader, Issue, Message, PathKey, SectionEntry } from './types';
 import { validateAgainstSchema } from './validate-against-schema';
 import { readValuesWithUnits } from './values-with-units';
 import { pathText } from './words';
@@ -16,12 +18,20 @@ import { pathText } from './words';
 export interface ParsedSections {
   /** The sections without errors, validated and normalised (SI), in the order of the file. */
   sections: Section[];
-  /** Every error and warning of the file, located, in the order of the file. */
+  /**
+   * Every error and warning of the file, located, in the order of the file; each with the ids
+   * of the sections it concerns.
+   */
   messages: Message[];
+  /** The header of the file's corridor batch (the first, when it holds several); null for none. */
+  batch: BatchHeader | null;
+  /**
+   * Every section of the file, read or not, in the order of the file: each section document
+   * with an id and each item of a batch, with its id, where it is given, its section (null
+   * when a message stops it) and the messages about it.
+   */
+  entries: SectionEntry[];
 }
-
-const SECTION_FORMAT = 'scarpline/1';
-const BATCH_FORMAT = 'scarpline-batch/1';
 
 /** Line and column of an offset in a text (for errors found before the YAML parser runs). */
 function lineColumnOf(text: string, offset: number): Location {
@@ -55,12 +65,15 @@ function jsonSyntaxError(text: string): { location: Location; message: string } 
   }
 }
 
-/** A section read from the file: its id and where the id is written; null when invalid. */
-interface Produced {
-  id: string;
-  location: Location;
-  path: string;
-  section: Section | null;
+/** What a document's reader needs: where to put messages, entries, the batch header. */
+interface Reading {
+  fileName: string;
+  push: Push;
+  concerns: Concerns;
+  entries: SectionEntry[];
+  batches: BatchHeader[];
+  /** The entries whose input was complete enough to be checked as a section (ids compared). */
+  checked: Set<number>;
 }
 
 /**
@@ -68,9 +81,11 @@ interface Produced {
  * (format scarpline/1) or a corridor batch (format scarpline-batch/1, expanded into its
  * sections, ids `<batch id>@<station>`). Every document is checked against the schema, then by
  * the checks the schema cannot express, and every error and warning is reported with its line
- * and column in the file — all of them, not only the first. The sections without errors are
- * normalised: SI units, defaults filled in, strata tops clipped (see normaliseSection).
- * Pure: the caller reads the file.
+ * and column in the file — all of them, not only the first — and with the ids of the sections
+ * it concerns. The sections without errors are normalised: SI units, defaults filled in, strata
+ * tops clipped (see normaliseSection). Besides the sections, the result gives the batch's
+ * header and an entry per section, read or not, with its own messages: what a caller needs to
+ * report a corridor station by station. Pure: the caller reads the file.
  *
  * @example
  * const { sections, messages } = parseSections(text, 'clay-cut.yaml');
@@ -80,15 +95,11 @@ export function parseSections(text: string, fileName: string): ParsedSections {
   const isJson = /\.json$/i.test(fileName);
   const counter = new LineCounter();
   const messages: Message[] = [];
-  const produced: Produced[] = [];
-  const push = (
-    severity: Message['severity'],
-    location: Location,
-    path: string,
-    code: string,
-    message: string,
-  ): void => {
-    messages.push({
+  const concerns = new Concerns();
+  const entries: SectionEntry[] = [];
+  const batches: BatchHeader[] = [];
+  const push: Push = (severity, location, path, code, message) => {
+    const m: Message = {
       severity,
       file: fileName,
       line: location.line,
@@ -96,8 +107,12 @@ export function parseSections(text: string, fileName: string): ParsedSections {
       path,
       code,
       message,
-    });
+      sections: [],
+    };
+    messages.push(m);
+    return m;
   };
+  const reading: Reading = { fileName, push, concerns, entries, batches, checked: new Set() };
   const syntaxWords = isJson ? 'JSON syntax error' : 'YAML syntax error';
 
   // A JSON file must be JSON: YAML would accept more (comments, trailing commas).
@@ -111,6 +126,9 @@ export function parseSections(text: string, fileName: string): ParsedSections {
   let syntaxErrors = 0;
   let documents = 0;
   for (const doc of docs) {
+    // The parser's messages about a document concern the sections it gives.
+    const before = messages.length;
+    const first = entries.length;
     for (const e of doc.errors) {
       syntaxErrors++;
       const { line, col } = counter.linePos(e.pos[0]);
@@ -127,7 +145,16 @@ export function parseSections(text: string, fileName: string): ParsedSections {
       const { line, col } = counter.linePos(w.pos[0]);
       push('warning', { line, column: col }, '', 'yaml-warning', w.message);
     }
-    if (doc.errors.length > 0 || doc.contents === null || jsonError) continue;
+    const parserMessages = messages.slice(before);
+    // (a document that gives none: they concern the file's sections, as a file's own do)
+    const own = (): void => {
+      const mine = entries.map((_, i) => i).slice(first);
+      if (mine.length > 0) for (const m of parserMessages) concerns.note(m, mine);
+    };
+    if (doc.errors.length > 0 || doc.contents === null || jsonError) {
+      own();
+      continue;
+    }
     let data: unknown;
     try {
       data = doc.toJS({ maxAliasCount: 1000 });
@@ -135,12 +162,17 @@ export function parseSections(text: string, fileName: string): ParsedSections {
       syntaxErrors++;
       const message = e instanceof Error ? e.message : String(e);
       push('error', locateInDocument(doc, counter, []), '', 'syntax', message);
+      own();
       continue;
     }
     // A document of nothing but comments (or a lone null) is empty, not a section.
-    if (data === null || data === undefined) continue;
+    if (data === null || data === undefined) {
+      own();
+      continue;
+    }
     documents++;
-    readDocument(doc, counter, data, push, produced);
+    readDocument(doc, counter, data, reading);
+    own();
   }
 
   if (jsonError && syntaxErrors === 0) {
@@ -154,22 +186,28 @@ export function parseSections(text: string, fileName: string): ParsedSections {
   // Ids must be unique across the documents (and the sections of batches) of a file.
   const seen = new Map<string, Location>();
   const sections: Section[] = [];
-  for (const p of produced) {
-    const first = seen.get(p.id);
-    if (!first && p.section) sections.push(p.section);
+  entries.forEach((e, i) => {
+    if (e.id === null || !reading.checked.has(i)) return;
+    const first = seen.get(e.id);
     if (first) {
-      push(
+      const m = push(
         'error',
-        p.location,
-        p.path,
+        e,
+        e.path,
         'duplicate-id',
-        `the id ${JSON.stringify(p.id)} is already used at line ${first.line}`,
+        `the id ${JSON.stringify(e.id)} is already used at line ${first.line}`,
       );
-    } else seen.set(p.id, p.location);
-  }
+      concerns.note(m, [i]);
+      e.section = null;
+    } else {
+      seen.set(e.id, e);
+      if (e.section) sections.push(e.section);
+    }
+  });
 
   messages.sort((a, b) => a.line - b.line || a.column - b.column);
-  return { sections, messages };
+  concerns.resolve(messages, entries);
+  return { sections, messages, batch: batches[0] ?? null, entries };
 }
 
 type Push = (
@@ -178,29 +216,28 @@ type Push = (
   path: string,
   code: string,
   message: string,
-) => void;
+) => Message;
 
 function unitsOf(data: Record<string, unknown>): UnitSystem {
   return data.units === 'us' ? 'us' : 'si';
 }
 
 /** One YAML document: a section or a batch. */
-function readDocument(
-  doc: Document,
-  counter: LineCounter,
-  data: unknown,
-  push: Push,
-  produced: Produced[],
-): void {
+function readDocument(doc: Document, counter: LineCounter, data: unknown, reading: Reading): void {
+  const { push, concerns, entries } = reading;
   const locate = (path: readonly PathKey[], atKey = false): Location =>
     locateInDocument(doc, counter, path, atKey);
+  // A section document's messages concern its section (noted once its entry exists).
+  const reported: Message[] = [];
   const report = (issue: Issue): void => {
-    push(
-      issue.severity,
-      locate(issue.path, issue.key),
-      pathText(issue.path),
-      issue.code,
-      issue.message,
+    reported.push(
+      push(
+        issue.severity,
+        locate(issue.path, issue.key),
+        pathText(issue.path),
+        issue.code,
+        issue.message,
+      ),
     );
   };
   if (!isRecord(data)) {
@@ -214,7 +251,7 @@ function readDocument(
     return;
   }
   if (data.format === BATCH_FORMAT) {
-    readBatch(data, locate, push, produced);
+    readBatch(data, locate, reading);
     return;
   }
 
@@ -246,39 +283,94 @@ function readDocument(
   const section = issues.some((i) => i.severity === 'error')
     ? null
     : normaliseSection(rawSectionToSi(read as unknown as RawSection));
+  const mine: number[] = [];
   if (typeof data.id === 'string') {
-    produced.push({ id: data.id, location: locate(['id']), path: 'id', section });
+    mine.push(entries.length);
+    reading.checked.add(entries.length);
+    entries.push({
+      id: data.id,
+      label: data.id,
+      station: typeof data.station === 'number' ? data.station : null,
+      batch: null,
+      file: reading.fileName,
+      ...locate(['id']),
+      path: 'id',
+      section,
+      messages: [],
+    });
   }
+  for (const m of reported) concerns.note(m, mine);
 }
 
 /** A corridor batch: its own schema and checks, then every expanded section. */
 function readBatch(
   document: Record<string, unknown>,
   locate: (path: readonly PathKey[], atKey?: boolean) => Location,
-  push: Push,
-  produced: Produced[],
+  reading: Reading,
 ): void {
+  const { push, concerns, entries } = reading;
   const units = unitsOf(document);
   // Values written with their unit (`depth: 12 ft`) become numbers in the batch's units.
   const { data: batch, issues: unitIssues } = readValuesWithUnits(document, 'batch', units);
+  const batchId = typeof batch.id === 'string' ? batch.id : String(batch.id);
+  reading.batches.push({
+    id: batchId,
+    title: typeof batch.title === 'string' ? batch.title : null,
+    units,
+    file: reading.fileName,
+    ...locate(['id']),
+  });
+
+  // An entry per item of the batch, in order: its id when it gives a number station.
+  const items = Array.isArray(batch.sections) ? (batch.sections as unknown[]) : [];
+  const entryOf: number[] = items.map((item, i) => {
+    const station = isRecord(item) && typeof item.station === 'number' ? item.station : null;
+    const idPath: PathKey[] = station === null ? ['sections', i] : ['sections', i, 'station'];
+    const id = station === null ? null : corridorSectionId(batchId, station);
+    entries.push({
+      id,
+      label: id ?? `sections[${i}]`,
+      station,
+      batch: batchId,
+      file: reading.fileName,
+      ...locate(idPath),
+      path: pathText(idPath),
+      section: null,
+      messages: [],
+    });
+    return entries.length - 1;
+  });
+  /** The entries a path of the batch file concerns: its item's, or all of the batch's. */
+  const concerned = (path: readonly PathKey[]): number[] =>
+    path[0] === 'sections' && typeof path[1] === 'number'
+      ? entryOf[path[1]] === undefined
+        ? []
+        : [entryOf[path[1]]]
+      : entryOf;
+
   const batchIssues = [
     ...unitIssues,
     ...validateAgainstSchema(batch, 'batch', units),
     ...checkBatch(batch),
   ];
-  const reported = new Set<string>();
-  const report = (issue: Issue, path: PathKey[] = issue.path, prefix = ''): void => {
+  const reported = new Map<string, Message>();
+  const report = (
+    issue: Issue,
+    about: readonly number[],
+    path: PathKey[] = issue.path,
+    prefix = '',
+  ): void => {
     const location = locate(path, issue.key);
     const text = pathText(path);
     const message = prefix + issue.message;
     const key = [issue.severity, location.line, location.column, text, issue.code, message].join(
       '|',
     );
-    if (reported.has(key)) return;
-    reported.add(key);
-    push(issue.severity, location, text, issue.code, message);
+    const m = reported.get(key) ?? push(issue.severity, location, text, issue.code, message);
+    reported.set(key, m);
+    concerns.note(m, about);
   };
-  batchIssues.forEach((issue) => report(issue));
+  batchIssues.forEach((issue) => report(issue, concerned(issue.path)));
 
   // A section's own messages repeat nothing the batch schema already said: drop those whose
   // place in the file lies at or under a place with a batch error.
@@ -292,8 +384,13 @@ function readBatch(
   const expanded = expandBatch(batch);
   // Messages that come from the template are said once when they hold for every section, and
   // with the stations they concern otherwise.
-  const fromTemplate = new Map<string, { issue: Issue; path: PathKey[]; stations: number[] }>();
+  const fromTemplate = new Map<
+    string,
+    { issue: Issue; path: PathKey[]; stations: number[]; about: number[] }
+  >();
   for (const section of expanded) {
+    const own = entryOf[section.index];
+    reading.checked.add(own);
     const issues = [
       ...validateAgainstSchema(section.data, 'section', units),
       ...checkSection(section.data),
@@ -306,29 +403,24 @@ function readBatch(
       if (under(path)) continue;
       if (path[0] === 'template') {
         const key = [issue.severity, issue.code, pathText(path), issue.message].join('|');
-        const entry = fromTemplate.get(key) ?? { issue, path, stations: [] };
+        const entry = fromTemplate.get(key) ?? { issue, path, stations: [], about: [] };
         entry.stations.push(section.station);
+        entry.about.push(own);
         fromTemplate.set(key, entry);
-      } else report(issue, path);
+      } else report(issue, [own], path);
     }
-    const idPath = section.origin(['id']);
     const valid = !spoils(section.index) && !issues.some((i) => i.severity === 'error');
-    produced.push({
-      id: String(section.data.id),
-      location: locate(idPath),
-      path: pathText(idPath),
-      section: valid
-        ? normaliseSection(rawSectionToSi(section.data as unknown as RawSection))
-        : null,
-    });
+    entries[own].section = valid
+      ? normaliseSection(rawSectionToSi(section.data as unknown as RawSection))
+      : null;
   }
-  for (const { issue, path, stations } of fromTemplate.values()) {
-    if (stations.length === expanded.length) report(issue, path);
+  for (const { issue, path, stations, about } of fromTemplate.values()) {
+    if (stations.length === expanded.length) report(issue, about, path);
     else {
       const shown = stations.slice(0, 5).join(', ');
       const more = stations.length > 5 ? ` and ${stations.length - 5} more` : '';
       const word = stations.length === 1 ? 'station' : 'stations';
-      report(issue, path, `at ${word} ${shown}${more}: `);
+      report(issue, about, path, `at ${word} ${shown}${more}: `);
     }
   }
 }

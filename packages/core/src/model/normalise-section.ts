@@ -12,6 +12,7 @@ import type {
   Water,
 } from './types';
 import { toSi } from './units';
+import { SECTION_FORMAT } from '../formats';
 
 /** Default unit weight of water: 9.81 kN/m³ for si files, 62.4 pcf for us files (common practice). */
 function defaultWaterUnitWeight(units: RawSection['units']): number {
@@ -98,7 +99,7 @@ export function normaliseSection(raw: RawSection): Section {
   };
 
   return {
-    format: 'scarpline/1',
+    format: SECTION_FORMAT,
     id: raw.id,
     title: raw.title ?? raw.id,
     station: raw.station ?? null,

@@ -2,6 +2,7 @@
  * A section as written in a file that passed the schema (schemas/section.schema.json): the
  * file's own units, optional fields absent. normaliseSection turns it into a Section.
  */
+import type { SECTION_FORMAT } from '../formats';
 import type {
   InfiniteSlopeSpec,
   IntersliceFunction,
@@ -54,7 +55,7 @@ export interface RawAnalysis {
 }
 
 export interface RawSection {
-  format: 'scarpline/1';
+  format: typeof SECTION_FORMAT;
   id: string;
   title?: string;
   description?: string;

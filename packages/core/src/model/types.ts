@@ -7,6 +7,7 @@
  * ground's x-range, clipped so that it never rises above the ground or the stratum above.
  * x runs to the right, y up.
  */
+import type { SECTION_FORMAT } from '../formats';
 
 /** A point [x, y]. */
 export type Point = [number, number];
@@ -175,7 +176,7 @@ export interface Analysis {
 
 /** A validated, normalised section in SI units. */
 export interface Section {
-  format: 'scarpline/1';
+  format: typeof SECTION_FORMAT;
   id: string;
   title: string;
   /** Chainage and offset as given in the file (labels placing the section on the corridor: not converted). */

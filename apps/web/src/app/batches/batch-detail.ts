@@ -46,6 +46,7 @@ import { PlanView } from './plan-view';
 import { batchUnits } from './scales';
 import { SectionTable } from './section-table';
 import { userName } from '../core/user-name';
+import { JOB_STATE_WORDS } from '@scarpline/core/verdict';
 
 /** Saves a fetched file through an object URL (the download carried the bearer token). */
 function save(blob: Blob, fileName: string): void {
@@ -92,6 +93,7 @@ export class BatchDetail {
   private readonly router = inject(Router);
   private readonly projects = inject(ProjectsApi);
   protected readonly auth = inject(Auth);
+  protected readonly jobWords = JOB_STATE_WORDS;
 
   /** The batch id from the route. */
   readonly id = input.required<string>();
@@ -237,9 +239,9 @@ export class BatchDetail {
     void this.router.navigate(['/sections', id]);
   }
 
+  /** A feature of the results names its section by its id in the input: the listed key. */
   protected openFeature(f: ResultFeature): void {
-    const id =
-      f.properties.sectionId ?? this.all().value?.find((s) => s.key === f.properties.id)?.id;
+    const id = this.all().value?.find((s) => s.key === f.properties.section_id)?.id;
     if (id !== undefined) this.openSection(id);
   }
 

@@ -19,6 +19,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
 import { catchError, map, of, switchMap, type Observable } from 'rxjs';
+import { BATCH_FORMAT } from '@scarpline/core/formats';
 import type { LocatedError, Problem } from '../core/models';
 import { locatedText, toProblem } from '../core/problem';
 import { ProjectsApi } from '../projects/projects-api';
@@ -63,7 +64,7 @@ export function detectPasted(text: string): Pasted {
     if (d['type'] === 'FeatureCollection') {
       return { kind: 'geojson', fileName: 'pasted.geojson', label: 'GeoJSON corridor' };
     }
-    if (d['format'] === 'scarpline-batch/1') {
+    if (d['format'] === BATCH_FORMAT) {
       return { kind: 'batch', fileName: 'batch.json', label: 'batch (JSON)' };
     }
     return { kind: 'json', fileName: 'pasted.json', label: 'JSON' };

@@ -3,14 +3,16 @@
  * events.ts, exports.ts, reviews.ts, review-requests.ts).
  */
 import type { Message, Warning } from '@scarpline/core';
+import type { JobState, Verdict } from '@scarpline/core/verdict';
 import type { UserRef } from '../core/models';
 import type { ReviewState, ReviewSummary } from '../reviews/review-types';
 import type { Units } from './scales';
 
 export type BatchStatus = 'running' | 'done';
-export type SectionStatus = 'queued' | 'running' | 'done' | 'failed';
-/** pass / fail against the required FS, none when no FS is required, failed when unsolved. */
-export type ResultStatus = 'pass' | 'fail' | 'none' | 'failed';
+/** The state of a section's job: the core's job states (queued, running, done, failed). */
+export type SectionStatus = JobState;
+/** The verdict of a result: the core's codes (meets, below, no-fs, no-requirement, input-error). */
+export type { Verdict };
 
 /** How far a batch has come (services/batches.ts `progress`). */
 export interface BatchProgress {
@@ -62,12 +64,10 @@ export interface Geometry {
 
 /** The current result of a listed section. */
 export interface SectionListResult {
-  status: ResultStatus;
+  verdict: Verdict;
   governingMethod: string | null;
   governingFs: number | null;
   requiredFs: number | null;
-  /** null when no FS is required or nothing was solved. */
-  passes?: boolean | null;
   warnings?: Warning[];
 }
 
@@ -108,23 +108,30 @@ export interface SectionQuery {
   page?: number;
   pageSize?: number;
   status?: SectionStatus;
-  pass?: boolean;
+  verdict?: Verdict;
 }
 
-/** The properties of one feature of GET /batches/:id/results.geojson. */
+/**
+ * The properties of one feature of GET /batches/:id/results.geojson: the core's results table
+ * (schemas/export-table.schema.json), then the service's own columns.
+ */
 export interface ResultProperties {
-  id: string;
-  sectionId?: number;
   station: number | null;
-  stationLabel?: string | null;
-  status: SectionStatus;
+  /** The station as chainage in the section's units (1+240, 150+00). */
+  chainage: string | null;
+  /** The section's id in the input (`<batch id>@<station>`): the key of a listed section. */
+  section_id: string;
+  case: string | null;
+  governing_method: string | null;
+  /** To three decimals. */
   fs: number | null;
-  method: string | null;
-  required: number | null;
-  passes: boolean | null;
-  warningCount?: number | null;
-  reviewState: ReviewState;
+  required_fs: number | null;
+  verdict: Verdict | null;
+  warnings: number | null;
+  note: string | null;
   caution: string;
+  review_state: ReviewState;
+  job_state: SectionStatus;
 }
 
 export interface ResultFeature {

@@ -45,7 +45,7 @@ describe('BatchesApi', () => {
         page: 3,
         pageSize: 25,
         status: 'done',
-        pass: false,
+        verdict: 'below',
       })
       .subscribe();
     const req = backend.expectOne((r) => r.url === '/api/v1/batches/12/sections');
@@ -55,9 +55,9 @@ describe('BatchesApi', () => {
     expect(p.get('page')).toBe('3');
     expect(p.get('pageSize')).toBe('25');
     expect(p.get('status')).toBe('done');
-    expect(p.get('pass')).toBe('false');
+    expect(p.get('verdict')).toBe('below');
     expect(req.request.urlWithParams).toBe(
-      '/api/v1/batches/12/sections?sort=fs&order=desc&page=3&pageSize=25&status=done&pass=false',
+      '/api/v1/batches/12/sections?sort=fs&order=desc&page=3&pageSize=25&status=done&verdict=below',
     );
     req.flush(page(3, 25, 61));
   });

@@ -49,7 +49,7 @@ export class BatchesApi {
     if (q.page !== undefined) params = params.set('page', q.page);
     if (q.pageSize !== undefined) params = params.set('pageSize', q.pageSize);
     if (q.status) params = params.set('status', q.status);
-    if (q.pass !== undefined) params = params.set('pass', String(q.pass));
+    if (q.verdict) params = params.set('verdict', q.verdict);
     return this.http.get<SectionPage>(`${API}/batches/${batchId}/sections`, { params });
   }
 

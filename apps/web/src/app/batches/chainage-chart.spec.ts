@@ -10,7 +10,6 @@ function item(
   required: number | null = 1.5,
   units: Units = 'si',
 ): SectionListItem {
-  const passes = fs === null || required === null ? null : fs >= required;
   return {
     id,
     key: `wcb-test@${station}`,
@@ -30,11 +29,10 @@ function item(
       fs === null
         ? null
         : {
-            status: passes === null ? 'none' : passes ? 'pass' : 'fail',
+            verdict: required === null ? 'no-requirement' : fs >= required ? 'meets' : 'below',
             governingMethod: 'bishop',
             governingFs: fs,
             requiredFs: required,
-            passes,
             warnings: [],
           },
   };
@@ -171,7 +169,7 @@ describe('ChainageChart', () => {
     f.componentInstance.open.subscribe((id) => opened.push(id));
     const pts = Array.from(f.nativeElement.querySelectorAll('g.pt')) as SVGGElement[];
     expect(pts[1].querySelector('title')?.textContent).toBe(
-      'Station 1+020: FS 1.20, required 1.50 (below it)',
+      'Station 1+020: FS 1.20, required 1.50 (below the required FS)',
     );
     pts[1].dispatchEvent(new MouseEvent('click', { bubbles: true }));
     pts[3].dispatchEvent(new KeyboardEvent('keydown', { key: 'Enter', bubbles: true }));

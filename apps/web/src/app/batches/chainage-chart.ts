@@ -10,7 +10,8 @@ import {
 } from '@angular/core';
 import { observedWidth } from '../shared/observed-width';
 import { steppedIndex } from '../shared/stepped-index';
-import type { SectionListItem } from './batch-types';
+import { VERDICT_WORDS } from '@scarpline/core/verdict';
+import type { SectionListItem, Verdict } from './batch-types';
 import {
   batchUnits,
   formatChainage,
@@ -21,7 +22,6 @@ import {
   niceTicks,
   type Units,
 } from './scales';
-import { passesOf } from './words';
 
 /** One station of the chart: a section with a station and a governing FS. */
 export interface ChainagePoint {
@@ -30,8 +30,8 @@ export interface ChainagePoint {
   label: string;
   fs: number;
   required: number | null;
-  /** null when no FS is required. */
-  passes: boolean | null;
+  /** meets, below, or no-requirement (a plotted station has an FS). */
+  verdict: Verdict;
 }
 
 /** The stations to plot (those with a station and an FS), by chainage, and how many were left out. */
@@ -47,14 +47,13 @@ export function chainagePoints(items: readonly SectionListItem[]): {
     if (s.station === null || !r || r.governingFs === null || !Number.isFinite(r.governingFs)) {
       continue;
     }
-    const passes = passesOf(r);
     points.push({
       sectionId: s.id,
       station: s.station,
       label: s.stationLabel ?? formatChainage(s.station, units),
       fs: r.governingFs,
       required: r.requiredFs,
-      passes,
+      verdict: r.verdict,
     });
   }
   points.sort((a, b) => a.station - b.station || a.sectionId - b.sectionId);
@@ -139,7 +138,7 @@ export function chainageLayout(
     const px = x(p.station);
     const py = y(Math.min(p.fs, yMax));
     let labelY: number | null = null;
-    if (p.passes === false) {
+    if (p.verdict === 'below') {
       const half = (p.label.length * 6.2) / 2 + 2;
       for (let lift = 0; lift < 3 && labelY === null; lift++) {
         const ly = py - 12 - lift * 13;
@@ -242,7 +241,9 @@ export class ChainageChart {
       this.data().units,
     ),
   );
-  protected readonly failing = computed(() => this.data().points.filter((p) => p.passes === false));
+  protected readonly failing = computed(() =>
+    this.data().points.filter((p) => p.verdict === 'below'),
+  );
   protected readonly xTitle = computed(() => {
     const u = lengthUnit(this.data().units);
     return u ? `Chainage (${u})` : 'Chainage';
@@ -250,19 +251,19 @@ export class ChainageChart {
   protected readonly summary = computed(() => {
     const { points, skipped } = this.data();
     const fails = this.failing();
-    const judged = points.filter((p) => p.passes !== null).length;
+    const judged = points.filter((p) => p.verdict === 'meets' || p.verdict === 'below').length;
     const parts: string[] = [];
     if (fails.length > 0) {
       const names = fails.slice(0, 12).map((p) => p.label);
       const more = fails.length > 12 ? `, and ${fails.length - 12} more` : '';
       parts.push(
-        `${fails.length} of ${judged} stations below the required FS: ${names.join(', ')}${more}.`,
+        `${fails.length} of ${judged} stations ${VERDICT_WORDS.below}: ${names.join(', ')}${more}.`,
       );
     } else if (judged > 0) {
       parts.push(`All ${judged} stations meet the required FS.`);
     }
     const free = points.length - judged;
-    if (free > 0) parts.push(`${free} with no required FS.`);
+    if (free > 0) parts.push(`${free}: ${VERDICT_WORDS['no-requirement']}.`);
     const above = this.layout().points.filter((p) => p.clipped).length;
     if (above > 0) {
       parts.push(`${above} with FS above ${this.layout().yMax} are drawn at the top edge.`);
@@ -280,10 +281,11 @@ export class ChainageChart {
 
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
 
+  protected readonly words = VERDICT_WORDS;
+
   protected describe(p: PlacedPoint): string {
-    const verdict = p.passes === null ? 'no required FS' : p.passes ? 'meets it' : 'below it';
     const req = p.required === null ? '' : `, required ${formatFs(p.required)}`;
-    return `Station ${p.label}: FS ${formatFs(p.fs)}${req} (${verdict})`;
+    return `Station ${p.label}: FS ${formatFs(p.fs)}${req} (${VERDICT_WORDS[p.verdict]})`;
   }
 
   protected choose(p: PlacedPoint): void {

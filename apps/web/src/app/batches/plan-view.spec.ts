@@ -9,24 +9,31 @@ function feature(
   fs: number | null,
   required: number | null = 1.5,
 ): ResultFeature {
-  const passes = fs === null || required === null ? null : fs >= required;
   return {
     type: 'Feature',
     id: `wcb-geo@${1000 + 20 * n}`,
     geometry: coords ? { type: 'LineString', coordinates: coords } : null,
     properties: {
-      id: `wcb-geo@${1000 + 20 * n}`,
-      sectionId: 100 + n,
       station: 1000 + 20 * n,
-      stationLabel: `1+${String(20 * n).padStart(3, '0')}`,
-      status: 'done',
+      chainage: `1+${String(20 * n).padStart(3, '0')}`,
+      section_id: `wcb-geo@${1000 + 20 * n}`,
+      case: null,
+      governing_method: 'bishop',
       fs,
-      method: 'bishop',
-      required,
-      passes,
-      warningCount: 0,
-      reviewState: 'pending',
+      required_fs: required,
+      verdict:
+        fs === null
+          ? 'no-fs'
+          : required === null
+            ? 'no-requirement'
+            : fs >= required
+              ? 'meets'
+              : 'below',
+      warnings: 0,
+      note: null,
       caution: 'Results need review.',
+      review_state: 'pending',
+      job_state: 'done',
     },
   };
 }
@@ -149,7 +156,7 @@ describe('PlanView', () => {
     expect(fsBin(2.0, 1.5)).toBe(3);
     expect(fsBin(2.5, 1.5)).toBe(4);
     expect(fsBin(3.2, 1.5)).toBe(5);
-    expect(fsBin(1.52, 1.5, false)).toBe(0);
+    expect(fsBin(1.52, 1.5, 'below')).toBe(0);
     expect(fsBin(1.7, null)).toBeNull();
     expect(fsBin(null, 1.5)).toBeNull();
     const labels = fsBins([1.5, 1.5]).map((b) => b.label);
@@ -207,12 +214,12 @@ describe('PlanView', () => {
 
   it('opens the section of a line on click', async () => {
     const f = await render(rungs(10, 50, [1.8, 1.2]));
-    const opened: (number | undefined)[] = [];
-    f.componentInstance.open.subscribe((x) => opened.push(x.properties.sectionId));
+    const opened: string[] = [];
+    f.componentInstance.open.subscribe((x) => opened.push(x.properties.section_id));
     (f.nativeElement.querySelectorAll('g.line')[1] as Element).dispatchEvent(
       new MouseEvent('click', { bubbles: true }),
     );
-    expect(opened).toEqual([101]);
+    expect(opened).toEqual(['wcb-geo@1020']);
   });
 
   it('says so plainly when the input had no coordinates', async () => {

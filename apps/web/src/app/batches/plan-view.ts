@@ -10,7 +10,8 @@ import {
 } from '@angular/core';
 import { observedWidth } from '../shared/observed-width';
 import { steppedIndex } from '../shared/stepped-index';
-import type { ResultCollection, ResultFeature } from './batch-types';
+import { VERDICT_WORDS } from '@scarpline/core/verdict';
+import type { ResultCollection, ResultFeature, Verdict } from './batch-types';
 import { formatChainage, formatFs, formatNumber, lengthUnit, niceStep, type Units } from './scales';
 
 /**
@@ -29,18 +30,21 @@ export interface FsBin {
   label: string;
 }
 
-/** The bin of an FS against its required FS (a failing result is always the lowest bin). */
+/**
+ * The bin of an FS against its required FS (a result below it is always the lowest bin, one
+ * that meets it never; the verdict is decided on the unrounded FS).
+ */
 export function fsBin(
   fs: number | null,
   required: number | null,
-  passes: boolean | null = null,
+  verdict: Verdict | null = null,
 ): number | null {
   if (fs === null || required === null || !(required > 0)) return null;
-  if (passes === false) return 0;
+  if (verdict === 'below') return 0;
   const ratio = fs / required;
   let i = 0;
   while (i < FS_BIN_EDGES.length && ratio >= FS_BIN_EDGES[i]) i++;
-  return passes === true ? Math.max(1, i) : i;
+  return verdict === 'meets' ? Math.max(1, i) : i;
 }
 
 /** The legend: FS values when every section has the same required FS, multiples otherwise. */
@@ -171,19 +175,20 @@ export function planLayout(
 
   const lines: PlanLine[] = withCoords.map(({ feature, coords }) => {
     const p = feature.properties;
-    const bin = fsBin(p.fs, p.required, p.passes);
+    const bin = fsBin(p.fs, p.required_fs, p.verdict);
     const parts = coords.map((line) => line.map(project));
     const first = parts[0];
     const a = first[Math.floor((first.length - 1) / 2)];
     const b = first[Math.ceil((first.length - 1) / 2)];
-    const label = p.stationLabel ?? (p.station === null ? p.id : formatChainage(p.station, units));
+    const label =
+      p.chainage ?? (p.station === null ? p.section_id : formatChainage(p.station, units));
     return {
       feature,
       label,
       parts,
       bin,
       colour: bin === null ? NO_RATIO_COLOUR : FS_RAMP[bin],
-      fails: p.passes === false,
+      fails: p.verdict === 'below',
       labelAt: null,
       mid: [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2],
     };
@@ -272,7 +277,7 @@ export class PlanView {
   protected readonly bins = computed(() =>
     fsBins(
       (this.results()?.features ?? [])
-        .map((f) => f.properties.required)
+        .map((f) => f.properties.required_fs)
         .filter((r): r is number => r !== null),
     ),
   );
@@ -292,15 +297,12 @@ export class PlanView {
     return part.map((p) => p.join(',')).join(' ');
   }
 
+  protected readonly words = VERDICT_WORDS;
+
   protected describe(l: PlanLine): string {
     const p = l.feature.properties;
-    const verdict =
-      p.passes === null
-        ? 'no verdict'
-        : p.passes
-          ? 'meets the required FS'
-          : 'below the required FS';
-    const req = p.required === null ? '' : `, required ${formatFs(p.required)}`;
+    const verdict = p.verdict === null ? 'no result yet' : VERDICT_WORDS[p.verdict];
+    const req = p.required_fs === null ? '' : `, required ${formatFs(p.required_fs)}`;
     return `Station ${l.label}: FS ${formatFs(p.fs)}${req} (${verdict})`;
   }
 

@@ -5,7 +5,6 @@ import { filterSections, SectionTable } from './section-table';
 import { apiTestProviders } from '../testing/api-testing';
 
 function item(id: number, station: number | null, fs: number | null): SectionListItem {
-  const passes = fs === null ? null : fs >= 1.5;
   return {
     id,
     key: `wcb@${station}`,
@@ -23,11 +22,10 @@ function item(id: number, station: number | null, fs: number | null): SectionLis
       fs === null
         ? null
         : {
-            status: passes ? 'pass' : 'fail',
+            verdict: fs >= 1.5 ? 'meets' : 'below',
             governingMethod: 'spencer',
             governingFs: fs,
             requiredFs: 1.5,
-            passes,
             warnings: [{ code: 'w', message: 'a warning' }],
           },
   };
@@ -58,7 +56,7 @@ describe('SectionTable', () => {
 
   const request = () => backend.expectOne((r) => r.url === '/api/v1/batches/7/sections');
 
-  it('shows a page from the server with links, pass/fail in words and icons', async () => {
+  it('shows a page from the server with links, the verdict in words and icons', async () => {
     const req = request();
     expect(req.request.urlWithParams).toBe(
       '/api/v1/batches/7/sections?sort=station&order=asc&page=1&pageSize=50',
@@ -68,10 +66,10 @@ describe('SectionTable', () => {
     const rows = Array.from(el.querySelectorAll('[data-testid=section-row]'));
     expect(rows).toHaveLength(4);
     expect(rows[0].querySelector('a')?.getAttribute('href')).toBe('/sections/1');
-    expect(rows[0].textContent).toContain('Pass');
-    expect(rows[1].textContent).toContain('Fail');
+    expect(rows[0].textContent).toContain('meets');
+    expect(rows[1].textContent).toContain('below');
     expect(rows[1].querySelector('mat-icon')?.textContent).toBe('cancel');
-    expect(rows[2].textContent).toContain('Not solved');
+    expect(rows[2].textContent).toContain('no FS');
     expect(el.textContent).toContain('1 – 50 of 61');
   });
 
@@ -116,16 +114,16 @@ describe('SectionTable', () => {
     expect(rows.map((r) => r.querySelector('a')?.textContent?.trim())).toEqual(['wcb@1020']);
   });
 
-  it('asks the server for the failing ones only when the filter says Fail', async () => {
+  it('asks the server for the failing ones only when the filter says Below', async () => {
     request().flush(pageOf(ALL));
     await fixture.whenStable();
     const fail = Array.from(el.querySelectorAll('[data-testid=pass-filter] button')).find(
-      (b) => b.textContent?.trim() === 'Fail',
+      (b) => b.textContent?.trim() === 'Below',
     ) as HTMLButtonElement;
     fail.click();
     await fixture.whenStable();
     const req = request();
-    expect(req.request.params.get('pass')).toBe('false');
+    expect(req.request.params.get('verdict')).toBe('below');
     expect(req.request.params.get('page')).toBe('1');
     req.flush(pageOf([ALL[1], ALL[3]]));
     await fixture.whenStable();
@@ -147,23 +145,25 @@ describe('SectionTable', () => {
   it('sorts and filters a list as the server does (nulls last)', () => {
     request().flush(pageOf(ALL)); // the table's own first page
     const by = (sort: 'station' | 'fs', direction: 'asc' | 'desc') =>
-      filterSections(ALL, { text: '', pass: 'all', status: '' }, { active: sort, direction }).map(
-        (s) => s.id,
-      );
+      filterSections(
+        ALL,
+        { text: '', verdict: 'all', status: '' },
+        { active: sort, direction },
+      ).map((s) => s.id);
     expect(by('fs', 'asc')).toEqual([2, 4, 1, 3]);
     expect(by('fs', 'desc')).toEqual([1, 4, 2, 3]);
     expect(by('station', 'desc')).toEqual([4, 3, 2, 1]);
     expect(
       filterSections(
         ALL,
-        { text: '', pass: 'fail', status: '' },
+        { text: '', verdict: 'below', status: '' },
         { active: 'station', direction: 'asc' },
       ).map((s) => s.id),
     ).toEqual([2, 4]);
     expect(
       filterSections(
         ALL,
-        { text: '1040', pass: 'all', status: 'failed' },
+        { text: '1040', verdict: 'all', status: 'failed' },
         { active: 'station', direction: 'asc' },
       ).map((s) => s.id),
     ).toEqual([3]);

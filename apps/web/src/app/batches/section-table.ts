@@ -25,22 +25,23 @@ import { BatchesApi } from './batches-api';
 import { keepLast, nothingYet } from './keep-last';
 import { formatChainage, formatFs } from './scales';
 import { methodName } from '../shared/method-names';
-import { passesOf } from './words';
+import { JOB_STATE_WORDS, JOB_STATES } from '@scarpline/core/verdict';
+import { capitalised, verdictView } from '../shared/verdict';
+import { verdictOfItem } from './words';
 
-export type PassFilter = 'all' | 'pass' | 'fail';
+/** The verdict filter: every section, or those that meet or are below their required FS. */
+export type VerdictFilter = 'all' | 'meets' | 'below';
 
 /** The sections matching a text (station, its label, the key or the title), as the server sorts. */
 export function filterSections(
   all: readonly SectionListItem[],
-  f: { text: string; pass: PassFilter; status: SectionStatus | '' },
+  f: { text: string; verdict: VerdictFilter; status: SectionStatus | '' },
   sort: { active: SectionSort; direction: 'asc' | 'desc' },
 ): SectionListItem[] {
   const t = f.text.trim().toLowerCase();
   const rows = all.filter((s) => {
     if (f.status && s.status !== f.status) return false;
-    const p = passesOf(s.result);
-    if (f.pass === 'pass' && p !== true) return false;
-    if (f.pass === 'fail' && p !== false) return false;
+    if (f.verdict !== 'all' && verdictOfItem(s) !== f.verdict) return false;
     if (!t) return true;
     return (
       s.key.toLowerCase().includes(t) ||
@@ -105,7 +106,15 @@ export class SectionTable {
     'review',
     'status',
   ];
-  protected readonly statuses: SectionStatus[] = ['queued', 'running', 'done', 'failed'];
+  protected readonly statuses: readonly SectionStatus[] = JOB_STATES;
+  protected jobWord(state: SectionStatus): string {
+    return JOB_STATE_WORDS[state];
+  }
+  /** The verdicts the filter offers, in the core's words. */
+  protected readonly verdictChoices = (['meets', 'below'] as const).map((v) => ({
+    value: v,
+    label: capitalised(verdictView(v).short),
+  }));
   protected readonly pageSizes = [25, 50, 100, 200];
 
   protected readonly sort = signal<{ active: SectionSort; direction: 'asc' | 'desc' }>({
@@ -113,7 +122,7 @@ export class SectionTable {
     direction: 'asc',
   });
   protected readonly page = signal({ index: 0, size: 50 });
-  protected readonly pass = signal<PassFilter>('all');
+  protected readonly verdictFilter = signal<VerdictFilter>('all');
   protected readonly status = signal<SectionStatus | ''>('');
   protected readonly text = signal('');
   private readonly retryTick = signal(0);
@@ -128,7 +137,7 @@ export class SectionTable {
       pageSize: this.page().size,
     };
     if (this.status()) q.status = this.status() as SectionStatus;
-    if (this.pass() !== 'all') q.pass = this.pass() === 'pass';
+    if (this.verdictFilter() !== 'all') q.verdict = this.verdictFilter() as 'meets' | 'below';
     return { batchId: this.batchId(), q, version: this.version(), retry: this.retryTick() };
   });
 
@@ -146,7 +155,7 @@ export class SectionTable {
     if (all === null) return { loading: true, rows: [], total: 0 };
     const rows = filterSections(
       all,
-      { text: this.text(), pass: this.pass(), status: this.status() },
+      { text: this.text(), verdict: this.verdictFilter(), status: this.status() },
       this.sort(),
     );
     const { index, size } = this.page();
@@ -171,7 +180,8 @@ export class SectionTable {
 
   protected readonly fs = formatFs;
   protected readonly method = methodName;
-  protected readonly passes = passesOf;
+  protected readonly verdictOf = verdictOfItem;
+  protected readonly shown = verdictView;
 
   protected onSort(e: Sort): void {
     const active = e.active === 'fs' ? 'fs' : 'station';
@@ -183,8 +193,8 @@ export class SectionTable {
     this.page.set({ index: e.pageIndex, size: e.pageSize });
   }
 
-  protected setPass(v: PassFilter): void {
-    this.pass.set(v);
+  protected setVerdict(v: VerdictFilter): void {
+    this.verdictFilter.set(v);
     this.page.update((p) => ({ ...p, index: 0 }));
   }
 

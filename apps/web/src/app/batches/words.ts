@@ -1,11 +1,13 @@
-/** The words the batch pages use for the API's ids and states. */
-import type { SectionListResult } from './batch-types';
+/** Small helpers for the words the batch pages show. */
+import type { SectionListItem, Verdict } from './batch-types';
 
-/** true / false against the required FS; null when none is required or nothing was solved. */
-export function passesOf(r: SectionListResult | null | undefined): boolean | null {
-  if (!r) return null;
-  if (r.passes !== undefined) return r.passes;
-  return r.status === 'pass' ? true : r.status === 'fail' ? false : null;
+/**
+ * The verdict of a listed section: its current result's, `no-fs` when its job failed without
+ * one, null while it has none yet.
+ */
+export function verdictOfItem(s: Pick<SectionListItem, 'status' | 'result'>): Verdict | null {
+  if (s.result) return s.result.verdict;
+  return s.status === 'failed' ? 'no-fs' : null;
 }
 
 /** Bytes as a reader wants them: 812 B, 14.2 kB, 3.1 MB. */

@@ -8,6 +8,7 @@ import { loadState, type Loaded } from '../shared/load-state';
 import { PageState } from '../shared/page-state';
 import { fsText, when } from './format';
 import { methodName } from '../shared/method-names';
+import { verdictView } from '../shared/verdict';
 import type { RunEntry, RunsView } from './section-types';
 import { SectionsApi } from './sections-api';
 
@@ -38,7 +39,7 @@ export function runBy(entry: RunEntry, me: number | null | undefined): string {
   return entry.run === 1 ? 'submitted with the batch' : '—';
 }
 
-/** Every run of the section, newest first: when, by whom, what was edited, its FS, pass/fail. */
+/** Every run of the section, newest first: when, by whom, what was edited, its FS, its verdict. */
 @Component({
   selector: 'sl-run-history',
   imports: [MatIconModule, PageState],
@@ -84,28 +85,17 @@ export function runBy(entry: RunEntry, me: number | null | undefined): string {
                   </td>
                   <td class="sl-num">{{ r.fs }}</td>
                   <td>
-                    @switch (r.verdict) {
-                      @case ('pass') {
-                        <span class="sl-pass verdict">
-                          <mat-icon aria-hidden="true">check_circle</mat-icon> pass
-                        </span>
-                      }
-                      @case ('fail') {
-                        <span class="sl-fail verdict">
-                          <mat-icon aria-hidden="true">cancel</mat-icon> fail
-                        </span>
-                      }
-                      @case ('pending') {
-                        <span class="muted">not finished</span>
-                      }
-                      @case ('unsolved') {
-                        <span class="sl-fail verdict">
-                          <mat-icon aria-hidden="true">block</mat-icon> not solved
-                        </span>
-                      }
-                      @default {
-                        <span class="muted">no required FS</span>
-                      }
+                    @if (r.verdict; as v) {
+                      <span
+                        class="verdict"
+                        [class.sl-pass]="v.code === 'meets'"
+                        [class.sl-fail]="v.code === 'below' || v.code === 'no-fs'"
+                        [class.muted]="v.code === 'no-requirement' || v.code === 'input-error'"
+                      >
+                        <mat-icon aria-hidden="true">{{ v.icon }}</mat-icon> {{ v.words }}
+                      </span>
+                    } @else {
+                      <span class="muted">not finished</span>
                     }
                   </td>
                 </tr>
@@ -215,15 +205,7 @@ export class RunHistory {
     const me = this.auth.user()?.id;
     return l.value.runs.map((entry: RunEntry) => {
       const r = entry.result;
-      const verdict = !r
-        ? 'pending'
-        : r.status === 'failed'
-          ? 'unsolved'
-          : r.passes === true
-            ? 'pass'
-            : r.passes === false
-              ? 'fail'
-              : 'none';
+      const verdict = r ? verdictView(r.verdict) : null;
       return {
         entry,
         when: when(r?.timings.finishedAt ?? r?.timings.startedAt ?? null),

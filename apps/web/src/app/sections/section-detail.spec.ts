@@ -44,10 +44,9 @@ const INPUT: SectionInput = {
 function result(run: number, fs: number): RunResult {
   return {
     run,
-    status: fs >= 1.5 ? 'pass' : 'fail',
+    verdict: fs >= 1.5 ? 'meets' : 'below',
     governing: { method: 'bishop', fs },
     requiredFs: 1.5,
-    passes: fs >= 1.5,
     reason: null,
     criticalSurface: { type: 'circle', center: [8, 45], radius: 6 },
     methods: [
@@ -152,7 +151,7 @@ describe('SectionDetail', () => {
     expect(el().querySelector('h1')?.textContent).toContain('Station 1+000');
     expect(q('section-fs')?.textContent).toContain('1.234');
     expect(q('section-fs')?.textContent).toContain('1.5');
-    expect(q('section-verdict')?.textContent?.trim()).toContain('fail');
+    expect(q('section-verdict')?.textContent?.trim()).toContain('below the required FS');
     expect(el().querySelector('sl-caution')?.textContent).toContain('Caution.');
     expect(q('batch-back-link')?.getAttribute('href')).toBe('/batches/3');
     expect(q('batch-back-link')?.textContent).toContain('wcb-main');
@@ -168,7 +167,7 @@ describe('SectionDetail', () => {
     backend.expectOne('/api/v1/sections/7').flush(view(1, 'done', 2.1));
     await flushSide();
     expect(q('rerun-form')).not.toBeNull();
-    expect(q('section-verdict')?.textContent).toContain('pass');
+    expect(q('section-verdict')?.textContent).toContain('meets the required FS');
     backend.expectOne('/api/v1/sections/7/plot.svg').flush('<svg></svg>');
     backend.verify();
   });

@@ -43,6 +43,8 @@ import type { SectionView } from './section-types';
 import { SectionsApi } from './sections-api';
 import { SliceTable } from './slice-table';
 import { WarningList } from './warning-list';
+import { JOB_STATE_WORDS } from '@scarpline/core/verdict';
+import { verdictView } from '../shared/verdict';
 
 /** How often a queued or running section is asked for again. */
 export const POLL_MS = 2000;
@@ -150,18 +152,14 @@ export class SectionDetail {
     if (!s) return '';
     return s.stationLabel ?? (s.station === null ? '' : plain(s.station, 3));
   });
-  /** The verdict in words, with an icon (never by colour alone). */
+  /** The verdict in the core's words, with an icon (never by colour alone). */
   protected readonly verdict = computed(() => {
     const r = this.section()?.result;
-    if (!r) return null;
-    if (r.status === 'failed' || !r.governing)
-      return { kind: 'unsolved', icon: 'block', text: 'not solved' };
-    if (r.passes === true) return { kind: 'pass', icon: 'check_circle', text: 'pass' };
-    if (r.passes === false) return { kind: 'fail', icon: 'cancel', text: 'fail' };
-    return { kind: 'none', icon: 'remove_circle_outline', text: 'no required FS' };
+    return r ? verdictView(r.verdict) : null;
   });
 
   protected readonly fsText = fsText;
+  protected readonly jobWords = JOB_STATE_WORDS;
   protected readonly methodName = methodName;
   protected readonly plain = plain;
   protected readonly when = when;

@@ -11,7 +11,7 @@ import type {
   Section,
   SectionResult,
 } from '@scarpline/core';
-import type { ResultStatus, SectionStatus } from '../batches/batch-types';
+import type { SectionStatus } from '../batches/batch-types';
 import type { UserRef } from '../core/models';
 import type { ReviewSummary } from '../reviews/review-types';
 
@@ -39,16 +39,15 @@ export type SectionInput = Section;
 export type SearchReport = NonNullable<SectionResult['search']>;
 
 /**
- * One run's result as the API stores it (resultView): the solver's result with the status,
- * the run, the timings (ISO strings) and the attempt the API adds; `methods` is the solver's
- * `results`, `criticalSurface` the governing method's surface.
+ * One run's result as the API stores it (resultView): the solver's result (its verdict in the
+ * core's codes) with the run, the timings (ISO strings) and the attempt the API adds;
+ * `methods` is the solver's `results`, `criticalSurface` the governing method's surface.
  */
 export interface RunResult extends Pick<
   SectionResult,
-  'governing' | 'requiredFs' | 'passes' | 'warnings' | 'solverVersion' | 'caution'
+  'governing' | 'requiredFs' | 'verdict' | 'warnings' | 'solverVersion' | 'caution'
 > {
   run: number;
-  status: ResultStatus;
   reason: string | null;
   criticalSurface: ReportedSurface | null;
   methods: MethodReport[];
@@ -62,9 +61,9 @@ export interface RunResult extends Pick<
 /**
  * A warning of the input checks (validate.ts `messageView`: the core's message with `text`,
  * it as one line), located in the submitted file (edited-section.json after a re-run with
- * edits).
+ * edits). A section keeps those about it, without the ids of the sections a message concerns.
  */
-export interface InputWarning extends Message {
+export interface InputWarning extends Omit<Message, 'sections'> {
   severity: 'warning';
   text: string;
 }
