@@ -3,11 +3,11 @@ import {
   analyzeSection,
   formatMessage,
   parseSections,
+  resultInUnits,
   type SectionResult,
   type UnitSystem,
 } from '@scarpline/core';
 import { collectFiles } from './collect-files';
-import { convertResult } from './convert-result';
 import { analyzeCsv } from './csv';
 import { applyOverrides, type Overrides } from './overrides';
 import { readInput, STDIN_NAME, UserError } from './read-input';
@@ -68,7 +68,7 @@ export function analyzeFiles(
     }
     for (const s of sections) {
       let r = analyzeSection(applyOverrides(s, options));
-      if (options.units) r = convertResult(r, options.units);
+      if (options.units) r = resultInUnits(r, options.units);
       results.push({ file: input.name, result: r });
     }
   }

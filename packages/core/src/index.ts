@@ -87,6 +87,8 @@ export { statics, type Statics } from './methods/statics';
 export { defaultPivot } from './methods/pivot';
 export type { SliceMethodResult, MethodWarning } from './methods/types';
 export { analyzeSection, CAUTION, SOLVER_VERSION } from './analyze';
+export { resultInUnits } from './result-units';
+export { METHODS, methodsFor, type MethodEntry } from './methods/registry';
 export type {
   SectionResult,
   MethodReport,

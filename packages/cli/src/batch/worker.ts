@@ -5,8 +5,13 @@
  */
 import { writeFileSync } from 'node:fs';
 import { parentPort } from 'node:worker_threads';
-import { analyzeSection, drawSection, exportRecord, type DrawableResult } from '@scarpline/core';
-import { convertResult } from '../convert-result';
+import {
+  analyzeSection,
+  drawSection,
+  exportRecord,
+  resultInUnits,
+  type DrawableResult,
+} from '@scarpline/core';
 import type { Reply, Task } from './messages';
 
 parentPort?.on('message', (task: Task) => {
@@ -15,7 +20,7 @@ parentPort?.on('message', (task: Task) => {
     const result: DrawableResult = analyzeSection(task.section);
     if (task.svgPath)
       writeFileSync(task.svgPath, `${drawSection(task.section, result, { idPrefix: 'sl' })}\n`);
-    const shown = task.units ? convertResult(result, task.units) : result;
+    const shown = task.units ? resultInUnits(result, task.units) : result;
     reply = {
       index: task.index,
       ok: true,

@@ -1,23 +1,17 @@
-import {
-  fromSi,
-  toSi,
-  type DrawableResult,
-  type MethodReport,
-  type Point,
-  type QuantityKind,
-  type ReportedSurface,
-  type SearchGrid,
-  type UnitSystem,
-} from '@scarpline/core';
+import type { Point, UnitSystem } from './model/types';
+import { type QuantityKind, fromSi, toSi } from './model/units';
+import type { GridReport, MethodReport, ReportedSurface, SectionResult } from './result';
 
 /**
- * A section result with every value converted to another unit system (`--units`): lengths,
- * forces per run and pressures of the methods, slices, surfaces and the search. Angles, FS,
- * λ and ratios do not change. The words of warnings are left as the solver wrote them.
+ * A section result with every value converted to another unit system: lengths, forces per
+ * run and pressures of the methods, slices, surfaces and the search, and the station.
+ * Angles, FS, λ and ratios do not change; the words of warnings are left as the solver wrote
+ * them. The one place results change units: analyzeSection builds its result in SI and
+ * converts it here to the file's units; the CLI converts here again for `--units`.
  *
- * @example convertResult(result, 'us').results[0].surface // → the circle in feet
+ * @example resultInUnits(result, 'us').results[0].surface // → the circle in feet
  */
-export function convertResult<T extends DrawableResult>(r: T, to: UnitSystem): T {
+export function resultInUnits<T extends SectionResult>(r: T, to: UnitSystem): T {
   const from = r.units;
   if (from === to) return r;
   const c = (v: number, kind: QuantityKind) => fromSi(toSi(v, kind, from), kind, to);
@@ -31,7 +25,7 @@ export function convertResult<T extends DrawableResult>(r: T, to: UnitSystem): T
     if (s.type === 'plane') return { ...s, depth: L(s.depth) };
     return { ...s, pole: pt(s.pole), r0: L(s.r0), r1: L(s.r1), points: s.points.map(pt) };
   };
-  const grid = (g: SearchGrid): SearchGrid => ({
+  const grid = (g: GridReport): GridReport => ({
     ...g,
     x: [L(g.x[0]), L(g.x[1])],
     y: [L(g.y[0]), L(g.y[1])],

@@ -1,0 +1,149 @@
+import { METHODS, methodsFor } from './methods/registry';
+import { defaultPivot } from './methods/pivot';
+import type { SliceMethodResult } from './methods/types';
+import type { CircleSurface, MethodId, Point, PolylineSurface } from './model/types';
+import type { MethodReport, ReportedSurface, SliceReport, Warning } from './result';
+import type { PreparedSection } from './slices/prepare-section';
+import type { SliceOutcome, SliceSet } from './slices/slice-surface';
+
+const deg = (r: number) => (r * 180) / Math.PI;
+
+/** A number safe for JSON: never NaN or infinite. */
+const finite = (v: number) => (Number.isFinite(v) ? v : 0);
+
+/** The slices as reported, in the section's coordinates (SI), left to right. */
+function reportSlices(
+  prepared: PreparedSection,
+  s: SliceSet,
+  r: SliceMethodResult | null,
+): SliceReport[] {
+  const out: SliceReport[] = [];
+  for (let i = 0; i < s.n; i++) {
+    const b = s.xr[i] - s.xl[i];
+    const dy = s.yBaseR[i] - s.yBaseL[i];
+    // the right side in section coordinates: the left side in sliding orientation when mirrored
+    const j = s.mirrored ? i - 1 : i;
+    const E = r && j >= 0 ? r.E[j] : 0;
+    const X = r && j >= 0 ? r.X[j] : 0;
+    const thrust = r && j >= 0 && Number.isFinite(r.thrust[j]) ? r.thrust[j] : null;
+    out.push({
+      x: (s.mirrored ? -1 : 1) * 0.5 * (s.xl[i] + s.xr[i]),
+      width: b,
+      alpha: (s.mirrored ? -1 : 1) * deg(Math.atan2(dy, b)),
+      baseLength: Math.hypot(b, dy),
+      weight: s.weight[i],
+      porePressure: s.porePressure[i],
+      normal: r ? finite(r.normal[i]) : 0,
+      shear: r ? finite(r.shear[i]) : 0,
+      interslice: { E: finite(E), X: finite(X), thrust },
+      material: prepared.materials[s.material[i]].name,
+    });
+  }
+  if (s.mirrored) out.reverse();
+  return out;
+}
+
+function surfaceReport(surface: CircleSurface | PolylineSurface): ReportedSurface {
+  return surface.type === 'circle'
+    ? { type: 'circle', center: [...surface.center], radius: surface.radius }
+    : { type: 'polyline', points: surface.points.map((p): Point => [p[0], p[1]]) };
+}
+
+/** With c′ = 0 along a circle: the infinite-slope F of the steepest ground within the mass (dry or with ru). */
+function cohesionlessWarning(prepared: PreparedSection, s: SliceSet): Warning | null {
+  let allFrictional = true;
+  for (let i = 0; i < s.n; i++) if (s.cohesion[i] > 0 || !(s.tanPhi[i] > 0)) allFrictional = false;
+  if (!allFrictional) return null;
+  let beta = 0;
+  let tanPhi = Infinity;
+  for (let i = 0; i < s.n; i++) {
+    const b = Math.atan(Math.abs(s.yTopR[i] - s.yTopL[i]) / (s.xr[i] - s.xl[i]));
+    if (b > beta) beta = b;
+    tanPhi = Math.min(tanPhi, s.tanPhi[i]);
+  }
+  if (!(beta > 0)) return null;
+  const water = prepared.section.water;
+  const ru = water.kind === 'ru' ? water.ru : 0;
+  const fInf = ((1 - ru / Math.cos(beta) ** 2) * tanPhi) / Math.tan(beta);
+  return {
+    code: 'cohesionless-circle',
+    message: `c′ = 0 along this surface: the critical circle tends to a shallow slide parallel to the steepest ground (β = ${deg(beta).toFixed(1)}°), whose infinite-slope factor of safety is ${fInf.toFixed(3)}${ru > 0 ? ` with ru = ${ru}` : ' (no pore pressure)'}; that value governs`,
+  };
+}
+
+/** A method that did not run, and why (in its report and as a not-applicable warning). */
+export function notRun(
+  method: MethodId,
+  reason: string,
+  surface: ReportedSurface | null = null,
+): MethodReport {
+  return {
+    method,
+    fs: null,
+    converged: false,
+    iterations: 0,
+    reason,
+    surface,
+    slices: [],
+    warnings: [{ code: 'not-applicable', message: reason }],
+  };
+}
+
+/** A method that works on the section's own plane (the infinite slope), reported. */
+export function runOnPlane(method: MethodId, prepared: PreparedSection): MethodReport {
+  const entry = METHODS[method];
+  if (!('runPlane' in entry)) return notRun(method, `${method}: needs a slip surface`);
+  return { method, iterations: 0, slices: [], ...entry.runPlane(prepared.section) };
+}
+
+/**
+ * One method on one slip surface, reported in SI (section coordinates): the method from the
+ * registry, refused with its reason where it does not take the surface, with the slices, the
+ * surface actually used, its ends, the crack and the warnings.
+ */
+export function runOnSurface(
+  method: MethodId,
+  prepared: PreparedSection,
+  surface: CircleSurface | PolylineSurface,
+  cut: SliceOutcome,
+): MethodReport {
+  const entry = METHODS[method];
+  const reported = surfaceReport(surface);
+  if (!('run' in entry)) return notRun(method, `${method}: not a method of a slip surface`);
+  if (!entry.surfaces.includes(surface.type)) {
+    const ids = methodsFor(surface.type);
+    const others =
+      ids.length > 1 ? `${ids.slice(0, -1).join(', ')} or ${ids[ids.length - 1]}` : ids[0];
+    return notRun(
+      method,
+      `${method}: applies to ${entry.surfaces.map((k) => (k === 'circle' ? 'circular' : 'polyline')).join(' and ')} surfaces; use ${others} on a ${surface.type}`,
+      reported,
+    );
+  }
+  if (!cut.ok) return notRun(method, `the slip surface was rejected: ${cut.reason}`, reported);
+  const s = cut.slices;
+  const pivot: Point =
+    surface.type === 'circle'
+      ? [(s.mirrored ? -1 : 1) * surface.center[0], surface.center[1]]
+      : defaultPivot(s);
+  const { result: r, extra = {}, slices = s } = entry.run({ prepared, surface, cut, pivot });
+  const warnings: Warning[] = [...r.warnings];
+  if (surface.type === 'circle' && entry.slices) {
+    const w = cohesionlessWarning(prepared, s);
+    if (w) warnings.push(w);
+  }
+  return {
+    method,
+    fs: r.converged ? r.fs : null,
+    converged: r.converged,
+    iterations: r.iterations,
+    ...(r.reason ? { reason: r.reason } : {}),
+    surface: reported,
+    base: cut.base.map((p): Point => [p[0], p[1]]),
+    ends: { upper: cut.upperEnd, lower: cut.lowerEnd },
+    crack: cut.crack ? { ...cut.crack } : null,
+    slices: reportSlices(prepared, slices, r.converged ? r : null),
+    warnings,
+    ...extra,
+  };
+}

@@ -1,0 +1,204 @@
+import type { CircleSurface, MethodId, Point, PolylineSurface, Section } from '../model/types';
+import type { MethodReport, ReportedSurface } from '../result';
+import type { PreparedSection } from '../slices/prepare-section';
+import type { SliceSet, SlicedSurface } from '../slices/slice-surface';
+import { bishop } from './bishop';
+import { infiniteSlope } from './infinite-slope';
+import { janbu } from './janbu';
+import { logSpiral } from './log-spiral';
+import { morgensternPrice } from './morgenstern-price';
+import { ordinary } from './ordinary';
+import { spencer } from './spencer';
+import { swedishCircle } from './swedish-circle';
+import type { SliceMethodResult } from './types';
+
+/** What a method is given: the section, a surface, its slices and the point moments are taken about (sliding orientation). */
+export interface MethodInput {
+  prepared: PreparedSection;
+  surface: CircleSurface | PolylineSurface;
+  cut: SlicedSurface;
+  pivot: Point;
+}
+
+/** What a method of a surface gives back, in SI: its solution and what only it reports. */
+export interface MethodOutput {
+  result: SliceMethodResult;
+  /** Fields of the method's report of its own (λ, θ, f0, the mass and its lever arm…). */
+  extra?: Partial<MethodReport>;
+  /** The slices to report when they are not those of the surface (the log spiral's own). */
+  slices?: SliceSet;
+}
+
+/** A method that works on a slip surface. */
+interface SurfaceMethod {
+  /** The kinds of surface it takes. */
+  surfaces: readonly ('circle' | 'polyline')[];
+  /** A method of slices: interslice forces and the cohesionless-circle warning apply. */
+  slices: boolean;
+  run: (input: MethodInput) => MethodOutput;
+}
+
+/** A method that works on the section's own plane (the infinite slope): no search, no slices. */
+interface PlaneMethod {
+  surfaces: readonly [];
+  slices: false;
+  runPlane: (
+    section: Section,
+  ) => Pick<MethodReport, 'fs' | 'converged' | 'reason' | 'surface' | 'warnings'>;
+}
+
+export type MethodEntry = (SurfaceMethod | PlaneMethod) & {
+  /** The published source it follows, as the README and the reports cite it. */
+  reference: string;
+};
+
+const deg = (r: number) => (r * 180) / Math.PI;
+
+/**
+ * Every method of the solver: the surfaces it takes, how to run it and its published
+ * source. analyzeSection dispatches through this table; adding a method is adding a row
+ * (and its id to MethodId and the section schema).
+ *
+ * @example METHODS.spencer.surfaces // → ['circle', 'polyline']
+ */
+export const METHODS: Record<MethodId, MethodEntry> = {
+  ordinary: {
+    reference: 'Fellenius 1936',
+    surfaces: ['circle'],
+    slices: true,
+    run: ({ cut, prepared, pivot }) => ({
+      result: ordinary(cut.slices, { seismic: prepared.section.seismic, pivot }),
+    }),
+  },
+  bishop: {
+    reference: 'Bishop 1955',
+    surfaces: ['circle'],
+    slices: true,
+    run: ({ cut, prepared, pivot }) => ({
+      result: bishop(cut.slices, { seismic: prepared.section.seismic, pivot }),
+    }),
+  },
+  janbu: {
+    reference: 'Janbu 1954, 1973',
+    surfaces: ['circle', 'polyline'],
+    slices: true,
+    run: ({ cut, prepared }) => {
+      const result = janbu(cut.slices, { seismic: prepared.section.seismic });
+      return {
+        result,
+        extra: result.converged
+          ? { fsUncorrected: result.fsUncorrected, correction: result.correction }
+          : {},
+      };
+    },
+  },
+  spencer: {
+    reference: 'Spencer 1967',
+    surfaces: ['circle', 'polyline'],
+    slices: true,
+    run: ({ cut, prepared, pivot }) => {
+      const result = spencer(cut.slices, { seismic: prepared.section.seismic, pivot });
+      return {
+        result,
+        extra:
+          result.converged && result.lambda !== undefined
+            ? { lambda: result.lambda, theta: deg(Math.atan(result.lambda)) }
+            : {},
+      };
+    },
+  },
+  'morgenstern-price': {
+    reference: 'Morgenstern & Price 1965; Fredlund & Krahn 1977',
+    surfaces: ['circle', 'polyline'],
+    slices: true,
+    run: ({ cut, prepared, pivot }) => {
+      const section = prepared.section;
+      const fn = section.analysis.interslice ?? { shape: 'half-sine' as const };
+      const result = morgensternPrice(cut.slices, { seismic: section.seismic, pivot, fn });
+      return {
+        result,
+        extra: {
+          intersliceFunction: fn.shape,
+          ...(result.converged && result.lambda !== undefined ? { lambda: result.lambda } : {}),
+        },
+      };
+    },
+  },
+  'swedish-circle': {
+    reference: 'Fellenius; Petterson',
+    surfaces: ['circle'],
+    slices: false,
+    run: ({ cut, prepared, surface }) => {
+      const c = surface as CircleSurface;
+      const result = swedishCircle(prepared, cut, c.center, c.radius, prepared.section.seismic);
+      return {
+        result,
+        extra: result.converged ? { massWeight: result.massWeight, leverArm: result.leverArm } : {},
+      };
+    },
+  },
+  'log-spiral': {
+    reference: 'Rendulic 1935; Taylor 1937; Chen 1975',
+    surfaces: ['circle'],
+    slices: false,
+    run: ({ cut, prepared, surface }) => {
+      const section = prepared.section;
+      const c = surface as CircleSurface;
+      const result = logSpiral(
+        prepared,
+        cut.slices,
+        c.center,
+        section.seismic,
+        section.analysis.slices,
+      );
+      if (!(result.converged && result.spiral && result.spiralSlices)) return { result };
+      const sp = result.spiral;
+      const spiral: ReportedSurface = {
+        type: 'log-spiral',
+        pole: sp.pole,
+        r0: sp.r0,
+        r1: sp.r1,
+        points: sp.points,
+      };
+      return { result, extra: { surface: spiral }, slices: result.spiralSlices };
+    },
+  },
+  'infinite-slope': {
+    reference: 'Skempton & DeLory 1957',
+    surfaces: [],
+    slices: false,
+    runPlane: (section) => {
+      const spec = section.analysis.infiniteSlope;
+      if (!spec) {
+        const reason = 'infinite slope: give analysis.infiniteSlope (angle, depth, waterRatio)';
+        return {
+          fs: null,
+          converged: false,
+          reason,
+          surface: null,
+          warnings: [{ code: 'not-applicable', message: reason }],
+        };
+      }
+      const r = infiniteSlope({
+        ...spec,
+        material: section.materials[section.strata[0].material],
+        waterUnitWeight: section.water.unitWeight,
+        kh: section.seismic.kh,
+      });
+      return {
+        fs: r.converged ? r.fs : null,
+        converged: r.converged,
+        ...(r.reason ? { reason: r.reason } : {}),
+        surface: { type: 'plane', angle: spec.angle, depth: spec.depth },
+        warnings: r.reason ? [{ code: 'no-convergence', message: r.reason }] : [],
+      };
+    },
+  },
+};
+
+/** The methods that take a kind of surface, for the words of a refusal. */
+export function methodsFor(kind: 'circle' | 'polyline'): MethodId[] {
+  return (Object.keys(METHODS) as MethodId[]).filter((id) =>
+    (METHODS[id].surfaces as readonly string[]).includes(kind),
+  );
+}

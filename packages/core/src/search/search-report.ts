@@ -1,0 +1,60 @@
+import type { CircleOrigin, GridReport, HowFound, SearchReport } from '../result';
+import type { SearchOutcome } from './search-section';
+
+/** The search's account of the critical circle: candidates, polishes, confirmation. */
+function howFound(found: SearchOutcome): HowFound | null {
+  const c = found.circle;
+  if (!c || !found.confirmation) return null;
+  const name = (b: number) => (b >= 0 ? found.boundaries[b].material : null);
+  const origin = (t: { stage: CircleOrigin['stage']; boundary: number }): CircleOrigin => ({
+    stage: t.stage,
+    touching: name(t.boundary),
+  });
+  return {
+    candidates: {
+      grid: found.candidates.grid,
+      groundRanges: found.candidates['ground-ranges'],
+      polish: found.candidates.polish,
+    },
+    boundaries: found.boundaries.map((b) => b.material),
+    polishes: found.polishes.map((p) => ({
+      from: p.from.fs,
+      to: p.to.fs,
+      start: origin(p.from),
+      evaluations: p.evaluations,
+      touching: name(p.boundary),
+    })),
+    critical: origin(c),
+    confirmation: { method: 'bishop', ...found.confirmation },
+  };
+}
+
+/**
+ * What a search did, for the result (SI; analyzeSection converts it to the file's units with
+ * the rest): the grid and its moves, the FS map, the lowest circles and how the critical
+ * circle was found and confirmed.
+ */
+export function searchReport(found: SearchOutcome): SearchReport {
+  const grid = (g: GridReport): GridReport => ({ x: [...g.x], y: [...g.y], nx: g.nx, ny: g.ny });
+  const gr = found.grid;
+  return {
+    type: found.settings.type,
+    method: 'bishop',
+    ...(found.polyline ? { noncircularMethod: 'spencer' as const } : {}),
+    trials: found.trials,
+    moves: gr ? gr.moves.map((m) => ({ reason: m.reason, grid: grid(m.grid) })) : [],
+    grid: gr ? grid(gr.grid) : null,
+    map: gr
+      ? {
+          xs: [...gr.xs],
+          ys: [...gr.ys],
+          fs: gr.fs.map((row) => row.map((v) => (Number.isFinite(v) ? v : null))),
+        }
+      : null,
+    lowest: found.lowest.map((t) => ({
+      surface: { type: 'circle', center: [t.center[0], t.center[1]], radius: t.radius },
+      fs: t.fs,
+    })),
+    howFound: howFound(found),
+  };
+}
