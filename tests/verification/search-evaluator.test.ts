@@ -19,12 +19,13 @@ import {
   bishopIteration,
   parseSections,
   prepareSection,
+  seededRandom,
   sliceSurface,
   statics,
   type Point,
   type Section,
 } from '@scarpline/core';
-import { layeredSection, seeded } from './support';
+import { layeredSection } from './support';
 
 const FIXTURE = join(__dirname, 'fixtures', 'evaluator-bounds.json');
 const EXAMPLES = join(__dirname, '..', '..', 'examples');
@@ -44,7 +45,7 @@ const cases = [...examples, ...layered];
 
 /** Circles over the slope: centres in a window above it, radii from shallow to deep; shuffled. */
 function circles(section: Section, seed: number, count: number): [number, number, number][] {
-  const rand = seeded(seed);
+  const rand = seededRandom(seed);
   const g = section.ground;
   const ys = g.map((p) => p[1]);
   const H = Math.max(...ys) - Math.min(...ys);

@@ -16,10 +16,11 @@ import {
   bishop,
   prepareSection,
   sliceSurface,
+  type Material,
   type Point,
   type Section,
 } from '@scarpline/core';
-import { layeredSection } from './support';
+import { homogeneous, layeredSection } from './support';
 
 type Circle = [number, number, number];
 
@@ -159,202 +160,123 @@ function denseReference(section: Section): number {
   return best;
 }
 
-/** A slope of height H rising at 1 : run from the toe at x = 0, with strata tops at the given levels. */
-function named(
-  id: string,
-  ground: Point[],
-  materials: Section['materials'],
-  tops: [string, Point[]][],
-  over: Partial<Section> = {},
-): Section {
-  return {
-    format: 'scarpline/1',
-    id,
-    title: id,
-    station: null,
-    offset: null,
-    units: 'si',
-    ground,
-    materials,
-    strata: tops.map(([material, top]) => ({ material, top })),
-    water: { kind: 'none', unitWeight: 9.81 },
-    loads: [],
-    seismic: { kh: 0, kv: 0 },
-    crack: null,
-    analysis: {
-      methods: ['bishop'],
-      slices: 30,
-      surface: { type: 'auto' },
-      infiniteSlope: null,
-      case: null,
-      requiredFs: null,
-    },
-    ...over,
-  };
-}
-
-const mc = (name: string, gamma: number, c: number, phi: number, sat = gamma) => ({
+const mc = (name: string, gamma: number, c: number, phi: number, sat = gamma): Material => ({
   name,
   unitWeight: gamma,
   saturatedUnitWeight: sat,
-  strength: { model: 'mohr-coulomb' as const, cohesion: c, frictionAngle: phi },
+  strength: { model: 'mohr-coulomb', cohesion: c, frictionAngle: phi },
 });
-const su = (name: string, gamma: number, s: number) => ({
+const su = (name: string, gamma: number, s: number): Material => ({
   name,
   unitWeight: gamma,
   saturatedUnitWeight: gamma,
-  strength: { model: 'undrained' as const, su: s, suRate: 0, suDatum: null },
+  strength: { model: 'undrained', su: s, suRate: 0, suDatum: null },
 });
-const level = (y: number, x0: number, x1: number): Point[] => [
-  [x0, y],
-  [x1, y],
-];
+
+/**
+ * A slope of height h from the toe at x = 0 to the crest at x = run, flat from x = −40 to
+ * `right`, the first material on top and each further one below a boundary line y(x).
+ */
+function slopeCase(
+  h: number,
+  run: number,
+  right: number,
+  materials: Material[],
+  boundaries: ((x: number) => number)[],
+  water: Section['water'] = { kind: 'none', unitWeight: 9.81 },
+): Section {
+  const ground: Point[] = [
+    [-40, 0],
+    [0, 0],
+    [run, h],
+    [right, h],
+  ];
+  const section = homogeneous(ground, materials[0], { water });
+  section.materials = Object.fromEntries(materials.map((m) => [m.name, m]));
+  section.strata = materials.map((m, i) => ({
+    material: m.name,
+    top:
+      i === 0
+        ? ground
+        : [
+            [-40, boundaries[i - 1](-40)],
+            [right, boundaries[i - 1](right)],
+          ],
+  }));
+  section.analysis = { ...section.analysis, slices: 30, surface: { type: 'auto' } };
+  return section;
+}
+
+const level = (y: number) => () => y;
+const dip = Math.tan((8.5 * Math.PI) / 180);
 
 /** The slopes of the report that found the search unconservative (test geometries). */
 const reported: [string, Section][] = [
-  (() => {
-    // a 12 m cut at 2H:1V with a 0.5 m clay seam (c′ 1.5 kPa, φ′ 15°) crossing the face at mid-height
-    const g: Point[] = [
-      [-40, 0],
-      [0, 0],
-      [24, 12],
-      [70, 12],
-    ];
-    return [
-      'seam on the face',
-      named(
-        'seam',
-        g,
-        {
-          soil: mc('soil', 19, 10, 30),
-          seam: mc('seam', 18, 1.5, 15),
-          lower: mc('lower', 19, 10, 30),
-        },
-        [
-          ['soil', g],
-          ['seam', level(6.25, -40, 70)],
-          ['lower', level(5.75, -40, 70)],
+  // a 12 m cut at 2H:1V with a 0.5 m clay seam (c′ 1.5 kPa, φ′ 15°) crossing the face at mid-height
+  [
+    'seam on the face',
+    slopeCase(
+      12,
+      24,
+      70,
+      [mc('soil', 19, 10, 30), mc('seam', 18, 1.5, 15), mc('lower', 19, 10, 30)],
+      [level(6.25), level(5.75)],
+    ),
+  ],
+  // a 1 m weak layer whose boundaries dip out of the slope at 8.5°
+  [
+    'dipping weak layer',
+    slopeCase(
+      10,
+      15,
+      70,
+      [mc('soil', 19, 15, 30), mc('weak', 18, 2, 18), mc('lower', 20, 15, 32)],
+      [(x) => 1 + dip * x, (x) => dip * x],
+    ),
+  ],
+  // a 6 m embankment on 1 m of soft clay (Su 15 kPa) over stiff clay, end of construction
+  [
+    'embankment on a thin soft layer',
+    slopeCase(
+      6,
+      12,
+      30,
+      [mc('fill', 20, 5, 32), su('soft', 16, 15), su('stiff', 19, 60)],
+      [level(0), level(-1)],
+    ),
+  ],
+  // a 1.5 m weak layer below the toe with a piezometric line
+  [
+    'wet weak layer below the toe',
+    slopeCase(
+      10,
+      20,
+      70,
+      [mc('soil', 19, 12, 28, 20), mc('weak', 18, 3, 16, 19), mc('lower', 20, 20, 32, 21)],
+      [level(-1), level(-2.5)],
+      {
+        kind: 'piezometric',
+        line: [
+          [-40, -0.5],
+          [0, -0.5],
+          [30, 6],
+          [70, 7],
         ],
-      ),
-    ] as [string, Section];
-  })(),
-  (() => {
-    // a 1 m weak layer whose boundaries dip out of the slope at 8.5°
-    const g: Point[] = [
-      [-40, 0],
-      [0, 0],
-      [15, 10],
-      [70, 10],
-    ];
-    const t = Math.tan((8.5 * Math.PI) / 180);
-    const dip = (y: number): Point[] => [
-      [-40, y - 40 * t],
-      [70, y + 70 * t],
-    ];
-    return [
-      'dipping weak layer',
-      named(
-        'dip',
-        g,
-        {
-          soil: mc('soil', 19, 15, 30),
-          weak: mc('weak', 18, 2, 18),
-          lower: mc('lower', 20, 15, 32),
-        },
-        [
-          ['soil', g],
-          ['weak', dip(1)],
-          ['lower', dip(0)],
-        ],
-      ),
-    ] as [string, Section];
-  })(),
-  (() => {
-    // a 6 m embankment on 1 m of soft clay (Su 15 kPa) over stiff clay, end of construction
-    const g: Point[] = [
-      [-40, 0],
-      [0, 0],
-      [12, 6],
-      [30, 6],
-    ];
-    return [
-      'embankment on a thin soft layer',
-      named(
-        'embankment',
-        g,
-        { fill: mc('fill', 20, 5, 32), soft: su('soft', 16, 15), stiff: su('stiff', 19, 60) },
-        [
-          ['fill', g],
-          ['soft', level(0, -40, 30)],
-          ['stiff', level(-1, -40, 30)],
-        ],
-      ),
-    ] as [string, Section];
-  })(),
-  (() => {
-    // a 1.5 m weak layer below the toe with a piezometric line
-    const g: Point[] = [
-      [-40, 0],
-      [0, 0],
-      [20, 10],
-      [70, 10],
-    ];
-    return [
-      'wet weak layer below the toe',
-      named(
-        'wet',
-        g,
-        {
-          soil: mc('soil', 19, 12, 28, 20),
-          weak: mc('weak', 18, 3, 16, 19),
-          lower: mc('lower', 20, 20, 32, 21),
-        },
-        [
-          ['soil', g],
-          ['weak', level(-1, -40, 70)],
-          ['lower', level(-2.5, -40, 70)],
-        ],
-        {
-          water: {
-            kind: 'piezometric',
-            line: [
-              [-40, -0.5],
-              [0, -0.5],
-              [30, 6],
-              [70, 7],
-            ],
-            unitWeight: 9.81,
-          },
-        },
-      ),
-    ] as [string, Section];
-  })(),
-  (() => {
-    // a 2 m weak layer 3 m below the toe
-    const g: Point[] = [
-      [-40, 0],
-      [0, 0],
-      [20, 10],
-      [70, 10],
-    ];
-    return [
-      'weak layer 3 m below the toe',
-      named(
-        'deep',
-        g,
-        {
-          soil: mc('soil', 19, 12, 28),
-          weak: mc('weak', 18, 5, 20),
-          lower: mc('lower', 20, 20, 32),
-        },
-        [
-          ['soil', g],
-          ['weak', level(-3, -40, 70)],
-          ['lower', level(-5, -40, 70)],
-        ],
-      ),
-    ] as [string, Section];
-  })(),
+        unitWeight: 9.81,
+      },
+    ),
+  ],
+  // a 2 m weak layer 3 m below the toe
+  [
+    'weak layer 3 m below the toe',
+    slopeCase(
+      10,
+      20,
+      70,
+      [mc('soil', 19, 12, 28), mc('weak', 18, 5, 20), mc('lower', 20, 20, 32)],
+      [level(-3), level(-5)],
+    ),
+  ],
 ];
 
 const SEEDS = Array.from({ length: 16 }, (_, i) => 101 + i);

@@ -10,6 +10,7 @@ import {
   formatMessage,
   parseSections,
   prepareSection,
+  seededRandom,
   sliceSurface,
 } from '@scarpline/core';
 
@@ -105,18 +106,6 @@ export function circleOptions(sliced: SlicedSurface, center: Point, section: Sec
 
 export const relErr = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
-/** A small deterministic generator (mulberry32), so that a seeded case repeats exactly. */
-export function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 export interface LayeredOptions {
   /** Water: none, a piezometric line, or a pore-pressure ratio. */
   water?: 'none' | 'line' | 'ru';
@@ -133,7 +122,7 @@ export interface LayeredOptions {
  * of the trade's textbooks; they describe no site.
  */
 export function layeredSection(seed: number, options: LayeredOptions = {}): Section {
-  const rand = seeded(seed);
+  const rand = seededRandom(seed);
   const pick = (a: number, b: number) => Math.round((a + (b - a) * rand()) * 1000) / 1000;
   const H = pick(4, 14);
   const run = pick(1.5, 3) * H;

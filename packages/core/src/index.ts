@@ -69,6 +69,7 @@ export { noncircularSearch } from './search/noncircular-search';
 export { refineCircle, refineTouching, type Polish } from './search/refine-circle';
 export { Trials, type CircleTrial, type CircleEvaluator, type TrialStage } from './search/trials';
 export { nelderMead } from './numeric/nelder-mead';
+export { seededRandom } from './numeric/seeded-random';
 
 // --- methods and the front door ---
 export { ordinary } from './methods/ordinary';

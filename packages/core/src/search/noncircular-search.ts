@@ -1,6 +1,7 @@
 import { yAt } from '../geometry/y-at';
 import type { Point, Polyline } from '../model/types';
 import { nelderMead } from '../numeric/nelder-mead';
+import { seededRandom } from '../numeric/seeded-random';
 import type { NoncircularSettings } from './search-settings';
 import type { CircleTrial } from './trials';
 
@@ -9,18 +10,6 @@ export interface NoncircularOutcome {
   fs: number;
   trials: number;
   restarts: number;
-}
-
-/** A small deterministic generator (mulberry32) so that a search repeats exactly. */
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 /**
@@ -82,7 +71,7 @@ export function noncircularSearch(
   depth = Math.max(depth, 0.05 * L);
   const step = [0.05 * L, 0.05 * L, ...new Array<number>(nv - 2).fill(0.15 * depth)];
   let best = nelderMead(objective, p0, step, 1e-7, 600);
-  const rand = random(settings.seed);
+  const rand = seededRandom(settings.seed);
   for (let k = 0; k < settings.restarts; k++) {
     const q = best.x.map((v, i) => v + (rand() - 0.5) * (i < 2 ? 0.3 * L : 1.2 * depth));
     if (!Number.isFinite(objective(q))) continue;

@@ -1,13 +1,9 @@
 import { toSi } from '../model/units';
 import type { Polyline, SearchSurface, UnitSystem } from '../model/types';
+import type { GridReport } from '../result';
 
-/** A rectangle of circle centres. */
-export interface CenterGrid {
-  x: [number, number];
-  y: [number, number];
-  nx: number;
-  ny: number;
-}
+/** A rectangle of circle centres (the shape the result reports, here in SI). */
+export type CenterGrid = GridReport;
 
 /** Radii of the circles at each centre: by radius, or by the elevation the circle is tangent to. */
 export type RadiusSpec =
