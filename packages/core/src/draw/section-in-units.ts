@@ -1,4 +1,5 @@
-import { fromSi, UNIT_LABELS } from '../model/units';
+import { type QuantityKind, fromSi, UNIT_LABELS } from '../model/units';
+import { describeStrength, isRigid } from '../strength/registry';
 import type { Load, Material, Point, Polyline, Section, UnitSystem } from '../model/types';
 
 /** A section's geometry for drawing, in its own units (the units of its result). */
@@ -14,18 +15,11 @@ export interface DrawingModel {
 }
 
 function describe(m: Material, units: UnitSystem): string {
-  const p = UNIT_LABELS[units].pressure;
-  const s = m.strength;
-  const v = (x: number) => String(Number(fromSi(x, 'pressure', units).toFixed(1)));
-  if (s.model === 'rigid') return 'rigid';
-  if (s.model === 'undrained') {
-    if (!(s.suRate > 0)) return `Su ${v(s.su)} ${p}`;
-    const rate = Number(fromSi(s.suRate, 'pressurePerLength', units).toPrecision(3));
-    const datum =
-      s.suDatum === null ? '' : ` below ${Number(fromSi(s.suDatum, 'length', units).toFixed(2))}`;
-    return `Su ${v(s.su)} ${p} + ${rate} ${UNIT_LABELS[units].pressurePerLength}${datum}`;
-  }
-  return `c′ ${v(s.cohesion)} ${p}, φ′ ${Number(s.frictionAngle.toFixed(1))}°`;
+  const show = (v: number, kind: QuantityKind, digits: number) => {
+    const x = fromSi(v, kind, units);
+    return `${Number(digits >= 0 ? x.toFixed(digits) : x.toPrecision(-digits))} ${UNIT_LABELS[units][kind]}`;
+  };
+  return describeStrength(m.strength, show);
 }
 
 /**
@@ -54,7 +48,7 @@ export function sectionInUnits(section: Section): DrawingModel {
         material: s.material,
         top: line(s.top),
         describe: m ? describe(m, u) : '',
-        rigid: m?.strength.model === 'rigid',
+        rigid: m ? isRigid(m.strength) : false,
       };
     }),
     water: {

@@ -1,3 +1,5 @@
+import type { RawStrength } from '../model/raw-section';
+import { STRENGTH_MODELS, checkStrength } from '../strength/registry';
 import { lowerEnvelope } from '../geometry/lower-envelope';
 import { boundaryOverGround } from '../model/boundary-over-ground';
 import type { Point, Polyline, UnitSystem } from '../model/types';
@@ -106,21 +108,9 @@ export function checkSection(data: unknown): Issue[] {
       );
     }
     const s = m.strength;
-    if (isRecord(s)) {
-      if (s.model === 'mohr-coulomb' && s.cohesion === 0 && s.frictionAngle === 0) {
-        warn(
-          [...at, 'strength'],
-          'no-strength',
-          'c′ = 0 and φ′ = 0: this material has no strength',
-        );
-      }
-      if (s.model === 'undrained' && s.su === 0 && (s.suRate ?? 0) === 0) {
-        warn(
-          [...at, 'strength'],
-          'no-strength',
-          'Su = 0 and no increase with depth: this material has no strength',
-        );
-      }
+    if (isRecord(s) && typeof s.model === 'string' && s.model in STRENGTH_MODELS) {
+      for (const note of checkStrength(s as unknown as RawStrength))
+        warn([...at, 'strength'], note.code, note.message);
     }
   }
 

@@ -1,6 +1,7 @@
 import { SECTION_FORMAT } from '../formats';
-import type { RawMaterial, RawSection, RawStrength } from '../model/raw-section';
+import type { RawMaterial, RawSection } from '../model/raw-section';
 import type { Section, UnitSystem } from '../model/types';
+import { isRigid, strengthDocument } from '../strength/registry';
 import { parseSections } from './parse-sections';
 import type { Message } from './types';
 
@@ -24,18 +25,9 @@ function defined<T extends object>(o: T): { [K in keyof T]?: Exclude<T[K], null>
 export function sectionDocument(s: Section): RawSection {
   const materials: Record<string, RawMaterial> = {};
   for (const [name, m] of Object.entries(s.materials)) {
-    // An undrained strength without growth with depth has suRate 0 and no datum: write neither.
-    const strength: RawStrength =
-      m.strength.model === 'undrained'
-        ? {
-            model: 'undrained',
-            su: m.strength.su,
-            ...(m.strength.suRate ? { suRate: m.strength.suRate } : {}),
-            ...(m.strength.suDatum !== null ? { suDatum: m.strength.suDatum } : {}),
-          }
-        : { ...m.strength };
+    const strength = strengthDocument(m.strength);
     materials[name] =
-      m.strength.model === 'rigid' && m.unitWeight === 0
+      isRigid(m.strength) && m.unitWeight === 0
         ? { strength }
         : { unitWeight: m.unitWeight, saturatedUnitWeight: m.saturatedUnitWeight, strength };
   }

@@ -1,3 +1,4 @@
+import { linearStrength } from '../strength/registry';
 import type { Material } from '../model/types';
 
 export interface InfiniteSlopeInput {
@@ -40,9 +41,9 @@ export function infiniteSlope(input: InfiniteSlopeInput): InfiniteSlopeResult {
   const u = gw * m * z * Math.cos(b) ** 2;
   const sigma = W * Math.cos(b) - kh * W * Math.sin(b);
   const tau = W * Math.sin(b) + kh * W * Math.cos(b);
-  const st = material.strength;
+  const st = linearStrength(material.strength);
   const out = { normalStress: sigma, porePressure: u, drivingStress: tau };
-  if (st.model === 'rigid')
+  if (!st)
     return { fs: NaN, converged: false, reason: 'infinite slope: the material is rigid', ...out };
   if (!(tau > 0))
     return {
@@ -51,10 +52,8 @@ export function infiniteSlope(input: InfiniteSlopeInput): InfiniteSlopeResult {
       reason: 'infinite slope: no driving shear on the plane',
       ...out,
     };
-  const resist =
-    st.model === 'mohr-coulomb'
-      ? st.cohesion + (sigma - u) * Math.tan((st.frictionAngle * Math.PI) / 180)
-      : st.su;
+  // (an undrained strength has tan φ′ = 0 and its Su at the datum on the plane)
+  const resist = st.c + (sigma - u) * st.tanPhi;
   const fs = Math.max(0, resist) / tau;
   return { fs, converged: true, ...out };
 }

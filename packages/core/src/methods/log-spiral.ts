@@ -1,6 +1,7 @@
 import type { Point, Polyline, Seismic } from '../model/types';
 import { findRoot } from '../numeric/find-root';
 import type { PreparedSection } from '../slices/prepare-section';
+import { linearStrength } from '../strength/registry';
 import { type SliceSet, sliceSurface } from '../slices/slice-surface';
 import { failed } from './failed';
 import { FS_GRID } from './solve-fs';
@@ -63,18 +64,12 @@ export function logSpiral(
   for (let i = 0; i < n; i++)
     if (s.material[i] !== mat)
       return fail('log spiral: needs one homogeneous soil along the surface');
-  const strength = prepared.materials[mat].strength;
-  if (strength.model === 'undrained' && strength.suRate !== 0) {
-    return fail('log spiral: needs a constant strength; Su here grows with depth');
+  const strength = linearStrength(prepared.materials[mat].strength);
+  if (strength && strength.rate !== 0) {
+    return fail('log spiral: needs a constant strength; here it grows with depth');
   }
-  const c =
-    strength.model === 'mohr-coulomb'
-      ? strength.cohesion
-      : strength.model === 'undrained'
-        ? strength.su
-        : 0;
-  const tanPhi =
-    strength.model === 'mohr-coulomb' ? Math.tan((strength.frictionAngle * Math.PI) / 180) : 0;
+  const c = strength ? strength.c : 0;
+  const tanPhi = strength ? strength.tanPhi : 0;
   if (!(c > 0)) return fail('log spiral: needs c′ > 0 (with c′ = 0 the infinite slope governs)');
 
   const xc = s.mirrored ? -center[0] : center[0];

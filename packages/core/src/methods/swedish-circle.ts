@@ -1,3 +1,4 @@
+import { linearStrength } from '../strength/registry';
 import { circlePolygonMoments } from '../geometry/circle-polygon-moments';
 import { lowerEnvelope } from '../geometry/lower-envelope';
 import { polylineBetween } from '../geometry/polyline-between';
@@ -57,13 +58,13 @@ function arcSuIntegral(
   x1: number,
   su: number,
   rate: number,
-  datum: number | null,
+  datum: number,
 ): number {
   const psi = (x: number) => Math.asin(Math.max(-1, Math.min(1, (x - xc) / r)));
   const p0 = psi(x0);
   const p1 = psi(x1);
   const ym = yc - r * Math.cos(0.5 * (p0 + p1));
-  if (datum === null || rate === 0 || ym >= datum) return su * r * (p1 - p0);
+  if (!Number.isFinite(datum) || rate === 0 || ym >= datum) return su * r * (p1 - p0);
   return r * ((su + rate * (datum - yc)) * (p1 - p0) + rate * r * (Math.sin(p1) - Math.sin(p0)));
 }
 
@@ -164,8 +165,9 @@ export function swedishCircle(
   const cuts = [xa, xb];
   for (let k = 1; k < g.soilStrata; k++) cuts.push(...curvePolylineMeets(arc, g.tops[k], xa, xb));
   for (const mat of prepared.materials) {
-    if (mat.strength.model === 'undrained' && mat.strength.suDatum !== null) {
-      const dy = yc - mat.strength.suDatum;
+    const l = linearStrength(mat.strength);
+    if (l && Number.isFinite(l.datum)) {
+      const dy = yc - l.datum;
       if (Math.abs(dy) < radius) {
         const dx = Math.sqrt(radius * radius - dy * dy);
         if (dy > 0) cuts.push(xc - dx, xc + dx);
@@ -182,11 +184,8 @@ export function swedishCircle(
     const ym = yc - Math.sqrt(Math.max(0, radius * radius - (xm - xc) ** 2));
     let k = 0;
     while (k + 1 < g.soilStrata && yAt(g.tops[k + 1], xm) >= ym) k++;
-    const st = prepared.materials[g.stratumMaterial[k]].strength;
-    if (st.model === 'undrained')
-      suL += arcSuIntegral(xc, yc, radius, x0, x1, st.su, st.suRate, st.suDatum);
-    else if (st.model === 'mohr-coulomb')
-      suL += st.cohesion * radius * (Math.asin((x1 - xc) / radius) - Math.asin((x0 - xc) / radius));
+    const st = linearStrength(prepared.materials[g.stratumMaterial[k]].strength);
+    if (st) suL += arcSuIntegral(xc, yc, radius, x0, x1, st.c, st.rate, st.datum);
   }
   const resisting = radius * suL;
 

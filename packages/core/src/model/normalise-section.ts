@@ -1,16 +1,8 @@
+import { normaliseStrength } from '../strength/registry';
 import { boundaryOverGround } from './boundary-over-ground';
 import { lowerEnvelope } from '../geometry/lower-envelope';
 import type { RawSection } from './raw-section';
-import type {
-  Analysis,
-  Load,
-  Material,
-  Polyline,
-  Section,
-  Strength,
-  Stratum,
-  Water,
-} from './types';
+import type { Analysis, Load, Material, Polyline, Section, Stratum, Water } from './types';
 import { toSi } from './units';
 import { SECTION_FORMAT } from '../formats';
 
@@ -34,15 +26,7 @@ export function normaliseSection(raw: RawSection): Section {
   const materials: Record<string, Material> = {};
   for (const [name, m] of Object.entries(raw.materials)) {
     const unitWeight = m.unitWeight ?? 0;
-    let strength: Strength;
-    if (m.strength.model === 'undrained') {
-      strength = {
-        model: 'undrained',
-        su: m.strength.su,
-        suRate: m.strength.suRate ?? 0,
-        suDatum: m.strength.suDatum ?? null,
-      };
-    } else strength = { ...m.strength };
+    const strength = normaliseStrength(m.strength);
     materials[name] = {
       name,
       unitWeight,

@@ -4,6 +4,7 @@
  * place with conversion factors: each is derived below from the exact definitions of NIST
  * SP 811 (2008), Appendix B, and checked against mathjs in packages/core/test/units.test.ts.
  */
+import { strengthQuantities } from '../strength/registry';
 import type { RawBoundary, RawSection } from './raw-section';
 import type { Point, SurfaceSpec, UnitSystem } from './types';
 
@@ -125,13 +126,9 @@ export function rawSectionToSi(raw: RawSection): RawSection {
   for (const m of Object.values(copy.materials)) {
     if (m.unitWeight !== undefined) m.unitWeight *= G;
     if (m.saturatedUnitWeight !== undefined) m.saturatedUnitWeight *= G;
-    const s = m.strength;
-    if (s.model === 'mohr-coulomb') s.cohesion *= P;
-    else if (s.model === 'undrained') {
-      s.su *= P;
-      if (s.suRate !== undefined) s.suRate *= US_TO_SI.pressurePerLength;
-      if (s.suDatum !== undefined) s.suDatum *= L;
-    }
+    const s = m.strength as unknown as Record<string, number>;
+    for (const [key, kind] of Object.entries(strengthQuantities(m.strength)))
+      if (kind && s[key] !== undefined) s[key] *= US_TO_SI[kind];
   }
   for (const st of copy.strata) if (st.top !== undefined) st.top = boundaryToSi(st.top, L);
   if (copy.water) {

@@ -3,6 +3,7 @@ import { bishop } from '../methods/bishop';
 import { defaultPivot } from '../methods/pivot';
 import { spencer } from '../methods/spencer';
 import type { Polyline, SearchSurface } from '../model/types';
+import { linearStrength } from '../strength/registry';
 import type { PreparedSection } from '../slices/prepare-section';
 import { sliceSurface } from '../slices/slice-surface';
 import { type Boundary, boundaries } from './boundaries';
@@ -43,14 +44,14 @@ export interface SearchOutcome {
   onEdge: boolean;
 }
 
-/** When every soil stratum is Mohr–Coulomb with c′ = 0: the infinite slope on the steepest ground. */
+/** When no soil stratum has cohesion (frictional, c′ = 0): the infinite slope on the steepest ground. */
 export function cohesionlessSlope(prepared: PreparedSection): CohesionlessSlope | null {
   const g = prepared.normal;
   let tanPhiMin = Infinity;
   for (let k = 0; k < g.soilStrata; k++) {
-    const st = prepared.materials[g.stratumMaterial[k]].strength;
-    if (st.model !== 'mohr-coulomb' || st.cohesion > 0) return null;
-    tanPhiMin = Math.min(tanPhiMin, Math.tan((st.frictionAngle * Math.PI) / 180));
+    const l = linearStrength(prepared.materials[g.stratumMaterial[k]].strength);
+    if (!l || l.c > 0 || l.rate > 0 || !(l.tanPhi > 0)) return null;
+    tanPhiMin = Math.min(tanPhiMin, l.tanPhi);
   }
   if (!(tanPhiMin > 0) || !Number.isFinite(tanPhiMin)) return null;
   const ground = g.ground;

@@ -1,6 +1,7 @@
 import { type Lookup, lookup } from '../geometry/lookup';
 import { polylineCrossings } from '../geometry/polyline-crossings';
 import type { Material, Polyline, Section } from '../model/types';
+import { isRigid, linearStrength } from '../strength/registry';
 
 /** A line load resolved into components (kN/m; x right, y up). */
 export interface PointForce {
@@ -116,7 +117,8 @@ function geometryOf(
   const stratumMaterial = section.strata.map((s) => materialIndex.get(s.material) ?? -1);
   let soilStrata = section.strata.length;
   for (let i = 0; i < section.strata.length; i++) {
-    if (section.materials[section.strata[i].material]?.strength.model === 'rigid') {
+    const m = section.materials[section.strata[i].material];
+    if (m && isRigid(m.strength)) {
       soilStrata = i;
       break;
     }
@@ -178,16 +180,12 @@ function stratumProperties(section: Section, materials: Material[], index: numbe
     if (!m) continue;
     p.gamma[k] = m.unitWeight;
     p.gammaSat[k] = m.saturatedUnitWeight;
-    const st = m.strength;
-    if (st.model === 'mohr-coulomb') {
-      p.c[k] = st.cohesion;
-      p.tanPhi[k] = Math.tan((st.frictionAngle * Math.PI) / 180);
-    } else if (st.model === 'undrained') {
-      p.c[k] = st.su;
-      if (st.suDatum !== null) {
-        p.suRate[k] = st.suRate;
-        p.suDatum[k] = st.suDatum;
-      }
+    const l = linearStrength(m.strength);
+    if (l) {
+      p.c[k] = l.c;
+      p.tanPhi[k] = l.tanPhi;
+      p.suRate[k] = l.rate;
+      p.suDatum[k] = l.datum;
     }
   }
   return p;

@@ -1,13 +1,13 @@
 import { lookupY } from '../geometry/lookup';
 import { NumberList } from '../geometry/number-list';
 import { type BasePiece, curveY } from './base-curve';
+import { crackDepthIn } from '../strength/registry';
 import type { Geometry, PreparedSection } from './prepare-section';
 
 /**
  * Depth of the tension crack at x (the upper end of a slide): the section's given depth, or
- * with `auto` the Rankine depth 2c·tan(45° + φ/2)/γ (2Su/γ undrained) of the first stratum
- * present at x (common practice; e.g. Craig's Soil Mechanics, active earth pressure). Zero
- * when the section has no crack.
+ * with `auto` the Rankine depth of the first stratum present at x (its strength model's
+ * crackDepth: 2c′·tan(45° + φ′/2)/γ, 2Su/γ undrained). Zero when the section has no crack.
  *
  * @example crackDepth(prepared, prepared.normal, 38) // → 1.29
  */
@@ -20,16 +20,7 @@ export function crackDepth(prepared: PreparedSection, g: Geometry, x: number): n
     const below = i + 1 < tops.length ? lookupY(tops[i + 1], x) : -Infinity;
     if (lookupY(tops[i], x) - below > prepared.tol) {
       const mat = prepared.materials[g.stratumMaterial[i]];
-      const st = mat.strength;
-      if (mat.unitWeight <= 0) return 0;
-      if (st.model === 'undrained') return (2 * st.su) / mat.unitWeight;
-      if (st.model === 'mohr-coulomb') {
-        return (
-          (2 * st.cohesion * Math.tan(((45 + st.frictionAngle / 2) * Math.PI) / 180)) /
-          mat.unitWeight
-        );
-      }
-      return 0;
+      return crackDepthIn(mat.strength, mat.unitWeight);
     }
   }
   return 0;

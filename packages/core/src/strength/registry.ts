@@ -1,0 +1,44 @@
+import type { RawStrength } from '../model/raw-section';
+import type { Strength } from '../model/types';
+import type { QuantityKind } from '../model/units';
+import { mohrCoulomb } from './mohr-coulomb';
+import { rigid } from './rigid';
+import type { LinearStrength, StrengthModel, StrengthNote } from './types';
+import { undrained } from './undrained';
+
+/**
+ * Every strength model, by the name a file gives it (`strength.model`). The rest of the
+ * solver asks a strength through the functions below and never looks at its model: adding a
+ * model is a file in strength/, its row here, its branch in the section schema and its id in
+ * the Strength type.
+ */
+export const STRENGTH_MODELS = {
+  'mohr-coulomb': mohrCoulomb,
+  undrained,
+  rigid,
+} as const satisfies Record<Strength['model'], unknown>;
+
+type AnyModel = StrengthModel<Strength, RawStrength>;
+const modelOf = (s: { model: Strength['model'] }) =>
+  STRENGTH_MODELS[s.model] as unknown as AnyModel;
+
+/** The settings of a file's strength with a dimension (for the conversion to SI). */
+export const strengthQuantities = (raw: RawStrength): Partial<Record<string, QuantityKind>> =>
+  modelOf(raw).quantities as Partial<Record<string, QuantityKind>>;
+/** The normalised strength of a file's. */
+export const normaliseStrength = (raw: RawStrength): Strength => modelOf(raw).normalise(raw);
+/** What a file writes for a strength. */
+export const strengthDocument = (s: Strength): RawStrength => modelOf(s).document(s);
+/** Warnings about a file's strength the schema cannot express. */
+export const checkStrength = (raw: RawStrength): StrengthNote[] => modelOf(raw).check(raw);
+/** A few words for a legend; `show` writes an SI value in the section's units with its label. */
+export const describeStrength = (
+  s: Strength,
+  show: (value: number, kind: QuantityKind, digits: number) => string,
+): string => modelOf(s).describe(s, show);
+/** The strength as the slicer takes it; null for a rigid base. */
+export const linearStrength = (s: Strength): LinearStrength | null => modelOf(s).linear(s);
+/** The Rankine depth of a tension crack in a material of this strength and unit weight γ. */
+export const crackDepthIn = (s: Strength, gamma: number): number => modelOf(s).crackDepth(s, gamma);
+/** A rigid base: no slip surface enters it. */
+export const isRigid = (s: Strength): boolean => linearStrength(s) === null;

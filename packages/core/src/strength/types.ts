@@ -1,0 +1,41 @@
+import type { Strength } from '../model/types';
+import type { QuantityKind } from '../model/units';
+
+/**
+ * A strength as the slicer and the methods take it along a slice base at elevation y:
+ * c = c + rate · max(0, datum − y) (kPa; datum NaN when c is constant), and tan φ′.
+ */
+export interface LinearStrength {
+  c: number;
+  tanPhi: number;
+  rate: number;
+  datum: number;
+}
+
+/** A warning about a material's strength that the schema cannot express. */
+export interface StrengthNote {
+  code: string;
+  message: string;
+}
+
+/**
+ * One strength model: everything the rest of the solver needs to know of it, in one file
+ * (strength/<model>.ts), listed in strength/registry.ts. `R` is what a file writes (optional
+ * settings absent), `S` the normalised strength (SI, defaults filled).
+ */
+export interface StrengthModel<S extends Strength, R extends { model: S['model'] }> {
+  /** The settings of the file's strength that have a dimension, for the conversion to SI. */
+  quantities: Partial<Record<Exclude<keyof R, 'model'>, QuantityKind>>;
+  /** The normalised strength from the file's (defaults filled in). */
+  normalise(raw: R): S;
+  /** What a file writes for it: the inverse of normalise. */
+  document(s: S): R;
+  /** Warnings the schema cannot express (e.g. a material with no strength at all). */
+  check(raw: R): StrengthNote[];
+  /** A few words for a legend or a table; `show` writes an SI value in the section's units with its label. */
+  describe(s: S, show: (value: number, kind: QuantityKind, digits: number) => string): string;
+  /** Its strength as the slicer takes it, or null for a rigid base (no slip surface enters it). */
+  linear(s: S): LinearStrength | null;
+  /** The Rankine depth of a tension crack in it under its unit weight γ (0 where none forms). */
+  crackDepth(s: S, gamma: number): number;
+}
