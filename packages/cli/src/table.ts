@@ -1,6 +1,7 @@
 import {
   distinctWarnings,
   fsText,
+  howFoundWords,
   UNIT_LABELS,
   VERDICT_WORDS,
   type MethodReport,
@@ -44,6 +45,7 @@ export function sectionTable(r: SectionResult): string[] {
       `  governing: ${r.governing.method} FS ${fsText(r.governing.fs)}${against}: ${words}`,
     );
   } else lines.push(`  governing: no method converged: ${words}`);
+  if (r.search?.howFound) for (const w of howFoundWords(r.search.howFound)) lines.push(`  ${w}`);
   for (const w of distinctWarnings(r)) {
     lines.push(`  warning${w.method ? ` (${w.method})` : ''}: ${w.message}`);
   }

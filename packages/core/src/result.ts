@@ -123,7 +123,7 @@ export interface HowFound {
     evaluations: number;
     touching: string | null;
   }[];
-  /** Where the critical circle came from. */
+  /** Where the critical circle came from (for a polish: the boundary its chain of polishes kept touching, or started touching). */
   critical: CircleOrigin;
   /** The critical circle's FS as the search found it, and cut afresh and solved by Bishop's method in full. */
   confirmation: { method: MethodId; searched: number; exact: number | null };

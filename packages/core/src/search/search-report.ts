@@ -10,6 +10,15 @@ function howFound(found: SearchOutcome): HowFound | null {
     stage: t.stage,
     touching: name(t.boundary),
   });
+  // the critical circle's origin: back along the polishes that led to it, to the first start
+  let critical = origin(c);
+  let at = found.polishes.find((p) => p.to === c);
+  while (at) {
+    const boundary = at.boundary >= 0 ? at.boundary : at.from.boundary;
+    critical = { stage: 'polish', touching: name(boundary) ?? critical.touching };
+    const from = at.from;
+    at = from.stage === 'polish' ? found.polishes.find((p) => p.to === from) : undefined;
+  }
   return {
     candidates: {
       grid: found.candidates.grid,
@@ -24,7 +33,7 @@ function howFound(found: SearchOutcome): HowFound | null {
       evaluations: p.evaluations,
       touching: name(p.boundary),
     })),
-    critical: origin(c),
+    critical,
     confirmation: { method: 'bishop', ...found.confirmation },
   };
 }
