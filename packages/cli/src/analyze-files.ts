@@ -1,4 +1,5 @@
 import {
+  AnalysisStopped,
   CAUTION,
   analyzeSection,
   formatMessage,
@@ -67,7 +68,16 @@ export function analyzeFiles(
       continue;
     }
     for (const s of sections) {
-      let r = analyzeSection(applyOverrides(s, options));
+      let r;
+      try {
+        r = analyzeSection(applyOverrides(s, options));
+      } catch (e) {
+        // a bounded analysis that ran out of its work says what to change; others are bugs
+        if (!(e instanceof AnalysisStopped)) throw e;
+        err(`${input.name}: ${s.id}: ${e.message}`);
+        bad = true;
+        continue;
+      }
       if (options.units) r = resultInUnits(r, options.units);
       results.push({ file: input.name, result: r });
     }

@@ -18,6 +18,7 @@ import { Trials } from './search/trials';
 import { type PreparedSection, prepareSection } from './slices/prepare-section';
 import { type SliceOutcome, sliceSurface } from './slices/slice-surface';
 import { verdictOf } from './verdict';
+import { type AnalyzeOptions, WorkMeter } from './work-limit';
 
 export { CAUTION };
 
@@ -29,15 +30,13 @@ function ownCircle(
   method: MethodId,
   prepared: PreparedSection,
   start: CircleSurface,
+  meter: WorkMeter,
 ): CircleSurface {
   const evaluate = (xc: number, yc: number, r: number) => {
     const c: CircleSurface = { type: 'circle', center: [xc, yc], radius: r };
-    const rep = runOnSurface(
-      method,
-      prepared,
-      c,
-      sliceSurface(prepared, c, prepared.section.analysis.slices),
-    );
+    const cut = sliceSurface(prepared, c, prepared.section.analysis.slices);
+    meter.charge(cut.ok ? cut.slices.n : 1);
+    const rep = runOnSurface(method, prepared, c, cut);
     return rep.converged && rep.fs !== null ? rep.fs : NaN;
   };
   const f0 = evaluate(start.center[0], start.center[1], start.radius);
@@ -58,10 +57,15 @@ function ownCircle(
  * and converted once (resultInUnits). It is plain JSON in the section's own units, with the governing (lowest converged)
  * factor of safety, its verdict against the required FS, the warnings and the caution.
  *
+ * The work is bounded (options.workLimit, default WORK_LIMIT slice evaluations) and may be
+ * stopped by the caller (options.shouldStop): either throws AnalysisStopped, whose message
+ * says what to change.
+ *
  * @example analyzeSection(parseSections(text, 'cut.yaml').sections[0]).governing
  */
-export function analyzeSection(section: Section): SectionResult {
+export function analyzeSection(section: Section, options: AnalyzeOptions = {}): SectionResult {
   const prepared = prepareSection(section);
+  const meter = new WorkMeter(options);
   const analysis = section.analysis;
   const surface = analysis.surface;
   const warnings: Warning[] = [];
@@ -80,7 +84,7 @@ export function analyzeSection(section: Section): SectionResult {
   if (surface && surface.type === 'circle') circle = surface as CircleSurface;
   else if (surface && surface.type === 'polyline') polyline = surface as PolylineSurface;
   else if (surface) {
-    found = searchSection(prepared, surface as SearchSurface);
+    found = searchSection(prepared, surface as SearchSurface, meter);
     if (found.circle)
       circle = { type: 'circle', center: found.circle.center, radius: found.circle.radius };
     if (found.polyline) polyline = { type: 'polyline', points: found.polyline.points };
@@ -113,7 +117,7 @@ export function analyzeSection(section: Section): SectionResult {
     if (!surface)
       return notRun(method, `${method}: the section gives no slip surface (analysis.surface)`);
     let own = circle;
-    if (own && found && analysis.searchEachMethod) own = ownCircle(method, prepared, own);
+    if (own && found && analysis.searchEachMethod) own = ownCircle(method, prepared, own, meter);
     const onCircle = own ? runOnSurface(method, prepared, own, cutOf(own)) : null;
     if (!(METHODS[method].surfaces as readonly string[]).includes('polyline') || !polyline) {
       return onCircle ?? notRun(method, `${method}: no admissible slip surface was found`);

@@ -89,6 +89,7 @@ export { defaultPivot } from './methods/pivot';
 export type { SliceMethodResult, MethodWarning } from './methods/types';
 export { analyzeSection, CAUTION, SOLVER_VERSION } from './analyze';
 export { resultInUnits } from './result-units';
+export { AnalysisStopped, WORK_LIMIT, WorkMeter, type AnalyzeOptions } from './work-limit';
 export { howFoundWords } from './search-words';
 export { METHODS, methodsFor, type MethodEntry } from './methods/registry';
 export type {

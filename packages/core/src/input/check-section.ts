@@ -1,3 +1,5 @@
+import { WORK_LIMIT } from '../work-limit';
+import { estimateWork } from './estimate-work';
 import type { RawStrength } from '../model/raw-section';
 import { STRENGTH_MODELS, checkStrength } from '../strength/registry';
 import { lowerEnvelope } from '../geometry/lower-envelope';
@@ -407,6 +409,17 @@ export function checkSection(data: unknown): Issue[] {
         `${num(a.requiredFs)} is below 1: it would accept a slope that is not stable`,
       );
     }
+  }
+  // --- the work the analysis asks for
+  const work = estimateWork(data.analysis, Array.isArray(data.strata) ? data.strata.length : 1);
+  if (work > WORK_LIMIT) {
+    err(
+      isRecord(data.analysis) && data.analysis.surface !== undefined
+        ? ['analysis', 'surface']
+        : ['analysis'],
+      'too-much-work',
+      `asks for about ${work.toExponential(1)} slice evaluations, more than the ${WORK_LIMIT.toExponential(0)} an analysis may use: use fewer grid centres, radii, moves, ground-range points, restarts or slices`,
+    );
   }
   return issues;
 }

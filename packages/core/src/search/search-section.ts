@@ -14,6 +14,7 @@ import { noncircularSearch } from './noncircular-search';
 import { type Polish, refineCircle, refineTouching } from './refine-circle';
 import { type SearchSettings, searchSettings } from './search-settings';
 import { type CircleTrial, type TrialStage, Trials } from './trials';
+import { WorkMeter } from '../work-limit';
 
 /** The infinite slope that governs when no material on the slope has cohesion. */
 export interface CohesionlessSlope {
@@ -99,7 +100,11 @@ export function cohesionlessSlope(prepared: PreparedSection): CohesionlessSlope 
  *
  * @example searchSection(prepareSection(section), { type: 'auto' }).circle
  */
-export function searchSection(prepared: PreparedSection, spec: SearchSurface): SearchOutcome {
+export function searchSection(
+  prepared: PreparedSection,
+  spec: SearchSurface,
+  meter: WorkMeter = new WorkMeter(),
+): SearchOutcome {
   const section = prepared.section;
   const slices = section.analysis.slices;
   const g = prepared.normal;
@@ -109,7 +114,7 @@ export function searchSection(prepared: PreparedSection, spec: SearchSurface): S
   const settings = searchSettings(spec, section.units, section.ground, deepest);
   const cohesionless = cohesionlessSlope(prepared);
   if (cohesionless && settings.grid) settings.grid.moves = 0;
-  const evaluate = bishopCircleEvaluator(prepared, slices);
+  const evaluate = bishopCircleEvaluator(prepared, slices, meter);
   const bounds = boundaries(prepared);
   const trials = new Trials(10);
   let grid: GridOutcome | null = null;
@@ -189,6 +194,7 @@ export function searchSection(prepared: PreparedSection, spec: SearchSurface): S
         settings.noncircular,
         (points) => {
           const s = sliceSurface(prepared, { type: 'polyline', points }, slices);
+          meter.charge(s.ok ? s.slices.n : 1);
           if (!s.ok) return NaN;
           const r = spencer(s.slices, { seismic: section.seismic, pivot: defaultPivot(s.slices) });
           return r.converged ? r.fs : NaN;

@@ -1,0 +1,42 @@
+import { isRecord } from './guards';
+
+const count = (v: unknown, fallback: number) =>
+  typeof v === 'number' && Number.isFinite(v) && v >= 0 ? v : fallback;
+
+/**
+ * An estimate of the slice evaluations a section's analysis asks for (see WorkMeter), from
+ * its settings as written: the grid's centres × (radii + one touching circle per stratum
+ * boundary) × (moves + 1), the ground ranges' points² × radii, the polishes, the
+ * noncircular restarts (a Spencer evaluation counted as ten), each circle of `slices` slices
+ * and the cuts at boundaries. An estimate from above for the search's own stages; the check
+ * of a section refuses one that is above the bound.
+ *
+ * @example estimateWork({ slices: 30, surface: { type: 'auto' } }, 2) // → 595 600
+ */
+export function estimateWork(analysis: unknown, strata: number): number {
+  const a = isRecord(analysis) ? analysis : {};
+  const slices = count(a.slices, 30);
+  const s = isRecord(a.surface) ? a.surface : { type: 'auto' };
+  const type = s.type;
+  if (type === 'circle' || type === 'polyline') return slices + 20;
+  const searched = type === 'grid' || type === 'auto' || type === undefined;
+  const ranges = type === 'ground-ranges' || type === 'auto' || type === undefined;
+  const c = isRecord(s.centers) ? s.centers : {};
+  const radii = isRecord(s.radii) ? s.radii : isRecord(s.tangents) ? s.tangents : {};
+  const grid = searched
+    ? count(c.nx, 10) *
+      count(c.ny, 10) *
+      (count(radii.count, 12) + strata) *
+      (count(s.moves, 6) + 1)
+    : 0;
+  const points = count(s.points, 8);
+  const ground = ranges ? points * points * count(s.radiusCount, 8) : 0;
+  const noncircular =
+    type === 'noncircular' || ((type === 'auto' || type === undefined) && s.noncircular === true)
+      ? (count(s.restarts, 4) + 1) * 600 * 10
+      : 0;
+  const methods = Array.isArray(a.methods) ? a.methods.length : 1;
+  const eachMethod = a.searchEachMethod === true ? methods * 300 * 3 : 0;
+  const polish = 3 * 300 + strata * 200 + 300;
+  return (grid + ground + noncircular + eachMethod + polish) * (slices + 20);
+}
