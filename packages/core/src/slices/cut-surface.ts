@@ -332,14 +332,12 @@ function fillSlices(ws: SliceWorkspace): boolean {
   for (let k = 0; k < nt; k++) topL[k] = lookupY(tops[k], xl[0]);
   let pL = pz ? lookupY(pz, xl[0]) : 0;
   let piece = 0;
-  // an arc at the slice's left and right edges: u = x − xc, s = √(r² − u²), asin(u/r)
+  // an arc at the slice's left and right edges: u = x − xc, s = √(r² − u²)
   let arcAt = -1;
   let uL = 0;
   let sL = 0;
-  let aL = 0;
   let uR = 0;
   let sR = 0;
-  let aR = 0;
   let total = 0;
   for (let i = 0; i < n; i++) {
     const x0 = xl[i];
@@ -356,12 +354,10 @@ function fillSlices(ws: SliceWorkspace): boolean {
       if (arcAt !== piece) {
         uL = arcU(x0 - p.xc, r);
         sL = arcS(uL, r);
-        aL = Math.asin(uL / r);
         arcAt = piece;
       }
       uR = arcU(x1 - p.xc, r);
       sR = arcS(uR, r);
-      aR = Math.asin(uR / r);
       yb0 = p.yc - sL;
       yb1 = p.yc - sR;
       ybm = p.yc - arcS(arcU(xm - p.xc, r), r);
@@ -395,7 +391,7 @@ function fillSlices(ws: SliceWorkspace): boolean {
       const bm = 0.5 * (b0 + b1);
       const full = bm > ybm + tol;
       if (full) lineIntegrals(x0, x1, b0, b1, I, 3);
-      else if (p.arc) arcIntegrals(p.xc, p.yc, p.r, uL, sL, aL, uR, sR, aR, I, 3);
+      else if (p.arc) arcIntegrals(p.xc, p.yc, p.r, uL, sL, uR, sR, I, 3);
       else lineIntegrals(x0, x1, yb0, yb1, I, 3);
       const lowerMid = full ? bm : ybm;
       base = k;
@@ -484,7 +480,6 @@ function fillSlices(ws: SliceWorkspace): boolean {
     topR = swap;
     uL = uR;
     sL = sR;
-    aL = aR;
   }
   if (ws.crackWater > 0) {
     // pushes the mass toward −x, acting hw/3 above the bottom of the crack
