@@ -12,16 +12,18 @@ import type { SliceMethodResult } from './types';
  * each slice from its vertical equilibrium, N = (−Hy − C sin α / F) / mα, mα = cos α +
  * sin α tan φ′ / F, F = Σ (C + N tan φ′)·aS / Σ −(N·aN + M0) (moments about the centre),
  * repeated from `guess` until F changes by less than `tol` relatively. Returns F (NaN where
- * mα turns negative, F leaves (0, 10⁶) or 60 passes do not settle) and the passes made. The search calls it on every
+ * mα turns negative, F leaves (0, 10⁶) or 60 passes do not settle); the passes made are
+ * written to `passes.count` when given (the search's hot path allocates nothing). The search calls it on every
  * trial circle; bishop() calls it first and falls back to a bracketing search.
  *
- * @example bishopIteration(statics(slices, seismic, centre), 1, 1e-10).fs // → 1.42
+ * @example bishopIteration(statics(slices, seismic, centre), 1, 1e-10) // → 1.42
  */
 export function bishopIteration(
   st: Statics,
   guess: number,
   tol: number,
-): { fs: number; iterations: number } {
+  passes?: { count: number },
+): number {
   const { n, sin, cos, C, t, Hy, aN, aS, M0 } = st;
   let F = guess > 0 ? guess : 1;
   for (let it = 1; it <= 60; it++) {
@@ -30,17 +32,24 @@ export function bishopIteration(
     let drive = 0;
     for (let i = 0; i < n; i++) {
       const den = t[i] * iF * sin[i] + cos[i];
-      if (den <= 1e-9) return { fs: NaN, iterations: it };
+      if (den <= 1e-9) {
+        if (passes) passes.count = it;
+        return NaN;
+      }
       const N = (-Hy[i] - C[i] * iF * sin[i]) / den;
       resist += (C[i] + N * t[i]) * aS[i];
       drive -= N * aN[i] + M0[i];
     }
     const next = resist / drive;
-    if (!(next > 0) || !(next < 1e6)) return { fs: NaN, iterations: it };
-    if (Math.abs(next - F) <= tol * next) return { fs: next, iterations: it };
+    const done = Math.abs(next - F) <= tol * next;
+    if (!(next > 0) || !(next < 1e6) || done) {
+      if (passes) passes.count = it;
+      return next > 0 && next < 1e6 ? next : NaN;
+    }
     F = next;
   }
-  return { fs: NaN, iterations: 60 };
+  if (passes) passes.count = 60;
+  return NaN;
 }
 
 /**
@@ -60,10 +69,10 @@ export function bishop(
 ): SliceMethodResult {
   const st = statics(s, options.seismic, options.pivot);
   const n = s.n;
-  const first = bishopIteration(st, 1, 1e-10);
-  let F = first.fs;
+  const passes = { count: 0 };
+  let F = bishopIteration(st, 1, 1e-10, passes);
   let converged = F > 0;
-  let iterations = first.iterations;
+  let iterations = passes.count;
   if (!converged) {
     const root = solveFs(st, 0, null, 'moment', 1, new Float64Array(n), new Float64Array(n));
     iterations += root.passes;

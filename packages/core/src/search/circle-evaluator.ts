@@ -35,7 +35,7 @@ export function bishopCircleEvaluator(
     pivot[0] = ws.mirrored ? -xc : xc;
     pivot[1] = yc;
     st = statics(ws.slices, seismic, pivot, st);
-    const f = bishopIteration(st, guess, 1e-7).fs;
+    const f = bishopIteration(st, guess, 1e-7);
     if (f > 0) guess = f;
     return f;
   };

@@ -1,4 +1,4 @@
-import { lookupY } from '../geometry/lookup';
+import { type Lookup, lookupY } from '../geometry/lookup';
 import { NumberList } from '../geometry/number-list';
 import type { CircleSurface, PolylineSurface } from '../model/types';
 import {
@@ -95,6 +95,17 @@ export function sliceWorkspace(prepared: PreparedSection, capacity = 64): SliceW
   };
 }
 
+/** How far the ground lies above the surface at x. */
+function depthBelow(ground: Lookup, pieces: readonly BasePiece[], x: number): number {
+  return lookupY(ground, x) - curveY(pieces, x);
+}
+
+/** Whether x is one of the meets (within tol). */
+function isMeet(meets: NumberList, x: number, tol: number): boolean {
+  for (let i = 0; i < meets.length; i++) if (Math.abs(meets.values[i] - x) <= tol) return true;
+  return false;
+}
+
 /** Ends of the sliding mass in the section's coordinates: one run of soil above the surface between two ground meets. */
 function findEnds(
   ws: SliceWorkspace,
@@ -108,12 +119,11 @@ function findEnds(
   const d = ws.detail;
   d.outside = hi - lo <= tol;
   if (d.outside) return 'misses-ground';
-  const depth = (x: number) => lookupY(ground, x) - curveY(pieces, x);
   const meets = ws.meets;
   meets.clear();
   meetsInto(pieces, g.ground, lo, hi, meets);
-  if (Math.abs(depth(lo)) <= 10 * tol) meets.push(lo);
-  if (Math.abs(depth(hi)) <= 10 * tol) meets.push(hi);
+  if (Math.abs(depthBelow(ground, pieces, lo)) <= 10 * tol) meets.push(lo);
+  if (Math.abs(depthBelow(ground, pieces, hi)) <= 10 * tol) meets.push(hi);
   const pts = ws.xs;
   pts.clear();
   pts.push(lo);
@@ -127,7 +137,7 @@ function findEnds(
   for (let i = 0; i + 1 < pts.length; i++) {
     const a = v[i];
     const b = v[i + 1];
-    if (depth((a + b) / 2) <= tol) continue;
+    if (depthBelow(ground, pieces, (a + b) / 2) <= tol) continue;
     if (runs > 0 && xb === a) {
       xb = b;
       continue;
@@ -141,11 +151,7 @@ function findEnds(
     xb = b;
   }
   if (runs === 0) return 'misses-ground';
-  const isMeet = (x: number) => {
-    for (let i = 0; i < meets.length; i++) if (Math.abs(meets.values[i] - x) <= tol) return true;
-    return false;
-  };
-  const bad = !isMeet(xa) ? xa : !isMeet(xb) ? xb : NaN;
+  const bad = !isMeet(meets, xa, tol) ? xa : !isMeet(meets, xb, tol) ? xb : NaN;
   if (!Number.isNaN(bad)) {
     d.side = bad === xa ? 'left' : 'right';
     d.atEdge = bad === g.xMin || bad === g.xMax;
