@@ -11,14 +11,7 @@ import type { SectionStatus } from '../batches/batch-types';
 import type { UserRef } from '../core/models';
 import type { ReviewSummary } from '../reviews/review-types';
 
-export type {
-  Load,
-  Material,
-  MethodId,
-  Point,
-  Strength,
-  UnitSystem,
-} from '@scarpline/core/model';
+export type { Load, Material, MethodId, Point, Strength, UnitSystem } from '@scarpline/core/model';
 export type { MethodReport, ReportedSurface, SliceReport, Warning } from '@scarpline/core/result';
 
 /** The stored input: the validated, normalised section as the solver took it (SI). */
