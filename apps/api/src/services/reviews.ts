@@ -3,7 +3,7 @@
  * finished batch, with a comment. Nobody reviews a batch they submitted.
  */
 import { Op } from 'sequelize';
-import { CAUTION } from '@scarpline/core';
+import { CAUTION } from '@scarpline/core/caution';
 import { sequelize } from '../db';
 import { conflict, forbidden, invalid, notFound } from '../errors';
 import { Batch, ResultRow, Review, SectionRow, User } from '../models';

@@ -1,8 +1,8 @@
 /**
  * The shapes of GET /sections/{id} and GET /sections/{id}/runs (apps/api services/sections.ts
- * and services/rerun.ts). The stored input is the solver's normalised section (SI) and the
- * results are the solver's reports (in the section's units): their types come from
- * @scarpline/core, imported for their types only so that nothing of the solver is bundled.
+ * and services/runs.ts). The stored input is the solver's normalised section (SI) and the
+ * results are the solver's reports (in the section's units): their types come from the core's
+ * subpaths (/model, /result, /input), imported for their types only.
  */
 import type { Message } from '@scarpline/core/input';
 import type { Section } from '@scarpline/core/model';
