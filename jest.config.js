@@ -7,5 +7,5 @@ module.exports = {
   testMatch: ['**/?(*.)test.ts'],
   testPathIgnorePatterns: ['/node_modules/', '/dist/'],
   moduleNameMapper: coreModuleNameMapper('<rootDir>/packages/core'),
-  transform: { '^.+\\.ts$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.test.json' }] },
+  transform: { '^.+\\.ts$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.json' }] },
 };

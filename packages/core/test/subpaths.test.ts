@@ -161,7 +161,7 @@ test("Jest's map and the tests' tsconfig send the same subpaths to the sources",
   const [, pattern] = Object.keys(map);
   for (const n of names) expect(`@scarpline/core/${n}`).toMatch(new RegExp(pattern));
   expect('@scarpline/core/analyze').not.toMatch(new RegExp(pattern));
-  for (const file of ['tsconfig.test.json', 'apps/api/tsconfig.test.json']) {
+  for (const file of ['tsconfig.json', 'apps/api/test/tsconfig.json']) {
     const paths = (readJson(join(ROOT, file)) as { compilerOptions: { paths: object } })
       .compilerOptions.paths;
     expect(Object.keys(paths)).toEqual(['@scarpline/core', '@scarpline/core/*']);
