@@ -157,7 +157,7 @@ describe('drawSection', () => {
     expect(XMLValidator.validate(svg)).toBe(true);
     const tree = parser.parse(svg);
     const texts = all(tree, 'text').map((t) =>
-      typeof t === 'object' ? String(t['#text'] ?? '') : String(t),
+      typeof t === 'object' ? String((t['#text'] as string | number | undefined) ?? '') : String(t),
     );
     const joined = texts.join(' ');
     for (const m of ['bank-clay', 'alluvium', 'sand']) expect(texts).toContain(m);

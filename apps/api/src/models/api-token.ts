@@ -6,8 +6,10 @@ import {
   type ForeignKey,
   type InferAttributes,
   type InferCreationAttributes,
+  type NonAttribute,
 } from 'sequelize';
 import { sequelize } from '../db';
+import type { User } from './user';
 
 export class ApiToken extends Model<InferAttributes<ApiToken>, InferCreationAttributes<ApiToken>> {
   declare id: CreationOptional<number>;
@@ -21,6 +23,8 @@ export class ApiToken extends Model<InferAttributes<ApiToken>, InferCreationAttr
   declare expiresAt: Date;
   declare revokedAt: Date | null;
   declare lastUsedAt: Date | null;
+  /** Its user, when loaded with it (`include: [User]`). */
+  declare User?: NonAttribute<User>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }

@@ -35,7 +35,7 @@ export async function logout(p: Principal): Promise<void> {
 /** The principal of a bearer token, or null when it is unknown, revoked or expired. */
 export async function principalOf(token: string): Promise<Principal | null> {
   const row = await ApiToken.findOne({ where: { tokenHash: hashToken(token) }, include: [User] });
-  const user = (row as (ApiToken & { User?: User }) | null)?.User;
+  const user = row?.User;
   if (!row || !user || !user.active || row.revokedAt || row.expiresAt.getTime() <= Date.now()) {
     return null;
   }

@@ -179,5 +179,5 @@ export async function sectionReview(section: SectionRow) {
   });
   const history = await withReviewers(rows);
   const latest = applied ? (await withReviewers([applied]))[0] : null;
-  return { state: (applied?.decision ?? 'pending') as ReviewState, latest, history };
+  return { state: applied?.decision ?? 'pending', latest, history };
 }

@@ -2,7 +2,7 @@
  * Sections: one section with its input and its results (the current run first, older runs
  * kept), and the sections of a batch with their current results (filtered, sorted, paged).
  */
-import { Op, type WhereOptions } from 'sequelize';
+import { Op, type OrderItem, type WhereOptions } from 'sequelize';
 import { CAUTION } from '@scarpline/core/caution';
 import type { Section } from '@scarpline/core/model';
 import { JOB_STATES, VERDICTS } from '@scarpline/core/verdict';
@@ -100,15 +100,14 @@ export async function listSections(batch: Batch, q: SectionQuery) {
   const dir = q.order === 'desc' ? 'DESC' : 'ASC';
   const sort = q.sort ?? 'station';
   if (!['station', 'fs', 'position'].includes(sort)) throw badRequest('sort is station or fs.');
-  const order =
+  const order: OrderItem[] =
     sort === 'fs'
       ? [[{ model: ResultRow, as: 'ResultRows' }, 'governingFs', `${dir} NULLS LAST`]]
       : [[sort, `${dir} NULLS LAST`]];
   const { rows, count } = await SectionRow.findAndCountAll({
     where,
     include: [{ model: ResultRow, where: resultWhere, required: q.verdict !== undefined }],
-    // eslint-disable-next-line @typescript-eslint/no-explicit-any
-    order: [...(order as any), ['id', 'ASC']],
+    order: [...order, ['id', 'ASC']],
     limit: pageSize,
     offset: (page - 1) * pageSize,
     distinct: true,

@@ -331,7 +331,7 @@ const changed = (f: Field) => f.control.value !== f.shown;
 function put(target: Record<string, unknown>, at: string[], value: unknown): void {
   let o = target;
   for (const k of at.slice(0, -1)) {
-    o[k] = (o[k] as Record<string, unknown> | undefined) ?? {};
+    o[k] = o[k] ?? {};
     o = o[k] as Record<string, unknown>;
   }
   o[at[at.length - 1]] = value;
