@@ -1,9 +1,11 @@
 /** Jest for every workspace: TypeScript through ts-jest (type-checked). */
+const { coreModuleNameMapper } = require('./packages/core/jest-map');
+
 module.exports = {
   testEnvironment: 'node',
   roots: ['<rootDir>/packages', '<rootDir>/tests', '<rootDir>/examples'],
   testMatch: ['**/?(*.)test.ts'],
   testPathIgnorePatterns: ['/node_modules/', '/dist/'],
-  moduleNameMapper: { '^@scarpline/core$': '<rootDir>/packages/core/src/index.ts' },
-  transform: { '^.+\\.ts$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.test.json' }] },
+  moduleNameMapper: coreModuleNameMapper('<rootDir>/packages/core'),
+  transform: { '^.+\\.ts$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.json' }] },
 };

@@ -1,4 +1,6 @@
 /** Jest for @scarpline/api: real PostgreSQL (the local cluster's test database), ts-jest. */
+const { coreModuleNameMapper } = require('../../packages/core/jest-map');
+
 module.exports = {
   rootDir: __dirname,
   testEnvironment: 'node',
@@ -6,7 +8,7 @@ module.exports = {
   testMatch: ['**/?(*.)test.ts'],
   globalSetup: '<rootDir>/test/global-setup.ts',
   globalTeardown: '<rootDir>/test/global-teardown.ts',
-  moduleNameMapper: { '^@scarpline/core$': '<rootDir>/../../packages/core/src/index.ts' },
-  transform: { '^.+\\.ts$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.test.json' }] },
+  moduleNameMapper: coreModuleNameMapper('<rootDir>/../../packages/core'),
+  transform: { '^.+\\.ts$': ['ts-jest', { tsconfig: '<rootDir>/test/tsconfig.json' }] },
   testTimeout: 60000,
 };

@@ -192,7 +192,7 @@ export function layeredSection(seed: number, options: LayeredOptions = {}): Sect
       { material: 'weak', top: boundary(yb + thick) },
       { material: 'base', top: boundary(yb) },
     ],
-    water: {} as Record<string, unknown>,
+    water: {},
     analysis: { methods: ['bishop'], slices: 30, surface: { type: 'auto' } },
   } as Record<string, unknown> & { water: Record<string, unknown> };
   const water = options.water ?? (['none', 'line', 'ru'] as const)[Math.floor(rand() * 3)];

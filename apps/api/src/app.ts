@@ -8,12 +8,7 @@ import { config } from './config';
 import { authenticate } from './middleware/auth';
 import { notFoundRoute, problemHandler } from './middleware/problem';
 import { hasWebBuild, webRoutes } from './middleware/web';
-import { adminRoutes } from './routes/admin';
-import { authRoutes } from './routes/auth';
-import { batchRoutes } from './routes/batches';
-import { exportRoutes } from './routes/exports';
-import { reviewRequestRoutes } from './routes/review-requests';
-import { reviewRoutes } from './routes/reviews';
+import { authenticatedRoutes, publicRoutes } from './routes';
 
 const SCHEMAS_DIR = path.dirname(require.resolve('@scarpline/schemas/package.json'));
 const SCHEMA_FILES = [
@@ -56,13 +51,9 @@ export function createApp(options: { homePage?: string } = {}): express.Express 
   );
 
   const v1 = express.Router();
-  v1.use(authRoutes);
+  for (const r of publicRoutes) v1.use(r);
   v1.use(authenticate);
-  v1.use(adminRoutes);
-  v1.use(batchRoutes);
-  v1.use(reviewRoutes);
-  v1.use(reviewRequestRoutes);
-  v1.use(exportRoutes);
+  for (const r of authenticatedRoutes) v1.use(r);
   app.use('/api/v1', v1);
   if (hasWebBuild(config.webDist)) {
     app.use(webRoutes(config.webDist));

@@ -1,6 +1,6 @@
 /** The API process: migrations, the local SMTP fake in development, the HTTP server. */
 import path from 'node:path';
-import { CAUTION } from '@scarpline/core';
+import { CAUTION } from '@scarpline/core/caution';
 import { createApp } from './app';
 import { config } from './config';
 import { sequelize } from './db';

@@ -16,8 +16,8 @@ async function child(): Promise<void> {
     await stopQueue();
     process.exit(0);
   };
-  process.once('SIGTERM', stop);
-  process.once('SIGINT', stop);
+  process.once('SIGTERM', () => void stop());
+  process.once('SIGINT', () => void stop());
 }
 
 if (cluster.isPrimary && config.workerConcurrency > 1) {

@@ -16,7 +16,8 @@ export default async function globalSetup(): Promise<void> {
     delete process.env.DATABASE_URL;
     const started = await pg.start();
     if (saved !== undefined) process.env.DATABASE_URL = saved;
-    url = started.testUrl as string;
+    if (!started.testUrl) throw new Error('scripts/pg.js started no test database');
+    url = started.testUrl;
   }
   const u = new URL(url);
   const name = u.pathname.slice(1);

@@ -6,7 +6,7 @@ import { createApp } from '../src/app';
 import { sequelize } from '../src/db';
 import { AuditEntry, ResultRow } from '../src/models';
 import { stopQueue } from '../src/queue';
-import { editSection } from '../src/services/rerun';
+import { editSection } from '../src/services/runs';
 import { startWorker } from '../src/worker';
 import { expectProblem, makeUsers, schemaErrors, signIn, waitForBatch } from './helpers';
 

@@ -5,7 +5,7 @@ import path from 'node:path';
 
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 const { webBuildPlan } = require('../scripts/start.js') as {
-  webBuildPlan(webDir: string, dist: string): { build: boolean; message: string };
+  webBuildPlan: (webDir: string, dist: string) => { build: boolean; message: string };
 };
 
 let tmp: string;

@@ -38,8 +38,8 @@ function startWorker(label: string): ChildProcess {
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
-  child.stdout?.on('data', (c: Buffer) => output.push(`${label}: ${c}`));
-  child.stderr?.on('data', (c: Buffer) => output.push(`${label}: ${c}`));
+  child.stdout?.on('data', (c: Buffer) => output.push(`${label}: ${c.toString()}`));
+  child.stderr?.on('data', (c: Buffer) => output.push(`${label}: ${c.toString()}`));
   children.push(child);
   return child;
 }
@@ -74,9 +74,9 @@ beforeAll(async () => {
 afterAll(async () => {
   for (const c of children) if (c.exitCode === null && c.signalCode === null) c.kill('SIGTERM');
   await Promise.all(
-    children.map((c) =>
-      c.exitCode !== null || c.signalCode !== null ? null : new Promise((r) => c.once('exit', r)),
-    ),
+    children
+      .filter((c) => c.exitCode === null && c.signalCode === null)
+      .map((c) => new Promise((r) => c.once('exit', r))),
   );
   await m.stopQueue();
   await m.sequelize.close();

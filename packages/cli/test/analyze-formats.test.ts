@@ -31,7 +31,7 @@ describe('scarpline analyze: formats, units, overrides, stdin', () => {
       '--csv',
     ]);
     expect(code).toBe(2);
-    const rows = parse(out, { columns: true }) as Record<string, string>[];
+    const rows = parse<Record<string, string>>(out, { columns: true });
     expect(Object.keys(rows[0])).toEqual([
       'file',
       'id',

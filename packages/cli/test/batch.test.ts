@@ -75,10 +75,9 @@ describe('scarpline batch', () => {
   });
 
   test('results.csv: the core’s results table, a row per station with its verdict', () => {
-    const rows = parse(readFileSync(join(out, 'results.csv'), 'utf8'), { columns: true }) as Record<
-      string,
-      string
-    >[];
+    const rows = parse<Record<string, string>>(readFileSync(join(out, 'results.csv'), 'utf8'), {
+      columns: true,
+    });
     expect(Object.keys(rows[0])).toEqual([
       'station',
       'chainage',
@@ -213,9 +212,7 @@ describe('scarpline batch', () => {
     expect(doc.complete).toBe(false);
     expect(doc.sections.length).toBeGreaterThanOrEqual(3);
     expect(doc.sections.length).toBeLessThan(120);
-    const csv = parse(readFileSync(join(dir, 'out', 'results.csv'), 'utf8'), {
-      columns: true,
-    }) as unknown[];
+    const csv = parse(readFileSync(join(dir, 'out', 'results.csv'), 'utf8'), { columns: true });
     expect(csv).toHaveLength(doc.written);
   }, 20000);
 });

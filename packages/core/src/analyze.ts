@@ -6,7 +6,6 @@ import type {
   CircleSurface,
   MethodId,
   PolylineSurface,
-  SearchSurface,
   Section,
 } from './model/types';
 import type { MethodReport, SectionResult, Warning } from './result';
@@ -81,10 +80,10 @@ export function analyzeSection(section: Section, options: AnalyzeOptions = {}): 
   let circle: CircleSurface | null = null;
   let polyline: PolylineSurface | null = null;
   let found: SearchOutcome | null = null;
-  if (surface && surface.type === 'circle') circle = surface as CircleSurface;
-  else if (surface && surface.type === 'polyline') polyline = surface as PolylineSurface;
+  if (surface && surface.type === 'circle') circle = surface;
+  else if (surface && surface.type === 'polyline') polyline = surface;
   else if (surface) {
-    found = searchSection(prepared, surface as SearchSurface, meter);
+    found = searchSection(prepared, surface, meter);
     if (found.circle)
       circle = { type: 'circle', center: found.circle.center, radius: found.circle.radius };
     if (found.polyline) polyline = { type: 'polyline', points: found.polyline.points };

@@ -1,27 +1,13 @@
-/** @scarpline/core — the pure solver: section model, geometry, slicing, methods. */
-export * from './model/types';
-
-// --- input: parsing, validation, units, normalisation ---
-export { parseSections, type ParsedSections } from './input/parse-sections';
-export { formatMessage } from './input/format-message';
-export { sectionDocument, readSectionDocument } from './input/section-document';
-export type { Message, BatchHeader, SectionEntry } from './input/types';
-export { SECTION_FORMAT, BATCH_FORMAT, corridorSectionId } from './formats';
-export {
-  US_TO_SI,
-  UNIT_LABELS,
-  QUANTITY_KINDS,
-  FOOT_IN_M,
-  POUND_IN_KG,
-  STANDARD_GRAVITY,
-  POUND_FORCE_IN_N,
-  toSi,
-  fromSi,
-  rawSectionToSi,
-  type QuantityKind,
-} from './model/units';
-export type * from './model/raw-section';
-export { normaliseSection } from './model/normalise-section';
+/**
+ * @scarpline/core — the pure solver: section model, geometry, slicing, methods; and, through
+ * the entry modules each importable alone (package.json `exports`: model, input, units,
+ * formats, caution, verdict, result, draw, export), everything else the callers use.
+ */
+// --- the parts each importable alone (package.json `exports`): model, input, units, formats
+export * from './model';
+export * from './input';
+export * from './formats';
+export * from './units';
 export { lowerEnvelope } from './geometry/lower-envelope';
 
 // --- geometry and slicing ---
@@ -87,10 +73,9 @@ export {
 export { statics, type Statics } from './methods/statics';
 export { defaultPivot } from './methods/pivot';
 export type { SliceMethodResult, MethodWarning } from './methods/types';
-export { analyzeSection, CAUTION, SOLVER_VERSION } from './analyze';
-export { resultInUnits } from './result-units';
+export { analyzeSection, SOLVER_VERSION } from './analyze';
+export * from './caution';
 export { AnalysisStopped, WORK_LIMIT, WorkMeter, type AnalyzeOptions } from './work-limit';
-export { howFoundWords } from './search-words';
 export { METHODS, methodsFor, type MethodEntry } from './methods/registry';
 export type {
   SectionResult,
@@ -105,47 +90,7 @@ export type {
   CircleOrigin,
 } from './result';
 
-// --- drawing and corridor input
-export { drawSection, type DrawableResult, type DrawSectionOptions } from './draw/draw-section';
-export { drawChainage, type ChainagePoint, type DrawChainageOptions } from './draw/draw-chainage';
-export { chainageLabel } from './draw/chainage-label';
-export {
-  parseGeoJsonCorridor,
-  isGeoJsonCorridor,
-  type ParsedCorridor,
-  type CorridorEntry,
-  type CorridorFeature,
-  type HeaderFile,
-} from './input/geojson-corridor';
-
-// --- the one vocabulary of results and the export table
-export {
-  VERDICTS,
-  VERDICT_WORDS,
-  VERDICT_SHORT,
-  JOB_STATES,
-  JOB_STATE_WORDS,
-  FS_DECIMALS,
-  verdictOf,
-  fsText,
-  fsRounded,
-  type Verdict,
-  type JobState,
-} from './verdict';
-export {
-  EXPORT_COLUMNS,
-  exportRecord,
-  unanalysedRecord,
-  distinctWarnings,
-  unsolvedReason,
-  csvRecord,
-  exportCsvHeader,
-  exportCsvRow,
-  exportFeature,
-  exportCollection,
-  type ExportColumn,
-  type ExportRecord,
-  type ExportValue,
-  type ExportableResult,
-  type ExportFeature,
-} from './export/export-table';
+// --- drawing, the one vocabulary of results and the export table
+export * from './draw';
+export * from './verdict';
+export * from './export';

@@ -6,6 +6,8 @@
 import type { MethodId, Point, SearchSurface, UnitSystem } from './model/types';
 import type { Verdict } from './verdict';
 
+export { howFoundWords } from './search-words';
+
 /** One slice as reported (section coordinates and units; forces per unit run). */
 export interface SliceReport {
   /** x of the slice middle, width b, base inclination α (degrees, positive where the base rises to the right). */

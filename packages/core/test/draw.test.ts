@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { CAUTION, analyzeSection, drawSection, parseSections, type Section } from '@scarpline/core';
-import { niceTicks } from '../src/draw/nice-ticks';
+import { niceStep, niceTicks } from '../src/draw/nice-ticks';
 import { scaleLinear } from '../src/draw/scale-linear';
 import { ACCENT, fsColor, strataColor } from '../src/draw/palette';
 import { pondedPolygons } from '../src/draw/ponded-polygons';
@@ -51,6 +51,16 @@ describe('scales and ticks', () => {
     expect(niceTicks(21.3, 27.9, 10)).toEqual([22, 23, 24, 25, 26, 27]);
     expect(niceTicks(0, 1, 5)).toEqual([0, 0.2, 0.4, 0.6, 0.8, 1]);
     expect(niceTicks(5, 1, 5)).toEqual([]);
+  });
+
+  test('niceStep is the step of 1, 2 or 5 times a power of ten at or above the one asked', () => {
+    expect(niceStep(9.4)).toBe(10);
+    expect(niceStep(10)).toBe(10);
+    expect(niceStep(0.3)).toBeCloseTo(0.5, 12);
+    expect(niceStep(1.2)).toBe(2);
+    expect(niceStep(2.5)).toBe(5); // no 2.5 in the set
+    expect(niceStep(0)).toBe(1);
+    expect(niceStep(Number.NaN)).toBe(1);
   });
 
   test('scaleLinear maps, inverts, and a y scale runs upward', () => {
@@ -147,7 +157,7 @@ describe('drawSection', () => {
     expect(XMLValidator.validate(svg)).toBe(true);
     const tree = parser.parse(svg);
     const texts = all(tree, 'text').map((t) =>
-      typeof t === 'object' ? String(t['#text'] ?? '') : String(t),
+      typeof t === 'object' ? String((t['#text'] as string | number | undefined) ?? '') : String(t),
     );
     const joined = texts.join(' ');
     for (const m of ['bank-clay', 'alluvium', 'sand']) expect(texts).toContain(m);

@@ -34,12 +34,17 @@ export const authenticate: RequestHandler = (req, res, next) => {
       ),
     );
   }
-  passport.authenticate('bearer', { session: false }, (err: unknown, user: Principal | false) => {
-    if (err) return next(err);
-    if (!user) return next(unauthorized());
-    req.user = user;
-    next();
-  })(req, res, next);
+  const check = passport.authenticate(
+    'bearer',
+    { session: false },
+    (err: unknown, user: Principal | false) => {
+      if (err) return next(err);
+      if (!user) return next(unauthorized());
+      req.user = user;
+      next();
+    },
+  ) as RequestHandler;
+  check(req, res, next);
 };
 
 /** Only these roles may pass. */

@@ -12,18 +12,22 @@ export const notFoundRoute: RequestHandler = (req, _res, next) => {
   next(new Problem(404, 'Not found', `No route ${req.method} ${req.path}.`));
 };
 
-export const problemHandler: ErrorRequestHandler = (err, req, res, next) => {
+/** A member of a thrown value (body-parser's and multer's errors carry type, code, name). */
+const field = (err: unknown, key: string): unknown =>
+  err !== null && typeof err === 'object' ? (err as Record<string, unknown>)[key] : undefined;
+
+export const problemHandler: ErrorRequestHandler = (err: unknown, req, res, next) => {
   if (res.headersSent) return next(err);
   let problem: Problem;
   if (err instanceof Problem) problem = err;
-  else if (err && typeof err === 'object' && 'type' in err && err.type === 'entity.parse.failed') {
-    problem = new Problem(400, 'Malformed JSON', String((err as Error).message));
-  } else if (err && typeof err === 'object' && 'type' in err && err.type === 'entity.too.large') {
+  else if (field(err, 'type') === 'entity.parse.failed') {
+    problem = new Problem(400, 'Malformed JSON', String(field(err, 'message')));
+  } else if (field(err, 'type') === 'entity.too.large') {
     problem = new Problem(413, 'Content too large', 'The request body is larger than allowed.');
-  } else if (err && typeof err === 'object' && 'code' in err && err.code === 'LIMIT_FILE_SIZE') {
+  } else if (field(err, 'code') === 'LIMIT_FILE_SIZE') {
     problem = new Problem(413, 'Content too large', 'An uploaded file is larger than allowed.');
-  } else if (err && typeof err === 'object' && 'name' in err && err.name === 'MulterError') {
-    problem = new Problem(400, 'Bad upload', String((err as Error).message));
+  } else if (field(err, 'name') === 'MulterError') {
+    problem = new Problem(400, 'Bad upload', String(field(err, 'message')));
   } else {
     // Unknown errors: logged here, never shown (no stack traces in responses).
     console.error(err);

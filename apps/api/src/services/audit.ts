@@ -1,4 +1,4 @@
-/** The audit log: one row per change, who did it and to what. */
+/** The audit log: one row per change, who did it and to what; the latest for the admins. */
 import type { Transaction } from 'sequelize';
 import { AuditEntry } from '../models';
 
@@ -11,4 +11,10 @@ export async function audit(
   transaction?: Transaction,
 ): Promise<void> {
   await AuditEntry.create({ userId, action, entity, entityId, details }, { transaction });
+}
+
+/** The latest entries of the audit log, newest first (at most `limit`). */
+export async function listAudit(limit = 200) {
+  const rows = await AuditEntry.findAll({ order: [['id', 'DESC']], limit });
+  return rows.map((r) => r.toJSON());
 }

@@ -1,16 +1,17 @@
-/** Batches and their sections: submission (one transaction with its jobs), progress, listing. */
-import { Op, QueryTypes, type WhereOptions } from 'sequelize';
-import type { Section, Verdict } from '@scarpline/core';
-import { CAUTION, JOB_STATES, VERDICTS } from '@scarpline/core';
+/** Batches: submission (one transaction with its sections' jobs), progress, views, listing. */
+import { QueryTypes } from 'sequelize';
+import { CAUTION } from '@scarpline/core/caution';
+import type { Section } from '@scarpline/core/model';
+import { VERDICTS, type Verdict } from '@scarpline/core/verdict';
 import { sequelize } from '../db';
-import { badRequest, notFound } from '../errors';
-import { Batch, Project, ResultRow, SectionRow } from '../models';
+import { notFound } from '../errors';
+import { Batch, Project, SectionRow } from '../models';
 import { enqueueSections } from '../queue';
 import { audit } from './audit';
 import { assertProject, type Principal } from './auth';
-import { batchReview, sectionReviewStates } from './reviews';
+import { batchReview } from './reviews';
 import { sectionMessage, type Parsed } from './validate';
-import { stationLabel, userRef } from './views';
+import { userRef } from './views';
 
 export async function submitBatch(p: Principal, projectId: number, parsed: Parsed, source: string) {
   assertProject(p, projectId);
@@ -121,82 +122,4 @@ export async function listBatches(p: Principal, projectId: number) {
   if (!(await Project.findByPk(projectId))) throw notFound('project');
   const rows = await Batch.findAll({ where: { projectId }, order: [['id', 'DESC']] });
   return Promise.all(rows.map((b) => batchView(b.id)));
-}
-
-export interface SectionQuery {
-  status?: string;
-  verdict?: string;
-  sort?: string;
-  order?: string;
-  page?: string;
-  pageSize?: string;
-}
-
-/** The sections of a batch with their current result: filtered, sorted, paged. */
-export async function listSections(batch: Batch, q: SectionQuery) {
-  const page = Math.max(1, Number(q.page ?? 1) || 1);
-  const pageSize = Math.min(500, Math.max(1, Number(q.pageSize ?? 50) || 50));
-  const where: WhereOptions = { batchId: batch.id };
-  if (q.status) {
-    if (!(JOB_STATES as readonly string[]).includes(q.status)) {
-      throw badRequest(`status is one of ${JOB_STATES.join(', ')}.`);
-    }
-    Object.assign(where, { status: q.status });
-  }
-  const resultWhere: WhereOptions = { run: { [Op.eq]: sequelize.col('SectionRow.run') } };
-  if (q.verdict !== undefined) {
-    if (!(VERDICTS as readonly string[]).includes(q.verdict)) {
-      throw badRequest(`verdict is one of ${VERDICTS.join(', ')}.`);
-    }
-    Object.assign(resultWhere, { verdict: q.verdict });
-  }
-  const dir = q.order === 'desc' ? 'DESC' : 'ASC';
-  const sort = q.sort ?? 'station';
-  if (!['station', 'fs', 'position'].includes(sort)) throw badRequest('sort is station or fs.');
-  const order =
-    sort === 'fs'
-      ? [[{ model: ResultRow, as: 'ResultRows' }, 'governingFs', `${dir} NULLS LAST`]]
-      : [[sort, `${dir} NULLS LAST`]];
-  const { rows, count } = await SectionRow.findAndCountAll({
-    where,
-    include: [{ model: ResultRow, where: resultWhere, required: q.verdict !== undefined }],
-    // eslint-disable-next-line @typescript-eslint/no-explicit-any
-    order: [...(order as any), ['id', 'ASC']],
-    limit: pageSize,
-    offset: (page - 1) * pageSize,
-    distinct: true,
-  });
-  const reviews = await sectionReviewStates(batch.id);
-  return {
-    page,
-    pageSize,
-    total: count,
-    items: rows.map((s) => {
-      const r = (s as SectionRow & { ResultRows?: ResultRow[] }).ResultRows?.[0];
-      return {
-        id: s.id,
-        key: s.key,
-        station: s.station,
-        stationLabel: stationLabel(s),
-        title: (s.input as Section).title,
-        units: (s.input as Section).units,
-        status: s.status,
-        run: s.run,
-        failReason: s.failReason,
-        reviewState: reviews.get(s.id)?.decision ?? 'pending',
-        // The section line of a GeoJSON corridor feature; null when the input had no coordinates.
-        geometry: s.geometry ?? null,
-        result: r
-          ? {
-              verdict: r.verdict,
-              governingMethod: r.governingMethod,
-              governingFs: r.governingFs,
-              requiredFs: r.requiredFs,
-              warnings: r.warnings,
-            }
-          : null,
-      };
-    }),
-    caution: CAUTION,
-  };
 }

@@ -4,7 +4,7 @@
  */
 import crypto from 'node:crypto';
 import { setTimeout as delay } from 'node:timers/promises';
-import { CAUTION } from '@scarpline/core';
+import { CAUTION } from '@scarpline/core/caution';
 import { config } from '../config';
 import { Batch } from '../models';
 import { progress } from './batches';

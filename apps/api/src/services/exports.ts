@@ -4,22 +4,20 @@
  * schemas/export-table.schema.json), the same as `scarpline batch` writes, with the service's
  * own columns at the end: the review state and the job state.
  */
+import { CAUTION } from '@scarpline/core/caution';
+import { drawSection, type DrawableResult } from '@scarpline/core/draw';
 import {
-  CAUTION,
-  drawSection,
   exportCollection,
   exportCsvHeader,
   exportCsvRow,
   exportFeature,
   exportRecord,
   unanalysedRecord,
-  type DrawableResult,
   type ExportRecord,
   type ExportValue,
-  type MethodReport,
-  type Section,
-  type Warning,
-} from '@scarpline/core';
+} from '@scarpline/core/export';
+import type { Section } from '@scarpline/core/model';
+import type { MethodReport, Warning } from '@scarpline/core/result';
 import { conflict } from '../errors';
 import { Batch, ResultRow, SectionRow } from '../models';
 import type { Principal } from './auth';

@@ -5,7 +5,8 @@
  */
 import nodemailer, { type Transporter } from 'nodemailer';
 import { SMTPServer } from 'smtp-server';
-import { CAUTION, fsText, JOB_STATE_WORDS, VERDICT_WORDS, VERDICTS } from '@scarpline/core';
+import { CAUTION } from '@scarpline/core/caution';
+import { fsText, JOB_STATE_WORDS, VERDICT_WORDS, VERDICTS } from '@scarpline/core/verdict';
 import { config } from '../config';
 import { Batch, SectionRow, User } from '../models';
 import { progress, verdictCounts } from './batches';

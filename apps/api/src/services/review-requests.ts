@@ -4,7 +4,7 @@
  * submitter is left out, since nobody reviews a batch they submitted.
  */
 import { Op } from 'sequelize';
-import { CAUTION } from '@scarpline/core';
+import { CAUTION } from '@scarpline/core/caution';
 import { conflict, invalid } from '../errors';
 import { User } from '../models';
 import { audit } from './audit';

@@ -3,7 +3,7 @@
  * finished batch, with a comment. Nobody reviews a batch they submitted.
  */
 import { Op } from 'sequelize';
-import { CAUTION } from '@scarpline/core';
+import { CAUTION } from '@scarpline/core/caution';
 import { sequelize } from '../db';
 import { conflict, forbidden, invalid, notFound } from '../errors';
 import { Batch, ResultRow, Review, SectionRow, User } from '../models';
@@ -179,5 +179,5 @@ export async function sectionReview(section: SectionRow) {
   });
   const history = await withReviewers(rows);
   const latest = applied ? (await withReviewers([applied]))[0] : null;
-  return { state: (applied?.decision ?? 'pending') as ReviewState, latest, history };
+  return { state: applied?.decision ?? 'pending', latest, history };
 }

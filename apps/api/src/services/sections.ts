@@ -1,10 +1,17 @@
-/** One section: its input and its results (the current run first, older runs kept). */
-import { CAUTION } from '@scarpline/core';
-import { notFound } from '../errors';
-import { ResultRow, SectionRow } from '../models';
+/**
+ * Sections: one section with its input and its results (the current run first, older runs
+ * kept), and the sections of a batch with their current results (filtered, sorted, paged).
+ */
+import { Op, type OrderItem, type WhereOptions } from 'sequelize';
+import { CAUTION } from '@scarpline/core/caution';
+import type { Section } from '@scarpline/core/model';
+import { JOB_STATES, VERDICTS } from '@scarpline/core/verdict';
+import { sequelize } from '../db';
+import { badRequest, notFound } from '../errors';
+import { ResultRow, SectionRow, type Batch } from '../models';
 import type { Principal } from './auth';
 import { loadBatch } from './batches';
-import { sectionReview } from './reviews';
+import { sectionReview, sectionReviewStates } from './reviews';
 import { messageView } from './validate';
 import { stationLabel, userRef } from './views';
 
@@ -59,6 +66,83 @@ export async function sectionView(p: Principal, id: number) {
     result: current ? resultView(current, { search: true }) : null,
     previous: results.filter((r) => r.run !== s.run).map((r) => resultView(r)),
     review: await sectionReview(s),
+    caution: CAUTION,
+  };
+}
+
+export interface SectionQuery {
+  status?: string;
+  verdict?: string;
+  sort?: string;
+  order?: string;
+  page?: string;
+  pageSize?: string;
+}
+
+/** The sections of a batch with their current result: filtered, sorted, paged. */
+export async function listSections(batch: Batch, q: SectionQuery) {
+  const page = Math.max(1, Number(q.page ?? 1) || 1);
+  const pageSize = Math.min(500, Math.max(1, Number(q.pageSize ?? 50) || 50));
+  const where: WhereOptions = { batchId: batch.id };
+  if (q.status) {
+    if (!(JOB_STATES as readonly string[]).includes(q.status)) {
+      throw badRequest(`status is one of ${JOB_STATES.join(', ')}.`);
+    }
+    Object.assign(where, { status: q.status });
+  }
+  const resultWhere: WhereOptions = { run: { [Op.eq]: sequelize.col('SectionRow.run') } };
+  if (q.verdict !== undefined) {
+    if (!(VERDICTS as readonly string[]).includes(q.verdict)) {
+      throw badRequest(`verdict is one of ${VERDICTS.join(', ')}.`);
+    }
+    Object.assign(resultWhere, { verdict: q.verdict });
+  }
+  const dir = q.order === 'desc' ? 'DESC' : 'ASC';
+  const sort = q.sort ?? 'station';
+  if (!['station', 'fs', 'position'].includes(sort)) throw badRequest('sort is station or fs.');
+  const order: OrderItem[] =
+    sort === 'fs'
+      ? [[{ model: ResultRow, as: 'ResultRows' }, 'governingFs', `${dir} NULLS LAST`]]
+      : [[sort, `${dir} NULLS LAST`]];
+  const { rows, count } = await SectionRow.findAndCountAll({
+    where,
+    include: [{ model: ResultRow, where: resultWhere, required: q.verdict !== undefined }],
+    order: [...order, ['id', 'ASC']],
+    limit: pageSize,
+    offset: (page - 1) * pageSize,
+    distinct: true,
+  });
+  const reviews = await sectionReviewStates(batch.id);
+  return {
+    page,
+    pageSize,
+    total: count,
+    items: rows.map((s) => {
+      const r = (s as SectionRow & { ResultRows?: ResultRow[] }).ResultRows?.[0];
+      return {
+        id: s.id,
+        key: s.key,
+        station: s.station,
+        stationLabel: stationLabel(s),
+        title: (s.input as Section).title,
+        units: (s.input as Section).units,
+        status: s.status,
+        run: s.run,
+        failReason: s.failReason,
+        reviewState: reviews.get(s.id)?.decision ?? 'pending',
+        // The section line of a GeoJSON corridor feature; null when the input had no coordinates.
+        geometry: s.geometry ?? null,
+        result: r
+          ? {
+              verdict: r.verdict,
+              governingMethod: r.governingMethod,
+              governingFs: r.governingFs,
+              requiredFs: r.requiredFs,
+              warnings: r.warnings,
+            }
+          : null,
+      };
+    }),
     caution: CAUTION,
   };
 }

@@ -1,13 +1,13 @@
-/** Users (admins manage them) and projects. */
+/** Users: admins create, invite, change and disable them. */
 import crypto from 'node:crypto';
-import { Op } from 'sequelize';
 import { sequelize } from '../db';
 import { conflict, invalid, notFound, Problem } from '../errors';
-import { ApiToken, Project, ROLES, User, type Role } from '../models';
+import { ApiToken, ROLES, User, type Role } from '../models';
 import { audit } from './audit';
-import { assertProject, publicUser, type Principal } from './auth';
+import type { Principal } from './auth';
 import { invitation, mailConfigured } from './mail';
 import { hashPassword } from './passwords';
+import { publicUser } from './views';
 
 export async function listUsers() {
   return (await User.findAll({ order: [['id', 'ASC']] })).map(publicUser);
@@ -183,30 +183,4 @@ export async function updateUser(admin: Principal, id: number, body: unknown) {
     );
   });
   return publicUser(user);
-}
-
-export function projectView(p: Project) {
-  return { id: p.id, name: p.name, description: p.description, createdAt: p.createdAt };
-}
-
-export async function listProjects(p: Principal) {
-  const where = p.projectIds === null ? {} : { id: { [Op.in]: p.projectIds } };
-  return (await Project.findAll({ where, order: [['id', 'ASC']] })).map(projectView);
-}
-
-export async function getProject(p: Principal, id: number) {
-  assertProject(p, id);
-  const project = await Project.findByPk(id);
-  if (!project) throw notFound('project');
-  return projectView(project);
-}
-
-export async function createProject(p: Principal, body: { name: string; description?: string }) {
-  const project = await Project.create({
-    name: body.name,
-    description: body.description ?? null,
-    createdBy: p.userId,
-  });
-  await audit(p.userId, 'create', 'project', project.id, { name: body.name });
-  return projectView(project);
 }

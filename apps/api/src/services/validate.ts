@@ -10,9 +10,8 @@ import {
   parseSections,
   readSectionDocument,
   type Message,
-  type Section,
-  type UnitSystem,
-} from '@scarpline/core';
+} from '@scarpline/core/input';
+import type { Section, UnitSystem } from '@scarpline/core/model';
 import { batchSchema, sectionSchema } from '@scarpline/schemas';
 import { invalid } from '../errors';
 

@@ -1,6 +1,7 @@
-/** Small pieces shared by the section views, the lists and the exports. */
+/** Small pieces shared by the views of several resources: station labels and users. */
 import { Op } from 'sequelize';
-import { chainageLabel, type Section } from '@scarpline/core';
+import { chainageLabel } from '@scarpline/core/draw';
+import type { Section } from '@scarpline/core/model';
 import { User, type SectionRow } from '../models';
 
 /** A station as chainage in the units of the section's file ("1+240"); null without one. */
@@ -28,4 +29,9 @@ export async function userRef(id: number): Promise<UserRef> {
   const found = (await userRefs([id])).get(id);
   if (!found) throw new Error(`user ${id} is not on record`);
   return found;
+}
+
+/** A user as the users' admin and the user themselves see them. */
+export function publicUser(u: User) {
+  return { id: u.id, email: u.email, name: u.name, role: u.role, active: u.active };
 }

@@ -18,7 +18,7 @@ export function sliceShapes(
   s: Scales,
 ): string {
   if (slices.length === 0 || !base || base.length < 2) return '';
-  const line = [...base].sort((a, b) => a[0] - b[0]) as Polyline;
+  const line = [...base].sort((a, b) => a[0] - b[0]);
   const sides = slices.map((sl) => sl.x - sl.width / 2);
   const last = slices[slices.length - 1];
   sides.push(last.x + last.width / 2);

@@ -4,7 +4,7 @@ import type { RawStrength } from '../model/raw-section';
 import { STRENGTH_MODELS, checkStrength } from '../strength/registry';
 import { lowerEnvelope } from '../geometry/lower-envelope';
 import { boundaryOverGround } from '../model/boundary-over-ground';
-import type { Point, Polyline, UnitSystem } from '../model/types';
+import type { Polyline, UnitSystem } from '../model/types';
 import { UNIT_LABELS } from '../model/units';
 import { aboveIntervals, type AboveInterval } from './above-intervals';
 import { isNumber, isPointList, isRecord } from './guards';
@@ -117,7 +117,7 @@ export function checkSection(data: unknown): Issue[] {
   }
 
   // --- strata: materials
-  const strata = Array.isArray(data.strata) ? data.strata : [];
+  const strata: unknown[] = Array.isArray(data.strata) ? data.strata : [];
   const used = new Set<string>();
   const label = (i: number): string => {
     const s = strata[i];
@@ -208,7 +208,7 @@ export function checkSection(data: unknown): Issue[] {
         `${what} ends at x = ${num(bx1)} ${L}, ${num(gx1 - bx1)} ${L} left of the ground's right end (x = ${num(gx1)} ${L}); it must span the whole ground`,
       );
     }
-    return spans ? boundaryOverGround(b as Point[], ground) : null;
+    return spans ? boundaryOverGround(b, ground) : null;
   };
 
   const tops: (Polyline | null)[] = strata.map((s, i) =>

@@ -113,8 +113,8 @@ export function expandBatch(batch: Record<string, unknown>): ExpandedSection[] {
 
     // Seismic and analysis merge setting by setting.
     for (const key of ['seismic', 'analysis']) {
-      const tv = isRecord(template[key]) ? (template[key] as Record<string, unknown>) : null;
-      const iv = isRecord(item[key]) ? (item[key] as Record<string, unknown>) : null;
+      const tv = isRecord(template[key]) ? template[key] : null;
+      const iv = isRecord(item[key]) ? item[key] : null;
       if (tv || iv) {
         data[key] = { ...tv, ...iv };
         map([key], iv ? [...S, key] : [...T, key]);

@@ -43,6 +43,7 @@ function describeValue(value: unknown): string {
   }
   if (Array.isArray(value)) return 'a list';
   if (typeof value === 'object') return 'a group of settings';
+  // eslint-disable-next-line @typescript-eslint/no-base-to-string -- a boolean: all that is left of YAML or JSON data
   return String(value);
 }
 
@@ -119,7 +120,7 @@ export function translateSchemaError(
     }
     case 'additionalProperties': {
       const extra = String(params.additionalProperty);
-      const allowed = Object.keys((parent.properties ?? {}) as Record<string, unknown>);
+      const allowed = Object.keys(parent.properties ?? {});
       const near = closest(extra, allowed);
       const where = typeof parent.title === 'string' ? ` in ${parent.title}` : '';
       const tail = near
@@ -196,7 +197,7 @@ export function translateSchemaError(
       const i = Number(params.i);
       const j = Number(params.j);
       const later = Math.max(i, j);
-      const item = Array.isArray(value) ? value[later] : undefined;
+      const item: unknown = Array.isArray(value) ? value[later] : undefined;
       return issue('duplicate', `${quote(item)} is listed twice`, [...path, later]);
     }
     case 'minLength':

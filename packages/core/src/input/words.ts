@@ -40,6 +40,7 @@ export function quote(value: unknown): string {
   if (typeof value === 'number') return num(value);
   if (Array.isArray(value)) return 'a list';
   if (typeof value === 'object') return 'a group of settings';
+  // eslint-disable-next-line @typescript-eslint/no-base-to-string -- a boolean: all that is left of YAML or JSON data
   return String(value);
 }
 

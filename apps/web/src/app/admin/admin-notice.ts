@@ -21,6 +21,7 @@ export function refused(notDone: string, err: unknown): Notice {
  * and `.bad` styles (_outcome.scss) dress the paragraph.
  */
 @Component({
+  // eslint-disable-next-line @angular-eslint/component-selector -- on a <p>, which it stays (a paragraph the page styles)
   selector: 'p[slAdminNotice]',
   imports: [MatIconModule],
   changeDetection: ChangeDetectionStrategy.OnPush,

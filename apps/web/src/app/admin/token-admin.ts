@@ -109,7 +109,7 @@ export class TokenAdmin {
         ),
       ),
     ),
-    { initialValue: { state: 'loading' } as Loaded<TokenPage> },
+    { initialValue: { state: 'loading' } satisfies Loaded<TokenPage> },
   );
   private readonly data = computed(() => valueOf(this.loaded()));
   /** The listed tokens, with the ones made or revoked on this page since. */

@@ -103,7 +103,7 @@ export class UserAdmin {
 
   protected readonly loaded = toSignal(
     this.reloads.pipe(switchMap(() => loadState(this.api.users()))),
-    { initialValue: { state: 'loading' } as Loaded<AdminUser[]> },
+    { initialValue: { state: 'loading' } satisfies Loaded<AdminUser[]> },
   );
   /** The listed users, with the changes made on this page since. */
   protected readonly rows = linkedSignal(() => valueOf(this.loaded()) ?? []);

@@ -2,7 +2,8 @@
  * The shapes of the batch endpoints of the Scarpline API (apps/api/src/services/batches.ts,
  * events.ts, exports.ts, reviews.ts, review-requests.ts).
  */
-import type { Message, Warning } from '@scarpline/core';
+import type { Message } from '@scarpline/core/input';
+import type { Warning } from '@scarpline/core/result';
 import type { JobState, Verdict } from '@scarpline/core/verdict';
 import type { UserRef } from '../core/models';
 import type { ReviewState, ReviewSummary } from '../reviews/review-types';

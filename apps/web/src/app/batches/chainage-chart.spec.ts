@@ -167,7 +167,7 @@ describe('ChainageChart', () => {
     const f = await render(sections);
     const opened: number[] = [];
     f.componentInstance.open.subscribe((id) => opened.push(id));
-    const pts = Array.from(f.nativeElement.querySelectorAll('g.pt')) as SVGGElement[];
+    const pts = Array.from<SVGGElement>(f.nativeElement.querySelectorAll('g.pt'));
     expect(pts[1].querySelector('title')?.textContent).toBe(
       'Station 1+020: FS 1.20, required 1.50 (below the required FS)',
     );

@@ -12,16 +12,8 @@ import { observedWidth } from '../shared/observed-width';
 import { steppedIndex } from '../shared/stepped-index';
 import { VERDICT_WORDS } from '@scarpline/core/verdict';
 import type { SectionListItem, Verdict } from './batch-types';
-import {
-  batchUnits,
-  formatChainage,
-  formatFs,
-  lengthUnit,
-  linear,
-  niceStep,
-  niceTicks,
-  type Units,
-} from './scales';
+import { niceStep, scaleLinear, type LinearScale } from '@scarpline/core/draw';
+import { batchUnits, formatChainage, formatFs, lengthUnit, type Units } from './scales';
 
 /** One station of the chart: a section with a station and a governing FS. */
 export interface ChainagePoint {
@@ -73,8 +65,8 @@ export interface ChainageLayout {
   width: number;
   height: number;
   plot: { left: number; right: number; top: number; bottom: number };
-  x: (station: number) => number;
-  y: (fs: number) => number;
+  x: LinearScale;
+  y: LinearScale;
   yMax: number;
   xTicks: { value: number; x: number; text: string }[];
   yTicks: { value: number; y: number; text: string }[];
@@ -108,7 +100,7 @@ export function chainageLayout(
   let s1 = Math.max(...stations);
   if (!Number.isFinite(s0)) [s0, s1] = [0, 1];
   const pad = s1 > s0 ? (s1 - s0) * 0.02 : 10;
-  const x = linear(s0 - pad, s1 + pad, plot.left, plot.right);
+  const x = scaleLinear([s0 - pad, s1 + pad], [plot.left, plot.right]);
 
   const maxRequired = Math.max(0, ...points.map((p) => p.required ?? 0));
   const maxFs = Math.max(0, ...points.map((p) => p.fs));
@@ -116,15 +108,15 @@ export function chainageLayout(
   const top = Math.min(Math.max(maxFs, maxRequired * 1.2, 0.5), cap);
   const yStep = niceStep(top / 5);
   const yMax = Math.ceil(top / yStep - 1e-9) * yStep;
-  const y = linear(0, yMax, plot.bottom, plot.top);
+  const y = scaleLinear([0, yMax], [plot.bottom, plot.top]);
 
   const xCount = Math.max(2, Math.floor((plot.right - plot.left) / 90));
-  const xTicks = niceTicks(s0 - pad, s1 + pad, xCount).map((value) => ({
+  const xTicks = x.ticks(xCount).map((value) => ({
     value,
     x: x(value),
     text: formatChainage(value, units),
   }));
-  const yTicks = niceTicks(0, yMax, 5).map((value) => ({
+  const yTicks = y.ticks(5).map((value) => ({
     value,
     y: y(value),
     text: String(Number(value.toFixed(2))),

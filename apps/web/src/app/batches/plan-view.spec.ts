@@ -141,7 +141,7 @@ describe('PlanView', () => {
 
   it('puts north up: a larger y is drawn higher', async () => {
     const f = await render(rungs(10, 500, [1.8, 1.8]));
-    const lines = Array.from(f.nativeElement.querySelectorAll('polyline.stroke')) as Element[];
+    const lines = Array.from<Element>(f.nativeElement.querySelectorAll('polyline.stroke'));
     const yOf = (p: Element) =>
       Number((p.getAttribute('points') ?? '').split(' ')[0].split(',')[1]);
     expect(yOf(lines[1])).toBeLessThan(yOf(lines[0]));

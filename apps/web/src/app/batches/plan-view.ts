@@ -12,7 +12,8 @@ import { observedWidth } from '../shared/observed-width';
 import { steppedIndex } from '../shared/stepped-index';
 import { VERDICT_WORDS } from '@scarpline/core/verdict';
 import type { ResultCollection, ResultFeature, Verdict } from './batch-types';
-import { formatChainage, formatFs, formatNumber, lengthUnit, niceStep, type Units } from './scales';
+import { niceStep } from '@scarpline/core/draw';
+import { formatChainage, formatFs, formatNumber, lengthUnit, type Units } from './scales';
 
 /**
  * The FS bins, as multiples of the required FS: below 1 fails, then ever larger margins.

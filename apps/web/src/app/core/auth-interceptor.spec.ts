@@ -58,7 +58,7 @@ describe('authInterceptor and Auth', () => {
     req.flush({});
   });
 
-  it('on a 401 forgets the session and returns to sign-in with the way back', async () => {
+  it('on a 401 forgets the session and returns to sign-in with the way back', () => {
     signIn();
     const nav = vi.spyOn(router, 'navigate').mockResolvedValue(true);
     let failed = false;

@@ -1,5 +1,5 @@
 /** The shapes the web app reads from the Scarpline API (/api/v1). */
-import type { Message } from '@scarpline/core';
+import type { Message } from '@scarpline/core/input';
 
 export type Role = 'admin' | 'engineer' | 'reviewer' | 'viewer' | 'integration';
 

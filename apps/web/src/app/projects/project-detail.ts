@@ -103,7 +103,7 @@ export class ProjectDetail {
   );
   protected readonly batches = toSignal(
     this.key$.pipe(switchMap(([id]) => followBatches(() => this.api.batches(id)))),
-    { initialValue: { state: 'loading' } as BatchList },
+    { initialValue: { state: 'loading' } satisfies BatchList },
   );
 
   protected readonly canSubmit = computed(() => this.auth.hasRole('admin', 'engineer'));

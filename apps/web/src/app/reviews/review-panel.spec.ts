@@ -49,7 +49,7 @@ describe('ReviewPanel', () => {
   afterEach(() => verifyAndReset(backend));
 
   const el = () => fixture.nativeElement as HTMLElement;
-  const q = (id: string) => el().querySelector(`[data-testid="${id}"]`) as HTMLElement | null;
+  const q = (id: string) => el().querySelector<HTMLElement>(`[data-testid="${id}"]`);
 
   async function write(text: string): Promise<void> {
     const box = q('review-comment') as HTMLTextAreaElement;

@@ -184,7 +184,7 @@ export class ReviewQueue {
   protected readonly tries = signal(0);
   protected readonly loaded = toSignal(
     toObservable(this.tries).pipe(switchMap(() => loadState(this.api.pending()))),
-    { initialValue: { state: 'loading' } as Loaded<QueuedBatch[]> },
+    { initialValue: { state: 'loading' } satisfies Loaded<QueuedBatch[]> },
   );
   protected readonly problem = computed(() => {
     const l = this.loaded();

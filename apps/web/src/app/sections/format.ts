@@ -1,34 +1,20 @@
-/** Words and numbers of the section page: units, FS and other figures (method names: shared/). */
-import type { ReportedSurface, UnitSystem } from './section-types';
+/**
+ * Words and numbers of the section page: units, FS and other figures (method names: shared/).
+ * Units and their conversion are the core's (`@scarpline/core/units`): the stored input is SI
+ * and is shown in the file's units with its `fromSi`.
+ */
+import { UNIT_LABELS, type QuantityKind, type UnitSystem } from '@scarpline/core/units';
+import { fsText as coreFsText } from '@scarpline/core/verdict';
+import type { ReportedSurface } from './section-types';
 
-/** The kinds of quantity whose unit differs between the unit systems. */
-export type Quantity =
-  'length' | 'forcePerLength' | 'pressure' | 'unitWeight' | 'pressurePerLength';
-
-export const UNIT_LABELS: Record<UnitSystem, Record<Quantity, string>> = {
-  si: {
-    length: 'm',
-    forcePerLength: 'kN/m',
-    pressure: 'kPa',
-    unitWeight: 'kN/m³',
-    pressurePerLength: 'kPa/m',
-  },
-  us: {
-    length: 'ft',
-    forcePerLength: 'lbf/ft',
-    pressure: 'psf',
-    unitWeight: 'pcf',
-    pressurePerLength: 'psf/ft',
-  },
-};
-
-export function unitOf(units: UnitSystem | undefined, q: Quantity): string {
+/** The unit of a quantity in the section's units (si when not given). */
+export function unitOf(units: UnitSystem | undefined, q: QuantityKind): string {
   return UNIT_LABELS[units ?? 'si'][q];
 }
 
-/** A factor of safety: three decimals, as the drawing and the exports print it. */
+/** A factor of safety as the core writes it (three decimals), a dash when there is none. */
 export function fsText(v: number | null | undefined): string {
-  return v === null || v === undefined || !Number.isFinite(v) ? '—' : v.toFixed(3);
+  return v === null || v === undefined || !Number.isFinite(v) ? '—' : coreFsText(v);
 }
 
 /** A figure with a fixed number of decimals, a dash when there is none; −0 printed as 0. */
@@ -73,22 +59,4 @@ export function when(iso: string | null | undefined): string {
   return Number.isNaN(d.getTime())
     ? iso
     : d.toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
-}
-
-// The stored input is SI (the solver normalises every file to SI); it is shown in the file's
-// units. From the exact definitions 1 ft = 0.3048 m and 1 lbf = 4.4482216152605 N (NIST SP
-// 811), the same the solver's units module derives its factors from.
-const FT = 0.3048;
-const LBF_IN_KN = 4.4482216152605e-3;
-const SI_PER_US: Record<Quantity, number> = {
-  length: FT,
-  forcePerLength: LBF_IN_KN / FT,
-  pressure: LBF_IN_KN / FT ** 2,
-  unitWeight: LBF_IN_KN / FT ** 3,
-  pressurePerLength: LBF_IN_KN / FT ** 3,
-};
-
-/** An SI value of the stored input in the section's own units. */
-export function fromSi(v: number, q: Quantity, units: UnitSystem): number {
-  return units === 'us' ? v / SI_PER_US[q] : v;
 }

@@ -14,7 +14,8 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { LocatedError, Problem } from '../core/models';
-import { fromSi, plain, unitOf } from './format';
+import { fromSi } from '@scarpline/core/units';
+import { plain, unitOf } from './format';
 import { toProblem } from '../core/problem';
 import {
   buildModel,

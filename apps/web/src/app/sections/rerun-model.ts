@@ -12,7 +12,7 @@ import {
   type ValidatorFn,
 } from '@angular/forms';
 import type { LocatedError } from '../core/models';
-import type { Quantity } from './format';
+import type { QuantityKind } from '@scarpline/core/units';
 import type { Point, SectionInput, SectionPatch, Strength } from './section-types';
 
 /** A stored value as a field shows it: six significant digits. */
@@ -79,7 +79,7 @@ export interface Field {
   /** The stored value as the field shows it (rounded: a us file's values are long in SI). */
   shown: number | null;
   /** Its kind of quantity, for its value in the file's own units. */
-  quantity: Quantity | null;
+  quantity: QuantityKind | null;
   control: NumCtl;
   /** Where in the patch it goes, relative to its material: ['strength', 'su'] … */
   at: string[];
@@ -115,7 +115,7 @@ function field(
   key: string,
   label: string,
   unit: string,
-  quantity: Quantity | null,
+  quantity: QuantityKind | null,
   path: string,
   original: number | null,
   validator: ValidatorFn,
@@ -331,7 +331,7 @@ const changed = (f: Field) => f.control.value !== f.shown;
 function put(target: Record<string, unknown>, at: string[], value: unknown): void {
   let o = target;
   for (const k of at.slice(0, -1)) {
-    o[k] = (o[k] as Record<string, unknown> | undefined) ?? {};
+    o[k] = o[k] ?? {};
     o = o[k] as Record<string, unknown>;
   }
   o[at[at.length - 1]] = value;

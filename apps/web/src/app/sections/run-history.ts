@@ -12,22 +12,25 @@ import { verdictView } from '../shared/verdict';
 import type { RunEntry, RunsView } from './section-types';
 import { SectionsApi } from './sections-api';
 
+type Json = null | boolean | number | string | Json[] | { [key: string]: Json };
+
 /** The edits of a run as lines "materials.clay.strength.frictionAngle → 24". */
 export function describeChanges(changes: unknown): string[] {
   if (changes === null || changes === undefined) return [];
   const out: string[] = [];
-  const walk = (v: unknown, path: string) => {
+  const walk = (v: Json, path: string) => {
     if (Array.isArray(v)) {
       out.push(`${path} → ${v.length} points`);
     } else if (v !== null && typeof v === 'object') {
-      const entries = Object.entries(v as Record<string, unknown>);
+      const entries = Object.entries(v);
       if (entries.length === 0) out.push(`${path} → {}`);
       for (const [k, x] of entries) walk(x, path ? `${path}.${k}` : k);
     } else {
       out.push(`${path} → ${v === null ? 'removed' : String(v)}`);
     }
   };
-  walk(changes, '');
+  // the edits of a run are a JSON merge patch, as the API stored it
+  walk(changes as Json, '');
   return out;
 }
 
@@ -192,7 +195,7 @@ export class RunHistory {
   }));
   protected readonly loaded = toSignal(
     toObservable(this.request).pipe(switchMap(({ id }) => loadState(this.api.runs(id)))),
-    { initialValue: { state: 'loading' } as Loaded<RunsView> },
+    { initialValue: { state: 'loading' } satisfies Loaded<RunsView> },
   );
   protected readonly problem = computed(() => {
     const l = this.loaded();

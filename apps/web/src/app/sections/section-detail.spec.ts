@@ -130,7 +130,7 @@ describe('SectionDetail', () => {
   });
 
   const el = () => fixture.nativeElement as HTMLElement;
-  const q = (id: string) => el().querySelector(`[data-testid="${id}"]`) as HTMLElement | null;
+  const q = (id: string) => el().querySelector<HTMLElement>(`[data-testid="${id}"]`);
 
   async function flushSide(): Promise<void> {
     await fixture.whenStable();

@@ -104,7 +104,7 @@ export class SectionDetail {
         ),
       ),
     ),
-    { initialValue: { state: 'loading' } as Loaded<SectionView> },
+    { initialValue: { state: 'loading' } satisfies Loaded<SectionView> },
   );
   protected readonly section = computed(() => {
     const l = this.loaded();

@@ -138,7 +138,7 @@ export class SectionDrawing {
         ),
       ),
     ),
-    { initialValue: { state: 'loading' } as Loaded<Drawing> },
+    { initialValue: { state: 'loading' } satisfies Loaded<Drawing> },
   );
   protected readonly drawing = computed(() => {
     const l = this.loaded();

@@ -3,7 +3,8 @@ import { ChangeDetectionStrategy, Component, computed, inject, input } from '@an
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSnackBar } from '@angular/material/snack-bar';
-import { fromSi, plain, pointText, unitOf, type Quantity } from './format';
+import { fromSi, type QuantityKind } from '@scarpline/core/units';
+import { plain, pointText, unitOf } from './format';
 import { methodName } from '../shared/method-names';
 import type { Load, Material, SectionInput } from './section-types';
 
@@ -215,16 +216,16 @@ export class SectionInputView {
   protected readonly units = computed(() => this.section().units ?? 'si');
   protected readonly json = computed(() => JSON.stringify(this.section(), null, 2));
 
-  protected u(q: Quantity): string {
+  protected u(q: QuantityKind): string {
     return unitOf(this.units(), q);
   }
 
   /** A stored SI value in the section's units, with its unit. */
-  protected v(value: number, q: Quantity): string {
+  protected v(value: number, q: QuantityKind): string {
     return `${plain(fromSi(value, q, this.units()), 3)} ${this.u(q)}`;
   }
 
-  private n(value: number, q: Quantity): string {
+  private n(value: number, q: QuantityKind): string {
     return plain(fromSi(value, q, this.units()), 3);
   }
 

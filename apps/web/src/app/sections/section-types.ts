@@ -1,32 +1,18 @@
 /**
  * The shapes of GET /sections/{id} and GET /sections/{id}/runs (apps/api services/sections.ts
- * and services/rerun.ts). The stored input is the solver's normalised section (SI) and the
- * results are the solver's reports (in the section's units): their types come from
- * @scarpline/core, imported for their types only so that nothing of the solver is bundled.
+ * and services/runs.ts). The stored input is the solver's normalised section (SI) and the
+ * results are the solver's reports (in the section's units): their types come from the core's
+ * subpaths (/model, /result, /input), imported for their types only.
  */
-import type {
-  Message,
-  MethodReport,
-  ReportedSurface,
-  Section,
-  SectionResult,
-} from '@scarpline/core';
+import type { Message } from '@scarpline/core/input';
+import type { Section } from '@scarpline/core/model';
+import type { MethodReport, ReportedSurface, SectionResult } from '@scarpline/core/result';
 import type { SectionStatus } from '../batches/batch-types';
 import type { UserRef } from '../core/models';
 import type { ReviewSummary } from '../reviews/review-types';
 
-export type {
-  Load,
-  Material,
-  MethodId,
-  MethodReport,
-  Point,
-  ReportedSurface,
-  SliceReport,
-  Strength,
-  UnitSystem,
-  Warning,
-} from '@scarpline/core';
+export type { Load, Material, MethodId, Point, Strength, UnitSystem } from '@scarpline/core/model';
+export type { MethodReport, ReportedSurface, SliceReport, Warning } from '@scarpline/core/result';
 
 /** The stored input: the validated, normalised section as the solver took it (SI). */
 export type SectionInput = Section;

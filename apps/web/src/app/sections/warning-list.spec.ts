@@ -40,7 +40,7 @@ describe('WarningList', () => {
   });
 
   const el = () => fixture.nativeElement as HTMLElement;
-  const items = () => Array.from(el().querySelectorAll('li.warning')) as HTMLElement[];
+  const items = () => Array.from(el().querySelectorAll<HTMLElement>('li.warning'));
 
   it('says "No warnings" when there are none', async () => {
     fixture.componentRef.setInput('warnings', []);

@@ -1,4 +1,4 @@
-import type { MethodId } from '@scarpline/core';
+import type { MethodId } from '@scarpline/core/model';
 
 /** The methods by the names of the papers they come from. */
 export const METHOD_NAMES: Record<MethodId, string> = {

@@ -35,7 +35,7 @@ class FakeObserver {
 
   resize(width: number): void {
     const entry = { contentRect: { width } } as ResizeObserverEntry;
-    this.callback([entry], this as unknown as ResizeObserver);
+    this.callback([entry], this);
   }
 }
 

@@ -4,8 +4,9 @@
  * SI), read again by the core's checks (located errors, 422), queued as the next run. Older
  * runs and their results are kept.
  */
-import type { Message, Section } from '@scarpline/core';
-import { CAUTION, sectionDocument } from '@scarpline/core';
+import { CAUTION } from '@scarpline/core/caution';
+import { sectionDocument, type Message } from '@scarpline/core/input';
+import type { Section } from '@scarpline/core/model';
 import { sequelize } from '../db';
 import { conflict, invalid } from '../errors';
 import { AuditEntry, Batch, ResultRow } from '../models';

@@ -1,0 +1,35 @@
+/**
+ * The routers of /api/v1, one resource a file. `publicRoutes` answer before authentication
+ * (signing in); every router of `authenticatedRoutes` runs after it and checks roles itself.
+ */
+import type { Router } from 'express';
+import { auditRoutes } from './audit';
+import { authRoutes } from './auth';
+import { batchRoutes } from './batches';
+import { eventRoutes } from './events';
+import { exportRoutes } from './exports';
+import { mailRoutes } from './mail';
+import { projectRoutes } from './projects';
+import { reviewRequestRoutes } from './review-requests';
+import { reviewRoutes } from './reviews';
+import { runRoutes } from './runs';
+import { sectionRoutes } from './sections';
+import { tokenRoutes } from './tokens';
+import { userRoutes } from './users';
+
+export const publicRoutes: readonly Router[] = [authRoutes];
+
+export const authenticatedRoutes: readonly Router[] = [
+  userRoutes,
+  tokenRoutes,
+  auditRoutes,
+  mailRoutes,
+  projectRoutes,
+  batchRoutes,
+  eventRoutes,
+  sectionRoutes,
+  runRoutes,
+  reviewRoutes,
+  reviewRequestRoutes,
+  exportRoutes,
+];

@@ -1,0 +1,32 @@
+/** Projects: every user sees every project; an integration token only those it is granted. */
+import { Op } from 'sequelize';
+import { notFound } from '../errors';
+import { Project } from '../models';
+import { audit } from './audit';
+import { assertProject, type Principal } from './auth';
+
+export function projectView(p: Project) {
+  return { id: p.id, name: p.name, description: p.description, createdAt: p.createdAt };
+}
+
+export async function listProjects(p: Principal) {
+  const where = p.projectIds === null ? {} : { id: { [Op.in]: p.projectIds } };
+  return (await Project.findAll({ where, order: [['id', 'ASC']] })).map(projectView);
+}
+
+export async function getProject(p: Principal, id: number) {
+  assertProject(p, id);
+  const project = await Project.findByPk(id);
+  if (!project) throw notFound('project');
+  return projectView(project);
+}
+
+export async function createProject(p: Principal, body: { name: string; description?: string }) {
+  const project = await Project.create({
+    name: body.name,
+    description: body.description ?? null,
+    createdBy: p.userId,
+  });
+  await audit(p.userId, 'create', 'project', project.id, { name: body.name });
+  return projectView(project);
+}

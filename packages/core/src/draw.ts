@@ -1,0 +1,10 @@
+/**
+ * `@scarpline/core/draw`: SVG drawings of a section and of the FS along the chainage, and the
+ * pieces a chart of one's own draws with (linear scales, round ticks, chainage labels). A
+ * drawing takes a result; nothing here runs the solver. Browser-safe.
+ */
+export { drawSection, type DrawableResult, type DrawSectionOptions } from './draw/draw-section';
+export { drawChainage, type ChainagePoint, type DrawChainageOptions } from './draw/draw-chainage';
+export { chainageLabel } from './draw/chainage-label';
+export { scaleLinear, type LinearScale } from './draw/scale-linear';
+export { niceStep, niceTicks } from './draw/nice-ticks';

@@ -1,0 +1,6 @@
+/**
+ * `@scarpline/core/model`: the normalised section as the solver takes it (types, and the list
+ * of method ids) and the section as a file writes it. Types and constants only, browser-safe.
+ */
+export * from './model/types';
+export type * from './model/raw-section';
