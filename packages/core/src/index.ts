@@ -6,6 +6,10 @@ export { parseSections, type ParsedSections } from './input/parse-sections';
 export { formatMessage } from './input/format-message';
 export { sectionDocument, readSectionDocument } from './input/section-document';
 export type { Message, BatchHeader, SectionEntry } from './input/types';
+export { INPUT_LIMITS, MAX_SECTIONS } from './input/limits';
+export { screenText, type Refusal, type Screened } from './input/screen-text';
+export { screenData, badCharacter, countValues } from './input/screen-data';
+export { capMessages } from './input/cap-messages';
 export { SECTION_FORMAT, BATCH_FORMAT, corridorSectionId } from './formats';
 export {
   US_TO_SI,
