@@ -514,6 +514,54 @@ describe('a GeoJSON corridor', () => {
   });
 });
 
+describe('a GeoJSON corridor, its settings and its lines', () => {
+  const line = (n: number) => Array.from({ length: n }, (_, i) => [i * 0.1, 0, 62 + i * 0.01]);
+  const feature = (station: number, coordinates: number[][]) => ({
+    type: 'Feature',
+    properties: { station },
+    geometry: { type: 'LineString', coordinates },
+  });
+  const head = (title: string) => ({
+    id: 'gis',
+    title,
+    units: 'si',
+    template: { materials: section().materials, strata: [{ material: 'till' }] },
+  });
+
+  test('a NUL in the corridor settings: every section is stopped, and told', () => {
+    const text = JSON.stringify(
+      {
+        type: 'FeatureCollection',
+        scarpline: head('GIS\u0000'),
+        features: [feature(0, line(5)), feature(20, line(5))],
+      },
+      null,
+      1,
+    );
+    const { messages, entries } = parseGeoJsonCorridor(text, 'c.geojson');
+    expect(messages.map((m) => `${m.path}: ${m.code}`)).toEqual(['scarpline.title: bad-character']);
+    expect(messages[0].sections).toEqual(['gis@0', 'gis@20']);
+    expect(entries.map((e) => e.section)).toEqual([null, null]);
+  });
+
+  test('a line of more points than a polyline may have: an error at its coordinates', () => {
+    const text = JSON.stringify(
+      {
+        type: 'FeatureCollection',
+        scarpline: head('GIS'),
+        features: [feature(0, line(1001)), feature(20, line(5))],
+      },
+      null,
+      1,
+    );
+    const { messages, sections } = parseGeoJsonCorridor(text, 'c.geojson');
+    expect(messages.map((m) => `${m.path}: ${m.message}`)).toEqual([
+      'features[0].geometry.coordinates: has 1001 points, at most 1000 allowed',
+    ]);
+    expect(sections.map((s) => s.id)).toEqual(['gis@20']);
+  });
+});
+
 describe('an edited section document that is not one', () => {
   test('nested too deep to write out: refused, nothing thrown', () => {
     let doc: unknown = 1;

@@ -232,20 +232,16 @@ export function parseGeoJsonCorridor(
     push('error', at(geo, r.path), r.path, r.code, r.message);
     return done(idFromFileName(fileName));
   }
-  const characters = (src: Source, issues: readonly Issue[], base: PathKey[] = []): void => {
+  const characters = (src: Source, issues: readonly Issue[]): void => {
     for (const issue of issues) {
-      const m = push(
-        'error',
-        at(src, issue.path),
-        [...base, ...issue.path],
-        issue.code,
-        issue.message,
-      );
-      // (the features they are in: one, or, from the corridor settings, all)
+      const m = push('error', at(src, issue.path), issue.path, issue.code, issue.message);
+      // (the features they are in: one, or, outside the features, all: a message never
+      // noted concerns every entry)
       const f = issue.path[0] === 'features' ? issue.path[1] : undefined;
-      concerns.note(m, typeof f === 'number' ? [f] : []);
-      if (typeof f !== 'number') allSpoiled = true;
-      else spoiledFeatures.add(f);
+      if (typeof f === 'number') {
+        concerns.note(m, [f]);
+        spoiledFeatures.add(f);
+      } else allSpoiled = true;
     }
   };
   let allSpoiled = false;
