@@ -3,13 +3,16 @@
  * Starts the whole product on this machine: the local PostgreSQL (scripts/pg.js), the API build,
  * the web app's build when it is missing or older than its sources, migrations, the demo seed
  * (the invented Wendlecombe corridor, demo users with their passwords printed), the API and one
- * worker process, then prints the address to open. Ctrl-C stops the API and the worker (the
- * database keeps running; `node apps/api/scripts/pg.js stop` ends it).
+ * worker process, then prints the address to open. The API and the worker are kept running
+ * (scripts/supervise.js): one that ends is started again after a pause, with a line that says
+ * so, and a worker's end never stops the API. Ctrl-C stops the API and the worker (the database
+ * keeps running; `node apps/api/scripts/pg.js stop` ends it).
  */
-const { spawn, spawnSync } = require('node:child_process');
+const { spawnSync } = require('node:child_process');
 const fs = require('node:fs');
 const path = require('node:path');
 const pg = require('./pg.js');
+const { supervise, stopOnSignals } = require('./supervise.js');
 
 const API_DIR = path.resolve(__dirname, '..');
 const ROOT = path.resolve(API_DIR, '../..');
@@ -115,19 +118,20 @@ function buildWebIfNeeded() {
 }
 
 /** Waits until the API answers (the seed may take a while), then says where to go. */
-async function announce(api) {
+async function announce() {
   const base = `http://127.0.0.1:${PORT}`;
   const end = Date.now() + 120000;
-  while (api.exitCode === null && Date.now() < end) {
+  let answered = false;
+  while (!answered && Date.now() < end) {
     try {
       const res = await fetch(`${base}/api/schemas/openapi.json`);
-      if (res.ok) break;
+      answered = res.ok;
     } catch {
       // not listening yet
     }
-    await new Promise((r) => setTimeout(r, 250));
+    if (!answered) await new Promise((r) => setTimeout(r, 250));
   }
-  if (api.exitCode !== null) return;
+  if (!answered) return;
   const web = fs.existsSync(path.join(WEB_DIST, 'index.html'));
   console.log('');
   console.log(
@@ -144,29 +148,29 @@ async function main() {
   if (build.status !== 0) throw new Error('build of apps/api failed');
   buildWebIfNeeded();
   const env = { ...process.env, DATABASE_URL: url, SMTP_FAKE_PORT, PORT };
-  const api = spawn(process.execPath, [path.join(API_DIR, 'dist/server.js'), '--seed'], {
-    env,
-    stdio: 'inherit',
-  });
-  const worker = spawn(process.execPath, [path.join(API_DIR, 'dist/worker-main.js')], {
-    env: {
-      ...env,
-      WORKER_CONCURRENCY: process.env.WORKER_CONCURRENCY || '1',
-      SMTP_URL: process.env.SMTP_URL || `smtp://127.0.0.1:${SMTP_FAKE_PORT}`,
+  const supervisor = supervise([
+    {
+      name: 'API',
+      command: process.execPath,
+      args: [path.join(API_DIR, 'dist/server.js'), '--seed'],
+      options: { env, stdio: 'inherit' },
     },
-    stdio: 'inherit',
-  });
-  const children = [api, worker];
-  const stop = () => children.forEach((c) => c.exitCode === null && c.kill('SIGTERM'));
-  process.once('SIGINT', stop);
-  process.once('SIGTERM', stop);
-  for (const c of children) {
-    c.on('exit', (code) => {
-      if (code) process.exitCode = code;
-      stop();
-    });
-  }
-  await announce(api);
+    {
+      name: 'worker',
+      command: process.execPath,
+      args: [path.join(API_DIR, 'dist/worker-main.js')],
+      options: {
+        env: {
+          ...env,
+          WORKER_CONCURRENCY: process.env.WORKER_CONCURRENCY || '1',
+          SMTP_URL: process.env.SMTP_URL || `smtp://127.0.0.1:${SMTP_FAKE_PORT}`,
+        },
+        stdio: 'inherit',
+      },
+    },
+  ]);
+  stopOnSignals(supervisor);
+  await announce();
 }
 
 module.exports = { webBuildPlan };

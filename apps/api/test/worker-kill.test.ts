@@ -109,7 +109,7 @@ test('SIGKILL a worker mid-batch: another finishes it, no section lost or solved
         analysis: {
           ...corridor.template.analysis,
           methods: ['bishop', 'spencer', 'morgenstern-price'],
-          slices: 1000,
+          slices: 500,
           searchEachMethod: true,
         },
       },

@@ -17,3 +17,7 @@ export { formatMessage } from './input/format-message';
 export { sectionDocument, readSectionDocument } from './input/section-document';
 export type { Message, BatchHeader, SectionEntry } from './input/types';
 export { normaliseSection } from './model/normalise-section';
+export { INPUT_LIMITS, MAX_SECTIONS } from './input/limits';
+export { screenText, type Refusal, type Screened } from './input/screen-text';
+export { screenData, badCharacter, countValues } from './input/screen-data';
+export { capMessages } from './input/cap-messages';

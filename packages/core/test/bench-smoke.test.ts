@@ -50,3 +50,28 @@ test('solver bench (packages/core/bench/run.js)', () => {
     ),
   );
 }, 180_000);
+
+test('input bench (packages/core/bench/input.js)', () => {
+  const r = spawnSync(process.execPath, [join(ROOT, 'packages', 'core', 'bench', 'input.js')], {
+    cwd: ROOT,
+    encoding: 'utf8',
+    env: { ...process.env, BENCH_SMOKE: '1' },
+  });
+  expect(r.stderr).toBe('');
+  expect(r.status).toBe(0);
+  const out = r.stdout;
+  expect(out).toMatch(/^Scarpline input benchmarks — node v\d+/);
+  expect(out).toMatch(/^smoke run \(BENCH_SMOKE=1\)/m);
+  const line = (what: string, first: string) =>
+    new RegExp(
+      `^  ${what}, [\\d.]+ MB: [\\d,]+ ms, peak memory \\+[\\d,]+ MB; \\d+ sections, \\d+ messages \\([\\d,]+ bytes\\), the first ${first}$`,
+      'm',
+    );
+  expect(out).toMatch(line('10 000 nested lists \\(YAML\\)', 'too-deep'));
+  expect(out).toMatch(line('10 000 nested lists \\(JSON\\)', 'too-deep'));
+  expect(out).toMatch(line('five million numbers, 10 MB', 'too-large'));
+  expect(out).toMatch(line('a method name of 1 MB', 'too-long'));
+  expect(out).toMatch(line('a batch of 20 000 sections', 'too-many'));
+  expect(out).toMatch(line('the demo corridor as 100 sections \\(JSON, valid\\)', 'none'));
+  expect(out.trim().split('\n')).toHaveLength(15);
+}, 120_000);

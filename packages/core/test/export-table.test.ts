@@ -46,7 +46,7 @@ function corridorResults(n: number): SectionResult[] {
   const text = readFileSync(join(__dirname, '../../../examples/corridor/corridor.json'), 'utf8');
   const corridor = JSON.parse(text) as { sections: unknown[] };
   const small = JSON.stringify({ ...corridor, sections: corridor.sections.slice(0, n) });
-  return parseSections(small, 'corridor.json').sections.map(analyzeSection);
+  return parseSections(small, 'corridor.json').sections.map((s) => analyzeSection(s));
 }
 
 describe('the vocabulary', () => {

@@ -9,7 +9,7 @@ import { UNIT_LABELS } from '../model/units';
 import { aboveIntervals, type AboveInterval } from './above-intervals';
 import { isNumber, isPointList, isRecord } from './guards';
 import type { Issue, PathKey } from './types';
-import { closest, lengthUnit, listWords, num } from './words';
+import { closest, lengthUnit, listWords, num, quoteText } from './words';
 
 /** Plausible unit weights of soil and rock, and of water, per unit system (common practice). */
 const SOIL_WEIGHT = { si: [5, 30], us: [32, 190] } as const;
@@ -136,12 +136,12 @@ export function checkSection(data: unknown): Issue[] {
         const tail = near
           ? `; did you mean ${near}?`
           : names.length
-            ? `; the materials are ${listWords(names)}`
+            ? `; the materials are ${listWords(names, 10)}`
             : '';
         err(
           ['strata', i, 'material'],
           'material-undefined',
-          `no material is named ${JSON.stringify(mat)}${tail}`,
+          `no material is named ${quoteText(mat)}${tail}`,
         );
       } else if (modelOf(mat) === 'rigid') {
         if (i === 0) {

@@ -41,13 +41,22 @@ const below = (ground: Point[], depth: number): Point[] => ground.map(([x, y]) =
  * @example expandBatch(batch)[0].data.id // → 'north-cut@0'
  */
 export function expandBatch(batch: Record<string, unknown>): ExpandedSection[] {
-  const template = isRecord(batch.template) ? batch.template : {};
-  const items = Array.isArray(batch.sections) ? batch.sections : [];
-  const T: PathKey[] = ['template'];
-  const out: ExpandedSection[] = [];
+  return [...expandSections(batch)];
+}
 
-  items.forEach((item, index) => {
-    if (!isRecord(item) || !isNumber(item.station) || !isPointList(item.ground)) return;
+/**
+ * The sections of a corridor batch one at a time, as expandBatch gives them: a reader that
+ * stops early makes no more of them.
+ *
+ * @example expandSections(batch).next().value?.data.id // → 'north-cut@0'
+ */
+export function* expandSections(batch: Record<string, unknown>): Generator<ExpandedSection> {
+  const template = isRecord(batch.template) ? batch.template : {};
+  const items: unknown[] = Array.isArray(batch.sections) ? batch.sections : [];
+  const T: PathKey[] = ['template'];
+
+  for (const [index, item] of items.entries()) {
+    if (!isRecord(item) || !isNumber(item.station) || !isPointList(item.ground)) continue;
     const S: PathKey[] = ['sections', index];
     const station = item.station;
     const ground = item.ground;
@@ -190,7 +199,6 @@ export function expandBatch(batch: Record<string, unknown>): ExpandedSection[] {
     };
     const derived = (path: readonly PathKey[]): boolean =>
       fromGround.some((p) => startsWith(path, p));
-    out.push({ index, station, data, origin, derived });
-  });
-  return out;
+    yield { index, station, data, origin, derived };
+  }
 }

@@ -1,11 +1,16 @@
-import { isMap, isScalar, isSeq, LineCounter, parseDocument, type Document } from 'yaml';
+import { LineCounter, parseDocument, type Document } from 'yaml';
 import { BATCH_FORMAT, corridorSectionId } from '../formats';
 import type { Point } from '../model/types';
 import { Concerns } from './concerns';
 import { isNumber, isRecord } from './guards';
+import { capMessages } from './cap-messages';
+import { JsonIndex } from './json-index';
+import { count, MAX_SECTIONS } from './limits';
 import { locateInDocument, type Location } from './locate-in-document';
-import { parseSections, type ParsedSections } from './parse-sections';
-import type { BatchHeader, Message, PathKey, SectionEntry } from './types';
+import { readSections, type ParsedSections } from './parse-sections';
+import { countValues, screenData } from './screen-data';
+import { screenText } from './screen-text';
+import type { BatchHeader, Issue, Message, PathKey, SectionEntry } from './types';
 import { pathText } from './words';
 
 /** A LineString feature of a corridor, as given, with the id of the section made from it. */
@@ -60,6 +65,10 @@ const HEADER_MEMBER = 'scarpline';
  */
 export function isGeoJsonCorridor(text: string): boolean {
   if (!/^\s*\{/.test(text)) return false;
+  // a text too large to read is told by its beginning (and refused by its reader)
+  if (screenText(text, true).refusal) {
+    return /"type"\s*:\s*"FeatureCollection"/.test(text.slice(0, 2000));
+  }
   try {
     const data: unknown = JSON.parse(text);
     return isRecord(data) && data.type === 'FeatureCollection';
@@ -68,44 +77,35 @@ export function isGeoJsonCorridor(text: string): boolean {
   }
 }
 
+/** A file the messages are located in. */
 interface Source {
-  doc: Document;
-  counter: LineCounter;
   fileName: string;
+  locate(path: readonly PathKey[]): Location;
 }
 
-function read(text: string, fileName: string, json: boolean): Source {
+/** A YAML (or JSON) file read by the YAML parser. */
+function read(
+  text: string,
+  fileName: string,
+  json: boolean,
+): Source & { doc: Document; counter: LineCounter } {
   const counter = new LineCounter();
   const doc = parseDocument(text, {
     lineCounter: counter,
     prettyErrors: false,
     ...(json ? { schema: 'json' as const } : {}),
   });
-  return { doc, counter, fileName };
+  return { doc, counter, fileName, locate: (path) => locateInDocument(doc, counter, path) };
 }
 
-/** The path of the deepest node of a document at a text offset (a key names its property). */
-function pathAt(doc: Document, offset: number): PathKey[] {
-  const path: PathKey[] = [];
-  let node: unknown = doc.contents;
-  const within = (n: unknown): boolean => {
-    const r = (n as { range?: [number, number, number] | null } | null)?.range;
-    return !!r && offset >= r[0] && offset <= r[2];
-  };
-  for (;;) {
-    if (isMap(node)) {
-      const pair = node.items.find((p) => within(p.key) || within(p.value));
-      if (!pair || !isScalar(pair.key)) return path;
-      path.push(String(pair.key.value));
-      if (within(pair.key)) return path;
-      node = pair.value;
-    } else if (isSeq(node)) {
-      const i = node.items.findIndex((item) => within(item));
-      if (i < 0) return path;
-      path.push(i);
-      node = node.items[i];
-    } else return path;
-  }
+/**
+ * A valid JSON file, located by an index of its text, or by the YAML parser when it names a
+ * setting twice (`data` holds fewer values than the text: JSON.parse keeps the last).
+ */
+function readJsonFile(text: string, fileName: string, data: unknown, values: number): Source {
+  if (countValues(data) !== values) return read(text, fileName, true);
+  const index = new JsonIndex(text);
+  return { fileName, locate: (path) => index.locate(path) };
 }
 
 /** The keys of a path as written by pathText: `a.b[2]["c.d"]` → ['a', 'b', 2, 'c.d']. */
@@ -118,16 +118,6 @@ function parsePath(text: string): PathKey[] {
     else keys.push(JSON.parse(m[3]) as string);
   }
   return keys;
-}
-
-function offsetOf(text: string, line: number, column: number): number {
-  let offset = 0;
-  for (let l = 1; l < line; l++) {
-    const next = text.indexOf('\n', offset);
-    if (next < 0) break;
-    offset = next + 1;
-  }
-  return offset + column - 1;
 }
 
 function idFromFileName(fileName: string): string {
@@ -215,20 +205,47 @@ export function parseGeoJsonCorridor(
       a.file === b.file ? a.line - b.line || a.column - b.column : a.file < b.file ? -1 : 1,
     );
     concerns.resolve(messages, entries);
-    return { sections: [], messages, batch, entries, batchId, features };
+    const capped = capMessages(messages);
+    for (const e of entries) e.messages = capMessages(e.messages);
+    return { sections: [], messages: capped, batch, entries, batchId, features };
   };
 
+  // A text too large, too deep or too long to read at all is refused before any parser runs.
+  const screen = screenText(text, true);
+  const refusal = screen.refusal;
+  if (refusal) {
+    push('error', { ...refusal, file: fileName }, [], refusal.code, refusal.message);
+    return done(idFromFileName(fileName));
+  }
   const syntax = jsonSyntax(text);
   if (syntax) {
     push('error', { ...syntax, file: fileName }, [], 'syntax', syntax.message);
     return done(idFromFileName(fileName));
   }
-  const geo = read(text, fileName, true);
-  const at = (src: Source, path: PathKey[]) => ({
-    ...locateInDocument(src.doc, src.counter, path),
-    file: src.fileName,
-  });
   const data: unknown = JSON.parse(text);
+  const geo = readJsonFile(text, fileName, data, screen.values);
+  const at = (src: Source, path: PathKey[]) => ({ ...src.locate(path), file: src.fileName });
+  // Texts no stored text may hold are errors where they are; data too large is refused.
+  const screened = screenData(data);
+  if (screened.refusal) {
+    const r = screened.refusal;
+    push('error', at(geo, r.path), r.path, r.code, r.message);
+    return done(idFromFileName(fileName));
+  }
+  const characters = (src: Source, issues: readonly Issue[]): void => {
+    for (const issue of issues) {
+      const m = push('error', at(src, issue.path), issue.path, issue.code, issue.message);
+      // (the features they are in: one, or, outside the features, all: a message never
+      // noted concerns every entry)
+      const f = issue.path[0] === 'features' ? issue.path[1] : undefined;
+      if (typeof f === 'number') {
+        concerns.note(m, [f]);
+        spoiledFeatures.add(f);
+      } else allSpoiled = true;
+    }
+  };
+  let allSpoiled = false;
+  const spoiledFeatures = new Set<number>();
   if (!isRecord(data) || data.type !== 'FeatureCollection' || !Array.isArray(data.features)) {
     push(
       'error',
@@ -246,6 +263,12 @@ export function parseGeoJsonCorridor(
   let head: Record<string, unknown> = {};
   if (header) {
     const json = /\.json$/i.test(header.fileName);
+    const headerRefusal = screenText(header.text, json).refusal;
+    if (headerRefusal) {
+      const where = { ...headerRefusal, file: header.fileName };
+      push('error', where, [], headerRefusal.code, headerRefusal.message);
+      return done(idFromFileName(fileName));
+    }
     const hs = json ? jsonSyntax(header.text) : null;
     const src = read(header.text, header.fileName, json);
     if (hs || src.doc.errors.length) {
@@ -257,7 +280,13 @@ export function parseGeoJsonCorridor(
       push('error', { line: lc.line, column: lc.col, file: header.fileName }, [], 'syntax', words);
       return done(idFromFileName(fileName));
     }
-    const value: unknown = src.doc.toJS();
+    const value: unknown = src.doc.toJS({ maxAliasCount: 1000 });
+    const headerScreened = screenData(value);
+    if (headerScreened.refusal) {
+      const r = headerScreened.refusal;
+      push('error', at(src, r.path), r.path, r.code, r.message);
+      return done(idFromFileName(fileName));
+    }
     if (!isRecord(value)) {
       push(
         'error',
@@ -271,6 +300,7 @@ export function parseGeoJsonCorridor(
     head = value;
     headerSource = src;
     headerBase = [];
+    characters(src, headerScreened.issues);
   } else if (data[HEADER_MEMBER] !== undefined) {
     if (!isRecord(data[HEADER_MEMBER])) {
       push(
@@ -308,6 +338,19 @@ export function parseGeoJsonCorridor(
     units: head.units === 'us' ? 'us' : 'si',
     ...at(headerSource, [...headerBase, 'id']),
   };
+
+  // A corridor of too many sections is read no further.
+  if (data.features.length > MAX_SECTIONS) {
+    push(
+      'error',
+      at(geo, ['features']),
+      ['features'],
+      'too-many',
+      `has ${count(data.features.length)} features; a corridor holds at most ${count(MAX_SECTIONS)} sections: split it into several files`,
+    );
+    return done(batchId);
+  }
+  characters(geo, screened.issues);
 
   // --- the features: one section each
   const items: Record<string, unknown>[] = [];
@@ -416,8 +459,8 @@ export function parseGeoJsonCorridor(
     sections: items,
   };
   const synthetic = JSON.stringify(asBatch, null, 1);
-  const parsed = parseSections(synthetic, 'corridor.json');
-  const sdoc = read(synthetic, 'corridor.json', true).doc;
+  const parsed = readSections(synthetic, 'corridor.json');
+  const sindex = new JsonIndex(synthetic);
 
   /** A path of the synthetic batch → the file and path it came from. */
   const origin = (path: PathKey[]): { src: Source; path: PathKey[] } => {
@@ -434,11 +477,18 @@ export function parseGeoJsonCorridor(
   // The synthetic batch's item k is feature itemFeature[k]: its messages concern that feature.
   const about = new Map<Message, number[]>();
   parsed.entries.forEach((e, k) => {
-    for (const m of e.messages) about.set(m, [...(about.get(m) ?? []), itemFeature[k]]);
-    entries[itemFeature[k]].section = e.section;
+    for (const m of e.messages) {
+      const list = about.get(m);
+      if (list) list.push(itemFeature[k]);
+      else about.set(m, [itemFeature[k]]);
+    }
+    const f = itemFeature[k];
+    entries[f].section = allSpoiled || spoiledFeatures.has(f) ? null : e.section;
   });
   for (const m of parsed.messages) {
-    const path = pathAt(sdoc, offsetOf(synthetic, m.line, m.column));
+    // the characters were said where they are written, above
+    if (m.code === 'bad-character') continue;
+    const path = sindex.pathAt(sindex.offsetAt(m));
     const o = origin(path);
     const loc = at(o.src, o.path);
     const field = m.path ? pathText(origin(parsePath(m.path)).path) : '';
@@ -453,6 +503,6 @@ export function parseGeoJsonCorridor(
     concerns.note(moved, about.get(m) ?? []);
   }
   const result = done(batchId);
-  result.sections = parsed.sections;
+  result.sections = result.entries.flatMap((e) => (e.section ? [e.section] : []));
   return result;
 }

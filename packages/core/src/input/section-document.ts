@@ -3,7 +3,9 @@ import type { RawMaterial, RawSection } from '../model/raw-section';
 import type { Section, UnitSystem } from '../model/types';
 import { isRigid, strengthDocument } from '../strength/registry';
 import { parseSections } from './parse-sections';
+import { screenData } from './screen-data';
 import type { Message } from './types';
+import { pathText } from './words';
 
 /** An object without its null and undefined members. */
 function defined<T extends object>(o: T): { [K in keyof T]?: Exclude<T[K], null> } {
@@ -80,6 +82,21 @@ export function readSectionDocument(
   fileName: string,
   units: UnitSystem,
 ): { section: Section | null; messages: Message[]; text: string } {
+  // Data too large or too deep to write out is refused as it is (its text would be too).
+  const { refusal } = screenData(doc);
+  if (refusal) {
+    const message: Message = {
+      severity: 'error',
+      file: fileName,
+      line: 1,
+      column: 1,
+      path: pathText(refusal.path),
+      code: refusal.code,
+      message: refusal.message,
+      sections: [],
+    };
+    return { section: null, messages: [message], text: '' };
+  }
   const text = JSON.stringify(doc, null, 2);
   const parsed = parseSections(text, fileName);
   const section = parsed.sections.length === 1 ? { ...parsed.sections[0], units } : null;

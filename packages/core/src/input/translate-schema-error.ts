@@ -3,7 +3,7 @@ import type { UnitSystem } from '../model/types';
 import { UNIT_LABELS, type QuantityKind } from '../model/units';
 import { isValueWithUnit, quantityWords } from '../model/value-with-unit';
 import type { Issue, PathKey } from './types';
-import { closest, listWords, num, quote, unitSuffix } from './words';
+import { closest, listWords, num, quote, quoteText, unitSuffix } from './words';
 
 /** The path of a JSON pointer, with array indices as numbers (decided from the data). */
 function pointerToPath(pointer: string, root: unknown): PathKey[] {
@@ -37,7 +37,7 @@ const TYPE_WORDS: Record<string, string> = {
 /** What a value is, for "expected …, got …". */
 function describeValue(value: unknown): string {
   if (value === null || value === undefined) return 'nothing';
-  if (typeof value === 'string') return `the text ${JSON.stringify(value)}`;
+  if (typeof value === 'string') return `the text ${quoteText(value)}`;
   if (typeof value === 'number') {
     return Number.isFinite(value) ? num(value) : `${String(value)} (not a finite number)`;
   }
@@ -231,6 +231,11 @@ export function translateSchemaError(
     }
     case 'minProperties':
       return issue('empty', `is empty; it needs at least ${num(Number(params.limit))} entry`);
+    case 'maxProperties': {
+      const limit = Number(params.limit);
+      const count = value !== null && typeof value === 'object' ? Object.keys(value).length : 0;
+      return issue('too-many', `has ${count} entries, at most ${limit} allowed`);
+    }
     case 'dependentRequired': {
       const property = String(params.property);
       const missing = String(params.missingProperty);

@@ -3,6 +3,7 @@ import type { UnitSystem } from '../model/types';
 import type { QuantityKind } from '../model/units';
 import { isValueWithUnit, readValueWithUnit } from '../model/value-with-unit';
 import { isRecord } from './guards';
+import { INPUT_LIMITS } from './limits';
 import type { Issue, PathKey } from './types';
 
 /**
@@ -105,9 +106,16 @@ function treeOf(schema: 'section' | 'batch'): QuantityTree {
   return tree;
 }
 
+/**
+ * Whether a text may be a value with its unit: short enough (INPUT_LIMITS.valueWithUnit; a
+ * longer one is for the schema to refuse, and reading it would cost time) and shaped like one.
+ */
+const maybeValueWithUnit = (text: string): boolean =>
+  text.length <= INPUT_LIMITS.valueWithUnit && isValueWithUnit(text);
+
 /** Whether any text in a document looks like a value with its unit (most files have none). */
 function hasValueWithUnit(value: unknown): boolean {
-  if (typeof value === 'string') return isValueWithUnit(value);
+  if (typeof value === 'string') return maybeValueWithUnit(value);
   if (Array.isArray(value)) return value.some(hasValueWithUnit);
   return isRecord(value) && Object.values(value).some(hasValueWithUnit);
 }
@@ -171,7 +179,8 @@ export function readValuesWithUnits(
   const found: { path: PathKey[]; kind: QuantityKind; text: string }[] = [];
   const walk = (value: unknown, tree: QuantityTree, path: PathKey[]): void => {
     if (typeof value === 'string') {
-      if (tree.kind && isValueWithUnit(value)) found.push({ path, kind: tree.kind, text: value });
+      if (tree.kind && maybeValueWithUnit(value))
+        found.push({ path, kind: tree.kind, text: value });
     } else if (Array.isArray(value)) {
       value.forEach((item: unknown, i) => {
         const child = childOf(tree, i);
