@@ -74,6 +74,7 @@ export { statics, type Statics } from './methods/statics';
 export { defaultPivot } from './methods/pivot';
 export type { SliceMethodResult, MethodWarning } from './methods/types';
 export { analyzeSection, SOLVER_VERSION } from './analyze';
+export { howFoundWords } from './search-words';
 export * from './caution';
 export { AnalysisStopped, WORK_LIMIT, WorkMeter, type AnalyzeOptions } from './work-limit';
 export { METHODS, methodsFor, type MethodEntry } from './methods/registry';
