@@ -162,6 +162,39 @@ describe('SectionDetail', () => {
     backend.verify();
   });
 
+  it("says how the search found the critical circle, in the core's words", async () => {
+    await open('viewer');
+    const v = view(1, 'done', 1.595);
+    v.result!.search = {
+      type: 'auto',
+      method: 'bishop',
+      trials: 2469,
+      moves: [],
+      grid: null,
+      map: null,
+      lowest: [],
+      howFound: {
+        candidates: { grid: 1400, groundRanges: 512, polish: 557 },
+        boundaries: ['seam', 'stiff-clay-below'],
+        polishes: [],
+        critical: { stage: 'polish', touching: 'stiff-clay-below' },
+        confirmation: { method: 'bishop', searched: 1.5951, exact: 1.5951 },
+      },
+    };
+    backend.expectOne('/api/v1/sections/7').flush(v);
+    await flushSide();
+    const lines = [...(q('how-found')?.querySelectorAll('li') ?? [])].map((li) =>
+      li.textContent?.trim(),
+    );
+    expect(lines).toEqual([
+      'search: 2,469 trial circles: grid 1,400 (with the circles touching the top of seam, stiff-clay-below), ground ranges 512, polishes 557',
+      'critical circle: from a polish of a circle touching the top of stiff-clay-below',
+      'confirmed: bishop FS 1.595 as searched, 1.595 cut afresh and solved in full',
+    ]);
+    backend.expectOne('/api/v1/sections/7/plot.svg').flush('<svg></svg>');
+    backend.verify();
+  });
+
   it('offers the re-run to an engineer', async () => {
     await open('engineer');
     backend.expectOne('/api/v1/sections/7').flush(view(1, 'done', 2.1));

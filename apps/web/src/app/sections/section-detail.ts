@@ -39,11 +39,12 @@ import { RerunForm } from './rerun-form';
 import { RunHistory } from './run-history';
 import { SectionDrawing } from './section-drawing';
 import { SectionInputView } from './section-input';
-import type { SectionView } from './section-types';
+import type { RunResult, SectionView } from './section-types';
 import { SectionsApi } from './sections-api';
 import { SliceTable } from './slice-table';
 import { WarningList } from './warning-list';
 import { JOB_STATE_WORDS } from '@scarpline/core/verdict';
+import { howFoundWords } from '@scarpline/core/result';
 import { verdictView } from '../shared/verdict';
 
 /** How often a queued or running section is asked for again. */
@@ -163,6 +164,11 @@ export class SectionDetail {
   protected readonly methodName = methodName;
   protected readonly plain = plain;
   protected readonly when = when;
+  /** The search's account of the critical circle, in the core's words (null without a search). */
+  protected howFound(r: RunResult): string[] | null {
+    const h = r.search?.howFound;
+    return h ? howFoundWords(h) : null;
+  }
 
   constructor() {
     effect(() => {
