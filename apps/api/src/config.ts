@@ -6,6 +6,8 @@ export interface Config {
   env: 'development' | 'test' | 'production';
   databaseUrl: string;
   port: number;
+  /** The address the API listens on (loopback unless a host of a network is meant). */
+  host: string;
   /** Lifetime of a sign-in token, in hours. */
   sessionHours: number;
   /** Largest JSON body and largest upload, in bytes. */
@@ -54,6 +56,7 @@ function read(): Config {
     env,
     databaseUrl: process.env.DATABASE_URL ?? 'postgres://postgres@127.0.0.1:54329/scarpline',
     port,
+    host: process.env.HOST ?? '127.0.0.1',
     sessionHours: num('SESSION_HOURS', 12),
     jsonLimit: num('JSON_LIMIT', 5 * 1024 * 1024),
     uploadLimit: num('UPLOAD_LIMIT', 10 * 1024 * 1024),

@@ -36,8 +36,8 @@ async function main(): Promise<void> {
   }
   const app = createApp({ homePage: PLACEHOLDER });
   const web = hasWebBuild(config.webDist);
-  app.listen(config.port, '127.0.0.1', () => {
-    const base = `http://127.0.0.1:${config.port}/`;
+  app.listen(config.port, config.host, () => {
+    const base = `http://${config.host}:${config.port}/`;
     console.log(
       web
         ? `Scarpline: web app at ${base} (from ${config.webDist}), API at ${base}api/v1`
