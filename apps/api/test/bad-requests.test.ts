@@ -177,7 +177,8 @@ test('page and ids: plain positive integers only (1e20, 0x1, 01, -1, huge → 40
     expect([q, (await list(q)).status]).toEqual([q, 400]);
   }
   expect((await list('page=2&pageSize=10')).status).toBe(200);
-  for (const id of ['0x1', '1e0', '01', '-1', '0', '99999999999', '1.0', '%201', 'abc']) {
+  // %zz (a broken escape) once answered 500: found by the fuzz test
+  for (const id of ['0x1', '1e0', '01', '-1', '0', '99999999999', '1.0', '%201', 'abc', '%zz']) {
     const res = await request(app).get(`/api/v1/batches/${id}`).auth(engineer, auth);
     expect([id, res.status]).toEqual([id, 400]);
     expectProblem(res, 400);

@@ -1,42 +1,12 @@
 /**
  * While PostgreSQL cannot be reached the API answers 503 problem+json (with Retry-After), never
  * 500, and answers as before once it is back; the process stays up throughout. The API reaches
- * the test database through a TCP relay of this test's own, which is cut (every connection
- * dropped, new ones refused) and restored, set before the app's modules are loaded.
+ * the test database through a TCP relay of this test's own (db-relay.ts), which is cut (every
+ * connection dropped, new ones refused) and restored, set before the app's modules are loaded.
  */
-import net from 'node:net';
 import type { Express } from 'express';
 import request from 'supertest';
-
-const target = new URL(process.env.DATABASE_URL as string);
-const sockets = new Set<net.Socket>();
-let relay: net.Server;
-let port = 0;
-
-/** Starts relaying (again) on the same port. */
-function up(): Promise<void> {
-  relay = net.createServer((client) => {
-    const server = net.connect(Number(target.port || 5432), target.hostname);
-    for (const s of [client, server]) {
-      sockets.add(s);
-      s.on('close', () => sockets.delete(s));
-      s.on('error', () => undefined);
-    }
-    client.pipe(server).pipe(client);
-  });
-  return new Promise((resolve) =>
-    relay.listen(port, '127.0.0.1', () => {
-      port = (relay.address() as net.AddressInfo).port;
-      resolve();
-    }),
-  );
-}
-
-/** Drops every connection and refuses new ones. */
-function down(): Promise<void> {
-  for (const s of sockets) s.destroy();
-  return new Promise((resolve) => relay.close(() => resolve()));
-}
+import { dbRelay, type DbRelay } from './db-relay';
 
 type Mods = {
   app: Express;
@@ -44,15 +14,14 @@ type Mods = {
   helpers: typeof import('./helpers');
 };
 let m: Mods;
+let relay: DbRelay;
 const saved = process.env.DATABASE_URL;
 let token: string;
 let email: string;
 
 beforeAll(async () => {
-  await up();
-  const url = new URL(target.toString());
-  url.port = String(port);
-  process.env.DATABASE_URL = url.toString();
+  relay = await dbRelay(process.env.DATABASE_URL as string);
+  process.env.DATABASE_URL = relay.url;
   const { createApp } = await import('../src/app');
   const { sequelize } = await import('../src/db');
   const helpers = await import('./helpers');
@@ -64,7 +33,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await m.sequelize.close();
-  await new Promise((r) => relay.close(r));
+  await relay.close();
   process.env.DATABASE_URL = saved;
 });
 
@@ -72,7 +41,7 @@ test('database away: 503 problem+json with Retry-After; back: answers as before'
   const auth = { type: 'bearer' as const };
   expect((await request(m.app).get('/api/v1/projects').auth(token, auth)).status).toBe(200);
   const silence = jest.spyOn(console, 'error').mockImplementation(() => undefined);
-  await down();
+  await relay.down();
   try {
     for (let round = 0; round < 2; round++) {
       for (const res of [
@@ -89,7 +58,7 @@ test('database away: 503 problem+json with Retry-After; back: answers as before'
       }
     }
   } finally {
-    await up();
+    await relay.up();
     silence.mockRestore();
   }
   // Back: the pool makes new connections as they are needed.

@@ -38,8 +38,8 @@ export async function makeUsers(
   return out;
 }
 
-export async function signIn(app: Express, email: string): Promise<string> {
-  const res = await request(app).post('/api/v1/auth/login').send({ email, password: PASSWORD });
+export async function signIn(app: Express, email: string, password = PASSWORD): Promise<string> {
+  const res = await request(app).post('/api/v1/auth/login').send({ email, password });
   if (res.status !== 200)
     throw new Error(`sign-in failed: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body.token as string;

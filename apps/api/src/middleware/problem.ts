@@ -66,8 +66,9 @@ export function problemOf(err: unknown): Problem {
     return new Problem(400, 'Bad upload', String(field(err, 'message')));
   }
   // body-parser's and zlib's client errors (a charset or encoding not taken, a broken gzip
-  // body): http-errors that may be shown.
-  if (typeof status === 'number' && status >= 400 && status < 500 && field(err, 'expose')) {
+  // body): http-errors that may be shown; the router's for a path it cannot decode (`%zz`).
+  const client = field(err, 'expose') === true || field(err, 'name') === 'URIError';
+  if (typeof status === 'number' && status >= 400 && status < 500 && client) {
     return new Problem(
       status,
       CLIENT_TITLES[status] ?? 'Bad request',
