@@ -2,12 +2,7 @@ import { CAUTION } from './caution';
 import { METHODS } from './methods/registry';
 import type { MethodWarning } from './methods/types';
 import { notRun, runOnPlane, runOnSurface } from './method-report';
-import type {
-  CircleSurface,
-  MethodId,
-  PolylineSurface,
-  Section,
-} from './model/types';
+import type { CircleSurface, MethodId, PolylineSurface, Section } from './model/types';
 import type { MethodReport, SectionResult, Warning } from './result';
 import { resultInUnits } from './result-units';
 import { refineCircle } from './search/refine-circle';

@@ -24,7 +24,7 @@ const modelOf = (s: { model: Strength['model'] }) =>
 
 /** The settings of a file's strength with a dimension (for the conversion to SI). */
 export const strengthQuantities = (raw: RawStrength): Partial<Record<string, QuantityKind>> =>
-  modelOf(raw).quantities as Partial<Record<string, QuantityKind>>;
+  modelOf(raw).quantities;
 /** The normalised strength of a file's. */
 export const normaliseStrength = (raw: RawStrength): Strength => modelOf(raw).normalise(raw);
 /** What a file writes for a strength. */
