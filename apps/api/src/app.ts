@@ -1,11 +1,13 @@
 /** The Express 5 application: /api/v1, bearer auth, roles, problem+json errors. */
 import cors from 'cors';
-import express, { type Request } from 'express';
+import express from 'express';
 import helmet from 'helmet';
 import path from 'node:path';
 import swaggerUi from 'swagger-ui-express';
 import { config } from './config';
 import { authenticate } from './middleware/auth';
+import { bodies } from './middleware/bodies';
+import { hstsOverHttps, noStore } from './middleware/headers';
 import { notFoundRoute, problemHandler } from './middleware/problem';
 import { hasWebBuild, webRoutes } from './middleware/web';
 import { authenticatedRoutes, publicRoutes } from './routes';
@@ -27,17 +29,10 @@ const SCHEMA_FILES = [
 export function createApp(options: { homePage?: string } = {}): express.Express {
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', false);
-  app.use(helmet());
+  app.set('trust proxy', config.trustProxy);
+  app.use(helmet({ strictTransportSecurity: false }), hstsOverHttps);
   app.use(cors({ origin: config.corsOrigin ? config.corsOrigin.split(',') : false }));
-  app.use(
-    express.json({
-      limit: config.jsonLimit,
-      verify: (req, _res, buf) => {
-        (req as Request & { rawBody?: string }).rawBody = buf.toString('utf8');
-      },
-    }),
-  );
+  app.use(bodies);
 
   // The OpenAPI document and the JSON Schemas it references, public, and the UI over them.
   app.get('/api/schemas/:name', (req, res, next) => {
@@ -51,6 +46,7 @@ export function createApp(options: { homePage?: string } = {}): express.Express 
   );
 
   const v1 = express.Router();
+  v1.use(noStore);
   for (const r of publicRoutes) v1.use(r);
   v1.use(authenticate);
   for (const r of authenticatedRoutes) v1.use(r);

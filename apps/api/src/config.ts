@@ -10,13 +10,38 @@ export interface Config {
   host: string;
   /** Lifetime of a sign-in token, in hours. */
   sessionHours: number;
-  /** Largest JSON body and largest upload, in bytes. */
+  /**
+   * Largest JSON body of a batch or a re-run's edits (read off the main thread), largest other
+   * JSON body, largest uploaded file, most files of an upload and most bytes of all of them
+   * together, in bytes.
+   */
   jsonLimit: number;
+  bodyLimit: number;
   uploadLimit: number;
   uploadFiles: number;
-  /** Sign-in attempts per address per window. */
+  uploadTotal: number;
+  /**
+   * The intake pool that reads submitted files and bodies: threads, most waiting jobs (then
+   * 503), time limit per job in milliseconds, memory of a thread in MB.
+   */
+  intakeThreads: number;
+  intakeQueue: number;
+  intakeTimeoutMs: number;
+  intakeMemoryMb: number;
+  /** Sign-in attempts per address, and failed ones per account, per window. */
   loginLimit: number;
+  loginAccountLimit: number;
   loginWindowMs: number;
+  /** How long a password-reset link works, in minutes. */
+  resetMinutes: number;
+  /** Live-progress streams one user may hold open at once. */
+  streamsPerUser: number;
+  /**
+   * Express's `trust proxy` (TRUST_PROXY: false, true, a hop count, or addresses): who may say
+   * with X-Forwarded-* which address and protocol a request came from. HSTS is sent only on a
+   * request that came over HTTPS, as this says.
+   */
+  trustProxy: boolean | number | string;
   /** SMTP: a URL for production; empty means the local fake the app starts. */
   smtpUrl: string;
   smtpFakePort: number;
@@ -49,6 +74,12 @@ function num(name: string, fallback: number): number {
   return n;
 }
 
+function trust(v: string | undefined): boolean | number | string {
+  if (v === undefined || v === '' || v === 'false') return false;
+  if (v === 'true') return true;
+  return /^\d+$/.test(v) ? Number(v) : v;
+}
+
 function read(): Config {
   const env = (process.env.NODE_ENV ?? 'development') as Config['env'];
   const port = num('PORT', 8080);
@@ -59,10 +90,20 @@ function read(): Config {
     host: process.env.HOST ?? '127.0.0.1',
     sessionHours: num('SESSION_HOURS', 12),
     jsonLimit: num('JSON_LIMIT', 5 * 1024 * 1024),
+    bodyLimit: num('BODY_LIMIT', 100 * 1024),
     uploadLimit: num('UPLOAD_LIMIT', 10 * 1024 * 1024),
     uploadFiles: num('UPLOAD_FILES', 500),
+    uploadTotal: num('UPLOAD_TOTAL', 20 * 1024 * 1024),
+    intakeThreads: num('INTAKE_THREADS', Math.min(2, os.availableParallelism())),
+    intakeQueue: num('INTAKE_QUEUE', 32),
+    intakeTimeoutMs: num('INTAKE_TIMEOUT_MS', 30_000),
+    intakeMemoryMb: num('INTAKE_MEMORY_MB', 1024),
     loginLimit: num('LOGIN_LIMIT', 10),
+    loginAccountLimit: num('LOGIN_ACCOUNT_LIMIT', 10),
     loginWindowMs: num('LOGIN_WINDOW_MS', 15 * 60 * 1000),
+    resetMinutes: num('RESET_MINUTES', 60),
+    streamsPerUser: num('STREAMS_PER_USER', 8),
+    trustProxy: trust(process.env.TRUST_PROXY),
     smtpUrl: process.env.SMTP_URL ?? '',
     smtpFakePort: num('SMTP_FAKE_PORT', 0),
     mailFrom: process.env.MAIL_FROM ?? 'scarpline@localhost',

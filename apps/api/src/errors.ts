@@ -20,3 +20,7 @@ export const notFound = (what = 'resource') => new Problem(404, 'Not found', `No
 export const conflict = (detail: string) => new Problem(409, 'Conflict', detail);
 export const invalid = (detail: string, extra?: Record<string, unknown>) =>
   new Problem(422, 'Invalid input', detail, extra);
+export const tooMany = (detail: string, extra?: Record<string, unknown>) =>
+  new Problem(429, 'Too many requests', detail, extra);
+export const unavailable = (detail: string, extra?: Record<string, unknown>) =>
+  new Problem(503, 'Service unavailable', detail, extra);

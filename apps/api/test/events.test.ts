@@ -4,7 +4,10 @@ import request from 'supertest';
 import { CAUTION } from '@scarpline/core';
 import { createApp } from '../src/app';
 import { sequelize } from '../src/db';
-import { SectionRow } from '../src/models';
+import type { AddressInfo } from 'node:net';
+import { config } from '../src/config';
+import { Batch, SectionRow } from '../src/models';
+import { pollerCount } from '../src/services/events';
 import { stopQueue } from '../src/queue';
 import { startWorker } from '../src/worker';
 import { expectProblem, makeUsers, signIn } from './helpers';
@@ -13,6 +16,7 @@ const EXAMPLES = path.resolve(__dirname, '../../../examples');
 const app = createApp();
 let engineer: string;
 let viewer: string;
+let viewerId: number;
 let projectId: number;
 
 interface SseEvent {
@@ -53,6 +57,7 @@ beforeAll(async () => {
   const users = await makeUsers('events');
   engineer = await signIn(app, users.engineer.email);
   viewer = await signIn(app, users.viewer.email);
+  viewerId = users.viewer.id;
   const p = await request(app)
     .post('/api/v1/projects')
     .auth(engineer, { type: 'bearer' })
@@ -76,7 +81,7 @@ test('the event stream reports progress as it changes and ends with done', async
   );
   expect(res.status).toBe(200);
   expect(res.headers['content-type']).toMatch(/^text\/event-stream/);
-  expect(res.headers['cache-control']).toMatch(/no-cache/);
+  expect(res.headers['cache-control']).toMatch(/no-store/);
 
   const names = events.map((e) => e.event);
   expect(names[names.length - 1]).toBe('done');
@@ -165,4 +170,67 @@ test('GET /batches/:id has an ETag: 304 while unchanged, a new tag once progress
   expect(changed.status).toBe(200);
   expect(changed.headers.etag).not.toBe(tag);
   expect(changed.body.progress.failed).toBe(1);
+});
+
+test('streams per user are limited; every stream of a batch shares one poller', async () => {
+  const running = await Batch.create({
+    projectId,
+    submittedBy: viewerId,
+    name: 'never-ends',
+    title: null,
+    status: 'running',
+    total: 0,
+    source: 'json',
+    finishedAt: null,
+  });
+  const server = app.listen(0, '127.0.0.1');
+  await new Promise((r) => server.once('listening', r));
+  const { port } = server.address() as AddressInfo;
+  const streams: AbortController[] = [];
+  /** Opens a stream and waits for its first event (or the refusal). */
+  const open = async (token = viewer): Promise<number> => {
+    const stop = new AbortController();
+    const res = await fetch(`http://127.0.0.1:${port}/api/v1/batches/${running.id}/events`, {
+      headers: { authorization: `Bearer ${token}` },
+      signal: stop.signal,
+    });
+    if (res.status !== 200) {
+      await res.text();
+      return res.status;
+    }
+    streams.push(stop);
+    const reader = (res.body as ReadableStream<Uint8Array>).getReader();
+    let text = '';
+    while (!text.includes('event: progress')) {
+      const { value } = await reader.read();
+      text += Buffer.from(value ?? []).toString();
+    }
+    return 200;
+  };
+  try {
+    const before = pollerCount();
+    for (let i = 0; i < config.streamsPerUser; i++) expect(await open()).toBe(200);
+    // one poller for this batch, however many streams follow it
+    expect(pollerCount()).toBe(before + 1);
+    expect(await open()).toBe(429);
+    // another user is not held back by this one's streams
+    expect(await open(engineer)).toBe(200);
+    streams.pop()?.abort();
+    // one closed: another may open
+    streams.shift()?.abort();
+    const end = Date.now() + 10_000;
+    let status = 429;
+    while (status === 429 && Date.now() < end) {
+      await new Promise((r) => setTimeout(r, 50));
+      status = await open();
+    }
+    expect(status).toBe(200);
+  } finally {
+    for (const s of streams) s.abort();
+    server.close();
+  }
+  // the last stream gone, the poller stops
+  const end = Date.now() + 10_000;
+  while (pollerCount() > 0 && Date.now() < end) await new Promise((r) => setTimeout(r, 50));
+  expect(pollerCount()).toBe(0);
 });

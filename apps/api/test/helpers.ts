@@ -8,30 +8,38 @@ import Ajv2020 from 'ajv/dist/2020';
 import { exportTableSchema, resultSchema } from '@scarpline/schemas';
 import request from 'supertest';
 import type { Express } from 'express';
-import { ROLES, type Role } from '../src/models';
+import { ROLES, User, type Role } from '../src/models';
+import { hashPassword } from '../src/services/passwords';
 import { createUser } from '../src/services/users';
 
 export const PASSWORD = 'test-password-1';
 
-/** One user per role, e-mails prefixed so parallel test files never collide. */
+let passwordHash: Promise<string> | null = null;
+
+/**
+ * One user per role, e-mails prefixed so parallel test files never collide. They share one
+ * hash of PASSWORD, computed once per test file (a hash of the real cost takes a few hundred
+ * milliseconds); the integration user is made by the service, as an admin makes one.
+ */
 export async function makeUsers(
   prefix: string,
 ): Promise<Record<Role, { id: number; email: string }>> {
+  passwordHash ??= hashPassword(PASSWORD);
   const out = {} as Record<Role, { id: number; email: string }>;
   for (const role of ROLES) {
-    const u = await createUser(null, {
-      email: `${prefix}-${role}@test.scarpline.example`,
-      name: `${prefix} ${role}`,
-      role,
-      password: role === 'integration' ? undefined : PASSWORD,
-    });
+    const email = `${prefix}-${role}@test.scarpline.example`;
+    const name = `${prefix} ${role}`;
+    const u =
+      role === 'integration'
+        ? await createUser(null, { email, name, role })
+        : await User.create({ email, name, role, passwordHash: await passwordHash });
     out[role] = { id: u.id, email: u.email };
   }
   return out;
 }
 
-export async function signIn(app: Express, email: string): Promise<string> {
-  const res = await request(app).post('/api/v1/auth/login').send({ email, password: PASSWORD });
+export async function signIn(app: Express, email: string, password = PASSWORD): Promise<string> {
+  const res = await request(app).post('/api/v1/auth/login').send({ email, password });
   if (res.status !== 200)
     throw new Error(`sign-in failed: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body.token as string;

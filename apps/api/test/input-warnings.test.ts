@@ -60,7 +60,7 @@ test('a batch: item warnings go to their section, template warnings to the stati
   const b = batch('wcb-warn-map', 8);
   b.sections[7].strata = SPARE_STRATA;
   b.sections[2].materials = HEAVY;
-  const parsed = parseBatchBody(b, JSON.stringify(b, null, 2));
+  const parsed = parseBatchBody(JSON.stringify(b, null, 2));
   const ids = parsed.sections.map((s) => s.id);
   expect(ids).toHaveLength(8);
   // The core says the spare clay's warning at some stations, and not all of them by name.
@@ -84,7 +84,7 @@ test('a batch: item warnings go to their section, template warnings to the stati
 
 test('a template warning that holds at every station goes to every section', () => {
   const b = batch('wcb-warn-all', 3);
-  const parsed = parseBatchBody(b, JSON.stringify(b, null, 2));
+  const parsed = parseBatchBody(JSON.stringify(b, null, 2));
   const ids = parsed.sections.map((s) => s.id);
   expect(byId(parsed.sectionWarnings, ids)).toEqual(
     Object.fromEntries(ids.map((id) => [id, [UNUSED_SPARE]])),

@@ -57,6 +57,7 @@ test('with no mail configured at all, the admin is given the generated password'
     name: 'Nina Nomail',
     role: 'viewer',
     active: true,
+    mustChangePassword: true,
     invited: false,
     password: expect.stringMatching(/^[A-Za-z0-9]{16}$/),
   });
@@ -79,6 +80,7 @@ test('an invitation goes to the fake inbox with the sign-in address and a passwo
     name: 'Ivo Invited',
     role: 'engineer',
     active: true,
+    mustChangePassword: true,
     invited: true,
   });
   expect(schemaErrors('CreatedUser', res.body)).toEqual([]);
@@ -133,6 +135,7 @@ test('with a password given, or for an integration user, nothing is mailed (as b
     name: 'Pat Password',
     role: 'viewer',
     active: true,
+    mustChangePassword: false,
   });
   expect((await login(email, 'given-pw-123')).status).toBe(200);
 
@@ -145,6 +148,7 @@ test('with a password given, or for an integration user, nothing is mailed (as b
     name: 'Feed',
     role: 'integration',
     active: true,
+    mustChangePassword: false,
   });
   expect((await User.findByPk(f.body.id))?.passwordHash).toBeNull();
 

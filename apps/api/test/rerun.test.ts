@@ -6,7 +6,7 @@ import { createApp } from '../src/app';
 import { sequelize } from '../src/db';
 import { AuditEntry, ResultRow } from '../src/models';
 import { stopQueue } from '../src/queue';
-import { editSection } from '../src/services/runs';
+import { editSection } from '../src/services/edits';
 import { startWorker } from '../src/worker';
 import { expectProblem, makeUsers, schemaErrors, signIn, waitForBatch } from './helpers';
 
@@ -128,4 +128,32 @@ test('edits that break the section → 422 with located errors; nothing queued',
   const after = await request(app).get(`/api/v1/sections/${sectionId}`).auth(viewer, bearer);
   expect(after.body.run).toBe(before.body.run);
   expect(after.body.status).toBe('done');
+});
+
+test('a title or a case name no text may hold, or longer than its limit (even 1 MB): 422, nothing queued', async () => {
+  const before = await request(app).get(`/api/v1/sections/${sectionId}`).auth(viewer, bearer);
+  const edits: [object, RegExp][] = [
+    [{ title: 'a\u0000b' }, /U\+0000/],
+    [{ title: 'a\ud800b' }, /half of a character/],
+    [{ analysis: { case: 'x\u0000' } }, /U\+0000/],
+    [{ title: 'x'.repeat(201) }, /title/],
+    [{ title: 'x'.repeat(1_000_000) }, /at most 10 000 are read/],
+    [{ materials: JSON.parse('{"a":'.repeat(100) + '1' + '}'.repeat(100)) as object }, /nested/],
+  ];
+  for (const [changes, words] of edits) {
+    const res = await request(app)
+      .post(`/api/v1/sections/${sectionId}/runs`)
+      .auth(engineer, bearer)
+      .send(changes);
+    expectProblem(res, 422);
+    expect(JSON.stringify(res.body)).toMatch(words);
+  }
+  const broken = await request(app)
+    .post(`/api/v1/sections/${sectionId}/runs`)
+    .auth(engineer, bearer)
+    .set('content-type', 'application/json')
+    .send('{"title": ');
+  expectProblem(broken, 400);
+  const after = await request(app).get(`/api/v1/sections/${sectionId}`).auth(viewer, bearer);
+  expect([after.body.run, after.body.status]).toEqual([before.body.run, 'done']);
 });

@@ -158,3 +158,43 @@ test('a bad decision or a missing comment is refused; engineers and viewers may 
     expectProblem(res, 403);
   }
 });
+
+test('whoever edited a section’s current run may not review it, nor its batch — admins included', async () => {
+  const target = sectionIds[1];
+  // The admin re-runs the engineer's section with edits of their own.
+  const rerun = await request(app)
+    .post(`/api/v1/sections/${target}/runs`)
+    .auth(admin, bearer)
+    .send({ requiredFs: 1.01 });
+  expect(rerun.status).toBe(202);
+  expect(rerun.body.editedBy).toBe(users.admin.id);
+  await waitForBatch(app, admin, batchId);
+  const rows = await Review.count({ where: { batchId } });
+  for (const [url, words] of [
+    [`/api/v1/sections/${target}/reviews`, /You edited the current run \(run 2\) of section/],
+    [
+      `/api/v1/batches/${batchId}/reviews`,
+      /You edited the current run of section .* of this batch/,
+    ],
+  ] as const) {
+    const res = await request(app)
+      .post(url)
+      .auth(admin, bearer)
+      .send({ decision: 'approved', comment: 'Looks fine to me.' });
+    expectProblem(res, 403);
+    expect(res.body.detail).toMatch(words);
+  }
+  expect(await Review.count({ where: { batchId } })).toBe(rows);
+  // Someone who did not edit it may; the edit of the earlier run does not bar the engineer's
+  // reviewer, and the admin may review the other section, whose run they did not edit.
+  const other = await request(app)
+    .post(`/api/v1/sections/${target}/reviews`)
+    .auth(reviewer, bearer)
+    .send({ decision: 'approved', comment: 'Checked the edit.' });
+  expect(other.status).toBe(201);
+  const untouched = await request(app)
+    .post(`/api/v1/sections/${sectionIds[0]}/reviews`)
+    .auth(admin, bearer)
+    .send({ decision: 'approved', comment: 'Not edited by me.' });
+  expect(untouched.status).toBe(201);
+});

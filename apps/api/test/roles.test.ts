@@ -13,6 +13,7 @@ let otherProjectId: number;
 let batchId: number;
 let sectionId: number;
 let otherBatchId: number;
+let otherSectionId: number;
 let doneBatchId: number;
 
 beforeAll(async () => {
@@ -57,7 +58,9 @@ beforeAll(async () => {
   const a = await mk(projectId);
   batchId = a.b.id;
   sectionId = a.s.id;
-  otherBatchId = (await mk(otherProjectId)).b.id;
+  const elsewhere = await mk(otherProjectId);
+  otherBatchId = elsewhere.b.id;
+  otherSectionId = elsewhere.s.id;
   // A finished batch, so its event stream ends at once.
   doneBatchId = (await mk(projectId, 'done')).b.id;
   const t = await request(app)
@@ -76,6 +79,7 @@ afterAll(async () => {
 /** [method, path, body, roles allowed]; a POST with an invalid body still shows the role check passed (4xx ≠ 401/403). */
 const routes = (): [string, string, object | undefined, Role[]][] => [
   ['get', '/api/v1/me', undefined, ['admin', 'engineer', 'reviewer', 'viewer', 'integration']],
+  ['post', '/api/v1/me/password', {}, ['admin', 'engineer', 'reviewer', 'viewer']],
   ['get', '/api/v1/users', undefined, ['admin']],
   ['post', '/api/v1/users', {}, ['admin']],
   ['patch', '/api/v1/users/999999', {}, ['admin']],
@@ -188,34 +192,42 @@ test('every route × every role: allowed roles pass the check, others get 403, n
   }
 });
 
-test('an integration token sees only its projects', async () => {
+test('an integration token sees only its projects; others answer as if they did not exist', async () => {
   const auth = { type: 'bearer' as const };
   const list = await request(app).get('/api/v1/projects').auth(tokens.integration, auth);
   expect(list.body.map((p: { id: number }) => p.id)).toEqual([projectId]);
-  expectProblem(
-    await request(app).get(`/api/v1/projects/${otherProjectId}`).auth(tokens.integration, auth),
-    403,
-  );
-  expectProblem(
-    await request(app).get(`/api/v1/batches/${otherBatchId}`).auth(tokens.integration, auth),
-    403,
-  );
-  expectProblem(
-    await request(app).get(`/api/v1/batches/${otherBatchId}/events`).auth(tokens.integration, auth),
-    403,
+  const MISSING = 2_000_000_000;
+  /** The answer to a resource of another project, and to one that does not exist: the same. */
+  const same = async (other: string, missing: string, send?: object) => {
+    const ask = (url: string) => {
+      const r = url.endsWith('/batches') ? request(app).post(url) : request(app).get(url);
+      const authed = r.auth(tokens.integration, auth);
+      return send ? authed.send(send) : authed;
+    };
+    const a = await ask(other);
+    const b = await ask(missing);
+    expectProblem(a, 404);
+    expectProblem(b, 404);
+    const strip = (body: Record<string, unknown>) => ({ ...body, instance: undefined });
+    expect(strip(a.body)).toEqual(strip(b.body));
+  };
+  await same(`/api/v1/projects/${otherProjectId}`, `/api/v1/projects/${MISSING}`);
+  await same(`/api/v1/projects/${otherProjectId}/batches`, `/api/v1/projects/${MISSING}/batches`);
+  await same(`/api/v1/batches/${otherBatchId}`, `/api/v1/batches/${MISSING}`);
+  await same(`/api/v1/batches/${otherBatchId}/events`, `/api/v1/batches/${MISSING}/events`);
+  await same(`/api/v1/batches/${otherBatchId}/sections`, `/api/v1/batches/${MISSING}/sections`);
+  await same(`/api/v1/sections/${otherSectionId}`, `/api/v1/sections/${MISSING}`);
+  await same(`/api/v1/sections/${otherSectionId}/plot.svg`, `/api/v1/sections/${MISSING}/plot.svg`);
+  await same(
+    `/api/v1/projects/${otherProjectId}/batches`,
+    `/api/v1/projects/${MISSING}/batches`,
+    {},
   );
   expectProblem(
     await request(app).get(
       `/api/v1/batches/${otherBatchId}/events?access_token=${tokens.integration}`,
     ),
-    403,
-  );
-  expectProblem(
-    await request(app)
-      .post(`/api/v1/projects/${otherProjectId}/batches`)
-      .auth(tokens.integration, auth)
-      .send({}),
-    403,
+    404,
   );
 });
 
@@ -253,4 +265,19 @@ test('a token lives 1 to 3650 whole days, and the list says when each was made',
   const list = await request(app).get('/api/v1/tokens').auth(tokens.admin, { type: 'bearer' });
   const row = (list.body as { id: number; createdAt: string }[]).find((t) => t.id === ok.body.id);
   expect(row?.createdAt).toBe(ok.body.createdAt);
+});
+
+test('the routes of signing in and of a forgotten password answer without a token', async () => {
+  for (const [path, body] of [
+    ['/api/v1/auth/login', { email: 'nobody@test.scarpline.example', password: 'not-this-one' }],
+    ['/api/v1/password-resets', { email: 'nobody@test.scarpline.example' }],
+    ['/api/v1/password-resets/confirm', { token: 'slr_nothing', password: 'a-new-password' }],
+  ] as const) {
+    const res = await request(app).post(path).send(body);
+    expect([path, [401, 403].includes(res.status) && path !== '/api/v1/auth/login']).toEqual([
+      path,
+      false,
+    ]);
+    expect(res.status).toBeLessThan(500);
+  }
 });

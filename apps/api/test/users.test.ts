@@ -42,6 +42,7 @@ test('a role change is answered with the user, audited, and in force on their ne
     name: 'users viewer',
     role: 'viewer',
     projectIds: null,
+    mustChangePassword: false,
   });
   expect(schemaErrors('Me', before.body)).toEqual([]);
 
@@ -53,6 +54,7 @@ test('a role change is answered with the user, audited, and in force on their ne
     name: 'Vera Viewer',
     role: 'reviewer',
     active: true,
+    mustChangePassword: false,
   });
   expect(schemaErrors('User', res.body)).toEqual([]);
 
@@ -173,8 +175,8 @@ test('bad changes are refused with a plain message naming the field', async () =
     [{ password: 'new-password-1' }, 422, /cannot be changed here: password/],
     [{ role: 'boss' }, 422, /role is one of admin, engineer, reviewer, viewer, integration/],
     [{ active: 'no' }, 422, /active is true or false/],
-    [{ name: '   ' }, 422, /name is a string of 1 to 255 characters/],
-    [{ name: 'x'.repeat(256) }, 422, /name is a string of 1 to 255 characters/],
+    [{ name: '   ' }, 422, /name is a string of 1 to 200 characters/],
+    [{ name: 'x'.repeat(201) }, 422, /name is a string of 1 to 200 characters/],
     [[{ role: 'viewer' }], 422, /Send the changes as a JSON object/],
     [{ role: 'integration' }, 409, /cannot change between integration and the other roles/],
   ];

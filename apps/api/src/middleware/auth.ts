@@ -2,7 +2,7 @@
 import type { RequestHandler } from 'express';
 import passport from 'passport';
 import { Strategy as BearerStrategy } from 'passport-http-bearer';
-import { forbidden, unauthorized } from '../errors';
+import { forbidden, Problem, unauthorized } from '../errors';
 import type { Role } from '../models';
 import { principalOf, type Principal } from '../services/auth';
 
@@ -17,6 +17,9 @@ passport.use(
 
 /** The one route that takes `?access_token=` (EventSource cannot send headers). */
 const QUERY_TOKEN_ROUTE = /^\/batches\/[^/]+\/events$/;
+
+/** What a user who must replace their password may do until they have: these alone. */
+const BEFORE_NEW_PASSWORD = new Set(['GET /me', 'POST /me/password', 'POST /auth/logout']);
 
 export const authenticate: RequestHandler = (req, res, next) => {
   // passport-http-bearer also reads access_token from the query and the body; only the
@@ -41,6 +44,15 @@ export const authenticate: RequestHandler = (req, res, next) => {
       if (err) return next(err);
       if (!user) return next(unauthorized());
       req.user = user;
+      if (user.mustChangePassword && !BEFORE_NEW_PASSWORD.has(`${req.method} ${req.path}`)) {
+        return next(
+          new Problem(
+            403,
+            'Password change required',
+            'You signed in with the password you were sent: choose your own password first (POST /me/password).',
+          ),
+        );
+      }
       next();
     },
   ) as RequestHandler;

@@ -4,6 +4,7 @@
  */
 import { ApiToken } from './api-token';
 import { Batch } from './batch';
+import { PasswordReset } from './password-reset';
 import { Project } from './project';
 import { ResultRow } from './result';
 import { Review } from './review';
@@ -24,10 +25,12 @@ Review.belongsTo(User, { foreignKey: 'reviewerId', as: 'reviewer' });
 Review.belongsTo(Batch, { foreignKey: 'batchId' });
 Review.belongsTo(SectionRow, { foreignKey: 'sectionId' });
 Batch.hasMany(Review, { foreignKey: 'batchId' });
+PasswordReset.belongsTo(User, { foreignKey: 'userId' });
 
 export { ApiToken } from './api-token';
 export { AuditEntry } from './audit-entry';
 export { Batch, type BatchStatus } from './batch';
+export { PasswordReset } from './password-reset';
 export { Project } from './project';
 export { ResultRow } from './result';
 export { Review } from './review';

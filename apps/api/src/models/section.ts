@@ -30,6 +30,8 @@ export class SectionRow extends Model<
   /** The current run; a re-run with edits increments it and keeps the older results. */
   declare run: CreationOptional<number>;
   declare failReason: string | null;
+  /** Who started the current run with edits (null: the submitted run); they may not review it. */
+  declare editedBy: CreationOptional<number | null>;
   /** The section line of a GeoJSON corridor feature, as given; null for other inputs. */
   declare geometry: CreationOptional<object | null>;
   /**
@@ -52,6 +54,7 @@ SectionRow.init(
     status: { type: DataTypes.STRING, allowNull: false },
     run: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
     failReason: { type: DataTypes.TEXT, allowNull: true },
+    editedBy: { type: DataTypes.INTEGER, allowNull: true },
     geometry: { type: DataTypes.JSONB, allowNull: true },
     inputWarnings: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
     featureProperties: { type: DataTypes.JSON, allowNull: true },

@@ -19,6 +19,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   /** scrypt$N$r$p$salt$hash; null for integration users, who hold API tokens only. */
   declare passwordHash: string | null;
   declare active: CreationOptional<boolean>;
+  /** Set for an invitation's password: the user replaces it before anything else. */
+  declare mustChangePassword: CreationOptional<boolean>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -30,6 +32,7 @@ User.init(
     role: { type: DataTypes.STRING, allowNull: false },
     passwordHash: { type: DataTypes.STRING, allowNull: true },
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+    mustChangePassword: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
   },

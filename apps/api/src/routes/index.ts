@@ -9,6 +9,7 @@ import { batchRoutes } from './batches';
 import { eventRoutes } from './events';
 import { exportRoutes } from './exports';
 import { mailRoutes } from './mail';
+import { passwordResetRoutes } from './password-resets';
 import { projectRoutes } from './projects';
 import { reviewRequestRoutes } from './review-requests';
 import { reviewRoutes } from './reviews';
@@ -17,7 +18,7 @@ import { sectionRoutes } from './sections';
 import { tokenRoutes } from './tokens';
 import { userRoutes } from './users';
 
-export const publicRoutes: readonly Router[] = [authRoutes];
+export const publicRoutes: readonly Router[] = [authRoutes, passwordResetRoutes];
 
 export const authenticatedRoutes: readonly Router[] = [
   userRoutes,

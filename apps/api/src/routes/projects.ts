@@ -1,7 +1,8 @@
 import { Router } from 'express';
+import { API_LIMITS } from '../limits';
 import { ALL, allow, principal } from '../middleware/auth';
 import { createProject, getProject, listProjects } from '../services/projects';
-import { idParam, str } from './params';
+import { idParam, objectBody, text } from './params';
 
 export const projectRoutes = Router();
 
@@ -10,11 +11,12 @@ projectRoutes.get('/projects', allow(...ALL), async (req, res) => {
 });
 
 projectRoutes.post('/projects', allow('admin', 'engineer'), async (req, res) => {
-  const body = req.body as { description?: unknown };
+  const body = objectBody(req.body);
+  const description = text(body, 'description', API_LIMITS.description, { optional: true });
   res.status(201).json(
     await createProject(principal(req), {
-      name: str(req.body, 'name'),
-      description: typeof body.description === 'string' ? body.description : undefined,
+      name: text(body, 'name', API_LIMITS.name),
+      description: description || undefined,
     }),
   );
 });

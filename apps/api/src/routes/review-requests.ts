@@ -1,7 +1,8 @@
 import { Router } from 'express';
+import { API_LIMITS } from '../limits';
 import { allow, principal } from '../middleware/auth';
 import { requestReview } from '../services/review-requests';
-import { idParam } from './params';
+import { idParam, objectBody, text } from './params';
 
 export const reviewRequestRoutes = Router();
 
@@ -9,7 +10,7 @@ reviewRequestRoutes.post(
   '/batches/:id/review-requests',
   allow('admin', 'engineer'),
   async (req, res) => {
-    const body = (req.body ?? {}) as { comment?: unknown };
-    res.status(202).json(await requestReview(principal(req), idParam(req.params.id), body));
+    const comment = text(objectBody(req.body), 'comment', API_LIMITS.comment, { optional: true });
+    res.status(202).json(await requestReview(principal(req), idParam(req.params.id), { comment }));
   },
 );

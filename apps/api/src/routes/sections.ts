@@ -2,13 +2,24 @@ import { Router } from 'express';
 import { ALL, allow, principal } from '../middleware/auth';
 import { loadBatch } from '../services/batches';
 import { listSections, sectionView } from '../services/sections';
-import { idParam } from './params';
+import { API_LIMITS } from '../limits';
+import { idParam, queryInt, queryText } from './params';
 
 export const sectionRoutes = Router();
 
 sectionRoutes.get('/batches/:id/sections', allow(...ALL), async (req, res) => {
   const b = await loadBatch(principal(req), idParam(req.params.id));
-  res.json(await listSections(b, req.query));
+  const q = req.query as Record<string, unknown>;
+  res.json(
+    await listSections(b, {
+      status: queryText(q.status, 'status'),
+      verdict: queryText(q.verdict, 'verdict'),
+      sort: queryText(q.sort, 'sort'),
+      order: queryText(q.order, 'order'),
+      page: queryInt(q.page, 'page', 1, API_LIMITS.page),
+      pageSize: queryInt(q.pageSize, 'pageSize', 50, API_LIMITS.pageSize),
+    }),
+  );
 });
 
 sectionRoutes.get('/sections/:id', allow(...ALL), async (req, res) => {

@@ -1,7 +1,9 @@
 import { Router } from 'express';
+import { badRequest } from '../errors';
+import { API_LIMITS } from '../limits';
 import { allow, principal } from '../middleware/auth';
 import { createIntegrationToken, listIntegrationTokens, revokeToken } from '../services/tokens';
-import { idParam, str } from './params';
+import { idParam, objectBody, text } from './params';
 
 export const tokenRoutes = Router();
 const admin = allow('admin');
@@ -11,15 +13,18 @@ tokenRoutes.get('/tokens', admin, async (_req, res) => {
 });
 
 tokenRoutes.post('/tokens', admin, async (req, res) => {
-  const body = req.body as { projectIds?: unknown; days?: unknown };
-  const projectIds = Array.isArray(body.projectIds)
-    ? body.projectIds.map((v) => idParam(v, 'projectIds[]'))
-    : [];
+  const body = objectBody(req.body);
+  if (body.projectIds !== undefined && !Array.isArray(body.projectIds)) {
+    throw badRequest('projectIds is a list of project ids.');
+  }
+  const list = (body.projectIds as unknown[] | undefined) ?? [];
+  if (list.length > 1000) throw badRequest('projectIds lists at most 1000 projects.');
+  const projectIds = [...new Set(list.map((v) => idParam(v, 'projectIds[]')))];
   const created = await createIntegrationToken(principal(req), {
-    userId: idParam((req.body as { userId?: unknown }).userId, 'userId'),
-    name: str(req.body, 'name'),
+    userId: idParam(body.userId, 'userId'),
+    name: text(body, 'name', API_LIMITS.name),
     projectIds,
-    days: typeof body.days === 'number' ? body.days : undefined,
+    days: body.days === undefined ? undefined : (body.days as number),
   });
   res.status(201).json(created);
 });

@@ -1,8 +1,9 @@
 import { Router } from 'express';
+import { API_LIMITS } from '../limits';
 import { allow, principal } from '../middleware/auth';
 import type { Role } from '../models';
 import { createUser, listUsers, updateUser } from '../services/users';
-import { idParam, str } from './params';
+import { idParam, objectBody, str, text } from './params';
 
 export const userRoutes = Router();
 const admin = allow('admin');
@@ -12,11 +13,12 @@ userRoutes.get('/users', admin, async (_req, res) => {
 });
 
 userRoutes.post('/users', admin, async (req, res) => {
+  const body = objectBody(req.body);
   const user = await createUser(principal(req), {
-    email: str(req.body, 'email'),
-    name: str(req.body, 'name'),
-    role: str(req.body, 'role') as Role,
-    password: str(req.body, 'password', true) || undefined,
+    email: text(body, 'email', API_LIMITS.email),
+    name: text(body, 'name', API_LIMITS.name),
+    role: text(body, 'role', 20) as Role,
+    password: str(body, 'password', true, API_LIMITS.passwordMax) || undefined,
   });
   res.status(201).json(user);
 });

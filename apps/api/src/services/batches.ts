@@ -13,10 +13,16 @@ import { batchReview } from './reviews';
 import { sectionMessage, type Parsed } from './validate';
 import { userRef } from './views';
 
-export async function submitBatch(p: Principal, projectId: number, parsed: Parsed, source: string) {
+/** The project, which the principal may use; 404 when it does not exist or is not theirs. */
+export async function loadProject(p: Principal, projectId: number): Promise<Project> {
   assertProject(p, projectId);
   const project = await Project.findByPk(projectId);
   if (!project) throw notFound('project');
+  return project;
+}
+
+export async function submitBatch(p: Principal, projectId: number, parsed: Parsed, source: string) {
+  await loadProject(p, projectId);
   const batch = await sequelize.transaction(async (t) => {
     const b = await Batch.create(
       {
@@ -93,7 +99,7 @@ export async function verdictCounts(batchId: number): Promise<Record<Verdict, nu
 export async function loadBatch(p: Principal, batchId: number): Promise<Batch> {
   const b = await Batch.findByPk(batchId);
   if (!b) throw notFound('batch');
-  assertProject(p, b.projectId);
+  assertProject(p, b.projectId, 'batch');
   return b;
 }
 
@@ -118,8 +124,7 @@ export async function batchView(batchId: number) {
 }
 
 export async function listBatches(p: Principal, projectId: number) {
-  assertProject(p, projectId);
-  if (!(await Project.findByPk(projectId))) throw notFound('project');
+  await loadProject(p, projectId);
   const rows = await Batch.findAll({ where: { projectId }, order: [['id', 'DESC']] });
   return Promise.all(rows.map((b) => batchView(b.id)));
 }

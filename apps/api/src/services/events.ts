@@ -1,6 +1,7 @@
 /**
- * Live progress of a batch: polls the database and reports the progress object whenever it
- * changes, then a final `done`. The transport (server-sent events) is the route's business.
+ * Live progress of a batch: one poller per batch reads the database and every stream of the
+ * batch reports the progress object whenever it changes, then a final `done`. The transport
+ * (server-sent events) is the route's business.
  */
 import crypto from 'node:crypto';
 import { setTimeout as delay } from 'node:timers/promises';
@@ -22,10 +23,95 @@ export type BatchEvent =
       };
     };
 
+/** What the poller of a batch read last: the batch's state, or that it is gone. */
+type Snapshot =
+  | {
+      gone: false;
+      id: number;
+      status: string;
+      finishedAt: Date | null;
+      progress: Awaited<ReturnType<typeof progress>>;
+    }
+  | { gone: true };
+
+/** The one poller of a batch and the streams that follow it. */
+interface Poller {
+  listeners: Set<(s: Snapshot) => void>;
+  latest: Snapshot | null;
+  stop: AbortController;
+}
+
+const pollers = new Map<number, Poller>();
+
+async function snapshot(batchId: number): Promise<Snapshot> {
+  const batch = await Batch.findByPk(batchId);
+  if (!batch) return { gone: true };
+  return {
+    gone: false,
+    id: batch.id,
+    status: batch.status,
+    finishedAt: batch.finishedAt,
+    progress: await progress(batchId),
+  };
+}
+
 /**
- * Calls `emit` with a `progress` event at once and whenever the progress changes (read every
- * `intervalMs`), and a `done` event when the batch has finished; resolves after `done`, or when
- * `signal` aborts (the client went away), or when the batch disappears.
+ * Reads the batch every `intervalMs` for as long as anyone follows it, and gives each reading
+ * to every follower. A reading that fails (the database is away) is tried again at the next
+ * tick; the followers wait meanwhile.
+ */
+async function poll(batchId: number, poller: Poller, intervalMs: number): Promise<void> {
+  const { signal } = poller.stop;
+  while (!signal.aborted) {
+    try {
+      const s = await snapshot(batchId);
+      poller.latest = s;
+      for (const listener of [...poller.listeners]) listener(s);
+    } catch {
+      // the database is unreachable just now: read again at the next tick
+    }
+    try {
+      await delay(intervalMs, undefined, { signal });
+    } catch {
+      return; // nobody follows any more
+    }
+  }
+}
+
+/**
+ * Follows a batch: `listener` gets every reading of the one poller of this batch, which is
+ * started for the first follower and stopped after the last; a follower who joins gets the
+ * latest reading at once. Returns the function that stops following.
+ */
+function follow(batchId: number, listener: (s: Snapshot) => void, intervalMs: number): () => void {
+  let poller = pollers.get(batchId);
+  if (!poller) {
+    poller = { listeners: new Set(), latest: null, stop: new AbortController() };
+    pollers.set(batchId, poller);
+    void poll(batchId, poller, intervalMs);
+  }
+  const p = poller;
+  p.listeners.add(listener);
+  if (p.latest) listener(p.latest);
+  return () => {
+    p.listeners.delete(listener);
+    if (p.listeners.size === 0 && pollers.get(batchId) === p) {
+      pollers.delete(batchId);
+      p.stop.abort();
+    }
+  };
+}
+
+/** How many batches are polled now (one poller each, however many streams follow them). */
+export function pollerCount(): number {
+  return pollers.size;
+}
+
+/**
+ * Calls `emit` with a `progress` event at once and whenever the progress changes, and a `done`
+ * event when the batch has finished; resolves after `done`, or when `signal` aborts (the client
+ * went away), or when the batch disappears. Every stream of a batch shares one poller, which
+ * reads the database every `intervalMs`.
  */
 export async function followBatch(
   batchId: number,
@@ -33,35 +119,47 @@ export async function followBatch(
   signal: AbortSignal,
   intervalMs = config.eventPollMs,
 ): Promise<void> {
+  if (signal.aborted) return;
   let last = '';
-  while (!signal.aborted) {
-    const batch = await Batch.findByPk(batchId);
-    if (!batch || signal.aborted) return;
-    const p = await progress(batchId);
-    const key = JSON.stringify(p);
-    if (key !== last) {
-      last = key;
-      emit({ event: 'progress', data: p });
-    }
-    if (batch.status === 'done') {
-      emit({
-        event: 'done',
-        data: {
-          id: batch.id,
-          status: batch.status,
-          finishedAt: batch.finishedAt,
-          progress: p,
-          caution: CAUTION,
-        },
-      });
-      return;
-    }
-    try {
-      await delay(intervalMs, undefined, { signal });
-    } catch {
-      return; // aborted while waiting
-    }
-  }
+  await new Promise<void>((resolve) => {
+    let ended = false;
+    let stop: (() => void) | null = null;
+    const end = () => {
+      if (ended) return;
+      ended = true;
+      signal.removeEventListener('abort', end);
+      stop?.();
+      resolve();
+    };
+    signal.addEventListener('abort', end);
+    stop = follow(
+      batchId,
+      (s) => {
+        if (s.gone) return end();
+        const key = JSON.stringify(s.progress);
+        if (key !== last) {
+          last = key;
+          emit({ event: 'progress', data: s.progress });
+        }
+        if (s.status === 'done') {
+          emit({
+            event: 'done',
+            data: {
+              id: s.id,
+              status: s.status,
+              finishedAt: s.finishedAt,
+              progress: s.progress,
+              caution: CAUTION,
+            },
+          });
+          end();
+        }
+      },
+      intervalMs,
+    );
+    // the latest reading, given at once, may have ended it already
+    if (ended) stop();
+  });
 }
 
 /** A weak entity tag for a JSON representation. */

@@ -197,3 +197,25 @@ export async function invitation(
     ].join('\n'),
   );
 }
+
+/** A link to set a new password, for someone who asked for it. True when handed to SMTP. */
+export async function passwordResetLink(
+  user: { email: string; name: string },
+  link: string,
+  minutes: number,
+): Promise<boolean> {
+  return send(
+    [user.email],
+    'Set a new Scarpline password',
+    [
+      `Hello ${user.name},`,
+      '',
+      'Someone (we hope you) asked to set a new password for your Scarpline account.',
+      `Open this link within ${minutes} minutes to choose one; it works once:`,
+      '',
+      link,
+      '',
+      'If you did not ask for this, ignore this message: your password stays as it is.',
+    ].join('\n'),
+  );
+}

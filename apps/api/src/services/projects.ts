@@ -1,5 +1,6 @@
 /** Projects: every user sees every project; an integration token only those it is granted. */
 import { Op } from 'sequelize';
+import { sequelize } from '../db';
 import { notFound } from '../errors';
 import { Project } from '../models';
 import { audit } from './audit';
@@ -21,12 +22,15 @@ export async function getProject(p: Principal, id: number) {
   return projectView(project);
 }
 
+/** A new project and its audit entry, in one transaction: never one without the other. */
 export async function createProject(p: Principal, body: { name: string; description?: string }) {
-  const project = await Project.create({
-    name: body.name,
-    description: body.description ?? null,
-    createdBy: p.userId,
+  const project = await sequelize.transaction(async (transaction) => {
+    const row = await Project.create(
+      { name: body.name, description: body.description ?? null, createdBy: p.userId },
+      { transaction },
+    );
+    await audit(p.userId, 'create', 'project', row.id, { name: body.name }, transaction);
+    return row;
   });
-  await audit(p.userId, 'create', 'project', project.id, { name: body.name });
   return projectView(project);
 }

@@ -11,10 +11,10 @@ import { audit } from './audit';
 import { assertProject, type Principal } from './auth';
 
 // Loaded here rather than from batches/sections, which show the review state (no import cycle).
-async function batchOf(p: Principal, batchId: number): Promise<Batch> {
+async function batchOf(p: Principal, batchId: number, what = 'batch'): Promise<Batch> {
   const b = await Batch.findByPk(batchId);
-  if (!b) throw notFound('batch');
-  assertProject(p, b.projectId);
+  if (!b) throw notFound(what);
+  assertProject(p, b.projectId, what);
   return b;
 }
 
@@ -46,15 +46,37 @@ function checkBody(body: ReviewBody): { decision: Decision; comment: string } {
   if (!(DECISIONS as readonly string[]).includes(body.decision)) {
     throw invalid(`decision is one of ${DECISIONS.join(', ')}.`);
   }
-  const comment = body.comment.trim();
-  if (comment.length > 5000) throw invalid('comment has at most 5000 characters.');
-  return { decision: body.decision as Decision, comment };
+  return { decision: body.decision as Decision, comment: body.comment.trim() };
 }
 
-function notOwn(p: Principal, batch: Batch): void {
+/**
+ * Nobody reviews their own work, whatever their role (admins included): not a batch they
+ * submitted, and not a section whose current run they started with edits (for a whole batch:
+ * any of its sections). 403 saying why.
+ */
+async function notOwn(p: Principal, batch: Batch, section?: SectionRow): Promise<void> {
   if (batch.submittedBy === p.userId) {
     throw forbidden(
       'You submitted this batch; its results must be reviewed by someone who did not.',
+    );
+  }
+  if (section) {
+    if (section.editedBy === p.userId) {
+      throw forbidden(
+        `You edited the current run (run ${section.run}) of section ${section.key}; it must be reviewed by someone who did not.`,
+      );
+    }
+    return;
+  }
+  const edited = await SectionRow.findAll({
+    where: { batchId: batch.id, editedBy: p.userId },
+    attributes: ['key'],
+    order: [['position', 'ASC']],
+    limit: 5,
+  });
+  if (edited.length > 0) {
+    throw forbidden(
+      `You edited the current run of section ${edited.map((s) => s.key).join(', ')}${edited.length === 5 ? ' and perhaps more' : ''} of this batch; the batch must be reviewed by someone who did not.`,
     );
   }
 }
@@ -62,8 +84,8 @@ function notOwn(p: Principal, batch: Batch): void {
 export async function reviewSection(p: Principal, sectionId: number, body: ReviewBody) {
   const section = await SectionRow.findByPk(sectionId);
   if (!section) throw notFound('section');
-  const batch = await batchOf(p, section.batchId);
-  notOwn(p, batch);
+  const batch = await batchOf(p, section.batchId, 'section');
+  await notOwn(p, batch, section);
   const { decision, comment } = checkBody(body);
   if (section.status === 'queued' || section.status === 'running') {
     throw conflict(`Section ${section.key} is ${section.status}; review it when its run ends.`);
@@ -95,7 +117,7 @@ export async function reviewSection(p: Principal, sectionId: number, body: Revie
 
 export async function reviewBatch(p: Principal, batchId: number, body: ReviewBody) {
   const batch = await batchOf(p, batchId);
-  notOwn(p, batch);
+  await notOwn(p, batch);
   const { decision, comment } = checkBody(body);
   if (batch.status !== 'done')
     throw conflict('The batch is still running; review it when it is done.');

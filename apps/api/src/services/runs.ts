@@ -1,93 +1,33 @@
 /**
  * Re-running a section with edits: a JSON merge patch (RFC 7396) of changes onto the stored
- * section written as a document by the core (sectionDocument, the inverse of reading one, in
- * SI), read again by the core's checks (located errors, 422), queued as the next run. Older
- * runs and their results are kept.
+ * section (edits.ts: read and checked by the core off the main thread, located errors, 422),
+ * queued as the next run. Older runs and their results are kept.
  */
 import { CAUTION } from '@scarpline/core/caution';
-import { sectionDocument, type Message } from '@scarpline/core/input';
 import type { Section } from '@scarpline/core/model';
 import { sequelize } from '../db';
-import { conflict, invalid } from '../errors';
+import { conflict } from '../errors';
+import { readEditsText } from '../intake/pool';
 import { AuditEntry, Batch, ResultRow } from '../models';
 import { enqueueSections } from '../queue';
 import { audit } from './audit';
 import type { Principal } from './auth';
 import { loadSection, resultView, sectionView } from './sections';
-import { readEditedSection, sectionMessage } from './validate';
+import { sectionMessage } from './validate';
 import { userRefs } from './views';
 
-/** What an edit may change. Values are SI (the stored section is normalised to SI). */
-export const EDITABLE = [
-  'title',
-  'description',
-  'materials',
-  'strata',
-  'water',
-  'loads',
-  'seismic',
-  'crack',
-  'analysis',
-  'requiredFs',
-] as const;
-
-type Json = null | boolean | number | string | Json[] | { [key: string]: Json };
-
-const isObject = (v: unknown): v is Record<string, Json> =>
-  typeof v === 'object' && v !== null && !Array.isArray(v);
-
-/** RFC 7396: objects merge member by member, null removes a member, anything else replaces. */
-export function mergePatch(target: Json, patch: Json): Json {
-  if (!isObject(patch)) return patch;
-  const out: Record<string, Json> = isObject(target) ? { ...target } : {};
-  for (const [k, v] of Object.entries(patch)) {
-    if (v === null) delete out[k];
-    else out[k] = mergePatch(out[k] ?? null, v);
-  }
-  return out;
-}
-
 /**
- * The edited section, checked, with the warnings of the core's checks about it; throws 422 with
- * located errors (paths into the section). Results stay in the units of the section's file.
+ * Queues the next run of a section with edits. `changesText`: the body as sent (JSON), read and
+ * checked off the main thread (edits.ts readEdits, by the intake pool). Whoever edits the run
+ * is kept on the section (`editedBy`): they may not review it.
  */
-export function checkEdits(
-  stored: Section,
-  changes: unknown,
-): { section: Section; warnings: Message[] } {
-  if (!isObject(changes)) throw invalid('Send the changes as a JSON object.');
-  const unknown = Object.keys(changes).filter((k) => !(EDITABLE as readonly string[]).includes(k));
-  if (unknown.length > 0) {
-    throw invalid(`These cannot be edited: ${unknown.join(', ')}.`, {
-      errors: unknown.map((k) => ({
-        severity: 'error',
-        path: k,
-        code: 'not-editable',
-        message: `${k} cannot be edited; the settings that can are ${EDITABLE.join(', ')}`,
-        text: `${k}: cannot be edited`,
-      })),
-    });
-  }
-  const { requiredFs, ...rest } = changes;
-  const patch: Record<string, Json> = { ...rest };
-  if (requiredFs !== undefined) {
-    patch.analysis = mergePatch(patch.analysis ?? {}, { requiredFs });
-  }
-  const doc = mergePatch(sectionDocument(stored) as unknown as Json, patch);
-  return readEditedSection(doc, stored.units);
-}
-
-/** The edited section, checked (see checkEdits). */
-export function editSection(stored: Section, changes: unknown): Section {
-  return checkEdits(stored, changes).section;
-}
-
-export async function rerunSection(p: Principal, sectionId: number, changes: unknown) {
+export async function rerunSection(p: Principal, sectionId: number, changesText: string) {
   const section = await loadSection(p, sectionId);
   if (section.status === 'queued' || section.status === 'running') {
     throw conflict(`Section ${section.key} is ${section.status}; re-run it when this run ends.`);
   }
-  const { section: input, warnings } = checkEdits(section.input as Section, changes);
+  const read = await readEditsText(section.input as Section, changesText);
+  const { section: input, warnings, changes } = read;
   const run = section.run + 1;
   await sequelize.transaction(async (t) => {
     // The section's input is now the edited one: so are the warnings about it.
@@ -98,6 +38,7 @@ export async function rerunSection(p: Principal, sectionId: number, changes: unk
         status: 'queued',
         failReason: null,
         inputWarnings: warnings.map(sectionMessage),
+        editedBy: p.userId,
       },
       { transaction: t },
     );

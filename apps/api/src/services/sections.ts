@@ -8,8 +8,8 @@ import type { Section } from '@scarpline/core/model';
 import { JOB_STATES, VERDICTS } from '@scarpline/core/verdict';
 import { sequelize } from '../db';
 import { badRequest, notFound } from '../errors';
-import { ResultRow, SectionRow, type Batch } from '../models';
-import type { Principal } from './auth';
+import { Batch, ResultRow, SectionRow } from '../models';
+import { assertProject, type Principal } from './auth';
 import { loadBatch } from './batches';
 import { sectionReview, sectionReviewStates } from './reviews';
 import { messageView } from './validate';
@@ -38,7 +38,10 @@ export function resultView(r: ResultRow, options: { search?: boolean } = {}) {
 export async function loadSection(p: Principal, id: number): Promise<SectionRow> {
   const s = await SectionRow.findByPk(id);
   if (!s) throw notFound('section');
-  await loadBatch(p, s.batchId);
+  const b = await Batch.findByPk(s.batchId, { attributes: ['id', 'projectId'] });
+  if (!b) throw notFound('section');
+  // outside a token's projects: the answer for a section that does not exist
+  assertProject(p, b.projectId, 'section');
   return s;
 }
 
@@ -59,6 +62,8 @@ export async function sectionView(p: Principal, id: number) {
     /** Who submitted the batch: they may not review it. */
     submittedBy: batch.submittedBy,
     submitter: await userRef(batch.submittedBy),
+    /** Who started the current run with edits (null: the submitted run): they may not review it. */
+    editedBy: s.editedBy ?? null,
     input: s.input,
     /** The warnings of the input checks about this section's current input. */
     inputWarnings: s.inputWarnings.map(messageView),
@@ -75,16 +80,15 @@ export interface SectionQuery {
   verdict?: string;
   sort?: string;
   order?: string;
-  page?: string;
-  pageSize?: string;
+  page: number;
+  pageSize: number;
 }
 
 /** The sections of a batch with their current result: filtered, sorted, paged. */
 export async function listSections(batch: Batch, q: SectionQuery) {
-  const page = Math.max(1, Number(q.page ?? 1) || 1);
-  const pageSize = Math.min(500, Math.max(1, Number(q.pageSize ?? 50) || 50));
+  const { page, pageSize } = q;
   const where: WhereOptions = { batchId: batch.id };
-  if (q.status) {
+  if (q.status !== undefined) {
     if (!(JOB_STATES as readonly string[]).includes(q.status)) {
       throw badRequest(`status is one of ${JOB_STATES.join(', ')}.`);
     }
@@ -96,6 +100,9 @@ export async function listSections(batch: Batch, q: SectionQuery) {
       throw badRequest(`verdict is one of ${VERDICTS.join(', ')}.`);
     }
     Object.assign(resultWhere, { verdict: q.verdict });
+  }
+  if (q.order !== undefined && q.order !== 'asc' && q.order !== 'desc') {
+    throw badRequest('order is asc or desc.');
   }
   const dir = q.order === 'desc' ? 'DESC' : 'ASC';
   const sort = q.sort ?? 'station';

@@ -3,8 +3,10 @@
  * session token (auth.ts); an admin creates, lists and revokes integration tokens here.
  */
 import crypto from 'node:crypto';
+import { Op, type Transaction } from 'sequelize';
+import { sequelize } from '../db';
 import { invalid, notFound } from '../errors';
-import { ApiToken, User } from '../models';
+import { ApiToken, Project, User } from '../models';
 import { audit } from './audit';
 import type { Principal } from './auth';
 
@@ -18,18 +20,22 @@ export async function issueToken(
   kind: 'session' | 'integration',
   hours: number,
   extra: { name?: string | null; projectIds?: number[] | null } = {},
+  transaction?: Transaction,
 ): Promise<{ token: string; row: ApiToken }> {
   const token = `${kind === 'session' ? 'sls' : 'sli'}_${crypto.randomBytes(32).toString('base64url')}`;
-  const row = await ApiToken.create({
-    userId: user.id,
-    kind,
-    name: extra.name ?? null,
-    tokenHash: hashToken(token),
-    projectIds: extra.projectIds ?? null,
-    expiresAt: new Date(Date.now() + hours * 3600 * 1000),
-    revokedAt: null,
-    lastUsedAt: null,
-  });
+  const row = await ApiToken.create(
+    {
+      userId: user.id,
+      kind,
+      name: extra.name ?? null,
+      tokenHash: hashToken(token),
+      projectIds: extra.projectIds ?? null,
+      expiresAt: new Date(Date.now() + hours * 3600 * 1000),
+      revokedAt: null,
+      lastUsedAt: null,
+    },
+    { transaction },
+  );
   return { token, row };
 }
 
@@ -44,11 +50,30 @@ export async function createIntegrationToken(
   if (!Number.isInteger(days) || days < 1 || days > 3650) {
     throw invalid('days is a whole number of days from 1 to 3650.');
   }
-  const { token, row } = await issueToken(user, 'integration', days * 24, {
-    name: body.name,
-    projectIds: body.projectIds,
+  if (body.projectIds.length > 0) {
+    const found = await Project.count({ where: { id: { [Op.in]: body.projectIds } } });
+    if (found !== body.projectIds.length)
+      throw invalid('projectIds names a project that does not exist.');
+  }
+  // The token and its audit entry together: a token whose secret was never shown cannot exist.
+  const { token, row } = await sequelize.transaction(async (transaction) => {
+    const issued = await issueToken(
+      user,
+      'integration',
+      days * 24,
+      { name: body.name, projectIds: body.projectIds },
+      transaction,
+    );
+    await audit(
+      admin.userId,
+      'create',
+      'api_token',
+      issued.row.id,
+      { userId: user.id, name: body.name },
+      transaction,
+    );
+    return issued;
   });
-  await audit(admin.userId, 'create', 'api_token', row.id, { userId: user.id, name: body.name });
   return { token, ...tokenView(row) };
 }
 
@@ -73,7 +98,9 @@ export async function listIntegrationTokens() {
 export async function revokeToken(admin: Principal, id: number) {
   const row = await ApiToken.findOne({ where: { id, kind: 'integration' } });
   if (!row) throw notFound('API token');
-  if (!row.revokedAt) await row.update({ revokedAt: new Date() });
-  await audit(admin.userId, 'revoke', 'api_token', row.id);
+  await sequelize.transaction(async (transaction) => {
+    if (!row.revokedAt) await row.update({ revokedAt: new Date() }, { transaction });
+    await audit(admin.userId, 'revoke', 'api_token', row.id, null, transaction);
+  });
   return tokenView(row);
 }

@@ -1,17 +1,23 @@
 /** Users: admins create, invite, change and disable them. */
 import crypto from 'node:crypto';
+import { badCharacter } from '@scarpline/core/input';
+import { UniqueConstraintError } from 'sequelize';
 import { sequelize } from '../db';
 import { conflict, invalid, notFound, Problem } from '../errors';
 import { ApiToken, ROLES, User, type Role } from '../models';
 import { audit } from './audit';
 import type { Principal } from './auth';
 import { invitation, mailConfigured } from './mail';
-import { hashPassword } from './passwords';
+import { checkNewPassword, hashPassword } from './passwords';
+import { API_LIMITS } from '../limits';
 import { publicUser } from './views';
 
 export async function listUsers() {
   return (await User.findAll({ order: [['id', 'ASC']] })).map(publicUser);
 }
+
+/** An address with one @, something on each side and no spaces (the mail server judges the rest). */
+const EMAIL = /^[^\s@]+@[^\s@]+$/;
 
 /** No look-alike characters (0/O, 1/l/I), so a password copied from a mail by eye still works. */
 const PASSWORD_ALPHABET = 'ABCDEFGHJKLMNPQRSTUVWXYZabcdefghijkmnopqrstuvwxyz23456789';
@@ -38,24 +44,30 @@ export async function createUser(
   body: { email: string; name: string; role: Role; password?: string },
 ) {
   if (!ROLES.includes(body.role)) throw invalid(`role is one of ${ROLES.join(', ')}.`);
-  if (body.role !== 'integration' && body.password !== undefined && body.password.length < 8) {
-    throw invalid('password needs at least 8 characters.');
-  }
+  if (body.role !== 'integration' && body.password !== undefined) checkNewPassword(body.password);
   const email = body.email.trim().toLowerCase();
+  if (!EMAIL.test(email)) throw invalid(`${email} is not an e-mail address.`);
   if (await User.findOne({ where: { email } })) throw conflict(`${email} exists already.`);
   const invite = body.role !== 'integration' && body.password === undefined;
   const password = invite ? generatePassword() : body.role === 'integration' ? null : body.password;
   const mail = invite && mailConfigured();
+  const passwordHash = password ? await hashPassword(password) : null;
   return sequelize.transaction(async (transaction) => {
     const user = await User.create(
       {
         email,
         name: body.name,
         role: body.role,
-        passwordHash: password ? await hashPassword(password) : null,
+        passwordHash,
+        // an invitation's password is replaced at the first sign-in
+        mustChangePassword: invite,
       },
       { transaction },
-    );
+    ).catch((e: unknown) => {
+      // another request made the same address in the meantime
+      if (e instanceof UniqueConstraintError) throw conflict(`${email} exists already.`);
+      throw e;
+    });
     await audit(
       admin?.userId ?? null,
       'create',
@@ -107,8 +119,15 @@ export function userChanges(body: unknown): UserChanges {
   }
   const out: UserChanges = {};
   if (b.name !== undefined) {
-    if (typeof b.name !== 'string' || b.name.trim() === '' || b.name.trim().length > 255) {
-      throw invalid('name is a string of 1 to 255 characters.');
+    if (
+      typeof b.name !== 'string' ||
+      b.name.trim() === '' ||
+      b.name.trim().length > API_LIMITS.name ||
+      badCharacter(b.name) !== null
+    ) {
+      throw invalid(
+        `name is a string of 1 to ${API_LIMITS.name} characters, without U+0000 or half a character.`,
+      );
     }
     out.name = b.name.trim();
   }

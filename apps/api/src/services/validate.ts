@@ -1,9 +1,10 @@
 /**
- * Validation of submitted files: ajv with the shared schemas, and the core's reading of them —
- * located messages, the batch header, and the sections each message concerns.
+ * Validation of submitted files by the core's reading of them — its screens, the shared schemas,
+ * its checks: located messages, the batch header, and the sections each message concerns. Pure
+ * (no database): the intake pool runs these off the main thread (intake/thread.ts).
  */
-import Ajv2020 from 'ajv/dist/2020';
 import {
+  capMessages,
   formatMessage,
   isGeoJsonCorridor,
   parseGeoJsonCorridor,
@@ -12,12 +13,7 @@ import {
   type Message,
 } from '@scarpline/core/input';
 import type { Section, UnitSystem } from '@scarpline/core/model';
-import { batchSchema, sectionSchema } from '@scarpline/schemas';
-import { invalid } from '../errors';
-
-const ajv = new Ajv2020({ allErrors: true, strict: false });
-ajv.addSchema(sectionSchema);
-const validateBatch = ajv.compile(batchSchema);
+import { invalid, Problem } from '../errors';
 
 export interface InputFile {
   name: string;
@@ -76,25 +72,24 @@ function warningsBySection(messages: readonly Message[]): SectionWarnings {
   return out;
 }
 
-/** A JSON body that must be a corridor batch: ajv first, then the core for located messages. */
-export function parseBatchBody(body: unknown, rawText: string | undefined): Parsed {
-  const text = rawText ?? JSON.stringify(body, null, 2);
-  const ok = validateBatch(body);
+/**
+ * A JSON body that must be a corridor batch, as its text: read by the core alone (its screens
+ * of the text and the data, the schema, its checks), so that nothing walks the body before
+ * the core has bounded it. A body that is not JSON is 400 (Malformed JSON), with the place.
+ */
+export function parseBatchBody(text: string): Parsed {
   const parsed = parseSections(text, 'batch.json');
   const errors = parsed.messages.filter((m) => m.severity === 'error');
-  if (!ok || errors.length > 0 || !parsed.batch) {
-    if (errors.length > 0) throw locatedError(parsed.messages);
-    // The schema said no but the core located nothing: report ajv's paths.
-    throw invalid('The batch does not match batch.schema.json.', {
-      errors: (validateBatch.errors ?? []).map((e) => ({
-        severity: 'error',
-        file: 'batch.json',
-        path: e.instancePath,
-        code: e.keyword,
-        message: e.message ?? e.keyword,
-        text: `batch.json ${e.instancePath} ${e.message ?? ''}`,
-      })),
+  if (errors.some((m) => m.code === 'syntax')) {
+    throw new Problem(400, 'Malformed JSON', formatMessage(errors[0]), {
+      errors: errors.map(messageView),
     });
+  }
+  if (errors.length > 0) throw locatedError(parsed.messages);
+  if (!parsed.batch) {
+    throw invalid(
+      'Send a corridor batch (format scarpline-batch/1) here; section files are uploaded to /projects/{id}/uploads.',
+    );
   }
   return {
     sections: parsed.sections,
@@ -130,7 +125,8 @@ export function parseFiles(files: InputFile[]): Parsed {
       featureProperties[e.id] = properties;
     }
   }
-  if (messages.some((m) => m.severity === 'error')) throw locatedError(messages);
+  // Each file's messages are capped by the core; those of many files together are capped here.
+  if (messages.some((m) => m.severity === 'error')) throw locatedError(capMessages(messages));
   if (sections.length === 0) throw invalid('No sections in the upload.');
   const ids = new Set<string>();
   for (const s of sections) {
@@ -139,7 +135,7 @@ export function parseFiles(files: InputFile[]): Parsed {
   }
   return {
     sections,
-    warnings: messages,
+    warnings: capMessages(messages),
     name: name ?? sections[0].id,
     title,
     geometries,

@@ -33,5 +33,12 @@ export async function userRef(id: number): Promise<UserRef> {
 
 /** A user as the users' admin and the user themselves see them. */
 export function publicUser(u: User) {
-  return { id: u.id, email: u.email, name: u.name, role: u.role, active: u.active };
+  return {
+    id: u.id,
+    email: u.email,
+    name: u.name,
+    role: u.role,
+    active: u.active,
+    mustChangePassword: u.mustChangePassword ?? false,
+  };
 }

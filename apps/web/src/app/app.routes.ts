@@ -11,6 +11,22 @@ export const routes: Routes = [
     loadComponent: () => import('./sign-in/sign-in').then((m) => m.SignIn),
   },
   {
+    path: 'forgot-password',
+    title: 'Forgot your password · Scarpline',
+    loadComponent: () => import('./account/forgot-password').then((m) => m.ForgotPassword),
+  },
+  {
+    path: 'reset-password',
+    title: 'Set a new password · Scarpline',
+    loadComponent: () => import('./account/reset-password').then((m) => m.ResetPassword),
+  },
+  {
+    path: 'account/password',
+    title: 'Change password · Scarpline',
+    canActivate: [roleGuard(...PEOPLE)],
+    loadComponent: () => import('./account/change-password').then((m) => m.ChangePassword),
+  },
+  {
     path: 'not-allowed',
     title: 'Not allowed · Scarpline',
     loadComponent: () => import('./shell/not-allowed').then((m) => m.NotAllowed),

@@ -1,4 +1,7 @@
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { TestBed } from '@angular/core/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import { MatMenuHarness } from '@angular/material/menu/testing';
 import { App } from './app';
 import type { Role } from './core/models';
 import { apiTestProviders } from './testing/api-testing';
@@ -8,7 +11,10 @@ async function shellAs(role: Role | null): Promise<HTMLElement> {
   if (role) signInAs(role);
   TestBed.configureTestingModule({
     imports: [App],
-    providers: apiTestProviders(),
+    providers: [
+      ...apiTestProviders(),
+      { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+    ],
   });
   const fixture = TestBed.createComponent(App);
   await fixture.whenStable();
@@ -46,10 +52,36 @@ describe('App shell', () => {
     ]);
   });
 
+  it('shows no page links until an invitation’s password is replaced', async () => {
+    signInAs('admin', { mustChangePassword: true });
+    expect(links(await shellAs(null))).toEqual([]);
+  });
+
   it('shows an engineer and a viewer only the projects', async () => {
     expect(links(await shellAs('engineer'))).toEqual(['folder_open Projects']);
     TestBed.resetTestingModule();
     sessionStorage.clear();
     expect(links(await shellAs('viewer'))).toEqual(['folder_open Projects']);
+  });
+
+  it('offers everyone signed in to change their password, in the user menu', async () => {
+    signInAs('viewer');
+    TestBed.configureTestingModule({
+      imports: [App],
+      providers: [
+        ...apiTestProviders(),
+        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+      ],
+    });
+    const fixture = TestBed.createComponent(App);
+    await fixture.whenStable();
+    const menu =
+      await TestbedHarnessEnvironment.documentRootLoader(fixture).getHarness(MatMenuHarness);
+    await menu.open();
+    const items = await Promise.all((await menu.getItems()).map((i) => i.getText()));
+    expect(items).toContain('passwordChange password');
+    const link = document.querySelector<HTMLAnchorElement>('a[href="/account/password"]');
+    expect(link?.textContent).toContain('Change password');
+    document.querySelectorAll('.cdk-overlay-container').forEach((e) => e.remove());
   });
 });

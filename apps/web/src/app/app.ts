@@ -46,6 +46,7 @@ export class App {
   protected readonly auth = inject(Auth);
   protected readonly links = computed(() => {
     const u = this.auth.user();
-    return u ? LINKS.filter((l) => l.roles.includes(u.role)) : [];
+    // none until an invitation's password is replaced: the role guard allows nothing else
+    return u && !u.mustChangePassword ? LINKS.filter((l) => l.roles.includes(u.role)) : [];
   });
 }

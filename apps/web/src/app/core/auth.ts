@@ -60,6 +60,17 @@ export class Auth {
     });
   }
 
+  /** The signed-in user as the API now gives them (after a change of password). */
+  updateUser(user: User): void {
+    const s = this.session();
+    if (s) this.keep({ ...s, user });
+  }
+
+  /** Whether the user must replace an invitation's password before anything else. */
+  mustChangePassword(): boolean {
+    return this.user()?.mustChangePassword === true;
+  }
+
   hasRole(...roles: Role[]): boolean {
     const u = this.user();
     return u !== null && roles.includes(u.role);

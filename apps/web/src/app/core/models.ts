@@ -9,6 +9,8 @@ export interface User {
   name: string;
   role: Role;
   active?: boolean;
+  /** Signed in with an invitation's password: they choose their own before anything else. */
+  mustChangePassword?: boolean;
 }
 
 export interface LoginResponse {

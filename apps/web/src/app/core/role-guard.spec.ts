@@ -39,6 +39,20 @@ describe('roleGuard', () => {
     expect(router.serializeUrl(out as UrlTree)).toBe('/not-allowed?from=%2Fadmin%2Fusers');
   });
 
+  it('sends a user with an invitation’s password to change it first, coming back after', () => {
+    signInAs('engineer', { mustChangePassword: true });
+    const router = setup();
+    const out = run(roleGuard('engineer'), '/projects/3');
+    expect(router.serializeUrl(out as UrlTree)).toBe('/account/password?next=%2Fprojects%2F3');
+    expect(run(roleGuard(), '/account/password?next=%2Fprojects%2F3')).toBe(true);
+  });
+
+  it('lets the same user anywhere once the password is their own', () => {
+    signInAs('engineer', { mustChangePassword: false });
+    setup();
+    expect(run(roleGuard('engineer'), '/projects/3')).toBe(true);
+  });
+
   it('forgets a session whose token has expired', () => {
     signInAs('admin', {}, { expiresAt: new Date(Date.now() - 1000).toISOString() });
     setup();

@@ -96,4 +96,11 @@ describe('SignIn', () => {
     await fixture.whenStable();
     expect(go).toHaveBeenCalledWith('/projects');
   });
+
+  it('offers a way to set a new password by mail', async () => {
+    const fixture = await render();
+    const el = fixture.nativeElement as HTMLElement;
+    const link = el.querySelector<HTMLAnchorElement>('a[href="/forgot-password"]');
+    expect(link?.textContent).toBe('Forgot your password?');
+  });
 });

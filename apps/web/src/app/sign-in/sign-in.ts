@@ -5,15 +5,19 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { Router } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import { Auth } from '../core/auth';
 import { toProblem } from '../core/problem';
 
-/** Sign-in with e-mail and password; back to where the user was going (?next=) after. */
+/**
+ * Sign-in with e-mail and password; back to where the user was going (?next=) after (by way of
+ * choosing their own password, when they signed in with an invitation's: the role guard).
+ */
 @Component({
   selector: 'sl-sign-in',
   imports: [
     ReactiveFormsModule,
+    RouterLink,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
