@@ -30,7 +30,7 @@ export const problemHandler: ErrorRequestHandler = (err: unknown, req, res, next
     problem = new Problem(400, 'Bad upload', String(field(err, 'message')));
   } else {
     // Unknown errors: logged here, never shown (no stack traces in responses).
-    console.error(err);
+    req.log.error({ err }, 'unhandled error');
     problem = new Problem(500, 'Internal server error', 'Something went wrong on our side.');
   }
   res
@@ -42,6 +42,8 @@ export const problemHandler: ErrorRequestHandler = (err: unknown, req, res, next
       status: problem.status,
       ...(problem.detail ? { detail: problem.detail } : {}),
       instance: req.originalUrl,
+      // The id of this request in the logs (and the X-Request-Id header): quote it to an operator.
+      requestId: req.id,
       ...problem.extra,
     });
 };
