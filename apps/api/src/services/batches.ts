@@ -12,6 +12,7 @@ import { assertProject, type Principal } from './auth';
 import { batchReview } from './reviews';
 import { sectionMessage, type Parsed } from './validate';
 import { userRef } from './views';
+import { anyWorkerAlive } from './workers';
 
 export async function submitBatch(p: Principal, projectId: number, parsed: Parsed, source: string) {
   assertProject(p, projectId);
@@ -66,6 +67,7 @@ export async function progress(batchId: number) {
   const done = count('done');
   const failed = count('failed');
   const total = done + failed + count('queued') + count('running');
+  const waiting = count('queued') + count('running') > 0;
   return {
     total,
     done,
@@ -74,6 +76,8 @@ export async function progress(batchId: number) {
     running: count('running'),
     belowRequiredFs: below,
     fraction: total ? (done + failed) / total : 1,
+    /** Sections wait and no worker is alive to take them (services/workers.ts). */
+    stalled: waiting && !(await anyWorkerAlive()),
   };
 }
 

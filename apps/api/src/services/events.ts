@@ -1,6 +1,7 @@
 /**
  * Live progress of a batch: polls the database and reports the progress object whenever it
- * changes, then a final `done`. The transport (server-sent events) is the route's business.
+ * changes (with the caution), a `stalled` event when its sections start to wait for want of a
+ * worker, then a final `done`. The transport (server-sent events) is the route's business.
  */
 import crypto from 'node:crypto';
 import { setTimeout as delay } from 'node:timers/promises';
@@ -8,9 +9,24 @@ import { CAUTION } from '@scarpline/core/caution';
 import { config } from '../config';
 import { Batch } from '../models';
 import { progress } from './batches';
+import { lastHeartbeat, stalledWords } from './workers';
+
+type Progress = Awaited<ReturnType<typeof progress>>;
 
 export type BatchEvent =
-  | { event: 'progress'; data: Awaited<ReturnType<typeof progress>> }
+  /** The progress object of GET /batches/:id, and the caution every result surface carries. */
+  | { event: 'progress'; data: Progress & { caution: string } }
+  /** The batch's sections wait and no worker is alive (progress.stalled turned true). */
+  | {
+      event: 'stalled';
+      data: {
+        id: number;
+        message: string;
+        lastHeartbeat: Date | null;
+        progress: Progress;
+        caution: string;
+      };
+    }
   | {
       event: 'done';
       data: {
@@ -34,6 +50,7 @@ export async function followBatch(
   intervalMs = config.eventPollMs,
 ): Promise<void> {
   let last = '';
+  let stalled = false;
   while (!signal.aborted) {
     const batch = await Batch.findByPk(batchId);
     if (!batch || signal.aborted) return;
@@ -41,8 +58,22 @@ export async function followBatch(
     const key = JSON.stringify(p);
     if (key !== last) {
       last = key;
-      emit({ event: 'progress', data: p });
+      emit({ event: 'progress', data: { ...p, caution: CAUTION } });
     }
+    if (p.stalled && !stalled) {
+      const seen = await lastHeartbeat();
+      emit({
+        event: 'stalled',
+        data: {
+          id: batch.id,
+          message: stalledWords(seen),
+          lastHeartbeat: seen,
+          progress: p,
+          caution: CAUTION,
+        },
+      });
+    }
+    stalled = p.stalled;
     if (batch.status === 'done') {
       emit({
         event: 'done',
