@@ -1,14 +1,15 @@
 /**
  * The process's logger: JSON lines on stdout (pino), one object a line with `level`, `time`,
- * `service` (api or worker), `pid`, `hostname` and `msg`. LOG_LEVEL sets the level (silent under
+ * `pid`, `hostname`, `service` (api or worker, once logAs has named the process) and `msg`. LOG_LEVEL sets the level (silent under
  * the tests unless set). Everything the API and the workers say goes through here.
  */
+import os from 'node:os';
 import pino from 'pino';
 import { config } from './config';
 
 export const log = pino({
   level: config.logLevel,
-  base: { service: 'api', pid: process.pid, hostname: process.env.HOSTNAME || undefined },
+  base: { pid: process.pid, hostname: os.hostname() },
   timestamp: pino.stdTimeFunctions.isoTime,
   formatters: { level: (label) => ({ level: label }) },
 });

@@ -40,17 +40,24 @@ async function start(): Promise<PgBoss> {
   b.on('error', (e: Error) => log.warn({ err: e }, `queue: ${e.message}`));
   try {
     await b.start();
-    if (!(await b.getQueue(DEAD_QUEUE))) await b.createQueue(DEAD_QUEUE, { name: DEAD_QUEUE });
-    if (!(await b.getQueue(SECTION_QUEUE))) {
-      await b.createQueue(SECTION_QUEUE, {
-        name: SECTION_QUEUE,
-        retryLimit: config.retryLimit,
-        retryDelay: config.retryDelay,
-        retryBackoff: true,
-        expireInSeconds: expireSeconds(),
-        deadLetter: DEAD_QUEUE,
+    // Processes starting at once would deadlock creating the queues: one at a time, under a
+    // transaction's advisory lock (pg-boss's own SQL runs on its pool meanwhile).
+    await sequelize.transaction(async (transaction) => {
+      await sequelize.query("SELECT pg_advisory_xact_lock(hashtext('scarpline:queues'))", {
+        transaction,
       });
-    }
+      if (!(await b.getQueue(DEAD_QUEUE))) await b.createQueue(DEAD_QUEUE, { name: DEAD_QUEUE });
+      if (!(await b.getQueue(SECTION_QUEUE))) {
+        await b.createQueue(SECTION_QUEUE, {
+          name: SECTION_QUEUE,
+          retryLimit: config.retryLimit,
+          retryDelay: config.retryDelay,
+          retryBackoff: true,
+          expireInSeconds: expireSeconds(),
+          deadLetter: DEAD_QUEUE,
+        });
+      }
+    });
   } catch (e) {
     await b.stop({ graceful: false, wait: false }).catch(() => undefined);
     throw e;

@@ -32,10 +32,24 @@ function fatal(what: string) {
   };
 }
 
+/**
+ * The migrations, one API process at a time: several may start at once against one database.
+ * A transaction's advisory lock is held while they run (on the pool's other connections).
+ */
+async function migrateUnderLock(): Promise<void> {
+  await sequelize.transaction(async (transaction) => {
+    await sequelize.query("SELECT pg_advisory_xact_lock(hashtext('scarpline:migrate'))", {
+      transaction,
+    });
+    const done = await migrate(sequelize);
+    if (done.length > 0) log.info({ migrations: done }, 'database migrated');
+  });
+}
+
 async function main(): Promise<void> {
   process.on('uncaughtException', fatal('uncaught exception'));
   process.on('unhandledRejection', fatal('unhandled rejection'));
-  await migrate(sequelize);
+  await migrateUnderLock();
   await queue();
   if (!config.smtpUrl && config.env !== 'production') {
     const port = await startSmtpFake();

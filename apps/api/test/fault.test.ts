@@ -5,9 +5,10 @@
  * the administrators).
  *
  * Real processes: a PostgreSQL cluster of this test's own (scripts/pg.js with SCARPLINE_PG_DIR
- * and SCARPLINE_PG_PORT: restarting it disturbs no other suite), the built API (dist/server.js)
- * and workers (dist/worker-main.js) as child processes, talked to over HTTP. Needs the API's
- * build (npm run build:node). Bounds on waits, never assertions on time.
+ * and SCARPLINE_PG_PORT: restarting it disturbs no other suite), two API processes
+ * (dist/server.js, started at once on an empty database: they migrate it one at a time) and
+ * workers (dist/worker-main.js) as child processes, talked to over HTTP. Needs the API's build
+ * (npm run build:node). Bounds on waits, never assertions on time.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import crypto from 'node:crypto';
@@ -122,7 +123,8 @@ async function until(what: string, limitMs: number, check: () => Promise<boolean
   }
 }
 
-let base = '';
+/** The two API processes' addresses; requests go to the first unless said. */
+let bases: string[] = [];
 let databaseUrl = '';
 let restoreEnv: () => void = () => {};
 let db: Client | null = null;
@@ -150,9 +152,11 @@ async function api(
     method?: string;
     body?: unknown;
     headers?: Record<string, string>;
+    /** Which API process: 0 or 1. */
+    at?: number;
   } = {},
 ) {
-  const res = await fetch(`${base}${route}`, {
+  const res = await fetch(`${bases[options.at ?? 0]}${route}`, {
     method: options.method ?? 'GET',
     headers: {
       ...(options.token ? { authorization: `Bearer ${options.token}` } : {}),
@@ -186,32 +190,12 @@ beforeAll(async () => {
   await admin.end();
   databaseUrl = clusterUrl.replace(/\/[^/]+$/, '/scarpline_fault');
 
-  // Migrate and make the users from here (src/ reads DATABASE_URL when first imported).
-  restoreEnv = setEnv({ DATABASE_URL: databaseUrl });
-  const { sequelize } = await import('../src/db');
-  await (await import('../src/migrate')).migrate(sequelize);
-  const { createUser } = await import('../src/services/users');
-  for (const role of ['admin', 'engineer'] as const) {
-    await createUser(null, {
-      email: `fault-${role}@test.scarpline.example`,
-      name: `Fault ${role}`,
-      role,
-      password: PASSWORD,
-    });
-  }
-  await sequelize.close();
-
-  const port = await freePort();
-  const smtp = await freePort();
-  base = `http://127.0.0.1:${port}`;
   env = {
     NODE_ENV: 'test',
     DATABASE_URL: databaseUrl,
-    PORT: String(port),
     HOST: '127.0.0.1',
     LOG_LEVEL: 'info',
     SMTP_URL: '',
-    SMTP_FAKE_PORT: String(smtp),
     MAIL_TO: '',
     HEARTBEAT_SECONDS: '0.5',
     WORKER_STALE_SECONDS: '2',
@@ -226,6 +210,14 @@ beforeAll(async () => {
 
 afterAll(async () => {
   for (const p of procs) if (alive(p)) p.child.kill('SIGTERM');
+  // FAULT_TEST_LOGS=<folder> keeps each process's log there, to read what happened.
+  const keep = process.env.FAULT_TEST_LOGS;
+  if (keep) {
+    fs.mkdirSync(keep, { recursive: true });
+    for (const p of procs) {
+      fs.writeFileSync(path.join(keep, `${p.name.replace(/\W+/g, '-')}.log`), p.lines.join('\n'));
+    }
+  }
   await Promise.all(procs.filter(alive).map((p) => new Promise((r) => p.child.once('exit', r))));
   await db?.end().catch(() => undefined);
   restoreEnv();
@@ -233,19 +225,47 @@ afterAll(async () => {
 }, 60000);
 
 test('PostgreSQL restarted and a worker killed mid-batch: every section ends once, the API stays up, the stall shows', async () => {
-  const server = launch('api', SERVER);
-  await until('the API to answer', 30000, async () => (await api('/health')).status === 200);
+  // Two API processes at once on the empty database, each with its own port and mail fake.
+  const ports = [await freePort(), await freePort()];
+  const smtp = [await freePort(), await freePort()];
+  bases = ports.map((p) => `http://127.0.0.1:${p}`);
+  const servers = [0, 1].map((i) =>
+    launch(`api ${i + 1}`, SERVER, { PORT: String(ports[i]), SMTP_FAKE_PORT: String(smtp[i]) }),
+  );
+  for (const at of [0, 1]) {
+    await until(`API ${at + 1} to answer`, 30000, async () => {
+      return (await api('/health', { at })).status === 200;
+    });
+  }
+  // They migrated it once, one after the other (an advisory lock).
+  const migrated = servers.flatMap(logOf).filter((l) => l.msg === 'database migrated');
+  expect(migrated).toHaveLength(1);
+
+  restoreEnv = setEnv({ DATABASE_URL: databaseUrl });
+  const { sequelize } = await import('../src/db');
+  const { createUser } = await import('../src/services/users');
+  for (const role of ['admin', 'engineer'] as const) {
+    await createUser(null, {
+      email: `fault-${role}@test.scarpline.example`,
+      name: `Fault ${role}`,
+      role,
+      password: PASSWORD,
+    });
+  }
+  await sequelize.close();
 
   // The API must answer /health throughout; a refused connection or a non-200 is a failure.
   const health: string[] = [];
   let probing = true;
   const prober = (async () => {
     while (probing) {
-      try {
-        const res = await fetch(`${base}/health`);
-        health.push(String(res.status));
-      } catch (e) {
-        health.push(`error: ${(e as Error).message}`);
+      for (const base of bases) {
+        try {
+          const res = await fetch(`${base}/health`);
+          health.push(String(res.status));
+        } catch (e) {
+          health.push(`error: ${(e as Error).message}`);
+        }
       }
       await new Promise((r) => setTimeout(r, 100));
     }
@@ -253,7 +273,7 @@ test('PostgreSQL restarted and a worker killed mid-batch: every section ends onc
 
   const workerA = launch('worker A', WORKER, {
     WORKER_CONCURRENCY: '1',
-    SMTP_URL: `smtp://127.0.0.1:${env.SMTP_FAKE_PORT}`,
+    SMTP_URL: `smtp://127.0.0.1:${smtp[0]}`,
   });
   await until('/ready with a worker', 30000, async () => (await api('/ready')).status === 200);
 
@@ -292,9 +312,12 @@ test('PostgreSQL restarted and a worker killed mid-batch: every section ends onc
   let following = true;
   const follower = (async () => {
     while (following) {
-      const s = openStream(`${base}/api/v1/batches/${batchId}/events?access_token=${engineer}`, {
-        'x-request-id': `fault-events-${streams.length + 1}`,
-      });
+      const s = openStream(
+        `${bases[1]}/api/v1/batches/${batchId}/events?access_token=${engineer}`,
+        {
+          'x-request-id': `fault-events-${streams.length + 1}`,
+        },
+      );
       streams.push(s);
       await s.ended;
       events.push(...s.events);
@@ -335,7 +358,7 @@ test('PostgreSQL restarted and a worker killed mid-batch: every section ends onc
     return (await ended()) >= 6 && (await running()) === 1;
   });
   expect(alive(workerA)).toBe(true);
-  expect(alive(server)).toBe(true);
+  for (const server of servers) expect(alive(server)).toBe(true);
 
   // 2. Worker A is killed in the middle of a section: no worker is left.
   workerA.child.kill('SIGKILL');
@@ -361,17 +384,22 @@ test('PostgreSQL restarted and a worker killed mid-batch: every section ends onc
   expect(notReady.body).toMatchObject({
     checks: { database: { ok: true }, workers: { ok: false } },
   });
-  const stallMails = async () =>
-    ((await api('/api/v1/mail', { token: admin })).body as unknown as { raw: string }[]).filter(
-      (x) => /^Subject: .*batch wcb-fault has stalled/m.test(x.raw),
+  // Both API processes watch for stalls; the stall is mailed once, by one of them.
+  const stallMails = async () => {
+    const inboxes = await Promise.all(
+      [0, 1].map(async (at) => (await api('/api/v1/mail', { token: admin, at })).body),
     );
+    return (inboxes as unknown as { raw: string }[][])
+      .flat()
+      .filter((x) => /^Subject: .*batch wcb-fault has stalled/m.test(x.raw));
+  };
   await until('the stall e-mail', 20000, async () => (await stallMails()).length === 1);
 
   // 3. A worker is back: the batch goes on (the killed worker's job comes back after its time
   // limit) and finishes.
   const workerB = launch('worker B', WORKER, {
     WORKER_CONCURRENCY: '1',
-    SMTP_URL: `smtp://127.0.0.1:${env.SMTP_FAKE_PORT}`,
+    SMTP_URL: `smtp://127.0.0.1:${smtp[0]}`,
   });
   await until('the batch to finish', 90000, async () => (await batch()).body.status === 'done');
   following = false;
@@ -412,7 +440,7 @@ test('PostgreSQL restarted and a worker killed mid-batch: every section ends onc
   expect(logOf(workerB).some((l) => l.msg === 'section ended')).toBe(true);
 
   // The API never went down.
-  expect(alive(server)).toBe(true);
+  for (const server of servers) expect(alive(server)).toBe(true);
   expect(health.length).toBeGreaterThan(10);
   expect(health.filter((h) => h !== '200')).toEqual([]);
 
@@ -427,7 +455,7 @@ test('PostgreSQL restarted and a worker killed mid-batch: every section ends onc
   for (const e of progress) expect(e.data.caution).toEqual(expect.stringMatching(/qualified/));
 
   // Logs: JSON lines everywhere; the event stream's request logged by its id, its token blanked.
-  const apiLog = logOf(server);
+  const apiLog = servers.flatMap(logOf);
   for (const l of [...apiLog, ...logOf(workerA), ...logOf(workerB)]) {
     expect(l).toMatchObject({ level: expect.any(String), time: expect.any(String) });
   }
@@ -436,5 +464,5 @@ test('PostgreSQL restarted and a worker killed mid-batch: every section ends onc
   );
   expect(streamLine).toBeDefined();
   expect((streamLine!.req as { url: string }).url).toMatch(/access_token=\[redacted\]/);
-  expect(server.lines.join('\n')).not.toContain(engineer);
+  for (const server of servers) expect(server.lines.join('\n')).not.toContain(engineer);
 }, 240000);

@@ -13,7 +13,7 @@ import { log, safeUrl } from '../log';
 import { httpDuration } from '../metrics';
 
 const GIVEN_ID = /^[A-Za-z0-9._:-]{1,128}$/;
-/** Asked every few seconds by load balancers and scrapers: logged only when they fail. */
+/** Asked every few seconds by load balancers and scrapers: logged only when they do not answer 2xx. */
 const QUIET = new Set(['/health', '/ready', '/metrics']);
 
 export const requestLog = pinoHttp({
@@ -25,8 +25,9 @@ export const requestLog = pinoHttp({
     return id;
   },
   customLogLevel(req, res, err) {
+    // A probe's 503 (not ready) is news, not an error of the service.
+    if (QUIET.has((req.url ?? '').split('?')[0])) return res.statusCode < 400 ? 'silent' : 'warn';
     if (err || res.statusCode >= 500) return 'error';
-    if (QUIET.has((req.url ?? '').split('?')[0])) return 'silent';
     return res.statusCode >= 400 ? 'warn' : 'info';
   },
   serializers: {
