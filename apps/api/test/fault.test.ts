@@ -123,6 +123,10 @@ async function until(what: string, limitMs: number, check: () => Promise<boolean
   }
 }
 
+/** Loops of the test that afterAll ends, should the test end early: the probe of /health, the event streams. */
+let probing = true;
+let following = true;
+const streams: OpenStream[] = [];
 /** The two API processes' addresses; requests go to the first unless said. */
 let bases: string[] = [];
 let databaseUrl = '';
@@ -209,6 +213,9 @@ beforeAll(async () => {
 }, 120000);
 
 afterAll(async () => {
+  probing = false;
+  following = false;
+  for (const s of streams) s.close();
   for (const p of procs) if (alive(p)) p.child.kill('SIGTERM');
   // FAULT_TEST_LOGS=<folder> keeps each process's log there, to read what happened.
   const keep = process.env.FAULT_TEST_LOGS;
@@ -256,7 +263,6 @@ test('PostgreSQL restarted and a worker killed mid-batch: every section ends onc
 
   // The API must answer /health throughout; a refused connection or a non-200 is a failure.
   const health: string[] = [];
-  let probing = true;
   const prober = (async () => {
     while (probing) {
       for (const base of bases) {
@@ -307,9 +313,6 @@ test('PostgreSQL restarted and a worker killed mid-batch: every section ends onc
 
   // The event stream, reopened whenever the server closes it before `done` (as EventSource does);
   // the token in the query, which the logs must not show.
-  const streams: OpenStream[] = [];
-  const events: SseEvent[] = [];
-  let following = true;
   const follower = (async () => {
     while (following) {
       const s = openStream(
@@ -320,12 +323,11 @@ test('PostgreSQL restarted and a worker killed mid-batch: every section ends onc
       );
       streams.push(s);
       await s.ended;
-      events.push(...s.events);
       if (s.events.some((e) => e.event === 'done')) return;
       await new Promise((r) => setTimeout(r, 300));
     }
   })();
-  const seen = () => [...events, ...(streams.at(-1)?.events ?? [])];
+  const seen = (): SseEvent[] => streams.flatMap((s) => s.events);
 
   const ended = async () =>
     (
