@@ -1,8 +1,8 @@
 /**
  * Where a worker analyses a section: a worker thread (solve-thread.ts) it can end. The time
- * limit is kept twice: the analysis is asked to stop itself at 90 % of it (analyzeSection's
- * shouldStop, so it usually ends first with its own account of what to change), and the thread
- * is terminated at the limit if it has not answered. A new thread is started for the next
+ * limit is kept twice: the analysis is asked to stop itself a little before it (a tenth of the
+ * limit, at least a second: analyzeSection's shouldStop, so it usually ends first with its own
+ * account of what to change), and the thread is terminated at the limit if it has not answered. A new thread is started for the next
  * section after one was terminated, failed or ran out of memory.
  */
 import fs from 'node:fs';
@@ -35,8 +35,14 @@ export type SolveOutcome =
   /** The solver was closed while it ran (the worker is stopping). */
   | { kind: 'aborted' };
 
-/** The share of the time limit at which the analysis is asked to stop itself. */
-const SOFT_SHARE = 0.9;
+/**
+ * When the analysis is asked to stop itself: a tenth of the limit before it, and at least a
+ * second (half the limit when that is shorter), so that it notices between two of its checks
+ * (every few hundred trial surfaces: up to some tenths of a second apart).
+ */
+export function softDeadline(limitMs: number): number {
+  return limitMs - Math.max(limitMs / 10, Math.min(1000, limitMs / 2));
+}
 const WHAT_TO_CHANGE =
   'use fewer grid centres, radii, moves, ground-range points or slices, or give the surface';
 
@@ -141,7 +147,7 @@ export class Solver {
       thread.on('message', onMessage);
       thread.once('error', onError);
       thread.once('exit', onExit);
-      const job: ThreadJob = { section, deadline: Date.now() + limitMs * SOFT_SHARE };
+      const job: ThreadJob = { section, deadline: Date.now() + softDeadline(limitMs) };
       thread.postMessage(job);
     });
   }

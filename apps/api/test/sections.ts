@@ -1,7 +1,11 @@
 /**
  * Sections for the worker's tests, from the example corridor (our invented Wendlecombe
- * scenario): a light one, and one whose search asks for a few seconds of work (accepted by the
- * section checks, within WORK_LIMIT), to be stopped by a small time limit.
+ * scenario): light ones (a fraction of a second), and a heavy one to be stopped by a small time
+ * limit. The heavy one is read with a search the section checks accept (HEAVY_ANALYSIS, a few
+ * seconds here) and then given a grid of HEAVY_CENTRES² centres (about ten seconds here, within
+ * the work meter's bound): the checks now refuse settings that ask for that much work, and the
+ * time limit is the second line of defence (a slower machine, an estimate that is off), which
+ * needs a section that clearly outlasts it whatever the machine's speed.
  */
 import fs from 'node:fs';
 import path from 'node:path';
@@ -15,6 +19,9 @@ export const HEAVY_ANALYSIS = {
   searchEachMethod: true,
   surface: { type: 'grid', centers: { nx: 40, ny: 40 }, radii: { count: 20 }, moves: 3 },
 };
+
+/** Centres a side of the heavy section's grid once it has been read (see above). */
+export const HEAVY_CENTRES = 100;
 
 /** The corridor batch with its first `n` sections, `analysis` merged into the template's. */
 export function corridorBatch(id: string, n: number, analysis: object = {}) {

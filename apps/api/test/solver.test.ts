@@ -8,7 +8,7 @@
 import path from 'node:path';
 import { parseSections, type Section } from '@scarpline/core';
 import { Solver } from '../src/solver';
-import { HEAVY_ANALYSIS, corridorBatch } from './sections';
+import { HEAVY_ANALYSIS, HEAVY_CENTRES, corridorBatch } from './sections';
 
 function section(analysis: object = {}): Section {
   const parsed = parseSections(JSON.stringify(corridorBatch('solver', 1, analysis)), 'solver.json');
@@ -41,11 +41,16 @@ test('a light section is analysed in the thread and its result comes back', asyn
 test('a heavy section stops itself at its time limit with what to change, and the thread goes on', async () => {
   const s = solver();
   await s.warm();
-  const outcome = await s.solve(section(HEAVY_ANALYSIS), 1000);
+  const heavy = section(HEAVY_ANALYSIS);
+  const surface = heavy.analysis.surface;
+  if (surface?.type !== 'grid') throw new Error('a grid search');
+  surface.centers = { ...(surface.centers as object), nx: HEAVY_CENTRES, ny: HEAVY_CENTRES };
+  // Asked to stop after 2 s, ended at 3 s if it has not: it stops itself first.
+  const outcome = await s.solve(heavy, 3000);
   expect(outcome).toEqual({
     kind: 'stopped',
     reason: expect.stringMatching(
-      /^stopped at its time limit after [\d,]+ trial surfaces: use fewer grid centres, radii, moves, ground-range points or slices, or give the surface \(the time limit is 1 s a section\)$/,
+      /^stopped at its time limit after [\d,]+ trial surfaces: use fewer grid centres, radii, moves, ground-range points or slices, or give the surface \(the time limit is 3 s a section\)$/,
     ),
   });
   // The same thread takes the next section.
