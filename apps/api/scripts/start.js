@@ -3,9 +3,10 @@
  * Starts the whole product on this machine: the local PostgreSQL (scripts/pg.js), the API build,
  * the web app's build when it is missing or older than its sources, migrations, the demo seed
  * (the invented Wendlecombe corridor, demo users with their passwords printed), the API and one
- * worker process, then prints the address to open. The API and the worker are kept running
- * (scripts/supervise.js): one that ends is started again after a pause, with a line that says
- * so, and a worker's end never stops the API. Ctrl-C stops the API and the worker (the database
+ * worker process, then prints the address to open and the demo users. The API and the worker
+ * log JSON lines (pino: one object a line) and are kept running (scripts/supervise.js): one
+ * that ends is started again after a pause, with a line that says so, and a worker's end never
+ * stops the API. Ctrl-C stops the API and the worker (the database
  * keeps running; `node apps/api/scripts/pg.js stop` ends it).
  */
 const { spawnSync } = require('node:child_process');
@@ -140,6 +141,21 @@ async function announce() {
       : `Scarpline: ${base}/ (placeholder page: the web app is not built)`,
   );
   console.log(`REST API: ${base}/api/v1 (documentation at ${base}/api/docs)`);
+  console.log(
+    `Health: ${base}/health, ${base}/ready; metrics: ${base}/metrics (from this machine)`,
+  );
+  printDemoUsers();
+}
+
+/** The demo users the API seeded, for the person who started it (the API itself logs JSON). */
+function printDemoUsers() {
+  const { DEMO_USERS } = require(path.join(API_DIR, 'dist/demo-users.js'));
+  console.log('demo users (e-mail / password):');
+  for (const u of DEMO_USERS) {
+    console.log(
+      `  ${u.role.padEnd(12)} ${u.email.padEnd(32)} ${u.password ?? '(API tokens only)'}`,
+    );
+  }
 }
 
 async function main() {

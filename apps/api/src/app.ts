@@ -8,9 +8,10 @@ import { config } from './config';
 import { authenticate } from './middleware/auth';
 import { bodies } from './middleware/bodies';
 import { hstsOverHttps, noStore } from './middleware/headers';
+import { requestLog, requestMetrics } from './middleware/observe';
 import { notFoundRoute, problemHandler } from './middleware/problem';
 import { hasWebBuild, webRoutes } from './middleware/web';
-import { authenticatedRoutes, publicRoutes } from './routes';
+import { authenticatedRoutes, publicRoutes, rootRoutes } from './routes';
 
 const SCHEMAS_DIR = path.dirname(require.resolve('@scarpline/schemas/package.json'));
 const SCHEMA_FILES = [
@@ -30,6 +31,8 @@ export function createApp(options: { homePage?: string } = {}): express.Express 
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy);
+  // A request id, a log line and a timing for every request (README: "Logs and metrics").
+  app.use(requestLog, requestMetrics);
   app.use(helmet({ strictTransportSecurity: false }), hstsOverHttps);
   app.use(cors({ origin: config.corsOrigin ? config.corsOrigin.split(',') : false }));
   app.use(bodies);
@@ -44,6 +47,9 @@ export function createApp(options: { homePage?: string } = {}): express.Express 
     swaggerUi.serve,
     swaggerUi.setup(undefined, { swaggerOptions: { url: '/api/schemas/openapi.json' } }),
   );
+
+  // Health, readiness and metrics, at the root and without a token.
+  for (const r of rootRoutes) app.use(r);
 
   const v1 = express.Router();
   v1.use(noStore);

@@ -6,8 +6,6 @@ export interface Config {
   env: 'development' | 'test' | 'production';
   databaseUrl: string;
   port: number;
-  /** The address the API listens on (loopback unless a host of a network is meant). */
-  host: string;
   /** Lifetime of a sign-in token, in hours. */
   sessionHours: number;
   /**
@@ -47,7 +45,10 @@ export interface Config {
   smtpFakePort: number;
   mailFrom: string;
   mailTo: string;
-  /** Queue: attempts after the first, first retry delay (s), per-job time limit (s). */
+  /**
+   * Queue: attempts after the first, first retry delay (s), and the time limit of a section's
+   * analysis (s): its thread is stopped there and the section ends failed, without retries.
+   */
   retryLimit: number;
   retryDelay: number;
   jobTimeout: number;
@@ -64,6 +65,21 @@ export interface Config {
   webDist: string;
   /** The address people open the web app at, written into invitation e-mails. */
   publicUrl: string;
+  // Operations (README "Running in production"): pools, heartbeats, the solver, logs, metrics.
+  /** The address the API listens on: 127.0.0.1 by default; 0.0.0.0 behind a load balancer. */
+  host: string;
+  /** Database connections a process may hold: Sequelize's pool and pg-boss's pool. */
+  databasePoolMax: number;
+  queuePoolMax: number;
+  /** How often a worker writes its heartbeat, and how long without one makes it gone (s). */
+  heartbeatSeconds: number;
+  workerStaleSeconds: number;
+  /** The heap a section's analysis thread may grow to (MB); past it the thread ends. */
+  solverMemoryMb: number;
+  /** pino's level: fatal, error, warn, info, debug, trace or silent. */
+  logLevel: string;
+  /** A bearer token /metrics asks for; empty: /metrics answers loopback addresses only. */
+  metricsToken: string;
 }
 
 function num(name: string, fallback: number): number {
@@ -80,14 +96,24 @@ function trust(v: string | undefined): boolean | number | string {
   return /^\d+$/.test(v) ? Number(v) : v;
 }
 
+/**
+ * Without DATABASE_URL: the checkout's own local cluster (scripts/pg.js, whose port is the
+ * checkout's); in production DATABASE_URL must be given.
+ */
+function localDatabaseUrl(env: Config['env']): string {
+  if (env === 'production') throw new Error('DATABASE_URL must be set in production');
+  // eslint-disable-next-line @typescript-eslint/no-require-imports
+  const pg = require('../scripts/pg.js') as { urlFor(database: string): string };
+  return pg.urlFor('scarpline');
+}
+
 function read(): Config {
   const env = (process.env.NODE_ENV ?? 'development') as Config['env'];
   const port = num('PORT', 8080);
   return {
     env,
-    databaseUrl: process.env.DATABASE_URL ?? 'postgres://postgres@127.0.0.1:54329/scarpline',
+    databaseUrl: process.env.DATABASE_URL || localDatabaseUrl(env),
     port,
-    host: process.env.HOST ?? '127.0.0.1',
     sessionHours: num('SESSION_HOURS', 12),
     jsonLimit: num('JSON_LIMIT', 5 * 1024 * 1024),
     bodyLimit: num('BODY_LIMIT', 100 * 1024),
@@ -118,6 +144,14 @@ function read(): Config {
     // src/ or dist/ → the api package → apps/web/dist/browser
     webDist: path.resolve(process.env.WEB_DIST || path.join(__dirname, '../../web/dist/browser')),
     publicUrl: process.env.PUBLIC_URL || `http://127.0.0.1:${port}/`,
+    host: process.env.HOST || '127.0.0.1',
+    databasePoolMax: num('DATABASE_POOL_MAX', 10),
+    queuePoolMax: num('QUEUE_POOL_MAX', 4),
+    heartbeatSeconds: num('HEARTBEAT_SECONDS', 5),
+    workerStaleSeconds: num('WORKER_STALE_SECONDS', 20),
+    solverMemoryMb: num('SOLVER_MEMORY_MB', 2048),
+    logLevel: process.env.LOG_LEVEL || (env === 'test' ? 'silent' : 'info'),
+    metricsToken: process.env.METRICS_TOKEN ?? '',
   };
 }
 

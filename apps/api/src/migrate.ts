@@ -6,6 +6,7 @@ import * as second from './migrations/0002-reviews-runs-geometry';
 import * as third from './migrations/0003-section-input-warnings';
 import * as fourth from './migrations/0004-verdicts-feature-properties';
 import * as fifth from './migrations/0005-accounts-and-editors';
+import * as sixth from './migrations/0006-worker-heartbeats';
 
 export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
   return new Umzug({
@@ -15,6 +16,7 @@ export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
       { name: '0003-section-input-warnings', up: third.up, down: third.down },
       { name: '0004-verdicts-feature-properties', up: fourth.up, down: fourth.down },
       { name: '0005-accounts-and-editors', up: fifth.up, down: fifth.down },
+      { name: '0006-worker-heartbeats', up: sixth.up, down: sixth.down },
     ],
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),

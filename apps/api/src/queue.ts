@@ -1,7 +1,9 @@
 /** pg-boss 10 in the application database: one job per section, retries, dead letters. */
 import PgBoss from 'pg-boss';
-import type { Transaction } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { config } from './config';
+import { sequelize } from './db';
+import { log } from './log';
 import type pg from 'pg';
 
 export const SECTION_QUEUE = 'section-analysis';
@@ -12,39 +14,105 @@ export interface SectionJob {
   run: number;
 }
 
-let boss: PgBoss | null = null;
+/**
+ * How long a job may stay active before the queue's maintenance takes it back and hands it to
+ * another worker (its worker died): the time limit of an analysis (JOB_TIMEOUT), which the worker
+ * enforces itself, plus time to write the result.
+ */
+export function expireSeconds(): number {
+  return Math.ceil(config.jobTimeout + Math.max(5, config.jobTimeout / 10));
+}
 
-/** The process's pg-boss, started and with its queues created (idempotent). */
-export async function queue(): Promise<PgBoss> {
-  if (boss) return boss;
+let boss: PgBoss | null = null;
+let starting: Promise<PgBoss> | null = null;
+/** What stops with the queue: the worker loops of this process (worker.ts). */
+const stoppers = new Set<() => Promise<void>>();
+
+async function start(): Promise<PgBoss> {
   const b = new PgBoss({
     connectionString: config.databaseUrl,
     schema: 'pgboss',
-    max: 4,
+    max: config.queuePoolMax,
     maintenanceIntervalSeconds: config.queueMaintenance,
   });
-  b.on('error', (e) => console.error('queue:', e.message));
-  await b.start();
-  if (!(await b.getQueue(DEAD_QUEUE))) await b.createQueue(DEAD_QUEUE, { name: DEAD_QUEUE });
-  if (!(await b.getQueue(SECTION_QUEUE))) {
-    await b.createQueue(SECTION_QUEUE, {
-      name: SECTION_QUEUE,
-      retryLimit: config.retryLimit,
-      retryDelay: config.retryDelay,
-      retryBackoff: true,
-      expireInSeconds: config.jobTimeout,
-      deadLetter: DEAD_QUEUE,
+  // pg-boss reports the errors of its pool, maintenance and monitoring here (a database that
+  // restarts, say); without a listener an 'error' event would end the process.
+  b.on('error', (e: Error) => log.warn({ err: e }, `queue: ${e.message}`));
+  try {
+    await b.start();
+    // Processes starting at once would deadlock creating the queues: one at a time, under a
+    // transaction's advisory lock (pg-boss's own SQL runs on its pool meanwhile).
+    await sequelize.transaction(async (transaction) => {
+      await sequelize.query("SELECT pg_advisory_xact_lock(hashtext('scarpline:queues'))", {
+        transaction,
+      });
+      if (!(await b.getQueue(DEAD_QUEUE))) await b.createQueue(DEAD_QUEUE, { name: DEAD_QUEUE });
+      if (!(await b.getQueue(SECTION_QUEUE))) {
+        await b.createQueue(SECTION_QUEUE, {
+          name: SECTION_QUEUE,
+          retryLimit: config.retryLimit,
+          retryDelay: config.retryDelay,
+          retryBackoff: true,
+          expireInSeconds: expireSeconds(),
+          deadLetter: DEAD_QUEUE,
+        });
+      }
     });
+  } catch (e) {
+    await b.stop({ graceful: false, wait: false }).catch(() => undefined);
+    throw e;
   }
-  boss = b;
   return b;
 }
 
+/** The process's pg-boss, started and with its queues created (idempotent; retried after a failure). */
+export async function queue(): Promise<PgBoss> {
+  if (boss) return boss;
+  starting ??= start().then(
+    (b) => {
+      boss = b;
+      starting = null;
+      return b;
+    },
+    (e: unknown) => {
+      starting = null;
+      throw e;
+    },
+  );
+  return starting;
+}
+
+/** Whether this process's queue has started. */
+export function queueStarted(): boolean {
+  return boss !== null;
+}
+
+/** Registers something to stop before the queue does (a worker's loops); returns its removal. */
+export function onQueueStop(stop: () => Promise<void>): () => void {
+  stoppers.add(stop);
+  return () => stoppers.delete(stop);
+}
+
 export async function stopQueue(): Promise<void> {
+  const waiting = [...stoppers];
+  stoppers.clear();
+  await Promise.all(waiting.map((s) => s()));
+  if (starting) await starting.catch(() => undefined);
   if (!boss) return;
   const b = boss;
   boss = null;
   await b.stop({ graceful: true, wait: true, timeout: 5000 });
+}
+
+/** Jobs of the section queues waiting (created, retry) and being worked on (active), by queue. */
+export async function queueDepth(): Promise<{ queue: string; state: string; jobs: number }[]> {
+  const rows = await sequelize.query<{ name: string; state: string; n: string }>(
+    `SELECT name, state::text AS state, count(*) AS n FROM pgboss.job
+      WHERE name IN ($1, $2) AND state IN ('created', 'retry', 'active')
+      GROUP BY name, state`,
+    { bind: [SECTION_QUEUE, DEAD_QUEUE], type: QueryTypes.SELECT },
+  );
+  return rows.map((r) => ({ queue: r.name, state: r.state, jobs: Number(r.n) }));
 }
 
 /**
@@ -64,7 +132,7 @@ export async function enqueueSections(jobs: SectionJob[], transaction: Transacti
       retryLimit: config.retryLimit,
       retryDelay: config.retryDelay,
       retryBackoff: true,
-      expireInSeconds: config.jobTimeout,
+      expireInSeconds: expireSeconds(),
       deadLetter: DEAD_QUEUE,
     })),
     { db },

@@ -1,38 +1,13 @@
 /** Demo data: users of every role and the invented Wendlecombe corridor. Idempotent. */
 import fs from 'node:fs';
 import path from 'node:path';
-import { Project, User, type Role } from './models';
+import { DEMO_USERS } from './demo-users';
+import { Project, User } from './models';
 import { submitBatch } from './services/batches';
 import { createUser } from './services/users';
 import { parseFiles } from './services/validate';
 
-export const DEMO_USERS: { email: string; name: string; role: Role; password?: string }[] = [
-  {
-    email: 'admin@wendlecombe.example',
-    name: 'Ada Admin',
-    role: 'admin',
-    password: 'demo-admin-2931',
-  },
-  {
-    email: 'engineer@wendlecombe.example',
-    name: 'Evan Engineer',
-    role: 'engineer',
-    password: 'demo-engineer-4417',
-  },
-  {
-    email: 'reviewer@wendlecombe.example',
-    name: 'Rhea Reviewer',
-    role: 'reviewer',
-    password: 'demo-reviewer-8062',
-  },
-  {
-    email: 'viewer@wendlecombe.example',
-    name: 'Vic Viewer',
-    role: 'viewer',
-    password: 'demo-viewer-5380',
-  },
-  { email: 'gis-feed@wendlecombe.example', name: 'GIS feed', role: 'integration' },
-];
+export { DEMO_USERS };
 
 export async function seedDemo(corridorFile: string): Promise<{ created: boolean }> {
   for (const u of DEMO_USERS) {

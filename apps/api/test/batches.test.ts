@@ -252,6 +252,6 @@ test('a section the solver throws on is retried, then ends failed with its reaso
   expect(done.progress).toMatchObject({ total: 1, done: 0, failed: 1 });
   const s = await SectionRow.findOne({ where: { batchId: b.id } });
   expect(s?.status).toBe('failed');
-  expect(s?.failReason).toMatch(/^attempt 3: solver error: /);
+  expect(s?.failReason).toMatch(/^gave up after 3 attempts: attempt 3: solver error: /);
   expect(await ResultRow.count({ where: { sectionId: s!.id } })).toBe(0);
 });

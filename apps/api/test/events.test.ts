@@ -97,8 +97,10 @@ test('the event stream reports progress as it changes and ends with done', async
   const final = await request(app)
     .get(`/api/v1/batches/${post.body.id}`)
     .auth(viewer, { type: 'bearer' });
-  // The last progress event is the same object GET /batches/:id shows.
-  expect(progress[progress.length - 1]).toEqual(final.body.progress);
+  // The last progress event is the same object GET /batches/:id shows, with the caution: every
+  // progress event carries it, not only done.
+  expect(progress[progress.length - 1]).toEqual({ ...final.body.progress, caution: CAUTION });
+  for (const p of progress) expect(p).toMatchObject({ caution: CAUTION });
   expect(final.body.progress).toMatchObject({ total: 4, done: 4, queued: 0, running: 0 });
   expect(events[events.length - 1].data).toMatchObject({
     id: post.body.id,

@@ -3,7 +3,7 @@ import path from 'node:path';
 import request from 'supertest';
 import { createApp } from '../src/app';
 import { sequelize } from '../src/db';
-import { authenticatedRoutes, publicRoutes } from '../src/routes';
+import { authenticatedRoutes, publicRoutes, rootRoutes } from '../src/routes';
 
 const doc = JSON.parse(
   fs.readFileSync(path.resolve(__dirname, '../../../schemas/openapi.json'), 'utf8'),
@@ -18,10 +18,10 @@ interface Layer {
   route?: { path: string; methods: Record<string, boolean> };
 }
 
-/** Every method and path the /api/v1 routers register, in OpenAPI's {param} form. */
-function registered(): string[] {
+/** Every method and path the routers register, in OpenAPI's {param} form. */
+function registered(routers = [...rootRoutes, ...publicRoutes, ...authenticatedRoutes]): string[] {
   const out: string[] = [];
-  for (const r of [...publicRoutes, ...authenticatedRoutes]) {
+  for (const r of routers) {
     for (const layer of r.stack as Layer[]) {
       if (!layer.route) continue;
       const p = layer.route.path.replace(/:(\w+)/g, '{$1}');
@@ -40,6 +40,26 @@ test('every route the app registers is in the OpenAPI document, and nothing else
   const routes = registered();
   expect(routes.length).toBeGreaterThan(20);
   expect(documented()).toEqual(routes);
+});
+
+test('the routes at the root (health, readiness, metrics) are documented at the root, without a token', () => {
+  const atRoot = Object.entries(doc.paths as Record<string, Record<string, { servers?: unknown }>>)
+    .flatMap(([p, ops]) =>
+      Object.entries(ops)
+        .filter(
+          ([, op]) =>
+            JSON.stringify(op.servers) ===
+            JSON.stringify([
+              { url: '/', description: 'At the root of the service, outside /api/v1' },
+            ]),
+        )
+        .map(([m]) => `${m} ${p}`),
+    )
+    .sort();
+  expect(atRoot).toEqual(registered([...rootRoutes]));
+  expect(atRoot).toEqual(['get /health', 'get /metrics', 'get /ready']);
+  expect(doc.paths['/health'].get.security).toEqual([]);
+  expect(doc.paths['/ready'].get.security).toEqual([]);
 });
 
 test('the document is OpenAPI 3.1 and its roles match what the routes enforce', () => {

@@ -82,14 +82,15 @@ export function problemOf(err: unknown): Problem {
       'The database cannot be reached just now; try again in a little while.',
     );
   }
-  // Unknown errors: logged here, never shown (no stack traces in responses).
-  console.error(err);
+  // Unknown errors: logged by the handler, never shown (no stack traces in responses).
   return new Problem(500, 'Internal server error', 'Something went wrong on our side.');
 }
 
 export const problemHandler: ErrorRequestHandler = (err: unknown, req, res, next) => {
   if (res.headersSent) return next(err);
   const problem = problemOf(err);
+  // Unknown errors: logged here with the request's id, never shown (no stack traces).
+  if (problem.status === 500) req.log.error({ err }, 'unhandled error');
   if (problem.status === 503) res.set('Retry-After', '5');
   if (problem.status === 411 || problem.status === 413) res.set('Connection', 'close');
   res
@@ -101,6 +102,8 @@ export const problemHandler: ErrorRequestHandler = (err: unknown, req, res, next
       status: problem.status,
       ...(problem.detail ? { detail: problem.detail } : {}),
       instance: req.originalUrl,
+      // The id of this request in the logs (and the X-Request-Id header): quote it to an operator.
+      requestId: req.id,
       ...problem.extra,
     });
 };

@@ -36,3 +36,4 @@ export { ResultRow } from './result';
 export { Review } from './review';
 export { SectionRow, type SectionStatus } from './section';
 export { ROLES, User, type Role } from './user';
+export { WorkerHeartbeat } from './worker-heartbeat';

@@ -8,7 +8,9 @@ import { authRoutes } from './auth';
 import { batchRoutes } from './batches';
 import { eventRoutes } from './events';
 import { exportRoutes } from './exports';
+import { healthRoutes } from './health';
 import { mailRoutes } from './mail';
+import { metricsRoutes } from './metrics';
 import { passwordResetRoutes } from './password-resets';
 import { projectRoutes } from './projects';
 import { reviewRequestRoutes } from './review-requests';
@@ -19,6 +21,9 @@ import { tokenRoutes } from './tokens';
 import { userRoutes } from './users';
 
 export const publicRoutes: readonly Router[] = [authRoutes, passwordResetRoutes];
+
+/** Routes at the root, outside /api/v1 and without a token: health, readiness, metrics. */
+export const rootRoutes: readonly Router[] = [healthRoutes, metricsRoutes];
 
 export const authenticatedRoutes: readonly Router[] = [
   userRoutes,

@@ -12,6 +12,7 @@ import { assertProject, type Principal } from './auth';
 import { batchReview } from './reviews';
 import { sectionMessage, type Parsed } from './validate';
 import { userRef } from './views';
+import { anyWorkerAlive } from './workers';
 
 /** The project, which the principal may use; 404 when it does not exist or is not theirs. */
 export async function loadProject(p: Principal, projectId: number): Promise<Project> {
@@ -72,6 +73,7 @@ export async function progress(batchId: number) {
   const done = count('done');
   const failed = count('failed');
   const total = done + failed + count('queued') + count('running');
+  const waiting = count('queued') + count('running') > 0;
   return {
     total,
     done,
@@ -80,6 +82,8 @@ export async function progress(batchId: number) {
     running: count('running'),
     belowRequiredFs: below,
     fraction: total ? (done + failed) / total : 1,
+    /** Sections wait and no worker is alive to take them (services/workers.ts). */
+    stalled: waiting && !(await anyWorkerAlive()),
   };
 }
 

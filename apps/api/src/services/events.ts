@@ -1,6 +1,7 @@
 /**
  * Live progress of a batch: one poller per batch reads the database and every stream of the
- * batch reports the progress object whenever it changes, then a final `done`. The transport
+ * batch reports the progress object whenever it changes (with the caution), a `stalled` event
+ * when its sections start to wait for want of a worker, then a final `done`. The transport
  * (server-sent events) is the route's business.
  */
 import crypto from 'node:crypto';
@@ -9,9 +10,24 @@ import { CAUTION } from '@scarpline/core/caution';
 import { config } from '../config';
 import { Batch } from '../models';
 import { progress } from './batches';
+import { lastHeartbeat, stalledWords } from './workers';
+
+type Progress = Awaited<ReturnType<typeof progress>>;
 
 export type BatchEvent =
-  | { event: 'progress'; data: Awaited<ReturnType<typeof progress>> }
+  /** The progress object of GET /batches/:id, and the caution every result surface carries. */
+  | { event: 'progress'; data: Progress & { caution: string } }
+  /** The batch's sections wait and no worker is alive (progress.stalled turned true). */
+  | {
+      event: 'stalled';
+      data: {
+        id: number;
+        message: string;
+        lastHeartbeat: Date | null;
+        progress: Progress;
+        caution: string;
+      };
+    }
   | {
       event: 'done';
       data: {
@@ -30,7 +46,9 @@ type Snapshot =
       id: number;
       status: string;
       finishedAt: Date | null;
-      progress: Awaited<ReturnType<typeof progress>>;
+      progress: Progress;
+      /** The last heartbeat of any worker, read only while the batch is stalled. */
+      lastHeartbeat: Date | null;
     }
   | { gone: true };
 
@@ -46,12 +64,14 @@ const pollers = new Map<number, Poller>();
 async function snapshot(batchId: number): Promise<Snapshot> {
   const batch = await Batch.findByPk(batchId);
   if (!batch) return { gone: true };
+  const p = await progress(batchId);
   return {
     gone: false,
     id: batch.id,
     status: batch.status,
     finishedAt: batch.finishedAt,
-    progress: await progress(batchId),
+    progress: p,
+    lastHeartbeat: p.stalled ? await lastHeartbeat() : null,
   };
 }
 
@@ -121,6 +141,7 @@ export async function followBatch(
 ): Promise<void> {
   if (signal.aborted) return;
   let last = '';
+  let stalled = false;
   await new Promise<void>((resolve) => {
     let ended = false;
     let stop: (() => void) | null = null;
@@ -139,8 +160,21 @@ export async function followBatch(
         const key = JSON.stringify(s.progress);
         if (key !== last) {
           last = key;
-          emit({ event: 'progress', data: s.progress });
+          emit({ event: 'progress', data: { ...s.progress, caution: CAUTION } });
         }
+        if (s.progress.stalled && !stalled) {
+          emit({
+            event: 'stalled',
+            data: {
+              id: s.id,
+              message: stalledWords(s.lastHeartbeat),
+              lastHeartbeat: s.lastHeartbeat,
+              progress: s.progress,
+              caution: CAUTION,
+            },
+          });
+        }
+        stalled = s.progress.stalled;
         if (s.status === 'done') {
           emit({
             event: 'done',

@@ -8,6 +8,7 @@ import { SMTPServer } from 'smtp-server';
 import { CAUTION } from '@scarpline/core/caution';
 import { fsText, JOB_STATE_WORDS, VERDICT_WORDS, VERDICTS } from '@scarpline/core/verdict';
 import { config } from '../config';
+import { log } from '../log';
 import { Batch, SectionRow, User } from '../models';
 import { progress, verdictCounts } from './batches';
 
@@ -101,7 +102,7 @@ async function send(to: string[], subject: string, text: string): Promise<boolea
     return true;
   } catch (e) {
     // Mail is a notice, not part of the result: a failed send is logged, never fatal.
-    console.error('mail:', (e as Error).message);
+    log.warn({ err: e, to, subject }, `mail: not sent (${(e as Error).message})`);
     return false;
   }
 }
@@ -216,6 +217,31 @@ export async function passwordResetLink(
       link,
       '',
       'If you did not ask for this, ignore this message: your password stays as it is.',
+    ].join('\n'),
+  );
+}
+
+/**
+ * Tells the administrators (active admin users and MAIL_TO) that a batch has stalled: its
+ * sections wait and no worker is alive. Sent once per stall (services/workers.ts).
+ */
+export async function batchStalled(batchId: number, why: string): Promise<boolean> {
+  const batch = await Batch.findByPk(batchId);
+  if (!batch) return false;
+  const admins = await User.findAll({ where: { role: 'admin', active: true } });
+  const to = [...new Set([...admins.map((u) => u.email), ...config.mailTo.split(',')])]
+    .map((s) => s.trim())
+    .filter(Boolean);
+  const p = await progress(batchId);
+  return send(
+    to,
+    `Scarpline: batch ${batch.name} has stalled (no worker is running)`,
+    [
+      `Batch ${batch.id} (${batch.name}) has ${p.queued + p.running} of ${p.total} sections waiting.`,
+      why,
+      '',
+      'Start a worker (npm run worker, or the service that runs the workers), and look at the',
+      "workers' logs for why they ended. GET /ready answers 503 while no worker is alive.",
     ].join('\n'),
   );
 }

@@ -102,6 +102,36 @@ describe('BatchDetail', () => {
     fixture.destroy();
   });
 
+  it('says in words when the batch has stalled (no worker running), and stops saying it', async () => {
+    const fixture = TestBed.createComponent(BatchDetail);
+    fixture.componentRef.setInput('id', '5');
+    await fixture.whenStable();
+    backend.expectOne('/api/v1/batches/5').flush(batch('running', progress(1)));
+    await fixture.whenStable();
+    flushData();
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    const banner = () => el.querySelector('[data-testid=batch-stalled]');
+    expect(banner()).toBeNull();
+
+    live.next({
+      status: 'running',
+      progress: { ...progress(1), stalled: true },
+      finishedAt: null,
+      via: 'events',
+    });
+    await fixture.whenStable();
+    expect(banner()?.getAttribute('role')).toBe('alert');
+    expect(banner()?.textContent?.replace(/\s+/g, ' ').trim()).toBe(
+      'hourglass_disabled Stalled: no worker is running, so 2 sections are waiting. They go on by themselves once a worker is back; administrators are told by e-mail.',
+    );
+
+    live.next({ status: 'running', progress: progress(2), finishedAt: null, via: 'events' });
+    await fixture.whenStable();
+    expect(banner()).toBeNull();
+    fixture.destroy();
+  });
+
   it('does not follow a batch that has finished', async () => {
     const fixture = TestBed.createComponent(BatchDetail);
     fixture.componentRef.setInput('id', '5');

@@ -26,6 +26,8 @@ export interface BatchProgress {
   belowRequiredFs: number;
   /** (done + failed) / total; 1 for an empty batch. */
   fraction: number;
+  /** Sections wait and no worker is alive to take them (the API's heartbeats tell). */
+  stalled: boolean;
 }
 
 /** GET /batches/:id and each item of GET /projects/:id/batches. */

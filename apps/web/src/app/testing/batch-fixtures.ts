@@ -11,6 +11,7 @@ export function progressOf(done: number, total: number, failed = 0): BatchProgre
     running: 0,
     belowRequiredFs: 0,
     fraction: total === 0 ? 1 : (done + failed) / total,
+    stalled: false,
   };
 }
 
