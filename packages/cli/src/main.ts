@@ -27,7 +27,7 @@ function withOverrides(cmd: Command): Command {
   return cmd
     .option(
       '-m, --method <ids>',
-      "methods to run instead of the file's (comma list or repeated): ordinary, bishop, janbu, spencer, morgenstern-price, swedish-circle, log-spiral, infinite-slope",
+      "methods to run instead of the file's (comma list or repeated): ordinary, bishop, janbu, spencer, morgenstern-price, phi-zero-circle, log-spiral, infinite-slope",
       collect,
     )
     .option('--slices <n>', "number of slices instead of the file's")
@@ -83,7 +83,7 @@ withOverrides(
     `
 Examples:
   $ scarpline analyze examples/cut-homogeneous.yaml
-  $ scarpline analyze examples/levee-river-side.yaml --json > levee.json
+  $ scarpline analyze examples/levee-land-side.yaml --json > levee.json
   $ scarpline analyze examples/*.yaml --csv --method bishop,spencer --slices 60
   $ cat section.yaml | scarpline analyze - --units us
 ${EXIT}`,
@@ -198,7 +198,7 @@ withOverrides(
     'after',
     `
 Examples:
-  $ scarpline plot examples/levee-river-side.yaml --svg levee.svg
+  $ scarpline plot examples/levee-land-side.yaml --svg levee.svg
   $ scarpline plot examples/embankment-stages.yaml --svg stages.svg --section wcb-2940-R-lt
 
 Exit status: 0 when drawn, 1 when the file is invalid.`,
@@ -259,7 +259,7 @@ Examples:
   $ scarpline init --kind cut my-cut.yaml
   $ scarpline validate examples/*
   $ scarpline analyze examples/cut-homogeneous.yaml
-  $ scarpline plot examples/levee-river-side.yaml --svg levee.svg
+  $ scarpline plot examples/levee-land-side.yaml --svg levee.svg
   $ scarpline batch examples/corridor/corridor.json --out results/
 ${EXIT}`,
 );

@@ -17,7 +17,7 @@ describe('scarpline analyze', () => {
     const { code, out } = run([
       'analyze',
       'examples/cut-surcharge-seismic.yaml',
-      'examples/levee-river-side.yaml',
+      'examples/levee-land-side.yaml',
       '--json',
     ]);
     const doc = JSON.parse(out) as { caution: string; sections: unknown[] };
@@ -65,7 +65,7 @@ describe('scarpline analyze', () => {
       s.results.filter((m) => m.converged).map((m) => m.method),
     );
     expect(methods).toEqual(
-      expect.arrayContaining(['infinite-slope', 'swedish-circle', 'log-spiral', 'bishop']),
+      expect.arrayContaining(['infinite-slope', 'phi-zero-circle', 'log-spiral', 'bishop']),
     );
   });
 });

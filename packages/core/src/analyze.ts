@@ -2,12 +2,7 @@ import { CAUTION } from './caution';
 import { METHODS } from './methods/registry';
 import type { MethodWarning } from './methods/types';
 import { notRun, runOnPlane, runOnSurface } from './method-report';
-import type {
-  CircleSurface,
-  MethodId,
-  PolylineSurface,
-  Section,
-} from './model/types';
+import type { CircleSurface, MethodId, PolylineSurface, Section } from './model/types';
 import type { MethodReport, SectionResult, Warning } from './result';
 import { resultInUnits } from './result-units';
 import { refineCircle } from './search/refine-circle';
@@ -44,7 +39,7 @@ function ownCircle(
     { center: start.center, radius: start.radius, fs: f0, stage: 'polish', boundary: -1 },
     start.radius / 20,
     evaluate,
-    new Trials(1),
+    new Trials(),
   ).to;
   return { type: 'circle', center: best.center, radius: best.radius };
 }

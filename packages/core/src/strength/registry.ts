@@ -3,7 +3,7 @@ import type { Strength } from '../model/types';
 import type { QuantityKind } from '../model/units';
 import { mohrCoulomb } from './mohr-coulomb';
 import { rigid } from './rigid';
-import type { LinearStrength, StrengthModel, StrengthNote } from './types';
+import type { LinearStrength, MaterialTint, StrengthModel, StrengthNote } from './types';
 import { undrained } from './undrained';
 
 /**
@@ -24,7 +24,7 @@ const modelOf = (s: { model: Strength['model'] }) =>
 
 /** The settings of a file's strength with a dimension (for the conversion to SI). */
 export const strengthQuantities = (raw: RawStrength): Partial<Record<string, QuantityKind>> =>
-  modelOf(raw).quantities as Partial<Record<string, QuantityKind>>;
+  modelOf(raw).quantities;
 /** The normalised strength of a file's. */
 export const normaliseStrength = (raw: RawStrength): Strength => modelOf(raw).normalise(raw);
 /** What a file writes for a strength. */
@@ -40,5 +40,7 @@ export const describeStrength = (
 export const linearStrength = (s: Strength): LinearStrength | null => modelOf(s).linear(s);
 /** The Rankine depth of a tension crack in a material of this strength and unit weight γ. */
 export const crackDepthIn = (s: Strength, gamma: number): number => modelOf(s).crackDepth(s, gamma);
+/** Its kind and representative strength, for the colour of a drawing. */
+export const strengthTint = (s: Strength): MaterialTint => modelOf(s).tint(s);
 /** A rigid base: no slip surface enters it. */
 export const isRigid = (s: Strength): boolean => linearStrength(s) === null;
