@@ -5,6 +5,7 @@ import * as initial from './migrations/0001-initial';
 import * as second from './migrations/0002-reviews-runs-geometry';
 import * as third from './migrations/0003-section-input-warnings';
 import * as fourth from './migrations/0004-verdicts-feature-properties';
+import * as fifth from './migrations/0005-phi-zero-circle-interslice';
 
 export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
   return new Umzug({
@@ -13,6 +14,7 @@ export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
       { name: '0002-reviews-runs-geometry', up: second.up, down: second.down },
       { name: '0003-section-input-warnings', up: third.up, down: third.down },
       { name: '0004-verdicts-feature-properties', up: fourth.up, down: fourth.down },
+      { name: '0005-phi-zero-circle-interslice', up: fifth.up, down: fifth.down },
     ],
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
