@@ -18,7 +18,9 @@ export const WATER_LINE = '#1f6fb2';
 export const WATER_FILL = '#a9d0ef';
 export const RIGID_FILL = '#a3a6aa';
 /** Points below the required FS on a chainage plot (shape differs too: never colour alone). */
-export const BELOW_REQUIRED = '#9c2a2a';
+export const BELOW_REQUIRED = '#a3302a';
+/** Points that meet the required FS on a chainage plot. */
+export const MEETS = '#2f6b3a';
 
 /** The FS ramp: ten samples of the viridis colour map (van der Walt & Smith 2015, CC0). */
 const FS_RAMP = [
