@@ -68,7 +68,7 @@ withOverrides(
   program
     .command('analyze')
     .description(
-      'analyse section files: factor of safety per method, governing FS against the required FS, warnings',
+      'analyze section files: factor of safety per method, governing FS against the required FS, warnings',
     )
     .argument(
       '<file...>',
@@ -116,7 +116,7 @@ withOverrides(
   program
     .command('batch')
     .description(
-      'analyse a corridor (a batch file, or a GeoJSON FeatureCollection of section lines) on every core',
+      'analyze a corridor (a batch file, or a GeoJSON FeatureCollection of section lines) on every core',
     )
     .argument(
       '<corridor>',

@@ -1,5 +1,6 @@
 import { writeFileSync } from 'node:fs';
 import {
+  CAUTION,
   analyzeSection,
   drawSection,
   formatMessage,
@@ -44,9 +45,10 @@ export function readSections(file: string): {
 }
 
 /**
- * `scarpline plot`: analyse the section(s) of a file and write the cross-section drawing as
+ * `scarpline plot`: analyze the sections of a file and write the cross-section drawing as
  * SVG: one section to `--svg OUT`, several to `OUT-<id>.svg` each (or the one `--section ID`
- * names). Returns the exit code: 0 when drawn, 1 on bad input.
+ * names), each with its governing FS on standard output and then the caution (the drawing
+ * carries it too). Returns the exit code: 0 when drawn, 1 on bad input.
  */
 export function plotFile(
   file: string,
@@ -75,5 +77,6 @@ export function plotFile(
       : 'no method converged';
     out(`wrote ${path}: ${s.id}, ${fs}`);
   }
+  if (chosen.length) out(`Caution: ${CAUTION}`);
   return 0;
 }

@@ -12,6 +12,8 @@ describe('scarpline plot', () => {
     const r = run(['plot', 'examples/levee-land-side.yaml', '--svg', out]);
     expect(r.code).toBe(0);
     expect(r.out).toContain(`wrote ${out}: wfb-0410, governing FS 1.275 (bishop)`);
+    // the terminal's result carries the caution too
+    expect(r.out).toMatch(/\nCaution: Results are for review by a qualified geotechnical engineer/);
     const svg = readFileSync(out, 'utf8');
     expect(XMLValidator.validate(svg)).toBe(true);
     const tree = new XMLParser({ ignoreAttributes: false }).parse(svg) as {

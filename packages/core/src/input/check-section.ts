@@ -361,7 +361,7 @@ export function checkSection(data: unknown): Issue[] {
         err(
           methodPath('infinite-slope'),
           'infinite-slope-rigid',
-          'infinite-slope analyses the first stratum, which is rigid',
+          'infinite-slope analyzes the first stratum, which is rigid',
         );
       }
     } else if (a.infiniteSlope !== undefined) {
