@@ -1,7 +1,7 @@
 import type { UnitSystem } from '../model/types';
 import { chainageLabel } from './chainage-label';
 import { niceStep } from './nice-ticks';
-import { BELOW_REQUIRED, INK, MEETS, MUTED } from './palette';
+import { BELOW_REQUIRED, GRID_LINE, INK, MEETS, MUTED } from './palette';
 import { scaleLinear, type LinearScale } from './scale-linear';
 
 /** One station of a corridor: its governing FS (null when none) and required FS. */
@@ -49,6 +49,10 @@ export interface ChainageLayout<P extends ChainagePoint = ChainagePoint> {
 
 /** The look of the chart, one for every drawing of it (the command's SVG and the web page). */
 export const CHAINAGE_STYLE = {
+  grid: { stroke: GRID_LINE },
+  axis: { stroke: INK },
+  tick: { fill: INK, 'font-size': 11 },
+  title: { fill: MUTED, 'font-size': 11 },
   required: { stroke: INK, 'stroke-width': 1.5, 'stroke-dasharray': '8 4', fill: 'none' },
   fsLine: { stroke: MUTED, 'stroke-width': 1.2, fill: 'none' },
   meets: { fill: MEETS, stroke: '#ffffff', 'stroke-width': 1 },

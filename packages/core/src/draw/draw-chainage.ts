@@ -9,7 +9,7 @@ import {
   type ChainageMark,
   type ChainagePoint,
 } from './chainage-layout';
-import { GRID_LINE, INK, MUTED } from './palette';
+import { INK } from './palette';
 import { svgElement, svgText } from './svg-element';
 import { cautionBlock, cautionLines, svgDocument } from './svg-document';
 
@@ -57,19 +57,33 @@ export function drawChainage(
   const parts: string[] = [];
   for (const t of l.yTicks) {
     parts.push(
-      svgElement('line', { x1: plot.left, x2: plot.right, y1: t.y, y2: t.y, stroke: GRID_LINE }),
-      svgElement('line', { x1: plot.left - 5, x2: plot.left, y1: t.y, y2: t.y, stroke: INK }),
-      svgText(plot.left - 8, t.y + 4, t.text, { 'text-anchor': 'end', fill: INK, 'font-size': 11 }),
+      svgElement('line', {
+        x1: plot.left,
+        x2: plot.right,
+        y1: t.y,
+        y2: t.y,
+        ...CHAINAGE_STYLE.grid,
+      }),
+      svgElement('line', {
+        x1: plot.left - 5,
+        x2: plot.left,
+        y1: t.y,
+        y2: t.y,
+        ...CHAINAGE_STYLE.axis,
+      }),
+      svgText(plot.left - 8, t.y + 4, t.text, { 'text-anchor': 'end', ...CHAINAGE_STYLE.tick }),
     );
   }
   for (const t of l.xTicks) {
     parts.push(
-      svgElement('line', { x1: t.x, x2: t.x, y1: plot.bottom, y2: plot.bottom + 5, stroke: INK }),
-      svgText(t.x, plot.bottom + 18, t.text, {
-        'text-anchor': 'middle',
-        fill: INK,
-        'font-size': 11,
+      svgElement('line', {
+        x1: t.x,
+        x2: t.x,
+        y1: plot.bottom,
+        y2: plot.bottom + 5,
+        ...CHAINAGE_STYLE.axis,
       }),
+      svgText(t.x, plot.bottom + 18, t.text, { 'text-anchor': 'middle', ...CHAINAGE_STYLE.tick }),
     );
   }
   const L = units === 'us' ? 'ft' : 'm';
@@ -79,24 +93,22 @@ export function drawChainage(
       x2: plot.right,
       y1: plot.bottom,
       y2: plot.bottom,
-      stroke: INK,
+      ...CHAINAGE_STYLE.axis,
     }),
     svgElement('line', {
       x1: plot.left,
       x2: plot.left,
       y1: plot.top,
       y2: plot.bottom,
-      stroke: INK,
+      ...CHAINAGE_STYLE.axis,
     }),
     svgText((plot.left + plot.right) / 2, plot.bottom + 36, `chainage (${L})`, {
       'text-anchor': 'middle',
-      fill: MUTED,
-      'font-size': 11,
+      ...CHAINAGE_STYLE.title,
     }),
     svgText(plot.left - 40, (plot.top + plot.bottom) / 2, 'factor of safety', {
       'text-anchor': 'middle',
-      fill: MUTED,
-      'font-size': 11,
+      ...CHAINAGE_STYLE.title,
       transform: `rotate(-90 ${Math.round(plot.left - 40)} ${Math.round((plot.top + plot.bottom) / 2)})`,
     }),
   );

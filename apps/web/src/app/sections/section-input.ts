@@ -299,7 +299,10 @@ export class SectionInputView {
       rows.push(['Interslice function f(ξ)', text]);
     }
     if (a.trialBand !== undefined)
-      rows.push(['Trial surfaces drawn', `within ${plain(a.trialBand * 100, 2)} % of the least FS`]);
+      rows.push([
+        'Trial surfaces drawn',
+        `within ${plain(a.trialBand * 100, 2)} % of the least FS`,
+      ]);
     if (a.searchEachMethod) rows.push(['Search', 'critical circle polished for each method']);
     if (a.infiniteSlope) {
       const i = a.infiniteSlope;
