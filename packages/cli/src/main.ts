@@ -194,6 +194,7 @@ withOverrides(
   .requiredOption('--svg <out>', 'the SVG file to write (several sections: OUT-<id>.svg each)')
   .option('-s, --section <id>', 'draw only this section of the file')
   .option('--width <px>', 'width of the drawing in pixels', '1100')
+  .option('--radii', "draw each circle's radii to the ends of its arc")
   .addHelpText(
     'after',
     `
@@ -210,6 +211,7 @@ Exit status: 0 when drawn, 1 when the file is invalid.`,
         svg: string;
         section?: string;
         width: string;
+        radii?: boolean;
         method?: string[];
         slices?: string;
         requiredFs?: string;
@@ -222,7 +224,13 @@ Exit status: 0 when drawn, 1 when the file is invalid.`,
       const { plotFile } = await import('./plot-file');
       process.exitCode = plotFile(
         file,
-        { svg: opts.svg, section: opts.section, ...checkOverrides(opts), width },
+        {
+          svg: opts.svg,
+          section: opts.section,
+          ...checkOverrides(opts),
+          width,
+          radii: opts.radii === true,
+        },
         print,
         printErr,
       );

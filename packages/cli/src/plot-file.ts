@@ -17,6 +17,8 @@ export interface PlotOptions extends Overrides {
   svg: string;
   section?: string;
   width?: number;
+  /** Draw each circle's radii to the ends of its arc. */
+  radii?: boolean;
 }
 
 /** The file name for one of several sections: `out.svg` → `out-<id>.svg`. */
@@ -71,7 +73,10 @@ export function plotFile(
     const section = applyOverrides(s, options);
     const result = analyzeSection(section);
     const path = chosen.length === 1 ? options.svg : svgNameFor(options.svg, s.id);
-    writeFileSync(path, `${drawSection(section, result, { width: options.width })}\n`);
+    writeFileSync(
+      path,
+      `${drawSection(section, result, { width: options.width, radii: options.radii })}\n`,
+    );
     const fs = result.governing
       ? `governing FS ${fsText(result.governing.fs)} (${result.governing.method})`
       : 'no method converged';
