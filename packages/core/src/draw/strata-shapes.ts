@@ -87,7 +87,8 @@ const clip = (text: string, most: number) =>
  * Each material's label, once, inside a stratum of it where the label keeps clear of the slip
  * surfaces, the sliding mass, the FS map and the other labels: the material's description from
  * the file (or its name when it has none) and, under it, its name and strength; only the first
- * line where two do not fit; none where nothing fits (the legend names it). Written over a
+ * line where two do not fit, only its name where that does not fit; none where nothing fits
+ * (the legend names it). Written over a
  * white halo so that it reads on any fill. Returns the labels and the boxes they took.
  *
  * @example strataLabels(model, frame, 10, { lines: [critical], areas: [mass], boxes: [] })
@@ -114,6 +115,7 @@ export function strataLabels(
       : stratum.describe;
     const bottom = bottomOf(model, i, yBottom);
     const options = [[head, clip(detail, 48)], [head]];
+    if (head !== stratum.material) options.push([stratum.material]);
     for (const lines of options) {
       const w = textWidth(Math.max(...lines.map((l) => l.length)), FONT) + 8;
       const h = lines.length * LINE + 4;
