@@ -14,7 +14,7 @@ type Supervisor = {
 };
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 const { supervise } = require('../scripts/supervise.js') as {
-  supervise(
+  supervise: (
     specs: Spec[],
     settings?: {
       firstDelayMs?: number;
@@ -22,7 +22,7 @@ const { supervise } = require('../scripts/supervise.js') as {
       steadyMs?: number;
       log?: (line: string) => void;
     },
-  ): Supervisor;
+  ) => Supervisor;
 };
 
 const SCRIPT = path.resolve(__dirname, '../scripts/supervise.js');
@@ -144,7 +144,7 @@ test('Ctrl-C stops every child and the launcher', async () => {
     { stdio: ['ignore', 'pipe', 'pipe'] },
   );
   let out = '';
-  launcher.stdout?.on('data', (c: Buffer) => (out += c));
+  launcher.stdout?.on('data', (c: Buffer) => (out += c.toString()));
   await until('the children', () => /pids \d+ \d+/.test(out));
   const pids = (/pids (\d+) (\d+)/.exec(out) as RegExpExecArray).slice(1).map(Number);
   const exited = new Promise<number | null>((r) => launcher.once('exit', (code) => r(code)));
