@@ -5,7 +5,7 @@
  * literature reports the log spiral within a few per cent of rigorous methods of slices —
  * value from memory, hence the 5 % tolerance).
  */
-import { logSpiral, prepareSection, spencer, swedishCircle, type Point } from '@scarpline/core';
+import { logSpiral, prepareSection, spencer, phiZeroCircle, type Point } from '@scarpline/core';
 import {
   circleOptions,
   cut,
@@ -27,7 +27,7 @@ describe('log spiral', () => {
     const prepared = prepareSection(section);
     const sliced = cut(section, circle, 60);
     const spiral = logSpiral(prepared, sliced.slices, center, section.seismic, 60);
-    const exact = swedishCircle(prepared, sliced, center, radius, section.seismic);
+    const exact = phiZeroCircle(prepared, sliced, center, radius, section.seismic);
     expect(spiral.converged).toBe(true);
     expect(relErr(spiral.fs, exact.fs)).toBeLessThan(2e-4);
     expect(spiral.spiral!.pole[0]).toBeCloseTo(center[0], 6);

@@ -10,7 +10,7 @@ import {
   ordinary,
   prepareSection,
   spencer,
-  swedishCircle,
+  phiZeroCircle,
   type Point,
 } from '@scarpline/core';
 import { circleOptions, cut, homogeneous, relErr, simpleSlope, undrained } from './support';
@@ -29,7 +29,7 @@ function allMethods(section: ReturnType<typeof homogeneous>, n: number) {
     bishop: bishop(sliced.slices, o).fs,
     spencer: spencer(sliced.slices, o).fs,
     mp: morgensternPrice(sliced.slices, { ...o, fn: { shape: 'half-sine' } }).fs,
-    exact: swedishCircle(prepareSection(section), sliced, center, radius, section.seismic).fs,
+    exact: phiZeroCircle(prepareSection(section), sliced, center, radius, section.seismic).fs,
   };
 }
 
@@ -91,7 +91,7 @@ describe('φ = 0 circle against a hand computation', () => {
   });
   const c = { type: 'circle' as const, center: [0, h] as Point, radius: R };
   const sliced = cut(section, c, 40);
-  const r = swedishCircle(prepareSection(section), sliced, [0, h], R, section.seismic);
+  const r = phiZeroCircle(prepareSection(section), sliced, [0, h], R, section.seismic);
   const Wexact = gamma * (R * R * Math.acos(h / R) - h * Math.sqrt(R * R - h * h));
   const Lexact = 2 * R * Math.acos(h / R);
 

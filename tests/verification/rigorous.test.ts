@@ -4,8 +4,10 @@
  */
 import { dot, sum } from 'mathjs';
 import {
+  intersliceFunction,
   morgensternPrice,
   spencer,
+  type IntersliceFunction,
   type Point,
   type SliceMethodResult,
   type SliceSet,
@@ -46,10 +48,83 @@ describe('Spencer and Morgenstern–Price', () => {
   });
 
   test('F hardly depends on the interslice function (Fredlund & Krahn 1977: within about 1 %, from memory)', () => {
-    const fs = (['constant', 'half-sine', 'clipped-sine', 'trapezoid'] as const).map(
-      (shape) => morgensternPrice(sliced.slices, { ...o, fn: { shape } }).fs,
-    );
+    const trapezoid: IntersliceFunction = {
+      shape: 'piecewise-linear',
+      points: [
+        [0, 0.2],
+        [0.25, 1],
+        [0.75, 1],
+        [1, 0.2],
+      ],
+    };
+    const fns: IntersliceFunction[] = [{ shape: 'constant' }, { shape: 'half-sine' }, trapezoid];
+    const fs = fns.map((fn) => morgensternPrice(sliced.slices, { ...o, fn }).fs);
     for (const v of fs) expect(relErr(v, fs[0])).toBeLessThan(0.01);
+  });
+
+  test('piecewise-linear f through [[0, 1], [1, 1]] is the constant f (closed form: a straight line): the same F and λ as Spencer, to 1e-9', () => {
+    const a = spencer(sliced.slices, o);
+    const fn: IntersliceFunction = {
+      shape: 'piecewise-linear',
+      points: [
+        [0, 1],
+        [1, 1],
+      ],
+    };
+    const b = morgensternPrice(sliced.slices, { ...o, fn });
+    expect(a.converged && b.converged).toBe(true);
+    expect(relErr(b.fs, a.fs)).toBeLessThan(1e-9);
+    expect(Math.abs(b.lambda! - a.lambda!)).toBeLessThan(1e-9);
+  });
+
+  test('piecewise-linear f through sin(πξ) at every slice boundary reproduces the half-sine exactly (f is taken only at the boundaries), to 1e-12', () => {
+    const s = sliced.slices;
+    const L = s.xr[s.n - 1] - s.xl[0];
+    const xis = [0, ...Array.from(s.xr, (x) => (x - s.xl[0]) / L)];
+    const fn: IntersliceFunction = {
+      shape: 'piecewise-linear',
+      points: xis.map((xi): [number, number] => [xi, Math.sin(Math.PI * xi)]),
+    };
+    const a = morgensternPrice(s, { ...o, fn: { shape: 'half-sine' } });
+    const b = morgensternPrice(s, { ...o, fn });
+    expect(a.converged && b.converged).toBe(true);
+    expect(relErr(b.fs, a.fs)).toBeLessThan(1e-12);
+    expect(Math.abs(b.lambda! - a.lambda!)).toBeLessThan(1e-12);
+  });
+
+  test('piecewise-linear f through the half-sine at eleven points (within π²/800 ≈ 0.012 of it, the bound h²·max|f″|/8 of linear interpolation): F within 0.1 % of the half-sine', () => {
+    const points = Array.from({ length: 11 }, (_, k): [number, number] => [
+      k / 10,
+      Math.sin((Math.PI * k) / 10),
+    ]);
+    const fn: IntersliceFunction = { shape: 'piecewise-linear', points };
+    for (let k = 0; k <= 200; k++) {
+      const xi = k / 200;
+      expect(Math.abs(intersliceFunction(fn, xi) - Math.sin(Math.PI * xi))).toBeLessThanOrEqual(
+        Math.PI ** 2 / 800 + 1e-12,
+      );
+    }
+    const a = morgensternPrice(sliced.slices, { ...o, fn: { shape: 'half-sine' } });
+    const b = morgensternPrice(sliced.slices, { ...o, fn });
+    expect(relErr(b.fs, a.fs)).toBeLessThan(1e-3);
+  });
+
+  test('piecewise-linear f is the closed-form trapezoid e + (1 − e)·min(1, min(ξ, 1 − ξ)/r) through its four corners, to 1e-12', () => {
+    const [e, r] = [0.3, 0.2];
+    const fn: IntersliceFunction = {
+      shape: 'piecewise-linear',
+      points: [
+        [0, e],
+        [r, 1],
+        [1 - r, 1],
+        [1, e],
+      ],
+    };
+    for (let k = 0; k <= 100; k++) {
+      const xi = k / 100;
+      const closed = e + (1 - e) * Math.min(1, Math.min(xi, 1 - xi) / r);
+      expect(Math.abs(intersliceFunction(fn, xi) - closed)).toBeLessThan(1e-12);
+    }
   });
 
   test('a polyline surface: Spencer satisfies equilibrium about two different moment points (same F)', () => {

@@ -121,7 +121,7 @@ describe("Taylor's stability numbers for φ = 0 (Taylor 1937; values from memory
         },
       ],
       analysis: {
-        methods: ['swedish-circle', 'bishop'],
+        methods: ['phi-zero-circle', 'bishop'],
         slices: 60,
         surface: { type: 'auto' },
         infiniteSlope: null,
@@ -130,7 +130,7 @@ describe("Taylor's stability numbers for φ = 0 (Taylor 1937; values from memory
       },
     });
     const r = analyzeSection(section);
-    const fs = r.results.find((m) => m.method === 'swedish-circle')!.fs!;
+    const fs = r.results.find((m) => m.method === 'phi-zero-circle')!.fs!;
     const N = su / (gamma * H * fs);
     expect(relErr(N, 0.191)).toBeLessThan(0.03);
     const exact = minimise(exactPhiZero(ground, -40, gamma, su), [

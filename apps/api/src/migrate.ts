@@ -7,6 +7,7 @@ import * as third from './migrations/0003-section-input-warnings';
 import * as fourth from './migrations/0004-verdicts-feature-properties';
 import * as fifth from './migrations/0005-accounts-and-editors';
 import * as sixth from './migrations/0006-worker-heartbeats';
+import * as seventh from './migrations/0007-phi-zero-circle-interslice';
 
 export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
   return new Umzug({
@@ -17,6 +18,7 @@ export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
       { name: '0004-verdicts-feature-properties', up: fourth.up, down: fourth.down },
       { name: '0005-accounts-and-editors', up: fifth.up, down: fifth.down },
       { name: '0006-worker-heartbeats', up: sixth.up, down: sixth.down },
+      { name: '0007-phi-zero-circle-interslice', up: seventh.up, down: seventh.down },
     ],
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),

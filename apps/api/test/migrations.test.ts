@@ -84,3 +84,125 @@ test('0004: pass, fail, none, failed → meets, below, no-requirement, no-fs, an
     'feature_properties',
   );
 });
+
+/** A result row and its section's input as the 0007 test reads them. */
+interface Stored {
+  governing_method: string;
+  methods: {
+    method: string;
+    slices: { interslice: { E: number | null; X: number | null; thrust: null } }[];
+  }[];
+  warnings: { message: string }[];
+  search: unknown;
+  input: { analysis: unknown };
+  sectionInput: { analysis: { methods: string[] } };
+}
+
+test('0007: swedish-circle → phi-zero-circle, former interslice shapes → points, interslice forces not computed → null, the ten lowest → the trial band; and back', async () => {
+  const m = migrator(db);
+  await m.up({ to: '0004-verdicts-feature-properties' });
+  const now = new Date().toISOString();
+  const input = {
+    id: 'old',
+    analysis: {
+      methods: ['swedish-circle', 'bishop', 'morgenstern-price'],
+      interslice: { shape: 'trapezoid', end: 0.2, ramp: 0.25 },
+    },
+  };
+  const slice = (E: number, X: number) => ({ x: 1, interslice: { E, X, thrust: null } });
+  const methods = [
+    { method: 'swedish-circle', fs: 1.4, slices: [slice(0, 0)], warnings: [] },
+    { method: 'bishop', fs: 1.3, slices: [slice(0, 0)], warnings: [] },
+    { method: 'janbu', fs: 1.2, slices: [slice(5, 0)], warnings: [] },
+    { method: 'spencer', fs: 1.31, slices: [slice(5, 2)], warnings: [] },
+  ];
+  const lowest = [1.3, 1.33, 1.4].map((fs, i) => ({
+    surface: { type: 'circle', center: [i, 0], radius: 5 },
+    fs,
+  }));
+  const warnings = [{ code: 'no-convergence', message: 'swedish-circle: no solution' }];
+  await db.query(
+    `INSERT INTO sections (batch_id, key, position, input, status, created_at, updated_at)
+     VALUES (1, 'b@old', 9, $2::jsonb, 'done', $1, $1)`,
+    { bind: [now, JSON.stringify(input)], type: QueryTypes.INSERT },
+  );
+  const [[{ id: sectionId }]] = (await db.query(`SELECT max(id) AS id FROM sections`)) as [
+    { id: number }[],
+    unknown,
+  ];
+  await db.query(
+    `INSERT INTO results (section_id, run, verdict, governing_method, methods, warnings, search,
+       input, solver_version, input_hash, started_at, finished_at, duration_ms, attempt,
+       created_at, updated_at)
+     VALUES ($2, 1, 'below', 'swedish-circle', $3::jsonb, $4::jsonb, $5::jsonb, $6::jsonb, '0',
+       'h', $1, $1, 1, 1, $1, $1)`,
+    {
+      bind: [
+        now,
+        sectionId,
+        JSON.stringify(methods),
+        JSON.stringify(warnings),
+        JSON.stringify({ type: 'auto', lowest }),
+        JSON.stringify(input),
+      ],
+      type: QueryTypes.INSERT,
+    },
+  );
+  const row = async () => {
+    const [r] = await db.query<Record<string, unknown>>(
+      `SELECT governing_method, methods, warnings, search, input FROM results WHERE section_id = $1`,
+      { bind: [sectionId], type: QueryTypes.SELECT },
+    );
+    const [s] = await db.query<{ input: unknown }>(`SELECT input FROM sections WHERE id = $1`, {
+      bind: [sectionId],
+      type: QueryTypes.SELECT,
+    });
+    return { ...r, sectionInput: s.input } as unknown as Stored;
+  };
+
+  await m.up({ to: '0007-phi-zero-circle-interslice' });
+  const up = await row();
+  expect(up.governing_method).toBe('phi-zero-circle');
+  expect(up.methods.map((x) => x.method)).toEqual([
+    'phi-zero-circle',
+    'bishop',
+    'janbu',
+    'spencer',
+  ]);
+  expect(up.methods.map((x) => x.slices[0].interslice)).toEqual([
+    { E: null, X: null, thrust: null },
+    { E: null, X: null, thrust: null },
+    { E: 5, X: null, thrust: null },
+    { E: 5, X: 2, thrust: null },
+  ]);
+  expect(up.warnings[0].message).toBe('phi-zero-circle: no solution');
+  expect(up.search).toEqual({
+    type: 'auto',
+    trialBand: { within: 0.05, count: 2, surfaces: lowest.slice(0, 2) },
+  });
+  for (const i of [up.input, up.sectionInput])
+    expect(i.analysis).toEqual({
+      methods: ['phi-zero-circle', 'bishop', 'morgenstern-price'],
+      interslice: {
+        shape: 'piecewise-linear',
+        points: [
+          [0, 0.2],
+          [0.25, 1],
+          [0.75, 1],
+          [1, 0.2],
+        ],
+      },
+    });
+
+  await m.down({ to: '0007-phi-zero-circle-interslice' });
+  const down = await row();
+  expect(down.governing_method).toBe('swedish-circle');
+  expect(down.methods.map((x) => [x.method, x.slices[0].interslice.E])).toEqual([
+    ['swedish-circle', 0],
+    ['bishop', 0],
+    ['janbu', 5],
+    ['spencer', 5],
+  ]);
+  expect(down.search).toEqual({ type: 'auto', lowest: lowest.slice(0, 2) });
+  expect(down.sectionInput.analysis.methods[0]).toBe('swedish-circle');
+});

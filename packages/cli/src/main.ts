@@ -27,7 +27,7 @@ function withOverrides(cmd: Command): Command {
   return cmd
     .option(
       '-m, --method <ids>',
-      "methods to run instead of the file's (comma list or repeated): ordinary, bishop, janbu, spencer, morgenstern-price, swedish-circle, log-spiral, infinite-slope",
+      "methods to run instead of the file's (comma list or repeated): ordinary, bishop, janbu, spencer, morgenstern-price, phi-zero-circle, log-spiral, infinite-slope",
       collect,
     )
     .option('--slices <n>', "number of slices instead of the file's")
@@ -68,7 +68,7 @@ withOverrides(
   program
     .command('analyze')
     .description(
-      'analyse section files: factor of safety per method, governing FS against the required FS, warnings',
+      'analyze section files: factor of safety per method, governing FS against the required FS, warnings',
     )
     .argument(
       '<file...>',
@@ -83,7 +83,7 @@ withOverrides(
     `
 Examples:
   $ scarpline analyze examples/cut-homogeneous.yaml
-  $ scarpline analyze examples/levee-river-side.yaml --json > levee.json
+  $ scarpline analyze examples/levee-land-side.yaml --json > levee.json
   $ scarpline analyze examples/*.yaml --csv --method bishop,spencer --slices 60
   $ cat section.yaml | scarpline analyze - --units us
 ${EXIT}`,
@@ -116,7 +116,7 @@ withOverrides(
   program
     .command('batch')
     .description(
-      'analyse a corridor (a batch file, or a GeoJSON FeatureCollection of section lines) on every core',
+      'analyze a corridor (a batch file, or a GeoJSON FeatureCollection of section lines) on every core',
     )
     .argument(
       '<corridor>',
@@ -194,11 +194,12 @@ withOverrides(
   .requiredOption('--svg <out>', 'the SVG file to write (several sections: OUT-<id>.svg each)')
   .option('-s, --section <id>', 'draw only this section of the file')
   .option('--width <px>', 'width of the drawing in pixels', '1100')
+  .option('--radii', "draw each circle's radii to the ends of its arc")
   .addHelpText(
     'after',
     `
 Examples:
-  $ scarpline plot examples/levee-river-side.yaml --svg levee.svg
+  $ scarpline plot examples/levee-land-side.yaml --svg levee.svg
   $ scarpline plot examples/embankment-stages.yaml --svg stages.svg --section wcb-2940-R-lt
 
 Exit status: 0 when drawn, 1 when the file is invalid.`,
@@ -210,6 +211,7 @@ Exit status: 0 when drawn, 1 when the file is invalid.`,
         svg: string;
         section?: string;
         width: string;
+        radii?: boolean;
         method?: string[];
         slices?: string;
         requiredFs?: string;
@@ -222,7 +224,13 @@ Exit status: 0 when drawn, 1 when the file is invalid.`,
       const { plotFile } = await import('./plot-file');
       process.exitCode = plotFile(
         file,
-        { svg: opts.svg, section: opts.section, ...checkOverrides(opts), width },
+        {
+          svg: opts.svg,
+          section: opts.section,
+          ...checkOverrides(opts),
+          width,
+          radii: opts.radii === true,
+        },
         print,
         printErr,
       );
@@ -259,7 +267,7 @@ Examples:
   $ scarpline init --kind cut my-cut.yaml
   $ scarpline validate examples/*
   $ scarpline analyze examples/cut-homogeneous.yaml
-  $ scarpline plot examples/levee-river-side.yaml --svg levee.svg
+  $ scarpline plot examples/levee-land-side.yaml --svg levee.svg
   $ scarpline batch examples/corridor/corridor.json --out results/
 ${EXIT}`,
 );

@@ -1,4 +1,4 @@
-import { METHOD_IDS, type MethodId, type Section } from '@scarpline/core';
+import { METHOD_IDS, RENAMED_METHODS, type MethodId, type Section } from '@scarpline/core';
 import { UserError } from './read-input';
 
 /** Settings given on the command line that replace the file's. */
@@ -16,6 +16,8 @@ export function parseMethods(values: string[] | undefined): MethodId[] | undefin
     .map((v) => v.trim())
     .filter(Boolean);
   for (const id of ids) {
+    const renamed = RENAMED_METHODS[id];
+    if (renamed) throw new UserError(`--method: ${id} is now called ${renamed}; write ${renamed}`);
     if (!(METHOD_IDS as readonly string[]).includes(id))
       throw new UserError(
         `--method: ${JSON.stringify(id)} is not a method; use ${METHOD_IDS.join(', ')}`,

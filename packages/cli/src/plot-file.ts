@@ -1,5 +1,6 @@
 import { writeFileSync } from 'node:fs';
 import {
+  CAUTION,
   analyzeSection,
   drawSection,
   formatMessage,
@@ -16,6 +17,8 @@ export interface PlotOptions extends Overrides {
   svg: string;
   section?: string;
   width?: number;
+  /** Draw each circle's radii to the ends of its arc. */
+  radii?: boolean;
 }
 
 /** The file name for one of several sections: `out.svg` → `out-<id>.svg`. */
@@ -44,9 +47,10 @@ export function readSections(file: string): {
 }
 
 /**
- * `scarpline plot`: analyse the section(s) of a file and write the cross-section drawing as
+ * `scarpline plot`: analyze the sections of a file and write the cross-section drawing as
  * SVG: one section to `--svg OUT`, several to `OUT-<id>.svg` each (or the one `--section ID`
- * names). Returns the exit code: 0 when drawn, 1 on bad input.
+ * names), each with its governing FS on standard output and then the caution (the drawing
+ * carries it too). Returns the exit code: 0 when drawn, 1 on bad input.
  */
 export function plotFile(
   file: string,
@@ -69,11 +73,15 @@ export function plotFile(
     const section = applyOverrides(s, options);
     const result = analyzeSection(section);
     const path = chosen.length === 1 ? options.svg : svgNameFor(options.svg, s.id);
-    writeFileSync(path, `${drawSection(section, result, { width: options.width })}\n`);
+    writeFileSync(
+      path,
+      `${drawSection(section, result, { width: options.width, radii: options.radii })}\n`,
+    );
     const fs = result.governing
       ? `governing FS ${fsText(result.governing.fs)} (${result.governing.method})`
       : 'no method converged';
     out(`wrote ${path}: ${s.id}, ${fs}`);
   }
+  if (chosen.length) out(`Caution: ${CAUTION}`);
   return 0;
 }

@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
 import Ajv2020 from 'ajv/dist/2020';
@@ -6,8 +7,8 @@ import { resultSchema } from '@scarpline/schemas';
 // These tests run the built command (`npm test` builds first).
 const ROOT = join(__dirname, '..', '..', '..');
 const MAIN = join(ROOT, 'packages', 'cli', 'dist', 'main.js');
-const run = (args: string[]) => {
-  const r = spawnSync(process.execPath, [MAIN, ...args], { cwd: ROOT, encoding: 'utf8' });
+const run = (args: string[], input?: string) => {
+  const r = spawnSync(process.execPath, [MAIN, ...args], { cwd: ROOT, encoding: 'utf8', input });
   return { code: r.status, out: r.stdout, err: r.stderr };
 };
 const validate = new Ajv2020({ strict: false }).compile(resultSchema);
@@ -17,7 +18,7 @@ describe('scarpline analyze', () => {
     const { code, out } = run([
       'analyze',
       'examples/cut-surcharge-seismic.yaml',
-      'examples/levee-river-side.yaml',
+      'examples/levee-land-side.yaml',
       '--json',
     ]);
     const doc = JSON.parse(out) as { caution: string; sections: unknown[] };
@@ -43,6 +44,33 @@ describe('scarpline analyze', () => {
     expect(out).toMatch(/: below the required FS/);
   });
 
+  test('the words of an earlier version: a located message naming what to write instead', () => {
+    const old = run([
+      'analyze',
+      'examples/cut-soft-clay-undrained.yaml',
+      '--method',
+      'swedish-circle',
+    ]);
+    expect(old.code).toBe(1);
+    expect(old.err).toContain('--method: swedish-circle is now called phi-zero-circle');
+    const text = readFileSync(join(ROOT, 'examples', 'levee-land-side.yaml'), 'utf8')
+      .replace(
+        /interslice:[^\n]*\n\s+shape: piecewise-linear\n\s+points: [^\n]+/,
+        'interslice: { shape: trapezoid, end: 0.3, ramp: 0.2 }',
+      )
+      .replace('methods: [bishop,', 'methods: [swedish-circle,');
+    const r = run(['analyze', '-'], text);
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(
+      /^<stdin>:\d+:\d+ analysis\.methods\[0\]: swedish-circle is now called phi-zero-circle \(the φ = 0 circle\): write phi-zero-circle$/m,
+    );
+    expect(r.err).toMatch(
+      /^<stdin>:\d+:\d+ analysis\.interslice\.shape: the interslice shape trapezoid is no longer offered: .* interslice: \{ shape: piecewise-linear, points: \[\[0, 0\.3\], \[0\.2, 1\], \[0\.8, 1\], \[1, 0\.3\]\] \}$/m,
+    );
+    // one message for the shape, none for its former settings
+    expect(r.err).not.toMatch(/interslice\.(end|ramp)/);
+  });
+
   test('exit 1 with located messages on stderr for a bad file', () => {
     const { code, err } = run(['analyze', 'packages/core/test/in/ranges.yaml']);
     expect(code).toBe(1);
@@ -65,7 +93,7 @@ describe('scarpline analyze', () => {
       s.results.filter((m) => m.converged).map((m) => m.method),
     );
     expect(methods).toEqual(
-      expect.arrayContaining(['infinite-slope', 'swedish-circle', 'log-spiral', 'bishop']),
+      expect.arrayContaining(['infinite-slope', 'phi-zero-circle', 'log-spiral', 'bishop']),
     );
   });
 });

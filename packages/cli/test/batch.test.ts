@@ -52,8 +52,11 @@ describe('scarpline batch', () => {
       '4 of 4 sections: meets the required FS: 2, below the required FS: 1, no factor of safety: 0, no requirement given: 0, input error: 1',
     );
     expect(r.out).toMatch(/Caution: /);
-    // not a terminal: a plain line per section on standard error
+    // not a terminal: a plain line per section on standard error, after the caution
     expect(r.err.match(/^\[\d\/4\] /gm)).toHaveLength(4);
+    const caution = r.err.indexOf('Caution: Results are for review by a qualified');
+    expect(caution).toBeGreaterThanOrEqual(0);
+    expect(caution).toBeLessThan(r.err.search(/^\[1\/4\] /m));
   });
 
   test('results.json: the caution, every analysed section valid against the result schema, in station order', () => {

@@ -9,9 +9,11 @@ const dir = mkdtempSync(join(tmpdir(), 'scarpline-plot-'));
 describe('scarpline plot', () => {
   test('writes a well-formed SVG of the section with its critical surface and the caution', () => {
     const out = join(dir, 'levee.svg');
-    const r = run(['plot', 'examples/levee-river-side.yaml', '--svg', out]);
+    const r = run(['plot', 'examples/levee-land-side.yaml', '--svg', out]);
     expect(r.code).toBe(0);
     expect(r.out).toContain(`wrote ${out}: wfb-0410, governing FS 1.275 (bishop)`);
+    // the terminal's result carries the caution too
+    expect(r.out).toMatch(/\nCaution: Results are for review by a qualified geotechnical engineer/);
     const svg = readFileSync(out, 'utf8');
     expect(XMLValidator.validate(svg)).toBe(true);
     const tree = new XMLParser({ ignoreAttributes: false }).parse(svg) as {
@@ -56,7 +58,7 @@ describe('scarpline plot', () => {
     expect(r.code).toBe(1);
     expect(r.err).toMatch(/ranges\.yaml:7:90 materials\.clay\.strength\.frictionAngle/);
     expect(existsSync(join(dir, 'bad.svg'))).toBe(false);
-    const missing = run(['plot', 'examples/levee-river-side.yaml']);
+    const missing = run(['plot', 'examples/levee-land-side.yaml']);
     expect(missing.code).toBe(1);
     expect(missing.err).toMatch(/required option '--svg <out>'/);
   });

@@ -54,7 +54,7 @@ function timeMs(fn, repeats = REPEATS) {
 }
 
 // --- a layered section with water: the flood bank (two soils, piezometric line, ponded water)
-const levee = readExample('levee-river-side.yaml')[0];
+const levee = readExample('levee-land-side.yaml')[0];
 const SLICES = 50;
 const prepared = core.prepareSection(levee);
 const evaluate = core.bishopCircleEvaluator(prepared, SLICES);

@@ -39,7 +39,7 @@ function ownCircle(
     { center: start.center, radius: start.radius, fs: f0, stage: 'polish', boundary: -1 },
     start.radius / 20,
     evaluate,
-    new Trials(1),
+    new Trials(),
   ).to;
   return { type: 'circle', center: best.center, radius: best.radius };
 }

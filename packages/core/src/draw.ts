@@ -4,7 +4,21 @@
  * drawing takes a result; nothing here runs the solver. Browser-safe.
  */
 export { drawSection, type DrawableResult, type DrawSectionOptions } from './draw/draw-section';
-export { drawChainage, type ChainagePoint, type DrawChainageOptions } from './draw/draw-chainage';
+export {
+  drawChainage,
+  CHAINAGE_MARK_WORDS,
+  type ChainagePoint,
+  type DrawChainageOptions,
+} from './draw/draw-chainage';
+export {
+  chainageLayout,
+  chainageMarker,
+  clippedMarker,
+  CHAINAGE_STYLE,
+  type ChainageLayout,
+  type ChainageMark,
+  type PlacedStation,
+} from './draw/chainage-layout';
 export { chainageLabel } from './draw/chainage-label';
 export { scaleLinear, type LinearScale } from './draw/scale-linear';
 export { niceStep, niceTicks } from './draw/nice-ticks';

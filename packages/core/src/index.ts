@@ -63,7 +63,7 @@ export { bishop, bishopIteration } from './methods/bishop';
 export { janbu, janbuCorrection } from './methods/janbu';
 export { spencer } from './methods/spencer';
 export { morgensternPrice, intersliceFunction } from './methods/morgenstern-price';
-export { swedishCircle, type SwedishCircleResult } from './methods/swedish-circle';
+export { phiZeroCircle, type PhiZeroCircleResult } from './methods/phi-zero-circle';
 export { logSpiral, type LogSpiralResult, type SpiralGeometry } from './methods/log-spiral';
 export {
   infiniteSlope,

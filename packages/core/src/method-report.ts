@@ -16,6 +16,7 @@ function reportSlices(
   prepared: PreparedSection,
   s: SliceSet,
   r: SliceMethodResult | null,
+  computes: { E: boolean; X: boolean },
 ): SliceReport[] {
   const out: SliceReport[] = [];
   for (let i = 0; i < s.n; i++) {
@@ -23,9 +24,10 @@ function reportSlices(
     const dy = s.yBaseR[i] - s.yBaseL[i];
     // the right side in section coordinates: the left side in sliding orientation when mirrored
     const j = s.mirrored ? i - 1 : i;
-    const E = r && j >= 0 ? r.E[j] : 0;
-    const X = r && j >= 0 ? r.X[j] : 0;
-    const thrust = r && j >= 0 && Number.isFinite(r.thrust[j]) ? r.thrust[j] : null;
+    // at the surface's end there is no interslice force: 0 wherever the method computes it
+    const E = !computes.E ? null : r && j >= 0 ? finite(r.E[j]) : 0;
+    const X = !computes.X ? null : r && j >= 0 ? finite(r.X[j]) : 0;
+    const thrust = computes.E && r && j >= 0 && Number.isFinite(r.thrust[j]) ? r.thrust[j] : null;
     out.push({
       x: (s.mirrored ? -1 : 1) * 0.5 * (s.xl[i] + s.xr[i]),
       width: b,
@@ -35,7 +37,7 @@ function reportSlices(
       porePressure: s.porePressure[i],
       normal: r ? finite(r.normal[i]) : 0,
       shear: r ? finite(r.shear[i]) : 0,
-      interslice: { E: finite(E), X: finite(X), thrust },
+      interslice: { E, X, thrust },
       material: prepared.materials[s.material[i]].name,
     });
   }
@@ -142,7 +144,7 @@ export function runOnSurface(
     base: cut.base.map((p): Point => [p[0], p[1]]),
     ends: { upper: cut.upperEnd, lower: cut.lowerEnd },
     crack: cut.crack ? { ...cut.crack } : null,
-    slices: reportSlices(prepared, slices, r.converged ? r : null),
+    slices: reportSlices(prepared, slices, r.converged ? r : null, entry.interslice),
     warnings,
     ...extra,
   };

@@ -4,3 +4,10 @@
  */
 export * from './model/types';
 export type * from './model/raw-section';
+export {
+  RENAMED_METHODS,
+  FORMER_INTERSLICE_SHAPES,
+  formerInterslice,
+  intersliceText,
+  renamedWords,
+} from './model/renamed';

@@ -55,8 +55,8 @@ export function resultInUnits<T extends SectionResult>(r: T, to: UnitSystem): T 
       normal: F(s.normal),
       shear: F(s.shear),
       interslice: {
-        E: F(s.interslice.E),
-        X: F(s.interslice.X),
+        E: s.interslice.E === null ? null : F(s.interslice.E),
+        X: s.interslice.X === null ? null : F(s.interslice.X),
         thrust: s.interslice.thrust === null ? null : L(s.interslice.thrust),
       },
     })),
@@ -71,10 +71,13 @@ export function resultInUnits<T extends SectionResult>(r: T, to: UnitSystem): T 
         map: r.search.map
           ? { ...r.search.map, xs: r.search.map.xs.map(L), ys: r.search.map.ys.map(L) }
           : null,
-        lowest: r.search.lowest.map((l) => ({
-          ...l,
-          surface: surface(l.surface) as ReportedSurface,
-        })),
+        trialBand: {
+          ...r.search.trialBand,
+          surfaces: r.search.trialBand.surfaces.map((l) => ({
+            ...l,
+            surface: surface(l.surface) as ReportedSurface,
+          })),
+        },
       }
     : r.search;
   return {

@@ -20,8 +20,12 @@ export interface SliceReport {
   /** Effective base normal force N′ and mobilised shear S. */
   normal: number;
   shear: number;
-  /** Interslice normal E and shear X on the slice's right side; thrust: height of the line of thrust there (null where undefined). */
-  interslice: { E: number; X: number; thrust: number | null };
+  /**
+   * Interslice normal E and shear X on the slice's right side, null where the method does not
+   * compute them (Bishop's simplified method assumes X = 0 and solves for neither; Janbu's
+   * gives E only); thrust: height of the line of thrust there (null where undefined).
+   */
+  interslice: { E: number | null; X: number | null; thrust: number | null };
   material: string;
 }
 
@@ -87,7 +91,7 @@ export interface GridReport {
   ny: number;
 }
 
-/** The search, in the section's units: trials, grid moves, the FS map over the centres, the lowest surfaces. */
+/** The search, in the section's units: trials, grid moves, the FS map over the centres, the trial surfaces near the least FS. */
 export interface SearchReport {
   type: SearchSurface['type'];
   /** The method the circles were searched with (the critical surface of each method is evaluated exactly). */
@@ -99,7 +103,15 @@ export interface SearchReport {
   grid: GridReport | null;
   /** fs[j][i]: the lowest FS over the radii at the centre (xs[i], ys[j]); null where no circle was admissible. */
   map: { xs: number[]; ys: number[]; fs: (number | null)[][] } | null;
-  lowest: { surface: ReportedSurface; fs: number }[];
+  /**
+   * The trial surfaces within `within` of the least FS (FS ≤ (1 + within)·least; analysis.trialBand):
+   * how many the search tried, and the distinct ones kept for the drawing (at most 100, lowest first).
+   */
+  trialBand: {
+    within: number;
+    count: number;
+    surfaces: { surface: ReportedSurface; fs: number }[];
+  };
   /** How the critical circle was found and confirmed, for a checker. */
   howFound: HowFound | null;
 }

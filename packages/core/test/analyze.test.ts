@@ -87,8 +87,31 @@ describe('a searched surface: the result carries the search and still matches th
     });
     expect(validate(JSON.parse(JSON.stringify(r)))).toBe(true);
     expect(r.search?.map?.fs.length).toBeGreaterThan(0);
-    expect(r.search?.lowest.length).toBeGreaterThan(0);
+    const band = r.search!.trialBand;
+    expect(band.within).toBe(0.05);
+    expect(band.surfaces.length).toBeGreaterThan(0);
+    expect(band.surfaces.length).toBeLessThanOrEqual(Math.min(100, band.count));
     // the lowest trial circle is not below the governing FS by more than the fast slicing's error
-    expect(r.search!.lowest[0].fs).toBeGreaterThan(0.98 * r.governing!.fs);
+    const least = band.surfaces[0].fs;
+    expect(least).toBeGreaterThan(0.98 * r.governing!.fs);
+    // every one kept is within the band of the least, lowest first
+    band.surfaces.forEach((t, i) => {
+      expect(t.fs).toBeLessThanOrEqual(1.05 * least * (1 + 1e-12));
+      if (i > 0) expect(t.fs).toBeGreaterThanOrEqual(band.surfaces[i - 1].fs);
+    });
+  });
+
+  test('analysis.trialBand sets the band: a wider one keeps at least as many, 0 keeps none', () => {
+    const s = sections[0][1];
+    const run = (trialBand: number) =>
+      analyzeSection({ ...s, analysis: { ...s.analysis, surface: { type: 'auto' }, trialBand } })
+        .search!.trialBand;
+    const [none, narrow, wide] = [run(0), run(0.02), run(0.2)];
+    expect(none).toEqual({ within: 0, count: 0, surfaces: [] });
+    expect(wide.count).toBeGreaterThanOrEqual(narrow.count);
+    expect(narrow.count).toBeGreaterThan(0);
+    const least = wide.surfaces[0].fs;
+    for (const t of wide.surfaces) expect(t.fs).toBeLessThanOrEqual(1.2 * least * (1 + 1e-12));
+    expect(wide.surfaces.some((t) => t.fs > 1.02 * least)).toBe(true);
   });
 });

@@ -8,10 +8,13 @@ import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { CAUTION, analyzeSection, drawSection, parseSections, type Section } from '@scarpline/core';
 import { niceStep, niceTicks } from '../src/draw/nice-ticks';
 import { scaleLinear } from '../src/draw/scale-linear';
-import { ACCENT, fsColor, strataColor } from '../src/draw/palette';
+import { ACCENT, fsColor, materialFill, MATERIAL_RAMPS, RIGID_FILL } from '../src/draw/palette';
+import { strataFills } from '../src/draw/strata-shapes';
+import { sectionInUnits } from '../src/draw/section-in-units';
+import { boxIsClear, insidePolygon, segmentHitsBox } from '../src/draw/free-place';
 import { pondedPolygons } from '../src/draw/ponded-polygons';
 import { circleBelowGround } from '../src/draw/circle-below-ground';
-import { fsMapDomain } from '../src/draw/fs-map-shape';
+import { bandColour, fsMapDomain, fsMapLevels } from '../src/draw/fs-map-shape';
 import { wrapText } from '../src/draw/wrap-text';
 import type { SearchReport } from '../src/result';
 
@@ -25,6 +28,10 @@ const luminance = (hex: string): number => {
   const l = c.map((v) => (v <= 0.04045 ? v / 12.92 : ((v + 0.055) / 1.055) ** 2.4));
   return 0.2126 * l[0] + 0.7152 * l[1] + 0.0722 * l[2];
 };
+
+/** The points of an SVG path's M and L commands. */
+const pointsOf = (d: string): [number, number][] =>
+  [...d.matchAll(/[ML](-?[\d.]+) (-?[\d.]+)/g)].map((m) => [Number(m[1]), Number(m[2])]);
 
 const parser = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '' });
 /** Every element of a tag in a parsed SVG tree. */
@@ -87,10 +94,82 @@ describe('palettes', () => {
     expect(fsColor(1)).toBe('#fde725');
   });
 
-  test('the strata ramp darkens with depth, and the accent is none of its colours', () => {
-    const l = [0, 1, 2, 3, 4].map((i) => luminance(strataColor(i, 5)));
-    for (let k = 1; k < l.length; k++) expect(l[k]).toBeLessThan(l[k - 1]);
-    expect([0, 1, 2, 3, 4].map((i) => strataColor(i, 5))).not.toContain(ACCENT);
+  test('a material is coloured by its kind and strength: a hue a kind, weaker paler', () => {
+    for (const kind of ['granular', 'cohesive', 'undrained'] as const) {
+      const l = [5, 20, 60, 150, 300].map((strength) =>
+        luminance(materialFill({ kind, strength })),
+      );
+      for (let k = 1; k < l.length; k++) expect(l[k]).toBeLessThan(l[k - 1]);
+    }
+    const same = [
+      materialFill({ kind: 'granular', strength: 60 }),
+      materialFill({ kind: 'cohesive', strength: 60 }),
+      materialFill({ kind: 'undrained', strength: 60 }),
+    ];
+    expect(new Set(same).size).toBe(3);
+    expect(materialFill({ kind: 'rigid', strength: Infinity })).toBe(RIGID_FILL);
+    expect(Object.values(MATERIAL_RAMPS).flat()).not.toContain(ACCENT);
+  });
+
+  test("colour by material, not by depth: the levee's sand aquifer (the deepest) is not the darkest, and every material differs", () => {
+    const model = sectionInUnits(section('levee-land-side.yaml'));
+    const fills = strataFills(model);
+    expect(new Set(Object.values(fills)).size).toBe(3);
+    expect(luminance(fills.sand)).toBeGreaterThan(
+      Math.min(luminance(fills['bank-clay']), luminance(fills.alluvium)),
+    );
+    // the same material has the same colour in another section
+    const other = strataFills(sectionInUnits(section('fill-clean-sand.yaml')));
+    for (const [m, f] of Object.entries(other))
+      expect(f).toBe(
+        materialFill(
+          sectionInUnits(section('fill-clean-sand.yaml')).strata.find((t) => t.material === m)!
+            .tint,
+        ),
+      );
+  });
+});
+
+describe('placing words', () => {
+  test('a box is clear of a line that misses it, not of one that crosses it or an area around it', () => {
+    const box = { x0: 0, y0: 0, x1: 10, y1: 10 };
+    expect(segmentHitsBox([-5, 5], [15, 5], box)).toBe(true);
+    expect(segmentHitsBox([-5, 15], [15, 15], box)).toBe(false);
+    expect(
+      boxIsClear(box, {
+        lines: [
+          [
+            [20, 0],
+            [20, 10],
+          ],
+        ],
+        areas: [],
+        boxes: [],
+      }),
+    ).toBe(true);
+    expect(
+      boxIsClear(box, {
+        lines: [
+          [
+            [5, -5],
+            [5, 15],
+          ],
+        ],
+        areas: [],
+        boxes: [],
+      }),
+    ).toBe(false);
+    const around: [number, number][] = [
+      [-20, -20],
+      [30, -20],
+      [30, 30],
+      [-20, 30],
+    ];
+    expect(insidePolygon([5, 5], around)).toBe(true);
+    expect(boxIsClear(box, { lines: [], areas: [around], boxes: [] })).toBe(false);
+    expect(
+      boxIsClear(box, { lines: [], areas: [], boxes: [{ x0: 9, y0: 9, x1: 12, y1: 12 }] }),
+    ).toBe(false);
   });
 });
 
@@ -142,16 +221,24 @@ describe('shapes from geometry', () => {
     expect(Math.min(...arc.map((p) => p[1]))).toBeCloseTo(25, 3);
   });
 
-  test('the FS map colours span the least FS up to twice it', () => {
+  test("the FS map colours span the least FS (or the polished circle's, when lower) up to twice it", () => {
     expect(fsMapDomain({ xs: [0, 1], ys: [0], fs: [[1.2, 5]] })).toEqual([1.2, 2.4]);
     expect(fsMapDomain({ xs: [0, 1], ys: [0], fs: [[1.2, 1.5]] })).toEqual([1.2, 1.5]);
+    expect(fsMapDomain({ xs: [0, 1], ys: [0], fs: [[1.2, 1.5]] }, 1.1)).toEqual([1.1, 1.5]);
     expect(fsMapDomain({ xs: [0], ys: [0], fs: [[null]] })).toBeNull();
+  });
+
+  test('the contour levels start at the least FS, end at the top, and step by a round value', () => {
+    const levels = fsMapLevels([1.52, 3.04]);
+    expect(levels[0]).toBe(1.52);
+    expect(levels[levels.length - 1]).toBe(3.04);
+    expect(levels.slice(1, -1)).toEqual([1.6, 1.8, 2, 2.2, 2.4, 2.6, 2.8, 3]);
   });
 });
 
 describe('drawSection', () => {
   test('the levee: well-formed SVG with strata, ponded water, the critical surface, slices and the caution', () => {
-    const s = section('levee-river-side.yaml');
+    const s = section('levee-land-side.yaml');
     const r = analyzeSection(s);
     const svg = drawSection(s, r);
     expect(XMLValidator.validate(svg)).toBe(true);
@@ -160,10 +247,21 @@ describe('drawSection', () => {
       typeof t === 'object' ? String((t['#text'] as string | number | undefined) ?? '') : String(t),
     );
     const joined = texts.join(' ');
-    for (const m of ['bank-clay', 'alluvium', 'sand']) expect(texts).toContain(m);
+    // the materials by their own descriptions, in the legend and on the drawing
+    for (const d of [
+      'Compacted sandy CLAY (levee fill)',
+      'Firm silty CLAY (floodplain alluvium)',
+      'Medium dense SAND (river terrace aquifer)',
+    ])
+      expect(joined).toContain(d);
     expect(joined).toContain('ponded water');
     expect(joined).toContain('piezometric line');
-    expect(joined).toContain(`FS ${r.governing?.fs.toFixed(3)}`);
+    // the FS in a callout at the arc; no radius lines, no cross at the centre
+    const callout = all(tree, 'g').find((g) => g.class === 'fs-callout');
+    expect(JSON.stringify(callout)).toContain(`FS ${r.governing?.fs.toFixed(3)} (bishop)`);
+    expect(all(tree, 'line').filter((l) => l['stroke-dasharray'] === '2 3')).toHaveLength(0);
+    expect(all(tree, 'circle').filter((c) => c.class === 'critical-centre')).toHaveLength(1);
+    expect(drawSection(s, r, { radii: true })).toContain('stroke-dasharray="2 3"');
     expect(joined).toMatch(/: below the required FS/);
     expect(joined).toContain('x (m)');
     expect(joined).toContain('elevation (m)');
@@ -175,6 +273,20 @@ describe('drawSection', () => {
     const slices = paths.find((p) => p.class === 'slices');
     // a line at every side between two slices: the outer sides end on the ground, with no height
     expect(String(slices?.d).match(/M/g)?.length).toBe(r.results[0].slices.length - 1);
+    // the labels on the drawing stay clear of the slip surface and out of the sliding mass
+    const arc = pointsOf(String(critical[0].d));
+    const mass = [...arc, arc[0]];
+    const labels = all(
+      all(tree, 'g').find((g) => g.class === 'strata-labels'),
+      'text',
+    );
+    expect(labels.length).toBeGreaterThanOrEqual(2);
+    for (const t of labels) {
+      const p: [number, number] = [Number(t.x), Number(t.y) - 4];
+      expect(insidePolygon(p, mass)).toBe(false);
+      const box = { x0: p[0] - 20, y0: p[1] - 6, x1: p[0] + 20, y1: p[1] + 6 };
+      expect(boxIsClear(box, { lines: [arc], areas: [], boxes: [] })).toBe(true);
+    }
   });
 
   test('a US section is drawn in feet with loads in psf', () => {
@@ -185,7 +297,7 @@ describe('drawSection', () => {
     expect(svg).toContain('c′ 150 psf, φ′ 26°');
   });
 
-  test('the search FS map: a cell per centre with an FS, coloured by the ramp, and a colour bar', () => {
+  test('the search FS map: filled contours over the centres with an FS, its extent outlined exactly, a banded colour bar', () => {
     const s = section('cut-surcharge-seismic.yaml');
     const xs = [18, 20, 22, 24];
     const ys = [44, 46, 48];
@@ -199,7 +311,11 @@ describe('drawSection', () => {
       moves: [{ reason: 'minimum on the edge', grid: { x: [20, 26], y: [44, 48], nx: 4, ny: 3 } }],
       grid: { x: [18, 24], y: [44, 48], nx: 4, ny: 3 },
       map: { xs, ys, fs },
-      lowest: [{ surface: { type: 'circle', center: [22, 46], radius: 19 }, fs: 1.7 }],
+      trialBand: {
+        within: 0.05,
+        count: 7,
+        surfaces: [{ surface: { type: 'circle', center: [22, 46], radius: 19 }, fs: 1.7 }],
+      },
       howFound: null,
     };
     const r = { ...analyzeSection(s), search };
@@ -207,14 +323,33 @@ describe('drawSection', () => {
     expect(XMLValidator.validate(svg)).toBe(true);
     const tree = parser.parse(svg);
     const map = all(tree, 'g').find((g) => g.class === 'fs-map');
-    const cells = all(map, 'rect').filter((c) => c.fill !== 'none');
-    expect(cells).toHaveLength(11); // 12 centres, one without an admissible circle
-    expect(cells.map((c) => c.fill)).toContain(fsColor(0)); // the least FS at the dark end
-    expect(all(map, 'rect').filter((c) => c.fill === 'none')).toHaveLength(2); // grid and its move
-    expect(all(tree, 'g').some((g) => g.class === 'color-bar')).toBe(true);
-    expect(all(tree, 'linearGradient')).toHaveLength(1);
+    const bands = all(map, 'path');
+    const levels = fsMapLevels(fsMapDomain(search.map!)!);
+    expect(bands.length).toBeGreaterThanOrEqual(3);
+    expect(bands.map((b) => b.fill)).toContain(fsColor(0)); // the least FS at the dark end
+    // the filled area spans exactly the map's extent (a centre without a circle leaves its corner blank)
+    const pts = bands.flatMap((b) => pointsOf(String(b.d)));
+    const extent = all(map, 'rect').find((c) => c.class === 'fs-map-extent')!;
+    const [x0, y0] = [Number(extent.x), Number(extent.y)];
+    const [x1, y1] = [x0 + Number(extent.width), y0 + Number(extent.height)];
+    expect(Math.min(...pts.map((p) => p[0]))).toBeCloseTo(x0, 1);
+    expect(Math.max(...pts.map((p) => p[0]))).toBeCloseTo(x1, 1);
+    expect(Math.min(...pts.map((p) => p[1]))).toBeCloseTo(y0, 1);
+    expect(Math.max(...pts.map((p) => p[1]))).toBeCloseTo(y1, 1);
+    expect(all(map, 'rect').filter((c) => c.fill === 'none')).toHaveLength(2); // extent and the move
+    // the colour bar in the same bands
+    const bar = all(tree, 'g').find((g) => g.class === 'color-bar');
+    const barFills = all(bar, 'rect')
+      .map((c) => c.fill)
+      .filter((f) => f !== 'none');
+    expect(barFills).toEqual(
+      levels.slice(0, -1).map((_, k) => bandColour(levels, k, fsMapDomain(search.map!)!)),
+    );
+    for (const b of bands) expect(barFills).toContain(b.fill);
     expect(svg).toMatch(/grid search \(bishop\): 120 trials,(<\/text><text[^>]*>| )grid moved 1×/);
     expect(all(tree, 'g').some((g) => g.class === 'trial-surfaces')).toBe(true);
+    expect(svg).toMatch(/trial surfaces within 5 % of the(<\/text><text[^>]*>| )least FS/);
+    expect(svg).not.toMatch(/lowest trial surfaces/);
   });
 
   test('a section whose method did not converge still draws, and says so', () => {

@@ -72,6 +72,8 @@ describe('examples', () => {
         (s) => s.water.kind === 'piezometric' && s.water.line.some(([x, w]) => w > y(s.ground, x)),
       ),
     ).toBe(true);
+    // Morgenstern–Price with an interslice function given as points.
+    expect(all.some((s) => s.analysis.interslice?.shape === 'piecewise-linear')).toBe(true);
     // A clean sand (c′ = 0).
     expect(
       all.some((s) =>

@@ -111,7 +111,7 @@ describe('nesting: refused by a scan before any parser runs', () => {
 
   test('every example and fixture passes the scan; JSON is counted exactly', () => {
     const files = [
-      ...['cut-homogeneous', 'cut-mixed-units', 'embankment-stages', 'levee-river-side'].map((f) =>
+      ...['cut-homogeneous', 'cut-mixed-units', 'embankment-stages', 'levee-land-side'].map((f) =>
         join(ROOT, 'examples', `${f}.yaml`),
       ),
       join(ROOT, 'examples/corridor/corridor.json'),
@@ -278,7 +278,7 @@ describe('"did you mean": only for words a person could have misspelt, at a boun
     data.analysis = { methods: ['x'.repeat(9000)] };
     const { messages } = parseSections(JSON.stringify(data), 'method.json');
     expect(messages.map((m) => `${m.path}: ${m.message}`)).toEqual([
-      'analysis.methods[0]: "xxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxx…" (9000 characters) is not one of ordinary, bishop, janbu, spencer, morgenstern-price, swedish-circle, log-spiral, infinite-slope',
+      'analysis.methods[0]: "xxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxx…" (9000 characters) is not one of ordinary, bishop, janbu, spencer, morgenstern-price, phi-zero-circle, log-spiral, infinite-slope',
     ]);
   });
 

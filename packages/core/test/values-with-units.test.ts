@@ -143,7 +143,7 @@ describe('the schemas', () => {
   // counts), or is the station, or sits in a list (points, polylines, ranges).
   const PLAIN = new Set([
     ...['station', 'frictionAngle', 'angle', 'ru', 'kh', 'kv', 'waterRatio', 'requiredFs'],
-    ...['end', 'ramp'],
+    ...['trialBand'],
     ...['slices', 'nx', 'ny', 'count', 'moves', 'points', 'radiusCount', 'vertices'],
     ...['restarts', 'seed'],
   ]);

@@ -59,7 +59,10 @@ export function messageView(m: Message | SectionMessage) {
 
 function locatedError(messages: Message[]) {
   const errors = messages.filter((m) => m.severity === 'error');
-  return invalid(`${errors.length} error(s) in the input.`, { errors: errors.map(messageView) });
+  const n = errors.length;
+  return invalid(`${n} ${n === 1 ? 'error' : 'errors'} in the input.`, {
+    errors: errors.map(messageView),
+  });
 }
 
 /** The warnings given to the sections they concern: each message names its sections' ids. */

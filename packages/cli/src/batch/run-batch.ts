@@ -158,10 +158,13 @@ export async function runBatch(
   for (const m of messages) err(m);
   const runnable = entries.filter((e) => e.section);
   if (entries.length === 0 || runnable.length === 0) {
-    err(`${input.name}: no section could be read; nothing analysed`);
+    err(`${input.name}: no section could be read; nothing analyzed`);
     return 1;
   }
   const shownUnits = options.units ?? units ?? 'si';
+  // the caution before any result on standard error (the progress and the per-station lines),
+  // so that a run whose standard output goes elsewhere never shows a result without it
+  err(`Caution: ${CAUTION}`);
   const outDir = options.out;
   const drawings = outDir && options.svg !== false ? join(outDir, 'sections') : null;
   if (outDir) mkdirSync(outDir, { recursive: true });
@@ -178,7 +181,7 @@ export async function runBatch(
   const bar = options.tty
     ? new SingleBar(
         {
-          format: 'analysing |{bar}| {value}/{total} sections  {last}',
+          format: 'analyzing |{bar}| {value}/{total} sections  {last}',
           stream: process.stderr,
           hideCursor: true,
           clearOnComplete: true,
@@ -300,7 +303,7 @@ export async function runBatch(
   const count = (v: Verdict) => done.filter((e) => e.record.verdict === v).length;
   out('');
   out(
-    `${done.length} of ${total} sections: ${VERDICTS.map((v) => `${VERDICT_WORDS[v]}: ${count(v)}`).join(', ')}`,
+    `${done.length} of ${total} ${total === 1 ? 'section' : 'sections'}: ${VERDICTS.map((v) => `${VERDICT_WORDS[v]}: ${count(v)}`).join(', ')}`,
   );
   if (outDir) {
     const svgs = drawings ? `, sections/*.svg (${written})` : '';

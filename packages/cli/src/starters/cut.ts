@@ -17,7 +17,7 @@ materials:
     unitWeight: 20            # γ above the piezometric line
     saturatedUnitWeight: 20.5 # γsat below it (defaults to unitWeight)
     # mohr-coulomb: c′ (kPa) and φ′ (degrees); undrained: su (kPa), optional suRate and suDatum;
-    # rigid: a base slip surfaces may not cross.
+    # rigid: rigid base: no slip surface enters it.
     strength: { model: mohr-coulomb, cohesion: 5, frictionAngle: 28 }
   rock:
     description: Weathered rock, taken as a rigid base
@@ -38,7 +38,7 @@ loads:
 # seismic: { kh: 0.1, kv: 0 }             # pseudo-static coefficients
 # crack: { depth: auto, waterDepth: 0 }   # tension crack: a depth, or auto (Rankine)
 analysis:
-  # ordinary, bishop, janbu, spencer, morgenstern-price, swedish-circle, log-spiral, infinite-slope
+  # ordinary, bishop, janbu, spencer, morgenstern-price, phi-zero-circle, log-spiral, infinite-slope
   methods: [bishop, spencer]
   slices: 40
 ${SURFACE_NOTE}

@@ -32,7 +32,9 @@ water:
 analysis:
   methods: [bishop, spencer, morgenstern-price]
   slices: 40
-  interslice: { shape: half-sine }   # Morgenstern–Price f(x)
+  # Morgenstern–Price f(ξ), ξ from 0 at the toe end to 1 at the crest end: constant, half-sine,
+  # or piecewise-linear with points, e.g. { shape: piecewise-linear, points: [[0, 0.4], [0.5, 1], [1, 0.4]] }
+  interslice: { shape: half-sine }
 ${SURFACE_NOTE}
   surface: { type: circle, center: [45, 38], radius: 16.1 }
   case: steady-seepage

@@ -1,13 +1,13 @@
-import { fsColor, INK } from './palette';
-import { niceTicks } from './nice-ticks';
+import { bandColour, fsMapLevels } from './fs-map-shape';
+import { INK } from './palette';
 import { svgElement, svgText } from './svg-element';
 
 /**
- * A vertical colour bar for the FS map: the sequential ramp from `domain[0]` (bottom) to
- * `domain[1]` (top), ticks with values, a title, and "≥" on the top value when the map goes
- * beyond it. `ids` names the gradient.
+ * A vertical colour bar for the FS map, in the map's own bands (fsMapLevels): one box a band
+ * from `domain[0]` (bottom) to `domain[1]` (top) in the band's colour, each level written
+ * beside it, a title, and "≥" on the top value when the map goes beyond it.
  *
- * @example colorBar(900, 300, 16, 160, [1.2, 2.4], 'FS', true, 'sl')
+ * @example colorBar(900, 300, 16, 160, [1.2, 2.4], 'FS', true)
  */
 export function colorBar(
   x: number,
@@ -17,38 +17,33 @@ export function colorBar(
   domain: readonly [number, number],
   title: string,
   clipped: boolean,
-  ids: string,
 ): string {
-  const stops: string[] = [];
-  for (let k = 0; k <= 10; k++)
-    stops.push(svgElement('stop', { offset: `${k * 10}%`, 'stop-color': fsColor(k / 10) }));
-  const gradient = svgElement(
-    'linearGradient',
-    { id: `${ids}-fs-ramp`, x1: 0, y1: 1, x2: 0, y2: 0 },
-    stops,
-  );
   const [lo, hi] = domain;
   const at = (v: number) => y + height - ((v - lo) / (hi - lo)) * height;
-  const parts = [
-    svgElement('defs', {}, [gradient]),
-    svgText(x, y - 10, title, { fill: INK, 'font-size': 11, 'font-weight': 600 }),
-    svgElement('rect', {
-      x,
-      y,
-      width,
-      height,
-      fill: `url(#${ids}-fs-ramp)`,
-      stroke: INK,
-      'stroke-width': 0.6,
-    }),
-  ];
-  const ticks = [
-    lo,
-    ...niceTicks(lo, hi, 4).filter((t) => at(t) > y + 10 && at(t) < y + height - 10),
-    hi,
-  ];
-  for (const t of ticks) {
+  const levels = fsMapLevels(domain);
+  const parts = [svgText(x, y - 10, title, { fill: INK, 'font-size': 11, 'font-weight': 600 })];
+  levels.forEach((v, k) => {
+    const top = k + 1 < levels.length ? at(levels[k + 1]) : y;
+    if (k + 1 === levels.length) return;
+    parts.push(
+      svgElement('rect', {
+        x,
+        y: top,
+        width,
+        height: at(v) - top,
+        fill: bandColour(levels, k, domain),
+      }),
+    );
+  });
+  parts.push(
+    svgElement('rect', { x, y, width, height, fill: 'none', stroke: INK, 'stroke-width': 0.6 }),
+  );
+  let last = -Infinity;
+  for (const t of [...levels].reverse()) {
     const ty = at(t);
+    // every level that has room for its words (the top and the least always)
+    if (t !== lo && t !== hi && (ty - last < 12 || at(lo) - ty < 12)) continue;
+    last = ty;
     const text = `${t === hi && clipped ? '≥ ' : ''}${t.toFixed(2)}`;
     parts.push(
       svgElement('line', { x1: x + width, y1: ty, x2: x + width + 4, y2: ty, stroke: INK }),

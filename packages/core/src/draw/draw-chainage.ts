@@ -1,21 +1,19 @@
 import { CAUTION } from '../caution';
 import type { UnitSystem } from '../model/types';
-import { axisBottom, axisLeft } from './axis';
-import { chainageLabel } from './chainage-label';
-import { legend, type LegendItem } from './legend';
-import { BELOW_REQUIRED, INK, MUTED } from './palette';
-import { scaleLinear } from './scale-linear';
-import { pathData, svgElement, svgText } from './svg-element';
-import { cautionBlock, cautionLines, svgDocument } from './svg-document';
-import type { Frame } from './types';
 import { VERDICT_WORDS } from '../verdict';
+import {
+  CHAINAGE_STYLE,
+  chainageLayout,
+  chainageMarker,
+  clippedMarker,
+  type ChainageMark,
+  type ChainagePoint,
+} from './chainage-layout';
+import { INK } from './palette';
+import { svgElement, svgText } from './svg-element';
+import { cautionBlock, cautionLines, svgDocument } from './svg-document';
 
-/** One station of a corridor: its governing FS (null when none) and required FS. */
-export interface ChainagePoint {
-  station: number;
-  fs: number | null;
-  requiredFs: number | null;
-}
+export type { ChainagePoint } from './chainage-layout';
 
 export interface DrawChainageOptions {
   title?: string;
@@ -25,11 +23,19 @@ export interface DrawChainageOptions {
   caution?: string;
 }
 
+/** What each mark stands for, in the legend and on the web page. */
+export const CHAINAGE_MARK_WORDS: Record<ChainageMark, string> = {
+  meets: VERDICT_WORDS.meets,
+  below: VERDICT_WORDS.below,
+  'no-requirement': VERDICT_WORDS['no-requirement'],
+  'no-fs': VERDICT_WORDS['no-fs'],
+};
+
 /**
- * The governing FS along the chainage as an SVG document: a line through the stations'
- * FS (broken where a station has none), filled dots where the required FS is met and open
- * squares where it is not, the required FS as a dashed step line, stations without a result
- * marked under the axis, chainage labels, a legend and the caution.
+ * The governing FS along the chainage as an SVG document, laid out by chainageLayout (the same
+ * chart the web page draws): the stations' marks, the FS line, the required FS as a dashed step
+ * line, chainage labels, the stations below their requirement labelled, a legend with the count
+ * of each mark, the title and the caution.
  *
  * @example drawChainage([{ station: 1000, fs: 1.62, requiredFs: 1.5 }, …], { units: 'si' })
  */
@@ -40,161 +46,152 @@ export function drawChainage(
   const width = options.width ?? 1100;
   const plotH = options.height ?? 360;
   const units = options.units ?? 'si';
-  const pts = [...points].sort((a, b) => a.station - b.station);
-  const left = 70;
-  const top = 132;
-  const plotW = width - left - 40;
-  const stations = pts.map((p) => p.station);
-  let s0 = stations.length ? Math.min(...stations) : 0;
-  let s1 = stations.length ? Math.max(...stations) : 1;
-  if (s1 === s0) [s0, s1] = [s0 - 1, s1 + 1];
-  const pad = (s1 - s0) * 0.02;
-  const values = pts
-    .flatMap((p) => [p.fs, p.requiredFs])
-    .filter((v): v is number => v !== null && Number.isFinite(v));
-  // the axis stops at 2.5 times the highest required FS: higher values are marked at the top
-  const required = pts.map((p) => p.requiredFs).filter((v): v is number => v !== null);
-  const cap = required.length ? 2.5 * Math.max(...required) : Infinity;
-  const yMax = values.length ? Math.min(Math.max(...values) * 1.12, cap) : 2;
-  const clip = (v: number) => Math.min(v, yMax);
-  const frame: Frame = {
-    left,
-    top,
-    width: plotW,
-    height: plotH,
-    x: scaleLinear([s0 - pad, s1 + pad], [left, left + plotW]),
-    y: scaleLinear([0, yMax], [top + plotH, top]),
-  };
-  const parts: string[] = [];
-  // required FS: a step line, each station's value held half-way to its neighbours
-  const req: [number, number][][] = [];
-  let run: [number, number][] = [];
-  pts.forEach((p, i) => {
-    if (p.requiredFs === null) {
-      if (run.length) req.push(run);
-      run = [];
-      return;
-    }
-    const a = i > 0 ? (p.station + pts[i - 1].station) / 2 : p.station - pad;
-    const b = i + 1 < pts.length ? (p.station + pts[i + 1].station) / 2 : p.station + pad;
-    run.push([frame.x(a), frame.y(p.requiredFs)], [frame.x(b), frame.y(p.requiredFs)]);
+  const top = 96;
+  const l = chainageLayout(points, {
+    width,
+    height: top + plotH + 46,
+    units,
+    margin: { left: 70, right: 40, top, bottom: 46 },
   });
-  if (run.length) req.push(run);
-  for (const r of req)
+  const { plot } = l;
+  const parts: string[] = [];
+  for (const t of l.yTicks) {
+    parts.push(
+      svgElement('line', {
+        x1: plot.left,
+        x2: plot.right,
+        y1: t.y,
+        y2: t.y,
+        ...CHAINAGE_STYLE.grid,
+      }),
+      svgElement('line', {
+        x1: plot.left - 5,
+        x2: plot.left,
+        y1: t.y,
+        y2: t.y,
+        ...CHAINAGE_STYLE.axis,
+      }),
+      svgText(plot.left - 8, t.y + 4, t.text, { 'text-anchor': 'end', ...CHAINAGE_STYLE.tick }),
+    );
+  }
+  for (const t of l.xTicks) {
+    parts.push(
+      svgElement('line', {
+        x1: t.x,
+        x2: t.x,
+        y1: plot.bottom,
+        y2: plot.bottom + 5,
+        ...CHAINAGE_STYLE.axis,
+      }),
+      svgText(t.x, plot.bottom + 18, t.text, { 'text-anchor': 'middle', ...CHAINAGE_STYLE.tick }),
+    );
+  }
+  const L = units === 'us' ? 'ft' : 'm';
+  parts.push(
+    svgElement('line', {
+      x1: plot.left,
+      x2: plot.right,
+      y1: plot.bottom,
+      y2: plot.bottom,
+      ...CHAINAGE_STYLE.axis,
+    }),
+    svgElement('line', {
+      x1: plot.left,
+      x2: plot.left,
+      y1: plot.top,
+      y2: plot.bottom,
+      ...CHAINAGE_STYLE.axis,
+    }),
+    svgText((plot.left + plot.right) / 2, plot.bottom + 36, `chainage (${L})`, {
+      'text-anchor': 'middle',
+      ...CHAINAGE_STYLE.title,
+    }),
+    svgText(plot.left - 40, (plot.top + plot.bottom) / 2, 'factor of safety', {
+      'text-anchor': 'middle',
+      ...CHAINAGE_STYLE.title,
+      transform: `rotate(-90 ${Math.round(plot.left - 40)} ${Math.round((plot.top + plot.bottom) / 2)})`,
+    }),
+  );
+  if (l.requiredPath)
+    parts.push(
+      svgElement('path', { d: l.requiredPath, ...CHAINAGE_STYLE.required, class: 'required' }),
+    );
+  if (l.fsPath)
+    parts.push(svgElement('path', { d: l.fsPath, ...CHAINAGE_STYLE.fsLine, class: 'fs-line' }));
+  const counts: Record<ChainageMark, number> = {
+    meets: 0,
+    below: 0,
+    'no-requirement': 0,
+    'no-fs': 0,
+  };
+  let above = 0;
+  for (const s of l.stations) {
+    counts[s.mark]++;
     parts.push(
       svgElement('path', {
-        d: pathData(r),
-        fill: 'none',
-        stroke: INK,
-        'stroke-width': 1.4,
-        'stroke-dasharray': '8 4',
-        class: 'required',
+        d: chainageMarker(s.mark, s.x, s.y),
+        ...CHAINAGE_STYLE[s.mark],
+        class: s.mark,
       }),
     );
-  // FS line, broken at stations without a result
-  let seg: [number, number][] = [];
-  const segs: [number, number][][] = [];
-  for (const p of pts) {
-    if (p.fs === null) {
-      if (seg.length) segs.push(seg);
-      seg = [];
-    } else seg.push([frame.x(p.station), frame.y(clip(p.fs))]);
-  }
-  if (seg.length) segs.push(seg);
-  for (const sgm of segs)
-    parts.push(
-      svgElement('path', { d: pathData(sgm), fill: 'none', stroke: MUTED, 'stroke-width': 1.2 }),
-    );
-  let below = 0;
-  let none = 0;
-  let above = 0;
-  for (const p of pts) {
-    const x = frame.x(p.station);
-    if (p.fs === null) {
-      none++;
-      const y = frame.top + frame.height;
-      parts.push(
-        svgElement('path', {
-          d: `M${x - 4} ${y - 8}L${x + 4} ${y}M${x + 4} ${y - 8}L${x - 4} ${y}`,
-          stroke: MUTED,
-          'stroke-width': 1.2,
-          class: 'no-result',
-        }),
-      );
-      continue;
-    }
-    if (p.fs > yMax) {
+    if (s.clipped) {
       above++;
-      const y = frame.top;
       parts.push(
         svgElement('path', {
-          d: `M${x - 4} ${y + 7}L${x + 4} ${y + 7}L${x} ${y + 1}Z`,
-          fill: INK,
+          d: clippedMarker(s.x, s.y),
+          ...CHAINAGE_STYLE.clipped,
           class: 'above',
         }),
       );
-      continue;
     }
-    const y = frame.y(p.fs);
-    if (p.requiredFs !== null && p.fs < p.requiredFs) {
-      below++;
+    if (s.labelY !== null)
       parts.push(
-        svgElement('rect', {
-          x: x - 4,
-          y: y - 4,
-          width: 8,
-          height: 8,
-          fill: '#ffffff',
-          stroke: BELOW_REQUIRED,
-          'stroke-width': 1.6,
-          class: 'below',
+        svgText(s.x, s.labelY, s.label, {
+          'text-anchor': 'middle',
+          ...CHAINAGE_STYLE.label,
+          stroke: '#ffffff',
+          'stroke-width': 3,
+          'paint-order': 'stroke',
         }),
       );
-    } else parts.push(svgElement('circle', { cx: x, cy: y, r: 3.5, fill: INK, class: 'meets' }));
   }
-  const L = units === 'us' ? 'ft' : 'm';
-  const items: LegendItem[] = [
-    {
-      swatch: 'line',
-      style: { stroke: INK, 'stroke-width': 1.4, 'stroke-dasharray': '8 4' },
-      label: 'required FS',
-    },
-    { swatch: 'line', style: { stroke: MUTED, 'stroke-width': 1.2 }, label: 'governing FS' },
-    {
-      swatch: 'none',
-      style: {},
-      label: `● ${VERDICT_WORDS.meets} (${pts.length - none - below - above})`,
-    },
-    { swatch: 'none', style: {}, label: `□ ${VERDICT_WORDS.below} (${below})` },
-  ];
+  // the legend: one row above the plot, a mark (with its count) or a line each
+  const legend: string[] = [];
+  let lx = plot.left;
+  const ly = top - 22;
+  const entry = (swatch: string, words: string) => {
+    legend.push(swatch, svgText(lx + 24, ly + 4, words, { fill: INK, 'font-size': 11 }));
+    lx += 24 + words.length * 6.1 + 22;
+  };
+  entry(
+    svgElement('path', { d: `M${lx} ${ly}H${lx + 18}`, ...CHAINAGE_STYLE.required }),
+    'required FS',
+  );
+  entry(
+    svgElement('path', { d: `M${lx} ${ly}H${lx + 18}`, ...CHAINAGE_STYLE.fsLine }),
+    'governing FS',
+  );
+  for (const mark of ['meets', 'below', 'no-requirement', 'no-fs'] as const) {
+    if (mark !== 'meets' && mark !== 'below' && counts[mark] === 0) continue;
+    entry(
+      svgElement('path', { d: chainageMarker(mark, lx + 9, ly), ...CHAINAGE_STYLE[mark] }),
+      `${CHAINAGE_MARK_WORDS[mark]} (${counts[mark]})`,
+    );
+  }
   if (above)
-    items.push({
-      swatch: 'none',
-      style: {},
-      label: `▲ above ${yMax.toFixed(2)}, off the axis (${above})`,
-    });
-  if (none)
-    items.push({ swatch: 'none', style: {}, label: `× ${VERDICT_WORDS['no-fs']} (${none})` });
+    entry(
+      svgElement('path', { d: clippedMarker(lx + 9, ly + 9), ...CHAINAGE_STYLE.clipped }),
+      `above ${l.yMax}, at the top edge (${above})`,
+    );
   const title = options.title ?? 'Factor of safety along the chainage';
-  const cautionTop = top + plotH + 62;
+  const cautionTop = plot.bottom + 62;
   const caution = cautionLines(options.caution ?? CAUTION, width);
   const height = cautionTop + caution.length * 14 + 14;
   const body = [
     svgElement('rect', { width, height, fill: '#ffffff' }),
     svgText(24, 28, title, { 'font-size': 15, 'font-weight': 700, fill: INK }),
-    axisBottom(frame, `chainage (${L})`, (v) => chainageLabel(v, units)),
-    axisLeft(frame, 'factor of safety'),
+    svgElement('g', { class: 'legend' }, legend),
     ...parts,
-    svgElement('rect', {
-      x: frame.left,
-      y: frame.top,
-      width: frame.width,
-      height: frame.height,
-      fill: 'none',
-      stroke: INK,
-      'stroke-width': 0.8,
-    }),
-    legend(items, left + plotW - 250, 8),
     cautionBlock(caution, cautionTop),
   ];
   return svgDocument(width, height, title, body);

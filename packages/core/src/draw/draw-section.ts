@@ -5,16 +5,18 @@ import { fsText, VERDICT_WORDS } from '../verdict';
 import { axisBottom, axisLeft } from './axis';
 import { colorBar } from './color-bar';
 import { equalScaleFrame, type Bounds } from './frame';
-import { fsMapDomain, fsMapShape } from './fs-map-shape';
+import { fraction, fsMapDomain, fsMapShape } from './fs-map-shape';
+import type { Obstacles } from './free-place';
 import { legend, legendHeight, type LegendItem } from './legend';
 import { loadShapes } from './load-shapes';
-import { ACCENT, INK, MUTED, RIGID_FILL, WATER_FILL, WATER_LINE } from './palette';
+import { ACCENT, fsColor, INK, MUTED, RIGID_FILL, WATER_FILL, WATER_LINE } from './palette';
 import { pondedPolygons } from './ponded-polygons';
 import { sectionInUnits } from './section-in-units';
 import { sliceShapes } from './slice-shapes';
 import { strataFills, strataLabels, strataShapes } from './strata-shapes';
 import {
   criticalSurfaces,
+  fsCallout,
   SURFACE_DASHES,
   surfaceShapes,
   trialSurfaceShapes,
@@ -31,6 +33,15 @@ export interface DrawSectionOptions {
   width?: number;
   /** Prefix of the ids inside the SVG (patterns, markers), unique per drawing on a page. */
   idPrefix?: string;
+  /** Draw the radii from each circle's centre to the ends of its arc (default: no). */
+  radii?: boolean;
+}
+
+/** The sliding mass above a surface (its base and the ground between its ends), as a ring. */
+function massRing(base: readonly Point[], ground: readonly Point[]): Point[] {
+  const b = base[0][0] <= base[base.length - 1][0] ? [...base] : [...base].reverse();
+  const [x0, x1] = [b[0][0], b[b.length - 1][0]];
+  return [...b, ...ground.filter((p) => p[0] > x0 && p[0] < x1).reverse()];
 }
 
 const LEFT = 72;
@@ -68,12 +79,14 @@ function bounds(model: ReturnType<typeof sectionInUnits>, r: DrawableResult): Bo
 }
 
 /**
- * The cross-section drawn as an SVG document: the strata filled from the strata ramp (a
- * rigid base hatched), the ground, the piezometric line and ponded water, the loads as
- * arrows, the FS map of the search grid with its colour bar (when the result carries a
- * search), the lowest trial surfaces, the governing method's slices, every method's critical
- * surface (the governing one in the accent colour, its centre marked with the FS), axes at
- * true scale in the section's units, a legend, and the caution. Pure: no DOM, no I/O; the
+ * The cross-section drawn as an SVG document: the strata coloured by material (a rigid base
+ * hatched), the ground, the piezometric line and ponded water, the loads as arrows, the FS map
+ * of the search as filled contours with its colour bar (when the result carries a search), the
+ * trial surfaces within the search's band of the least FS, the governing method's slices,
+ * every method's critical surface (the governing one in the accent colour, its FS in a callout
+ * at the arc, its centre a ring in the colour of its FS on the map), each material labelled
+ * with its description where the label keeps clear of the surfaces, axes at true scale in the
+ * section's units, a legend, and the caution. Pure: no DOM, no I/O; the
  * same string serves a file and an inline drawing.
  *
  * @example drawSection(section, analyzeSection(section)) // → '<svg xmlns=…'
@@ -95,7 +108,9 @@ export function drawSection(
     : null;
   const groups = criticalSurfaces(result);
   const search = result.search ?? null;
-  const domain = search?.map ? fsMapDomain(search.map) : null;
+  const domain = search?.map
+    ? fsMapDomain(search.map, search.howFound?.confirmation.exact ?? Infinity)
+    : null;
 
   // --- legend items
   const items: LegendItem[] = [];
@@ -110,8 +125,8 @@ export function drawSection(
         fill: s.rigid ? `url(#${ids}-hatch)` : fills[s.material],
         ...(s.rigid ? { 'fill-opacity': 1 } : {}),
       },
-      label: s.material,
-      detail: s.describe,
+      label: s.description || s.material,
+      detail: s.description ? `${s.material}: ${s.describe}` : s.describe,
     });
   }
   if (model.water.line) {
@@ -166,11 +181,16 @@ export function drawSection(
       style: { stroke: INK, 'stroke-width': 0.6, 'stroke-opacity': 0.5 },
       label: `${governing.slices.length} slices (${governing.method})`,
     });
-  if (search && search.lowest.length)
+  const band = search?.trialBand;
+  if (band && band.surfaces.length)
     items.push({
       swatch: 'line',
       style: { stroke: MUTED, 'stroke-width': 0.8 },
-      label: `${search.lowest.length} lowest trial surfaces`,
+      label: `trial surfaces within ${Number((band.within * 100).toFixed(1))} % of the least FS`,
+      detail:
+        band.surfaces.length >= band.count
+          ? `${band.count} tried, all drawn`
+          : `${band.count} tried; ${band.surfaces.length >= 100 ? 'the 100 lowest' : band.surfaces.length} distinct ones drawn`,
     });
   if (search) {
     const moved = search.moves.length ? `, grid moved ${search.moves.length}×` : '';
@@ -183,9 +203,38 @@ export function drawSection(
   if (groups.length === 0)
     items.push({ swatch: 'none', style: {}, label: 'no critical surface: no method converged' });
 
-  // --- the parts, back to front
+  // --- the parts, back to front; the labels last, where they keep clear of the surfaces
   const yBottom = b.yMin;
   const plotClip = `${ids}-plot`;
+  const trials = trialSurfaceShapes(search, model.ground, frame);
+  const px = (line: readonly Point[]) =>
+    line.map((p): [number, number] => [frame.x(p[0]), frame.y(p[1])]);
+  const obstacles: Obstacles = {
+    lines: [...groups.map((g) => px(g.points)), ...trials.lines.map(px)],
+    areas: [],
+    boxes: [],
+  };
+  const mass =
+    governing?.base && governing.base.length > 1 ? massRing(governing.base, model.ground) : null;
+  if (mass) obstacles.areas.push(px(mass));
+  const map = search?.map;
+  if (map && map.xs.length > 1 && map.ys.length > 1 && domain) {
+    const [xa, xb] = [frame.x(map.xs[0]), frame.x(map.xs[map.xs.length - 1])];
+    const [ya, yb] = [frame.y(map.ys[0]), frame.y(map.ys[map.ys.length - 1])];
+    obstacles.boxes.push({
+      x0: Math.min(xa, xb),
+      x1: Math.max(xa, xb),
+      y0: Math.min(ya, yb),
+      y1: Math.max(ya, yb),
+    });
+  }
+  const governingGroup = groups.find((g) => g.governing) ?? null;
+  const callout =
+    governingGroup && result.governing
+      ? fsCallout(governingGroup, result.governing.method, frame, obstacles)
+      : { svg: '', box: null };
+  if (callout.box) obstacles.boxes.push(callout.box);
+  const labels = strataLabels(model, frame, yBottom, obstacles);
   const content = [
     strataShapes(model, frame, yBottom, ids),
     search && domain ? fsMapShape(search, frame, domain) : '',
@@ -198,10 +247,14 @@ export function drawSection(
           frame,
         )
       : '',
-    trialSurfaceShapes(search, model.ground, frame),
-    strataLabels(model, frame, yBottom),
-    surfaceShapes(groups, frame),
+    trials.svg,
+    surfaceShapes(groups, frame, {
+      radii: options.radii === true,
+      ...(domain ? { fill: (fs: number) => fsColor(fraction(fs, domain)) } : {}),
+    }),
     loadShapes(model, frame, ids),
+    labels.svg,
+    callout.svg,
   ];
   if (model.offset !== null && model.offset >= b.xMin && model.offset <= b.xMax) {
     const x = frame.x(model.offset);
@@ -227,7 +280,15 @@ export function drawSection(
     const barTop = rightBottom + 34;
     const clipped =
       search.map?.fs.some((row) => row.some((v) => v !== null && v > domain[1])) ?? false;
-    bar = colorBar(legendX, barTop, 16, 150, domain, 'FS map (least over radii)', clipped, ids);
+    bar = colorBar(
+      legendX,
+      barTop,
+      16,
+      150,
+      domain,
+      `FS map: least FS at each centre (${search.method})`,
+      clipped,
+    );
     rightBottom = barTop + 150;
   }
 

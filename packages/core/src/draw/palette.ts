@@ -1,12 +1,15 @@
 /**
  * The colours of Scarpline's drawings. FS maps use a perceptual sequential ramp (dark = low
  * FS, light = high), never a rainbow; the critical slip surface has one accent colour of its
- * own; strata use an earth ramp of steadily falling lightness, so that deeper strata read
- * darker in colour and in grey print alike.
+ * own; strata are coloured by their material, from earth ramps of our own: a hue for each
+ * kind of soil (granular, cohesive, undrained) and a lightness for its strength (weaker is
+ * paler), so that the same material has the same colour in every drawing.
  */
 
 /** The critical (governing) slip surface. */
 export const ACCENT = '#d6246e';
+/** Words in the accent's hue, dark enough to read on white (WCAG AA). */
+export const ACCENT_TEXT = '#b01657';
 /** Other methods' surfaces, axes and text. */
 export const INK = '#26303a';
 export const MUTED = '#6b7480';
@@ -15,7 +18,9 @@ export const WATER_LINE = '#1f6fb2';
 export const WATER_FILL = '#a9d0ef';
 export const RIGID_FILL = '#a3a6aa';
 /** Points below the required FS on a chainage plot (shape differs too: never colour alone). */
-export const BELOW_REQUIRED = '#9c2a2a';
+export const BELOW_REQUIRED = '#a3302a';
+/** Points that meet the required FS on a chainage plot. */
+export const MEETS = '#2f6b3a';
 
 /** The FS ramp: ten samples of the viridis colour map (van der Walt & Smith 2015, CC0). */
 const FS_RAMP = [
@@ -31,8 +36,15 @@ const FS_RAMP = [
   '#fde725',
 ];
 
-/** The strata ramp (own): sand to umber, lightness falling steadily. */
-const STRATA_RAMP = ['#f1e6cc', '#e0c99b', '#c9aa74', '#ab8a5c', '#8a6f52', '#6a5849'];
+/**
+ * The earth ramps (own), pale to deep, one a kind of soil: straw to ochre for granular soils,
+ * buff to umber for soils with cohesion and friction, pale sage to olive for undrained ones.
+ */
+export const MATERIAL_RAMPS = {
+  granular: ['#f6ebc6', '#e8cf8c', '#cfa95c', '#a57f3f'],
+  cohesive: ['#efe2d4', '#d8bea4', '#b5947a', '#8a6b57'],
+  undrained: ['#e4e8da', '#c3ccae', '#9aa685', '#6d7a5e'],
+} as const;
 
 const rgb = (hex: string): [number, number, number] => [
   parseInt(hex.slice(1, 3), 16),
@@ -72,10 +84,28 @@ export function fsColor(t: number): string {
 }
 
 /**
- * The fill of stratum `index` of `count` (0 the top stratum), spread over the whole ramp.
+ * The fill of a material of a kind and a representative shear strength (kPa): its kind's ramp,
+ * paler for weaker, over 5 to 300 kPa on a log scale; `shift` (−1 to 1) moves it along the ramp
+ * to tell apart two materials that would otherwise look alike. A rigid base is grey (hatched
+ * in the drawing).
  *
- * @example strataColor(0, 3) // → '#f1e6cc'
+ * @example materialFill({ kind: 'granular', strength: 65 }) // → a mid ochre
  */
-export function strataColor(index: number, count: number): string {
-  return rampColor(STRATA_RAMP, count <= 1 ? 0.25 : index / (count - 1));
+export function materialFill(
+  tint: { kind: keyof typeof MATERIAL_RAMPS | 'rigid'; strength: number },
+  shift = 0,
+): string {
+  if (tint.kind === 'rigid') return RIGID_FILL;
+  const t = Math.log(Math.max(5, tint.strength) / 5) / Math.log(300 / 5);
+  return rampColor(MATERIAL_RAMPS[tint.kind], Math.min(1, Math.max(0, t)) * 0.85 + 0.05 + shift);
+}
+
+/**
+ * The distance between two #rrggbb colours in RGB (0 to 441).
+ *
+ * @example rgbDistance('#000000', '#000010') // → 16
+ */
+export function rgbDistance(a: string, b: string): number {
+  const [p, q] = [rgb(a), rgb(b)];
+  return Math.hypot(p[0] - q[0], p[1] - q[1], p[2] - q[2]);
 }

@@ -1,5 +1,6 @@
 import { type QuantityKind, fromSi, UNIT_LABELS } from '../model/units';
-import { describeStrength, isRigid } from '../strength/registry';
+import { describeStrength, isRigid, strengthTint } from '../strength/registry';
+import type { MaterialTint } from '../strength/types';
 import type { Load, Material, Point, Polyline, Section, UnitSystem } from '../model/types';
 
 /** A section's geometry for drawing, in its own units (the units of its result). */
@@ -7,7 +8,18 @@ export interface DrawingModel {
   units: UnitSystem;
   length: string;
   ground: Polyline;
-  strata: { material: string; top: Polyline; describe: string; rigid: boolean }[];
+  /**
+   * Each stratum: its material's name, the file's description of it ('' when none), its strength
+   * in words, whether it is a rigid base, and its kind and strength for its colour.
+   */
+  strata: {
+    material: string;
+    top: Polyline;
+    description: string;
+    describe: string;
+    rigid: boolean;
+    tint: MaterialTint;
+  }[];
   water: { line: Polyline | null; ru: number | null };
   loads: Load[];
   offset: number | null;
@@ -47,8 +59,10 @@ export function sectionInUnits(section: Section): DrawingModel {
       return {
         material: s.material,
         top: line(s.top),
+        description: m?.description ?? '',
         describe: m ? describe(m, u) : '',
         rigid: m ? isRigid(m.strength) : false,
+        tint: m ? strengthTint(m.strength) : { kind: 'cohesive' as const, strength: 50 },
       };
     }),
     water: {

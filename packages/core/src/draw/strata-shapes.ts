@@ -1,52 +1,59 @@
 import { yAt } from '../geometry/y-at';
 import type { Point } from '../model/types';
-import { INK, RIGID_FILL, strataColor } from './palette';
+import { boxIsClear, textWidth, type Box, type Obstacles } from './free-place';
+import { INK, materialFill, rgbDistance } from './palette';
 import type { DrawingModel } from './section-in-units';
 import { pathData, svgElement, svgText } from './svg-element';
-import { toPixels, type Scales } from './types';
-
-/** Relative luminance (0 black to 1 white) of a #rrggbb colour. */
-function luminance(hex: string): number {
-  const c = [1, 3, 5].map((i) => parseInt(hex.slice(i, i + 2), 16) / 255);
-  const lin = c.map((v) => (v <= 0.04045 ? v / 12.92 : ((v + 0.055) / 1.055) ** 2.4));
-  return 0.2126 * lin[0] + 0.7152 * lin[1] + 0.0722 * lin[2];
-}
+import { toPixels, type Frame, type Scales } from './types';
 
 /**
- * The fill of each material of a drawing, in order of first appearance from the top: the
- * strata ramp for soils, grey (hatched in the drawing) for a rigid base.
+ * The fill of each material of a drawing, by its kind and strength (materialFill): the same
+ * material has the same colour in every drawing. Where two materials of one drawing would look
+ * alike, the later one is moved along its ramp until they differ.
  *
- * @example strataFills(model) // → { fill: '#f1e6cc', clay: '#8a6f52', rock: '#a3a6aa' }
+ * @example strataFills(model) // → { 'bank-clay': '#b5947a', sand: '#cfa95c', rock: '#a3a6aa' }
  */
 export function strataFills(model: DrawingModel): Record<string, string> {
-  const soils = [...new Set(model.strata.filter((s) => !s.rigid).map((s) => s.material))];
   const fills: Record<string, string> = {};
-  soils.forEach((m, i) => (fills[m] = strataColor(i, soils.length)));
-  for (const s of model.strata) if (s.rigid) fills[s.material] = RIGID_FILL;
+  for (const s of model.strata) {
+    if (fills[s.material]) continue;
+    let fill = materialFill(s.tint);
+    if (!s.rigid) {
+      const others = Object.values(fills);
+      for (const shift of [0.2, -0.2, 0.4, -0.4]) {
+        if (others.every((o) => rgbDistance(o, fill) >= 24)) break;
+        fill = materialFill(s.tint, shift);
+      }
+    }
+    fills[s.material] = fill;
+  }
   return fills;
+}
+
+/** The bottom of stratum i: the next stratum's top, or a level line at yBottom for the last. */
+function bottomOf(model: DrawingModel, i: number, yBottom: number): Point[] {
+  const x0 = model.ground[0][0];
+  const x1 = model.ground[model.ground.length - 1][0];
+  return i + 1 < model.strata.length
+    ? model.strata[i + 1].top
+    : [
+        [x0, yBottom],
+        [x1, yBottom],
+      ];
 }
 
 /**
  * The strata as filled polygons (each from its top down to the next stratum's top, the last
- * one down to `yBottom`), a rigid base hatched (pattern `#<ids>-hatch`), and the ground line.
+ * one down to `yBottom`), coloured by material, a rigid base hatched (pattern `#<ids>-hatch`),
+ * and the ground line.
  *
  * @example strataShapes(model, scales, 10, 'sl')
  */
 export function strataShapes(model: DrawingModel, s: Scales, yBottom: number, ids: string): string {
   const fills = strataFills(model);
-  const x0 = model.ground[0][0];
-  const x1 = model.ground[model.ground.length - 1][0];
   const polygons: string[] = [];
   model.strata.forEach((stratum, i) => {
-    const top = stratum.top;
-    const bottom: Point[] =
-      i + 1 < model.strata.length
-        ? model.strata[i + 1].top
-        : [
-            [x0, yBottom],
-            [x1, yBottom],
-          ];
-    const ring = [...top, ...[...bottom].reverse()];
+    const ring = [...stratum.top, ...[...bottomOf(model, i, yBottom)].reverse()];
     const d = pathData(toPixels(ring, s), true);
     polygons.push(svgElement('path', { d, fill: fills[stratum.material], stroke: 'none' }));
     if (stratum.rigid)
@@ -54,7 +61,7 @@ export function strataShapes(model: DrawingModel, s: Scales, yBottom: number, id
     if (i > 0)
       polygons.push(
         svgElement('path', {
-          d: pathData(toPixels(top, s)),
+          d: pathData(toPixels(stratum.top, s)),
           fill: 'none',
           stroke: INK,
           'stroke-width': 0.8,
@@ -71,48 +78,98 @@ export function strataShapes(model: DrawingModel, s: Scales, yBottom: number, id
   return svgElement('g', { class: 'strata' }, [...polygons, ground]);
 }
 
+const FONT = 11;
+const LINE = 13;
+const clip = (text: string, most: number) =>
+  text.length > most ? `${text.slice(0, most - 1).trimEnd()}…` : text;
+
 /**
- * Each stratum's material name and strength, written where the stratum is thickest in the
- * drawing (left out where it is thinner than a line of text).
+ * Each material's label, once, inside a stratum of it where the label keeps clear of the slip
+ * surfaces, the sliding mass, the FS map and the other labels: the material's description from
+ * the file (or its name when it has none) and, under it, its name and strength; only the first
+ * line where two do not fit, only its name where that does not fit; none where nothing fits
+ * (the legend names it). Written over a
+ * white halo so that it reads on any fill. Returns the labels and the boxes they took.
  *
- * @example strataLabels(model, scales, 10)
+ * @example strataLabels(model, frame, 10, { lines: [critical], areas: [mass], boxes: [] })
  */
-export function strataLabels(model: DrawingModel, s: Scales, yBottom: number): string {
-  const x0 = model.ground[0][0];
-  const x1 = model.ground[model.ground.length - 1][0];
+export function strataLabels(
+  model: DrawingModel,
+  frame: Frame,
+  yBottom: number,
+  obstacles: Obstacles,
+): { svg: string; boxes: Box[] } {
+  const x0 = Math.max(model.ground[0][0], frame.x.invert(frame.left));
+  const x1 = Math.min(
+    model.ground[model.ground.length - 1][0],
+    frame.x.invert(frame.left + frame.width),
+  );
+  const taken: Box[] = [];
   const labels: string[] = [];
-  const fills = strataFills(model);
+  const done = new Set<string>();
   model.strata.forEach((stratum, i) => {
-    const top = stratum.top;
-    const bottom: Point[] =
-      i + 1 < model.strata.length
-        ? model.strata[i + 1].top
-        : [
-            [x0, yBottom],
-            [x1, yBottom],
-          ];
-    // the label where the stratum is thickest (in pixels), if it has room
-    let best = { x: 0, thick: 0, mid: 0 };
-    for (let k = 2; k <= 10; k++) {
-      const x = x0 + ((x1 - x0) * k) / 12;
-      const yt = yAt(top, x);
-      const yb = yAt(bottom, x);
-      const thick = s.y(yb) - s.y(yt);
-      if (thick > best.thick) best = { x, thick, mid: (s.y(yt) + s.y(yb)) / 2 };
-    }
-    if (best.thick >= 15) {
-      const two = best.thick >= 30 && stratum.describe;
-      const fill = fills[stratum.material] ?? '#ffffff';
-      const dark = luminance(fill) < 0.35;
-      const attrs = { 'text-anchor': 'middle', fill: dark ? '#ffffff' : INK, 'font-size': 11 };
-      labels.push(
-        svgText(s.x(best.x), best.mid + (two ? -2 : 4), stratum.material, {
-          ...attrs,
-          'font-weight': 600,
-        }),
+    if (done.has(stratum.material)) return;
+    const head = clip(stratum.description || stratum.material, 44);
+    const detail = stratum.description
+      ? `${stratum.material}: ${stratum.describe}`
+      : stratum.describe;
+    const bottom = bottomOf(model, i, yBottom);
+    const options = [[head, clip(detail, 48)], [head]];
+    if (head !== stratum.material) options.push([stratum.material]);
+    for (const lines of options) {
+      const w = textWidth(Math.max(...lines.map((l) => l.length)), FONT) + 8;
+      const h = lines.length * LINE + 4;
+      let best: { box: Box; score: number } | null = null;
+      for (let k = 0; k <= 40; k++) {
+        const cx = frame.x(x0 + ((x1 - x0) * k) / 40);
+        if (cx - w / 2 < frame.left + 4 || cx + w / 2 > frame.left + frame.width - 4) continue;
+        // the stratum's band under the whole width of the label
+        let top = -Infinity;
+        let bot = Infinity;
+        for (let q = 0; q <= 4; q++) {
+          const x = frame.x.invert(cx - w / 2 + (w * q) / 4);
+          top = Math.max(top, frame.y(yAt(stratum.top, x)));
+          bot = Math.min(bot, frame.y(yAt(bottom, x)));
+        }
+        top = Math.max(top, frame.top + 2);
+        bot = Math.min(bot, frame.top + frame.height - 2);
+        if (bot - top < h + 4) continue;
+        for (const at of [0.5, 0.2, 0.8]) {
+          const y0 = top + 2 + (bot - top - h - 4) * at;
+          const box = { x0: cx - w / 2, y0, x1: cx + w / 2, y1: y0 + h };
+          if (!boxIsClear(box, { ...obstacles, boxes: [...obstacles.boxes, ...taken] })) continue;
+          // prefer a thick part of the stratum, its middle, and the middle of the drawing
+          const score =
+            Math.min(bot - top, 4 * h) -
+            Math.abs(at - 0.5) * h -
+            (Math.abs(cx - (frame.left + frame.width / 2)) / frame.width) * h;
+          if (!best || score > best.score) best = { box, score };
+        }
+      }
+      if (!best) continue;
+      const { box } = best;
+      const attrs = {
+        'text-anchor': 'middle',
+        fill: INK,
+        stroke: '#ffffff',
+        'stroke-width': 3,
+        'stroke-linejoin': 'round',
+        'paint-order': 'stroke',
+        'font-size': FONT,
+      };
+      const cx = (box.x0 + box.x1) / 2;
+      lines.forEach((text, j) =>
+        labels.push(
+          svgText(cx, box.y0 + 2 + LINE * (j + 1) - 3, text, {
+            ...attrs,
+            ...(j === 0 ? { 'font-weight': 600 } : { 'font-size': FONT - 1 }),
+          }),
+        ),
       );
-      if (two) labels.push(svgText(s.x(best.x), best.mid + 12, stratum.describe, attrs));
+      taken.push(box);
+      done.add(stratum.material);
+      break;
     }
   });
-  return svgElement('g', { class: 'strata-labels' }, labels);
+  return { svg: svgElement('g', { class: 'strata-labels' }, labels), boxes: taken };
 }

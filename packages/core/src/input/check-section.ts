@@ -23,7 +23,7 @@ const WATER_WEIGHT = { si: [9, 10.5], us: [57, 67] } as const;
  * boundary or piezometric line that goes back in x or does not span the ground; both a
  * piezometric line and ru; a strip with from ≥ to; a load off the ground; crack water deeper
  * than the crack; a polyline surface whose x does not increase; infinite-slope without its
- * settings; swedish-circle on a polyline surface. Warnings: a boundary that rises above the
+ * settings; phi-zero-circle on a polyline surface. Warnings: a boundary that rises above the
  * ground or the stratum above (it is clipped), a stratum left with no thickness, unused
  * materials, implausible unit weights, strata below a rigid base, a required FS below 1, and
  * the like.
@@ -361,7 +361,7 @@ export function checkSection(data: unknown): Issue[] {
         err(
           methodPath('infinite-slope'),
           'infinite-slope-rigid',
-          'infinite-slope analyses the first stratum, which is rigid',
+          'infinite-slope analyzes the first stratum, which is rigid',
         );
       }
     } else if (a.infiniteSlope !== undefined) {
@@ -370,6 +370,23 @@ export function checkSection(data: unknown): Issue[] {
         'infinite-slope-unused',
         'is given, but infinite-slope is not among the methods: it is not used',
       );
+    }
+    const fn = a.interslice;
+    if (isRecord(fn) && fn.shape === 'piecewise-linear' && isPointList(fn.points)) {
+      const p = fn.points;
+      for (let j = 1; j < p.length; j++)
+        if (p[j][0] < p[j - 1][0])
+          err(
+            ['analysis', 'interslice', 'points', j],
+            'interslice-order',
+            `ξ = ${num(p[j][0])} is below the point before (ξ = ${num(p[j - 1][0])}); give the points in increasing ξ`,
+          );
+      if (p.every((q) => q[1] === 0))
+        err(
+          ['analysis', 'interslice', 'points'],
+          'interslice-zero',
+          'f is 0 at every point: the interslice shear would vanish everywhere; give f > 0 somewhere',
+        );
     }
     const surface = a.surface;
     if (isRecord(surface) && surface.type === 'polyline') {
@@ -385,11 +402,11 @@ export function checkSection(data: unknown): Issue[] {
           }
         }
       }
-      if (methods.includes('swedish-circle')) {
+      if (methods.includes('phi-zero-circle')) {
         err(
-          methodPath('swedish-circle'),
+          methodPath('phi-zero-circle'),
           'needs-circle',
-          'swedish-circle needs a circular slip surface; this surface is a polyline',
+          'phi-zero-circle needs a circular slip surface; this surface is a polyline',
         );
       }
       for (const m of ['ordinary', 'bishop']) {

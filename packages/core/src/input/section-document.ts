@@ -20,7 +20,7 @@ function defined<T extends object>(o: T): { [K in keyof T]?: Exclude<T[K], null>
  * water's unit weight, seismic coefficients) and every stratum's top as the polyline it was
  * clipped to, so that reading the document gives the same section again, all but `units`: the
  * document says `si`, and readSectionDocument gives back the units to report results in. What
- * reading drops (descriptions) is not in the section and not written.
+ * reading drops (the section's description) is not in the section and not written.
  *
  * @example sectionDocument(section).materials.clay.strength // → { model: 'mohr-coulomb', … }
  */
@@ -28,10 +28,16 @@ export function sectionDocument(s: Section): RawSection {
   const materials: Record<string, RawMaterial> = {};
   for (const [name, m] of Object.entries(s.materials)) {
     const strength = strengthDocument(m.strength);
+    const description = m.description ? { description: m.description } : {};
     materials[name] =
       isRigid(m.strength) && m.unitWeight === 0
-        ? { strength }
-        : { unitWeight: m.unitWeight, saturatedUnitWeight: m.saturatedUnitWeight, strength };
+        ? { ...description, strength }
+        : {
+            ...description,
+            unitWeight: m.unitWeight,
+            saturatedUnitWeight: m.saturatedUnitWeight,
+            strength,
+          };
   }
   const w = s.water;
   const water =
@@ -60,6 +66,7 @@ export function sectionDocument(s: Section): RawSection {
       surface: a.surface,
       infiniteSlope: a.infiniteSlope,
       interslice: a.interslice,
+      trialBand: a.trialBand,
       searchEachMethod: a.searchEachMethod,
       case: a.case,
       requiredFs: a.requiredFs,

@@ -2,6 +2,7 @@ import type { ErrorObject } from 'ajv/dist/2020';
 import type { UnitSystem } from '../model/types';
 import { UNIT_LABELS, type QuantityKind } from '../model/units';
 import { isValueWithUnit, quantityWords } from '../model/value-with-unit';
+import { isFormerIntersliceSetting, renamedWords } from '../model/renamed';
 import type { Issue, PathKey } from './types';
 import { closest, listWords, num, quote, quoteText, unitSuffix } from './words';
 
@@ -120,6 +121,8 @@ export function translateSchemaError(
     }
     case 'additionalProperties': {
       const extra = String(params.additionalProperty);
+      // a setting of a former interslice shape: the shape's message says what to write
+      if (isFormerIntersliceSetting(path, extra, root)) return null;
       const allowed = Object.keys(parent.properties ?? {});
       const near = closest(extra, allowed);
       const where = typeof parent.title === 'string' ? ` in ${parent.title}` : '';
@@ -148,6 +151,9 @@ export function translateSchemaError(
       );
     }
     case 'enum': {
+      // a word of an earlier version: what to write instead
+      const renamed = renamedWords(path, value, root);
+      if (renamed) return issue('renamed', renamed);
       const allowed = (params.allowedValues as unknown[]).map(String);
       const near = typeof value === 'string' ? closest(value, allowed) : null;
       return issue(

@@ -4,10 +4,12 @@ import { rigorous } from './rigorous';
 import type { IntersliceFunction, SliceMethodResult } from './types';
 
 /**
- * The interslice force function f(ξ) at ξ = (x − x_toe)/(x_crest − x_toe) ∈ [0, 1]:
- * constant 1; half-sine sin(πξ); clipped sine sin(a + (π − 2a)ξ) with sin a = `end`
- * (so f = end at both ends, 1 in the middle); trapezoid rising linearly from `end` to 1
- * over the first and last `ramp` of the length (Fredlund & Krahn 1977 use these shapes).
+ * The interslice force function f(ξ) at ξ = (x − x_toe)/(x_crest − x_toe) ∈ [0, 1]: constant
+ * 1 and the half-sine sin(πξ) of Morgenstern & Price (1965); a piecewise-linear function
+ * through the given points [ξ, f], linear between them and held at the end points' values
+ * beyond them (equal ξ gives a step; the later point holds from there).
+ *
+ * @example intersliceFunction({ shape: 'piecewise-linear', points: [[0, 0], [0.5, 1], [1, 0]] }, 0.25) // → 0.5
  */
 export function intersliceFunction(fn: IntersliceFunction, xi: number): number {
   switch (fn.shape) {
@@ -15,17 +17,26 @@ export function intersliceFunction(fn: IntersliceFunction, xi: number): number {
       return 1;
     case 'half-sine':
       return Math.sin(Math.PI * xi);
-    case 'clipped-sine': {
-      const a = Math.asin(Math.min(0.999, Math.max(0, fn.end ?? 0.5)));
-      return Math.sin(a + (Math.PI - 2 * a) * xi);
-    }
-    case 'trapezoid': {
-      const e = fn.end ?? 0;
-      const r = Math.min(0.5, Math.max(1e-6, fn.ramp ?? 0.25));
-      const up = Math.min(1, Math.min(xi, 1 - xi) / r);
-      return e + (1 - e) * Math.max(0, up);
+    case 'piecewise-linear': {
+      const p = fn.points;
+      if (xi <= p[0][0]) return p[0][1];
+      for (let i = 1; i < p.length; i++) {
+        const [x1, f1] = p[i];
+        if (xi < x1) {
+          const [x0, f0] = p[i - 1];
+          return x1 > x0 ? f0 + ((f1 - f0) * (xi - x0)) / (x1 - x0) : f1;
+        }
+      }
+      return p[p.length - 1][1];
     }
   }
+}
+
+/** A function's name as a report gives it: the shape, and for points how many. */
+export function intersliceName(fn: IntersliceFunction): string {
+  return fn.shape === 'piecewise-linear'
+    ? `piecewise-linear (${fn.points.length} points)`
+    : fn.shape;
 }
 
 /**

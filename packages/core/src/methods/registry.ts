@@ -1,4 +1,11 @@
-import type { CircleSurface, MethodId, Point, PolylineSurface, Section } from '../model/types';
+import type {
+  CircleSurface,
+  IntersliceFunction,
+  MethodId,
+  Point,
+  PolylineSurface,
+  Section,
+} from '../model/types';
 import type { MethodReport, ReportedSurface } from '../result';
 import type { PreparedSection } from '../slices/prepare-section';
 import type { SliceSet, SlicedSurface } from '../slices/slice-surface';
@@ -6,10 +13,10 @@ import { bishop } from './bishop';
 import { infiniteSlope } from './infinite-slope';
 import { janbu } from './janbu';
 import { logSpiral } from './log-spiral';
-import { morgensternPrice } from './morgenstern-price';
+import { intersliceName, morgensternPrice } from './morgenstern-price';
 import { ordinary } from './ordinary';
 import { spencer } from './spencer';
-import { swedishCircle } from './swedish-circle';
+import { phiZeroCircle } from './phi-zero-circle';
 import type { SliceMethodResult } from './types';
 
 /** What a method is given: the section, a surface, its slices and the point moments are taken about (sliding orientation). */
@@ -33,8 +40,10 @@ export interface MethodOutput {
 interface SurfaceMethod {
   /** The kinds of surface it takes. */
   surfaces: readonly ('circle' | 'polyline')[];
-  /** A method of slices: interslice forces and the cohesionless-circle warning apply. */
+  /** A method of slices: the cohesionless-circle warning applies. */
   slices: boolean;
+  /** The interslice forces it solves for (the others are reported as null: not computed). */
+  interslice: { E: boolean; X: boolean };
   run: (input: MethodInput) => MethodOutput;
 }
 
@@ -66,6 +75,7 @@ export const METHODS: Record<MethodId, MethodEntry> = {
     reference: 'Fellenius 1936',
     surfaces: ['circle'],
     slices: true,
+    interslice: { E: false, X: false },
     run: ({ cut, prepared, pivot }) => ({
       result: ordinary(cut.slices, { seismic: prepared.section.seismic, pivot }),
     }),
@@ -74,6 +84,7 @@ export const METHODS: Record<MethodId, MethodEntry> = {
     reference: 'Bishop 1955',
     surfaces: ['circle'],
     slices: true,
+    interslice: { E: false, X: false },
     run: ({ cut, prepared, pivot }) => ({
       result: bishop(cut.slices, { seismic: prepared.section.seismic, pivot }),
     }),
@@ -82,6 +93,7 @@ export const METHODS: Record<MethodId, MethodEntry> = {
     reference: 'Janbu 1954, 1973',
     surfaces: ['circle', 'polyline'],
     slices: true,
+    interslice: { E: true, X: false },
     run: ({ cut, prepared }) => {
       const result = janbu(cut.slices, { seismic: prepared.section.seismic });
       return {
@@ -96,6 +108,7 @@ export const METHODS: Record<MethodId, MethodEntry> = {
     reference: 'Spencer 1967',
     surfaces: ['circle', 'polyline'],
     slices: true,
+    interslice: { E: true, X: true },
     run: ({ cut, prepared, pivot }) => {
       const result = spencer(cut.slices, { seismic: prepared.section.seismic, pivot });
       return {
@@ -111,26 +124,28 @@ export const METHODS: Record<MethodId, MethodEntry> = {
     reference: 'Morgenstern & Price 1965; Fredlund & Krahn 1977',
     surfaces: ['circle', 'polyline'],
     slices: true,
+    interslice: { E: true, X: true },
     run: ({ cut, prepared, pivot }) => {
       const section = prepared.section;
-      const fn = section.analysis.interslice ?? { shape: 'half-sine' as const };
+      const fn: IntersliceFunction = section.analysis.interslice ?? { shape: 'half-sine' };
       const result = morgensternPrice(cut.slices, { seismic: section.seismic, pivot, fn });
       return {
         result,
         extra: {
-          intersliceFunction: fn.shape,
+          intersliceFunction: intersliceName(fn),
           ...(result.converged && result.lambda !== undefined ? { lambda: result.lambda } : {}),
         },
       };
     },
   },
-  'swedish-circle': {
+  'phi-zero-circle': {
     reference: 'Fellenius; Petterson',
     surfaces: ['circle'],
     slices: false,
+    interslice: { E: false, X: false },
     run: ({ cut, prepared, surface }) => {
       const c = surface as CircleSurface;
-      const result = swedishCircle(prepared, cut, c.center, c.radius, prepared.section.seismic);
+      const result = phiZeroCircle(prepared, cut, c.center, c.radius, prepared.section.seismic);
       return {
         result,
         extra: result.converged ? { massWeight: result.massWeight, leverArm: result.leverArm } : {},
@@ -141,6 +156,7 @@ export const METHODS: Record<MethodId, MethodEntry> = {
     reference: 'Rendulic 1935; Taylor 1937; Chen 1975',
     surfaces: ['circle'],
     slices: false,
+    interslice: { E: false, X: false },
     run: ({ cut, prepared, surface }) => {
       const section = prepared.section;
       const c = surface as CircleSurface;

@@ -5,8 +5,9 @@ import type { MethodWarning, SliceMethodResult } from './types';
 
 /**
  * Slice forces at a solution (F, λ, f): N, N′, S, E, X and the line of thrust, with the
- * warnings an engineer needs (negative effective base normal; line of thrust outside the
- * slice, for rigorous methods). The line of thrust comes from each slice's moment
+ * warnings an engineer needs (negative effective base normal, counted only on bases whose
+ * strength depends on it, φ′ > 0: on a φ = 0 base in total stress N′ means nothing; line of
+ * thrust outside the slice, for rigorous methods). The line of thrust comes from each slice's moment
  * equilibrium about the middle of its base, marched from the toe; it is judged only where
  * the interslice force is at least 5 % of its largest value, since near the ends of the
  * surface, where E tends to zero, its height is indeterminate (common practice).
@@ -31,13 +32,13 @@ export function sliceForces(
     normal[i] = N[i] - st.U[i];
     shear[i] = (st.C[i] + N[i] * st.t[i]) / F;
     X[i] = lambda * (f ? f[i + 1] : 1) * E[i];
-    if (normal[i] < -1e-9 * Math.max(1, s.weight[i])) negative++;
+    if (st.t[i] > 0 && normal[i] < -1e-9 * Math.max(1, s.weight[i])) negative++;
   }
   const warnings: MethodWarning[] = [];
   if (negative > 0) {
     warnings.push({
       code: 'negative-normal',
-      message: `the effective normal force on the base is negative in ${negative} slice${negative > 1 ? 's' : ''}: the soil there would be in tension; check the pore pressures, the crack and the surface near its ends`,
+      message: `the effective normal force on the base is negative in ${negative} slice${negative > 1 ? 's' : ''} whose strength depends on it (φ′ > 0): the soil there would be in tension; check the pore pressures, the crack and the surface near its ends`,
     });
   }
   if (rigorous) {

@@ -29,6 +29,7 @@ export function normaliseSection(raw: RawSection): Section {
     const strength = normaliseStrength(m.strength);
     materials[name] = {
       name,
+      ...(m.description ? { description: m.description } : {}),
       unitWeight,
       saturatedUnitWeight: m.saturatedUnitWeight ?? unitWeight,
       strength,
@@ -76,7 +77,15 @@ export function normaliseSection(raw: RawSection): Section {
           waterRatio: a.infiniteSlope.waterRatio ?? 0,
         }
       : null,
-    ...(a.interslice ? { interslice: { ...a.interslice } } : {}),
+    ...(a.interslice
+      ? {
+          interslice:
+            a.interslice.shape === 'piecewise-linear'
+              ? { shape: 'piecewise-linear', points: a.interslice.points.map(([x, f]) => [x, f]) }
+              : { shape: a.interslice.shape },
+        }
+      : {}),
+    ...(a.trialBand !== undefined ? { trialBand: a.trialBand } : {}),
     ...(a.searchEachMethod ? { searchEachMethod: true } : {}),
     case: a.case ?? null,
     requiredFs: a.requiredFs ?? null,

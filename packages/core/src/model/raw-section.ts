@@ -49,6 +49,7 @@ export interface RawAnalysis {
   surface?: SurfaceSpec;
   infiniteSlope?: Omit<InfiniteSlopeSpec, 'waterRatio'> & { waterRatio?: number };
   interslice?: IntersliceFunction;
+  trialBand?: number;
   searchEachMethod?: boolean;
   case?: string;
   requiredFs?: number;

@@ -36,7 +36,7 @@ export interface UndrainedStrength {
   suDatum: number | null;
 }
 
-/** Impenetrable: slip surfaces may not enter it. */
+/** A rigid base: no slip surface enters it; a surface that reaches it follows its top. */
 export interface RigidStrength {
   model: 'rigid';
 }
@@ -45,6 +45,8 @@ export type Strength = MohrCoulombStrength | UndrainedStrength | RigidStrength;
 
 export interface Material {
   name: string;
+  /** The file's description of the material (e.g. "Firm silty CLAY"), shown in drawings; absent when none. */
+  description?: string;
   /** Unit weight above the piezometric line (kN/m³); 0 for a rigid material without one. */
   unitWeight: number;
   /** Unit weight below the piezometric line (kN/m³); equals unitWeight when not given. */
@@ -111,7 +113,7 @@ export type MethodId =
   | 'janbu'
   | 'spencer'
   | 'morgenstern-price'
-  | 'swedish-circle'
+  | 'phi-zero-circle'
   | 'log-spiral'
   | 'infinite-slope';
 
@@ -121,7 +123,7 @@ export const METHOD_IDS: readonly MethodId[] = [
   'janbu',
   'spencer',
   'morgenstern-price',
-  'swedish-circle',
+  'phi-zero-circle',
   'log-spiral',
   'infinite-slope',
 ];
@@ -152,20 +154,27 @@ export interface InfiniteSlopeSpec {
   waterRatio: number;
 }
 
-/** Interslice force function f(ξ) of Morgenstern–Price, ξ from 0 at the toe to 1 at the crest. */
-export interface IntersliceFunction {
-  shape: 'constant' | 'half-sine' | 'clipped-sine' | 'trapezoid';
-  /** clipped-sine and trapezoid: the ordinate at both ends (0 ≤ end < 1). */
-  end?: number;
-  /** trapezoid: the fraction of the length over which f rises from `end` to 1 at each end. */
-  ramp?: number;
-}
+/** A point [ξ, f] of a piecewise-linear interslice function. */
+export type IntersliceOrdinate = [number, number];
+
+/**
+ * Interslice force function f(ξ) of Morgenstern–Price, ξ from 0 at the toe end to 1 at the
+ * crest end of the slip surface: constant 1, the half-sine sin(πξ) (both from Morgenstern &
+ * Price 1965), or a piecewise-linear function through the given points [ξ, f] (ξ increasing;
+ * f held at the first and last point's value beyond them).
+ */
+export type IntersliceFunction =
+  | { shape: 'constant' }
+  | { shape: 'half-sine' }
+  | { shape: 'piecewise-linear'; points: IntersliceOrdinate[] };
 
 export interface Analysis {
   methods: MethodId[];
   slices: number;
   /** Morgenstern–Price interslice function; half-sine when not given. */
   interslice?: IntersliceFunction;
+  /** Trial surfaces within this fraction of the least FS are reported and drawn (0.05 when not given). */
+  trialBand?: number;
   surface: SurfaceSpec | null;
   infiniteSlope: InfiniteSlopeSpec | null;
   case: string | null;

@@ -1,5 +1,6 @@
 import type { CircleOrigin, GridReport, HowFound, SearchReport } from '../result';
 import type { SearchOutcome } from './search-section';
+import type { CircleTrial } from './trials';
 
 /** The search's account of the critical circle: candidates, polishes, confirmation. */
 function howFound(found: SearchOutcome): HowFound | null {
@@ -38,9 +39,32 @@ function howFound(found: SearchOutcome): HowFound | null {
   };
 }
 
+/** The most trial surfaces a report keeps (the lowest of the distinct ones within the band). */
+export const TRIAL_SURFACES_KEPT = 100;
+
+/**
+ * The circles (lowest first) without those that a drawing could not tell apart from a lower
+ * one kept before them: centre and radius each within 1 % of its radius.
+ */
+function distinctCircles(circles: readonly CircleTrial[], most: number): CircleTrial[] {
+  const kept: CircleTrial[] = [];
+  for (const c of circles) {
+    if (kept.length >= most) break;
+    const tol = 0.01 * c.radius;
+    const same = kept.some(
+      (k) =>
+        Math.abs(k.radius - c.radius) <= tol &&
+        Math.hypot(k.center[0] - c.center[0], k.center[1] - c.center[1]) <= tol,
+    );
+    if (!same) kept.push(c);
+  }
+  return kept;
+}
+
 /**
  * What a search did, for the result (SI; analyzeSection converts it to the file's units with
- * the rest): the grid and its moves, the FS map, the lowest circles and how the critical
+ * the rest): the grid and its moves, the FS map, the trial circles within the band of the least
+ * FS and how the critical
  * circle was found and confirmed.
  */
 export function searchReport(found: SearchOutcome): SearchReport {
@@ -60,10 +84,14 @@ export function searchReport(found: SearchOutcome): SearchReport {
           fs: gr.fs.map((row) => row.map((v) => (Number.isFinite(v) ? v : null))),
         }
       : null,
-    lowest: found.lowest.map((t) => ({
-      surface: { type: 'circle', center: [t.center[0], t.center[1]], radius: t.radius },
-      fs: t.fs,
-    })),
+    trialBand: {
+      within: found.band,
+      count: found.withinBand.length,
+      surfaces: distinctCircles(found.withinBand, TRIAL_SURFACES_KEPT).map((t) => ({
+        surface: { type: 'circle', center: [t.center[0], t.center[1]], radius: t.radius },
+        fs: t.fs,
+      })),
+    },
     howFound: howFound(found),
   };
 }

@@ -40,7 +40,9 @@ export interface SearchOutcome {
   /** The critical circle evaluated again on its own, with Bishop's method in full (bishop()). */
   confirmation: { searched: number; exact: number | null } | null;
   grid: GridOutcome | null;
-  lowest: CircleTrial[];
+  /** The band asked for (analysis.trialBand) and the trial circles within it of the least FS, lowest first. */
+  band: number;
+  withinBand: CircleTrial[];
   cohesionless: CohesionlessSlope | null;
   onEdge: boolean;
 }
@@ -116,7 +118,8 @@ export function searchSection(
   if (cohesionless && settings.grid) settings.grid.moves = 0;
   const evaluate = bishopCircleEvaluator(prepared, slices, meter);
   const bounds = boundaries(prepared);
-  const trials = new Trials(10);
+  const band = section.analysis.trialBand ?? 0.05;
+  const trials = new Trials(band);
   let grid: GridOutcome | null = null;
   trials.stage = 'grid';
   if (settings.grid) grid = gridSearch(settings.grid, bounds, evaluate, trials);
@@ -216,7 +219,8 @@ export function searchSection(
     polishes,
     confirmation,
     grid,
-    lowest: trials.lowest,
+    band,
+    withinBand: trials.withinBand(),
     cohesionless,
     onEdge: grid?.onEdge ?? false,
   };

@@ -17,18 +17,21 @@ export interface CircleTrial {
 export type CircleEvaluator = (xc: number, yc: number, r: number) => number;
 
 /**
- * Counts trials by stage and keeps the few lowest, and the lowest circle made tangent to
- * each stratum boundary (a family the polish starts from).
+ * Counts trials by stage, keeps the best circle, the circles within `band` of the least FS
+ * (FS ≤ (1 + band)·least, pruned as the least falls) and the lowest circle made tangent to each
+ * stratum boundary (a family the polish starts from).
  */
 export class Trials {
   count = 0;
   valid = 0;
   stage: TrialStage = 'grid';
   readonly byStage: Record<TrialStage, number> = { grid: 0, 'ground-ranges': 0, polish: 0 };
-  readonly lowest: CircleTrial[] = [];
+  best: CircleTrial | null = null;
   /** The lowest trial tangent to each boundary, by boundary index. */
   readonly tangent: (CircleTrial | null)[] = [];
-  constructor(private readonly keep = 10) {}
+  private near: CircleTrial[] = [];
+  private pruned = 0;
+  constructor(private readonly band = 0) {}
 
   /** Evaluate and record one circle; returns its FS (NaN when inadmissible). */
   try(evaluate: CircleEvaluator, xc: number, yc: number, r: number, boundary = -1): number {
@@ -37,12 +40,14 @@ export class Trials {
     const fs = evaluate(xc, yc, r);
     if (!(fs > 0)) return NaN;
     this.valid++;
-    const low = this.lowest;
-    if (low.length < this.keep || fs < low[low.length - 1].fs) {
-      let i = low.length;
-      while (i > 0 && low[i - 1].fs > fs) i--;
-      low.splice(i, 0, { center: [xc, yc], radius: r, fs, stage: this.stage, boundary });
-      if (low.length > this.keep) low.pop();
+    const best = this.best;
+    if (!best || fs < best.fs || (this.band > 0 && fs <= (1 + this.band) * best.fs)) {
+      const t: CircleTrial = { center: [xc, yc], radius: r, fs, stage: this.stage, boundary };
+      if (!best || fs < best.fs) this.best = t;
+      if (this.band > 0) {
+        this.near.push(t);
+        if (this.near.length > 2 * this.pruned + 64) this.prune();
+      }
     }
     if (boundary >= 0) {
       const t = this.tangent[boundary];
@@ -52,7 +57,15 @@ export class Trials {
     return fs;
   }
 
-  get best(): CircleTrial | null {
-    return this.lowest[0] ?? null;
+  /** The trials within the band of the least FS, lowest first. */
+  withinBand(): CircleTrial[] {
+    this.prune();
+    return [...this.near].sort((a, b) => a.fs - b.fs);
+  }
+
+  private prune(): void {
+    const limit = (1 + this.band) * (this.best?.fs ?? Infinity);
+    this.near = this.near.filter((t) => t.fs <= limit);
+    this.pruned = this.near.length;
   }
 }

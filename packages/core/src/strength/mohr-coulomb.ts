@@ -20,6 +20,11 @@ export const mohrCoulomb: StrengthModel<MohrCoulombStrength, MohrCoulombStrength
   describe: (s, show) =>
     `c′ ${show(s.cohesion, 'pressure', 1)}, φ′ ${Number(s.frictionAngle.toFixed(1))}°`,
   linear: (s) => ({ c: s.cohesion, tanPhi: tanDeg(s.frictionAngle), rate: 0, datum: NaN }),
+  // granular: no more than a trace of cohesion (c′ ≤ 2 kPa) and φ′ ≥ 28° (common practice)
+  tint: (s) => ({
+    kind: s.cohesion <= 2 && s.frictionAngle >= 28 ? 'granular' : 'cohesive',
+    strength: s.cohesion + 100 * tanDeg(s.frictionAngle),
+  }),
   crackDepth: (s, gamma) =>
     gamma > 0 ? (2 * s.cohesion * tanDeg(45 + s.frictionAngle / 2)) / gamma : 0,
 };

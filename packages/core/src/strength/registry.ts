@@ -3,7 +3,7 @@ import type { Strength } from '../model/types';
 import type { QuantityKind } from '../model/units';
 import { mohrCoulomb } from './mohr-coulomb';
 import { rigid } from './rigid';
-import type { LinearStrength, StrengthModel, StrengthNote } from './types';
+import type { LinearStrength, MaterialTint, StrengthModel, StrengthNote } from './types';
 import { undrained } from './undrained';
 
 /**
@@ -40,5 +40,7 @@ export const describeStrength = (
 export const linearStrength = (s: Strength): LinearStrength | null => modelOf(s).linear(s);
 /** The Rankine depth of a tension crack in a material of this strength and unit weight γ. */
 export const crackDepthIn = (s: Strength, gamma: number): number => modelOf(s).crackDepth(s, gamma);
+/** Its kind and representative strength, for the colour of a drawing. */
+export const strengthTint = (s: Strength): MaterialTint => modelOf(s).tint(s);
 /** A rigid base: no slip surface enters it. */
 export const isRigid = (s: Strength): boolean => linearStrength(s) === null;

@@ -12,7 +12,8 @@ export const rigid: StrengthModel<RigidStrength, RigidStrength> = {
   normalise: () => ({ model: 'rigid' }),
   document: () => ({ model: 'rigid' }),
   check: () => [],
-  describe: () => 'rigid',
+  describe: () => 'rigid base: no slip surface enters it',
   linear: () => null,
+  tint: () => ({ kind: 'rigid', strength: Infinity }),
   crackDepth: () => 0,
 };

@@ -12,6 +12,16 @@ export interface LinearStrength {
   datum: number;
 }
 
+/**
+ * What a drawing colours a material by: its kind (a granular soil, a soil with cohesion and
+ * friction, an undrained soil, a rigid base) and a representative shear strength (kPa): c′ +
+ * 100 kPa·tan φ′ for effective-stress soils, Su for undrained ones.
+ */
+export interface MaterialTint {
+  kind: 'granular' | 'cohesive' | 'undrained' | 'rigid';
+  strength: number;
+}
+
 /** A warning about a material's strength that the schema cannot express. */
 export interface StrengthNote {
   code: string;
@@ -36,6 +46,8 @@ export interface StrengthModel<S extends Strength, R extends { model: S['model']
   describe(s: S, show: (value: number, kind: QuantityKind, digits: number) => string): string;
   /** Its strength as the slicer takes it, or null for a rigid base (no slip surface enters it). */
   linear(s: S): LinearStrength | null;
+  /** Its kind and representative strength, for the colour of a drawing. */
+  tint(s: S): MaterialTint;
   /** The Rankine depth of a tension crack in it under its unit weight γ (0 where none forms). */
   crackDepth(s: S, gamma: number): number;
 }

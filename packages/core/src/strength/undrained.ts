@@ -53,5 +53,6 @@ export const undrained: StrengthModel<UndrainedStrength, RawUndrainedStrength> =
     rate: s.suDatum !== null ? s.suRate : 0,
     datum: s.suDatum ?? NaN,
   }),
+  tint: (s) => ({ kind: 'undrained', strength: s.su }),
   crackDepth: (s, gamma) => (gamma > 0 ? (2 * s.su) / gamma : 0),
 };

@@ -1,4 +1,4 @@
-import { DatePipe } from '@angular/common';
+import { WhenPipe } from '../shared/date-time';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { takeUntilDestroyed, toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
@@ -68,7 +68,7 @@ function save(blob: Blob, fileName: string): void {
 @Component({
   selector: 'sl-batch-detail',
   imports: [
-    DatePipe,
+    WhenPipe,
     FormsModule,
     RouterLink,
     MatButtonModule,

@@ -17,7 +17,7 @@ const PROBLEM_422 = {
   type: 'https://scarpline.example/problems/invalid-input',
   title: 'Invalid input',
   status: 422,
-  detail: '2 error(s) in the input.',
+  detail: '2 errors in the input.',
   errors: [
     {
       severity: 'error',

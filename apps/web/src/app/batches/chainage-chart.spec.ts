@@ -1,5 +1,6 @@
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import type { SectionListItem } from './batch-types';
+import { chainageMarker, CHAINAGE_STYLE } from '@scarpline/core/draw';
 import { ChainageChart, chainagePoints } from './chainage-chart';
 import type { Units } from './scales';
 
@@ -203,6 +204,36 @@ describe('ChainageChart', () => {
     expect(chainagePoints(mixed).units).toBeNull();
     expect(chainagePoints([item(1, 1000, 1.8)]).units).toBe('si');
     expect(chainagePoints([]).units).toBeNull();
+  });
+
+  it("draws the core's marks (the command's chainage.svg has the same): shape and colour by verdict", async () => {
+    const withNone = [
+      ...sections,
+      {
+        ...item(6, 1100, 1.0),
+        result: { ...item(6, 1100, 1.0).result!, verdict: 'no-fs' as const, governingFs: null },
+      },
+    ];
+    const f = await render(withNone);
+    const pts = Array.from<SVGGElement>(f.nativeElement.querySelectorAll('g.pt'));
+    expect(pts.map((g) => g.getAttribute('data-mark'))).toEqual([
+      'meets',
+      'below',
+      'meets',
+      'below',
+      'meets',
+      'no-fs',
+    ]);
+    for (const g of pts) {
+      const mark = g.getAttribute('data-mark') as 'meets' | 'below' | 'no-fs';
+      const hit = g.querySelector('circle.hit') as Element;
+      const path = g.querySelector('path.mark') as Element;
+      expect(path.getAttribute('d')).toBe(chainageMarker(mark, num(hit, 'cx'), num(hit, 'cy')));
+      expect(path.getAttribute('fill')).toBe(CHAINAGE_STYLE[mark].fill);
+    }
+    expect(f.nativeElement.querySelector('.summary')?.textContent).toContain(
+      '1: no factor of safety',
+    );
   });
 
   it('says there is nothing to plot when no section has a result yet', async () => {

@@ -160,7 +160,7 @@ describe('PlanView', () => {
     expect(fsBin(1.7, null)).toBeNull();
     expect(fsBin(null, 1.5)).toBeNull();
     const labels = fsBins([1.5, 1.5]).map((b) => b.label);
-    expect(labels[0]).toBe('below 1.50 (fails)');
+    expect(labels[0]).toBe('under 1.50: below the required FS');
     expect(labels[1]).toBe('1.50 – 1.65');
     expect(labels[5]).toBe('3.00 and above');
     // mixed requirements: the legend speaks in multiples of the required FS

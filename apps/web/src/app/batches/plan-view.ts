@@ -58,7 +58,7 @@ export function fsBins(required: readonly number[]): FsBin[] {
     const hi = index < FS_BIN_EDGES.length ? FS_BIN_EDGES[index] : null;
     const label =
       lo === null
-        ? `below ${v(hi as number)}${unit} (fails)`
+        ? `under ${v(hi as number)}${unit}: ${VERDICT_WORDS.below}`
         : hi === null
           ? `${v(lo)}${unit} and above`
           : `${v(lo)} – ${v(hi)}${unit}`;

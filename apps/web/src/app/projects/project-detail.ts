@@ -1,4 +1,5 @@
-import { DatePipe, DecimalPipe } from '@angular/common';
+import { DecimalPipe } from '@angular/common';
+import { WhenPipe } from '../shared/date-time';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
@@ -73,7 +74,7 @@ export function followBatches(
 @Component({
   selector: 'sl-project-detail',
   imports: [
-    DatePipe,
+    WhenPipe,
     DecimalPipe,
     RouterLink,
     MatButtonModule,

@@ -1,4 +1,4 @@
-import { DatePipe } from '@angular/common';
+import { WhenPipe } from '../shared/date-time';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
@@ -38,7 +38,7 @@ export function summarise(batches: readonly Batch[]): BatchSummary {
 @Component({
   selector: 'sl-project-list',
   imports: [
-    DatePipe,
+    WhenPipe,
     ReactiveFormsModule,
     RouterLink,
     MatButtonModule,

@@ -1,3 +1,4 @@
+import { dateTimeText } from '../shared/date-time';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -31,12 +32,7 @@ export function reviewerName(r: ReviewEntry): string {
 
 let panels = 0;
 
-function at(iso: string): string {
-  const d = new Date(iso);
-  return Number.isNaN(d.getTime())
-    ? iso
-    : d.toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
-}
+const at = dateTimeText;
 
 /**
  * The review state of a batch or a section (pending, approved or returned: by whom, when,

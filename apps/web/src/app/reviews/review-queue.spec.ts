@@ -65,7 +65,7 @@ describe('ReviewQueue', () => {
     const mine = queue.querySelector('table[data-group="mine"]') as HTMLElement;
     expect(others.querySelectorAll('tbody tr').length).toBe(1);
     expect(others.textContent).toContain('batch-1');
-    expect(others.textContent).toContain('5 failing');
+    expect(others.textContent).toContain('5 below the required FS');
     expect(others.querySelector('a')?.getAttribute('href')).toBe('/batches/1');
     expect(mine.querySelectorAll('tbody tr').length).toBe(1);
     expect(mine.textContent).toContain('batch-4');

@@ -1,3 +1,5 @@
+import { VERDICT_WORDS } from '@scarpline/core/verdict';
+import { dateTimeText } from '../shared/date-time';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatIconModule } from '@angular/material/icon';
@@ -17,13 +19,7 @@ interface Row {
   finished: string;
 }
 
-function at(iso: string | null): string {
-  if (!iso) return '—';
-  const d = new Date(iso);
-  return Number.isNaN(d.getTime())
-    ? iso
-    : d.toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
-}
+const at = dateTimeText;
 
 /** The finished batches that wait for a review; one's own submissions listed apart. */
 @Component({
@@ -87,7 +83,7 @@ function at(iso: string | null): string {
                           @if (r.item.batch.progress.belowRequiredFs > 0) {
                             <span class="sl-fail fails">
                               <mat-icon aria-hidden="true">cancel</mat-icon>
-                              {{ r.item.batch.progress.belowRequiredFs }} failing
+                              {{ r.item.batch.progress.belowRequiredFs }} {{ belowWords }}
                             </span>
                           } @else {
                             <span class="sl-pass fails">
@@ -181,6 +177,7 @@ export class ReviewQueue {
   private readonly api = inject(ReviewsApi);
   private readonly auth = inject(Auth);
 
+  protected readonly belowWords = VERDICT_WORDS.below;
   protected readonly tries = signal(0);
   protected readonly loaded = toSignal(
     toObservable(this.tries).pipe(switchMap(() => loadState(this.api.pending()))),

@@ -52,11 +52,5 @@ export function surfaceText(s: ReportedSurface | null | undefined, units: UnitSy
   }
 }
 
-/** A date and time in the user's locale. */
-export function when(iso: string | null | undefined): string {
-  if (!iso) return '—';
-  const d = new Date(iso);
-  return Number.isNaN(d.getTime())
-    ? iso
-    : d.toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
-}
+/** A date and time in the user's locale (the app's one way of writing a moment). */
+export { dateTimeText as when } from '../shared/date-time';

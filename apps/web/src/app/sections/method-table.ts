@@ -10,7 +10,7 @@ function extras(r: MethodReport, units: UnitSystem): string[] {
   if (r.fsUncorrected !== undefined && r.correction !== undefined) {
     out.push(`F₀ ${fsText(r.fsUncorrected)} × f₀ ${fixed(r.correction, 3)}`);
   }
-  if (r.intersliceFunction) out.push(`f(x): ${r.intersliceFunction}`);
+  if (r.intersliceFunction) out.push(`f(ξ): ${r.intersliceFunction}`);
   if (r.massWeight !== undefined) {
     out.push(`W ${fixed(r.massWeight, 1)} ${unitOf(units, 'forcePerLength')}`);
   }
@@ -46,7 +46,7 @@ function extras(r: MethodReport, units: UnitSystem): string[] {
             <th scope="col" class="sl-num">Iterations</th>
             <th scope="col" class="sl-num">λ</th>
             <th scope="col">Slip surface</th>
-            <th scope="col">Also</th>
+            <th scope="col">Method figures (f₀, f(ξ), mass, crack)</th>
           </tr>
         </thead>
         <tbody>

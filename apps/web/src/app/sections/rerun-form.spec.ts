@@ -229,7 +229,7 @@ describe('RerunForm', () => {
       {
         title: 'Invalid input',
         status: 422,
-        detail: '2 error(s) in the input.',
+        detail: '2 errors in the input.',
         errors: [
           {
             severity: 'error',
@@ -259,7 +259,7 @@ describe('RerunForm', () => {
     expect(list).toContain('strata[1].top');
     expect(list).toContain('the top of mudstone ends short of the ground');
     expect(el().querySelector('[data-testid="rerun-problem"]')?.textContent).toContain(
-      '2 error(s) in the input.',
+      '2 errors in the input.',
     );
     const byField = Array.from(el().querySelectorAll('mat-error')).map((e) => e.textContent);
     expect(byField).toContain('γ is too low for this check');

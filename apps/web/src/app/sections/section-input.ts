@@ -255,7 +255,7 @@ export class SectionInputView {
           : `${base}, constant`;
       }
       case 'rigid':
-        return 'rigid base: slip surfaces may not enter';
+        return 'rigid base: no slip surface enters it';
     }
   }
 
@@ -290,7 +290,19 @@ export class SectionInputView {
       ['Slices', String(a.slices)],
       ['Slip surface', this.surfaceSpec()],
     ];
-    if (a.interslice) rows.push(['Interslice function', a.interslice.shape]);
+    if (a.interslice) {
+      const fn = a.interslice;
+      const text =
+        fn.shape === 'piecewise-linear'
+          ? `piecewise-linear through [ξ, f] ${fn.points.map(([x, f]) => `[${plain(x, 3)}, ${plain(f, 3)}]`).join(' ')}`
+          : fn.shape;
+      rows.push(['Interslice function f(ξ)', text]);
+    }
+    if (a.trialBand !== undefined)
+      rows.push([
+        'Trial surfaces drawn',
+        `within ${plain(a.trialBand * 100, 2)} % of the least FS`,
+      ]);
     if (a.searchEachMethod) rows.push(['Search', 'critical circle polished for each method']);
     if (a.infiniteSlope) {
       const i = a.infiniteSlope;

@@ -98,8 +98,12 @@ import type { MethodId, MethodReport, UnitSystem } from './section-types';
                 <td class="sl-num">{{ f(s.porePressure) }}</td>
                 <td class="sl-num" [class.neg]="s.normal < 0">{{ f(s.normal) }}</td>
                 <td class="sl-num">{{ f(s.shear) }}</td>
-                <td class="sl-num">{{ f(s.interslice.E) }}</td>
-                <td class="sl-num">{{ f(s.interslice.X) }}</td>
+                <td class="sl-num" [attr.title]="s.interslice.E === null ? notComputed : null">
+                  {{ f(s.interslice.E) }}
+                </td>
+                <td class="sl-num" [attr.title]="s.interslice.X === null ? notComputed : null">
+                  {{ f(s.interslice.X) }}
+                </td>
                 <td class="sl-num">{{ f(s.interslice.thrust) }}</td>
                 <td>{{ s.material }}</td>
               </tr>
@@ -107,11 +111,14 @@ import type { MethodId, MethodReport, UnitSystem } from './section-types';
           </tbody>
         </table>
       </div>
+      @if (intersliceNote(); as note) {
+        <p class="note" data-testid="interslice-note">{{ note }}</p>
+      }
       <p class="legend">
         x: middle of the slice; α: inclination of the base, positive where it rises to the right;
         N′: effective normal force on the base; S: mobilised shear on the base; E, X: interslice
-        normal and shear force on the slice's right side; line of thrust: height where E acts there
-        (— where undefined). A negative N′ is marked.
+        normal and shear force on the slice's right side (— where the method does not compute it);
+        line of thrust: height where E acts there (— where undefined). A negative N′ is marked.
       </p>
     }
   `,
@@ -215,6 +222,23 @@ export class SliceTable {
   }));
   protected readonly unitOf = unitOf;
   protected readonly name = methodName;
+  protected readonly notComputed = 'not computed by this method';
+  /** Which interslice forces the shown method does not compute, in words. */
+  protected readonly intersliceNote = computed(() => {
+    const r = this.shown();
+    if (!r || r.slices.length === 0) return null;
+    const noE = r.slices.every((s) => s.interslice.E === null);
+    const noX = r.slices.every((s) => s.interslice.X === null);
+    if (!noE && !noX) return null;
+    const what = noE && noX ? 'E and X' : noE ? 'E' : 'X';
+    const assumes =
+      r.method === 'bishop'
+        ? ' (it assumes X = 0 and solves moment equilibrium without E)'
+        : r.method === 'janbu'
+          ? ' (it assumes X = 0)'
+          : '';
+    return `${this.name(r.method)} does not compute ${what}${assumes}: shown as —.`;
+  });
 
   protected f(v: number | null, digits = 2): string {
     return fixed(v, digits);

@@ -63,7 +63,7 @@ export const WARNING_EXPLANATIONS: Readonly<Record<string, WarningExplanation>> 
   'negative-normal': {
     title: 'Tension at the base of some slices',
     meaning:
-      'The effective normal force on the base comes out negative in some slices (the message says how many; the slice table marks them): the soil there would have to carry tension, which it cannot.',
+      'The effective normal force on the base comes out negative in some slices whose strength depends on it (φ′ > 0; the message says how many, the slice table marks them): the soil there would have to carry tension, which it cannot. Undrained (φ = 0) bases are not counted: their strength does not depend on it.',
     check:
       'Check the pore pressures, the tension crack (a crack often removes this) and the ends of the surface.',
   },

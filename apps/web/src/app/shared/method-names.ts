@@ -7,7 +7,7 @@ export const METHOD_NAMES: Record<MethodId, string> = {
   janbu: "Janbu's simplified",
   spencer: "Spencer's method",
   'morgenstern-price': 'Morgenstern–Price',
-  'swedish-circle': 'φ = 0 circle',
+  'phi-zero-circle': 'φ = 0 circle',
   'log-spiral': 'Log spiral',
   'infinite-slope': 'Infinite slope',
 };

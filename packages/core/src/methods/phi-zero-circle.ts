@@ -13,7 +13,7 @@ import { statics } from './statics';
 import type { SliceMethodResult } from './types';
 
 /** What the φ = 0 circle reports beyond the common result. */
-export interface SwedishCircleResult extends SliceMethodResult {
+export interface PhiZeroCircleResult extends SliceMethodResult {
   /** Weight of the sliding mass (kN/m) and its lever arm about the centre (m). */
   massWeight: number;
   leverArm: number;
@@ -78,22 +78,22 @@ function arcSuIntegral(
  * from their exact resultants. Needs φ = 0 along the whole arc and a circle that does not
  * meet a rigid base (there the normal force on the flat part would enter the moments).
  *
- * @example swedishCircle(prepared, sliced, circle, seismic).fs
+ * @example phiZeroCircle(prepared, sliced, circle, seismic).fs
  */
-export function swedishCircle(
+export function phiZeroCircle(
   prepared: PreparedSection,
   sliced: SlicedSurface,
   center: Point,
   radius: number,
   seismic: Seismic,
-): SwedishCircleResult {
+): PhiZeroCircleResult {
   const s = sliced.slices;
   const n = s.n;
   const g = s.mirrored ? prepared.mirrored : prepared.normal;
   const xc = s.mirrored ? -center[0] : center[0];
   const yc = center[1];
   const none = { massWeight: 0, leverArm: 0, resistingMoment: 0, drivingMoment: 0 };
-  const notApplicable = (reason: string): SwedishCircleResult => ({
+  const notApplicable = (reason: string): PhiZeroCircleResult => ({
     ...failed(n, 0, reason, undefined, 'not-applicable'),
     ...none,
   });
