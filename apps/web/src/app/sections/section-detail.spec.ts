@@ -172,7 +172,7 @@ describe('SectionDetail', () => {
       moves: [],
       grid: null,
       map: null,
-      lowest: [],
+      trialBand: { within: 0.05, count: 0, surfaces: [] },
       howFound: {
         candidates: { grid: 1400, groundRanges: 512, polish: 557 },
         boundaries: ['seam', 'stiff-clay-below'],
