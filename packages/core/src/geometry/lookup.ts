@@ -90,3 +90,49 @@ export function walkY(L: Lookup, x: number): number {
   L.cursor = i;
   return L.ys[i] + L.slopes[i] * (x - xs[i]);
 }
+
+/**
+ * Elevations at many x in increasing order, written to out[offset + i] for i < count: the
+ * same numbers as lookupY at each (the same segments, the cursor moved the same way), in one
+ * call, so that a caller's loop boxes no numbers.
+ */
+export function lookupYs(
+  L: Lookup,
+  xsIn: Float64Array,
+  count: number,
+  out: Float64Array,
+  offset: number,
+): void {
+  const xs = L.xs;
+  const ys = L.ys;
+  const last = L.last;
+  const first = xs[0];
+  const end = xs[last];
+  for (let j = 0; j < count; j++) {
+    const x = xsIn[j];
+    if (x <= first) {
+      out[offset + j] = ys[0];
+      continue;
+    }
+    if (x >= end) {
+      out[offset + j] = ys[last];
+      continue;
+    }
+    // segmentAt, written out
+    let i: number;
+    const c = L.cursor;
+    if (x >= xs[c] && x <= xs[c + 1]) i = c;
+    else if (c + 2 <= last && x > xs[c + 1] && x <= xs[c + 2]) i = L.cursor = c + 1;
+    else {
+      let b = ((x - L.x0) * L.inv) | 0;
+      if (b < 0) b = 0;
+      else if (b >= L.buckets.length) b = L.buckets.length - 1;
+      i = L.buckets[b];
+      while (i < last - 1 && xs[i + 1] < x) i++;
+      while (i > 0 && xs[i] > x) i--;
+      L.cursor = i;
+    }
+    const dx = xs[i + 1] - xs[i];
+    out[offset + j] = dx > 0 ? ys[i] + ((ys[i + 1] - ys[i]) * (x - xs[i])) / dx : ys[i + 1];
+  }
+}

@@ -34,19 +34,26 @@ export function curveY(pieces: readonly BasePiece[], x: number): number {
 }
 
 /**
- * x values in [lo, hi] where a piece meets a straight segment (x0, y0)–(x1, y1). For an arc
- * only points on its lower half count.
+ * x values in [from, to] where a piece meets segment i of a polyline (line[i]–line[i + 1]),
+ * added to `out`. For an arc only points on its lower half count. It takes the polyline and
+ * the index, not the segment's numbers, so that a call boxes no numbers (the slicer calls it
+ * for every segment of every boundary it crosses, thousands of times a search).
  */
 function pieceSegmentMeets(
   p: BasePiece,
-  x0: number,
-  y0: number,
-  x1: number,
-  y1: number,
-  lo: number,
-  hi: number,
+  line: Polyline,
+  i: number,
+  from: number,
+  to: number,
   out: NumberList,
 ): void {
+  const x0 = line[i][0];
+  const y0 = line[i][1];
+  const x1 = line[i + 1][0];
+  const y1 = line[i + 1][1];
+  const lo = Math.max(x0, p.x0, from);
+  const hi = Math.min(x1, p.x1, to);
+  if (hi < lo) return;
   const m = x1 > x0 ? (y1 - y0) / (x1 - x0) : 0;
   if (!p.arc) {
     const mp = p.x1 > p.x0 ? (p.y1 - p.y0) / (p.x1 - p.x0) : 0;
@@ -87,17 +94,13 @@ export function meetsInto(
   out: NumberList,
 ): void {
   for (let i = 0; i + 1 < line.length; i++) {
-    const p0 = line[i];
-    const p1 = line[i + 1];
-    const x0 = p0[0];
-    const x1 = p1[0];
+    const x0 = line[i][0];
+    const x1 = line[i + 1][0];
     if (x1 <= x0 || x1 < from || x0 > to) continue;
     for (let j = 0; j < pieces.length; j++) {
       const p = pieces[j];
-      const lo = Math.max(x0, p.x0, from);
-      const hi = Math.min(x1, p.x1, to);
-      if (hi < lo) continue;
-      pieceSegmentMeets(p, x0, p0[1], x1, p1[1], lo, hi, out);
+      if (p.x1 < x0 || p.x0 > x1) continue;
+      pieceSegmentMeets(p, line, i, from, to, out);
     }
   }
 }
@@ -133,6 +136,24 @@ export function lineIntegrals(
   out[k] = (b - a) * ym;
   out[k + 1] = w * (a * ya + 4 * xm * ym + b * yb);
   out[k + 2] = w * (ya * ya + 4 * ym * ym + yb * yb);
+}
+
+/**
+ * lineIntegrals of a slice: from xl[i] to xr[i], the line from ya[ia] to yb[ib]. It takes
+ * arrays and indices, not numbers, so that a call the compiler does not inline boxes nothing.
+ */
+export function lineIntegralsAt(
+  xl: Float64Array,
+  xr: Float64Array,
+  i: number,
+  ya: Float64Array,
+  ia: number,
+  yb: Float64Array,
+  ib: number,
+  out: Float64Array,
+  k: number,
+): void {
+  lineIntegrals(xl[i], xr[i], ya[ia], yb[ib], out, k);
 }
 
 /** u = x − xc clamped to the circle [−r, r]. */

@@ -1,4 +1,4 @@
-import { type Lookup, lookupY } from '../geometry/lookup';
+import { type Lookup, lookupY, lookupYs } from '../geometry/lookup';
 import { NumberList } from '../geometry/number-list';
 import type { CircleSurface, PolylineSurface } from '../model/types';
 import {
@@ -7,7 +7,7 @@ import {
   arcS,
   arcU,
   curveY,
-  lineIntegrals,
+  lineIntegralsAt,
   meetsInto,
   pieceY,
 } from './base-curve';
@@ -62,9 +62,24 @@ export interface SliceWorkspace {
   xs: NumberList;
   meets: NumberList;
   edges: NumberList;
-  topL: Float64Array;
-  topR: Float64Array;
+  /** The boundaries and the piezometric line at the slice edges (fillSlices' passes). */
+  edgeTops: Float64Array;
+  edgePz: Float64Array;
+  /** Each slice's base: the piece it lies on, the surface at its middle, u and s at its ends on an arc. */
+  base: {
+    piece: Int32Array;
+    mid: Float64Array;
+    uL: Float64Array;
+    sL: Float64Array;
+    uR: Float64Array;
+    sR: Float64Array;
+  };
   integrals: Float64Array;
+}
+
+function baseScratch(capacity: number): SliceWorkspace['base'] {
+  const f = () => new Float64Array(capacity);
+  return { piece: new Int32Array(capacity), mid: f(), uL: f(), sL: f(), uR: f(), sR: f() };
 }
 
 /** A workspace for slicing surfaces of one prepared section. */
@@ -89,8 +104,9 @@ export function sliceWorkspace(prepared: PreparedSection, capacity = 64): SliceW
     xs: new NumberList(),
     meets: new NumberList(),
     edges: new NumberList(),
-    topL: new Float64Array(tops),
-    topR: new Float64Array(tops),
+    edgeTops: new Float64Array(tops * (capacity + 1)),
+    edgePz: new Float64Array(capacity + 1),
+    base: baseScratch(capacity),
     integrals: new Float64Array(9),
   };
 }
@@ -292,69 +308,70 @@ function sliceEdges(ws: SliceWorkspace, count: number, tol: number): void {
 }
 
 /**
- * Cut the mass above the surface into slices, given the ends and pieces in `ws`: every
- * per-slice quantity — weight by stratum, base strength, pore pressure, surface loads, crack
- * water — is computed here and only here. Returns false when there is no soil above it.
+ * The boundaries and the piezometric line at every slice edge, into the workspace's scratch:
+ * edgeTops[k·(n + 1) + i] is the top of stratum k (0: the ground) at edge i, for the `nt`
+ * tops that can reach the surface; edgePz[i] the piezometric line (0 without one). One pass
+ * of look-ups walking right, apart from the arithmetic, so that each stays small.
  */
-function fillSlices(ws: SliceWorkspace): boolean {
-  const { prepared, g, pieces } = ws;
+function edgeValues(ws: SliceWorkspace, n: number, nt: number): void {
   const edges = ws.edges.values;
-  const n = ws.edges.length - 1;
-  const tol = prepared.tol;
-  const { gamma, gammaSat, c: cohesion, tanPhi, suRate, suDatum } = prepared.strata;
-  const stratumMaterial = g.stratumMaterial;
-  const water = prepared.section.water;
-  const gw = water.unitWeight;
-  const ru = water.kind === 'ru' ? water.ru : 0;
-  if (ws.slices.xl.length < n) ws.slices = sliceSet(Math.max(n, 2 * ws.slices.xl.length));
+  const m = n + 1;
+  if (ws.edgeTops.length < nt * m) ws.edgeTops = new Float64Array(2 * nt * m);
+  if (ws.edgePz.length < m) ws.edgePz = new Float64Array(2 * m);
+  const T = ws.edgeTops;
+  const tops = ws.g.at.tops;
+  for (let k = 0; k < nt; k++) lookupYs(tops[k], edges, m, T, k * m);
+  const pz = ws.g.at.piezometric;
+  if (pz) lookupYs(pz, edges, m, ws.edgePz, 0);
+}
+
+/**
+ * Each slice's base: its ends on the surface (yBaseL, yBaseR), the surface at its middle, and
+ * for a base on an arc u = x − xc and s = √(r² − u²) at both ends (the arc integrals' input).
+ */
+function baseSlices(ws: SliceWorkspace, n: number): void {
+  const pieces = ws.pieces;
   const S = ws.slices;
-  S.n = n;
-  S.mirrored = ws.mirrored;
-  const { xl, xr, yTopL, yTopR, yBaseL, yBaseR, area, weight, cx, cy, porePressure } = S;
-  const outC = S.cohesion;
-  const outT = S.tanPhi;
-  const outM = S.material;
-  const outQx = S.qx;
-  const outQy = S.qy;
-  const outQm = S.qm;
-  for (let i = 0; i < n; i++) {
-    xl[i] = edges[i];
-    xr[i] = edges[i + 1];
+  const { xl, xr, yBaseL, yBaseR } = S;
+  const B = ws.base;
+  const mid = B.mid;
+  const uLs = B.uL;
+  const sLs = B.sL;
+  const uRs = B.uR;
+  const sRs = B.sR;
+  const onPiece = B.piece;
+  if (pieces.length === 1 && pieces[0].arc) {
+    // one arc, the search's case: its numbers read once
+    const { xc, yc, r } = pieces[0];
+    let uL = arcU(xl[0] - xc, r);
+    let sL = arcS(uL, r);
+    for (let i = 0; i < n; i++) {
+      const uR = arcU(xr[i] - xc, r);
+      const sR = arcS(uR, r);
+      onPiece[i] = 0;
+      uLs[i] = uL;
+      sLs[i] = sL;
+      uRs[i] = uR;
+      sRs[i] = sR;
+      yBaseL[i] = yc - sL;
+      yBaseR[i] = yc - sR;
+      mid[i] = yc - arcS(arcU(0.5 * (xl[i] + xr[i]) - xc, r), r);
+      uL = uR;
+      sL = sR;
+    }
+    return;
   }
-  const at = g.at;
-  const soil = g.soilStrata;
-  // strata tops that can reach the surface (tops are ordered: none below them can)
-  const bottom = lowest(pieces);
-  let nt = 1;
-  while (nt < g.tops.length && g.topMax[nt] >= bottom) nt++;
-  const pz = at.piezometric;
-  const tops = at.tops;
-  const strips = g.strips;
-  const lineLoads = g.lineLoads;
-  // I[0..2]: the boundary above, I[3..5]: the one below, I[6..8]: the piezometric line
-  const I = ws.integrals;
-  let topL = ws.topL;
-  let topR = ws.topR;
-  for (let k = 0; k < nt; k++) topL[k] = lookupY(tops[k], xl[0]);
-  let pL = pz ? lookupY(pz, xl[0]) : 0;
   let piece = 0;
-  // an arc at the slice's left and right edges: u = x − xc, s = √(r² − u²)
   let arcAt = -1;
   let uL = 0;
   let sL = 0;
-  let uR = 0;
-  let sR = 0;
-  let total = 0;
   for (let i = 0; i < n; i++) {
     const x0 = xl[i];
     const x1 = xr[i];
     const xm = 0.5 * (x0 + x1);
-    const b = x1 - x0;
     while (piece + 1 < pieces.length && pieces[piece + 1].x0 <= xm) piece++;
     const p = pieces[piece];
-    let yb0: number;
-    let yb1: number;
-    let ybm: number;
+    onPiece[i] = piece;
     if (p.arc) {
       const r = p.r;
       if (arcAt !== piece) {
@@ -362,50 +379,105 @@ function fillSlices(ws: SliceWorkspace): boolean {
         sL = arcS(uL, r);
         arcAt = piece;
       }
-      uR = arcU(x1 - p.xc, r);
-      sR = arcS(uR, r);
-      yb0 = p.yc - sL;
-      yb1 = p.yc - sR;
-      ybm = p.yc - arcS(arcU(xm - p.xc, r), r);
+      const uR = arcU(x1 - p.xc, r);
+      const sR = arcS(uR, r);
+      uLs[i] = uL;
+      sLs[i] = sL;
+      uRs[i] = uR;
+      sRs[i] = sR;
+      yBaseL[i] = p.yc - sL;
+      yBaseR[i] = p.yc - sR;
+      mid[i] = p.yc - arcS(arcU(xm - p.xc, r), r);
+      uL = uR;
+      sL = sR;
     } else {
-      yb0 = pieceY(p, x0);
-      yb1 = pieceY(p, x1);
-      ybm = 0.5 * (yb0 + yb1);
+      // pieceY, written out
+      const dx = p.x1 - p.x0;
+      const yb0 = dx > 0 ? p.y0 + ((p.y1 - p.y0) * (x0 - p.x0)) / dx : p.y0;
+      const yb1 = dx > 0 ? p.y0 + ((p.y1 - p.y0) * (x1 - p.x0)) / dx : p.y0;
+      yBaseL[i] = yb0;
+      yBaseR[i] = yb1;
+      mid[i] = 0.5 * (yb0 + yb1);
     }
-    for (let k = 0; k < nt; k++) topR[k] = lookupY(tops[k], x1);
-    const pR = pz ? lookupY(pz, x1) : 0;
-    const g0 = topL[0];
-    const g1 = topR[0];
+  }
+}
+
+/** arcIntegrals under slice i's base on the arc p, from the base pass's u and s (no numbers passed). */
+function arcIntegralsAt(
+  p: BasePiece & { arc: true },
+  B: SliceWorkspace['base'],
+  i: number,
+  out: Float64Array,
+  k: number,
+): void {
+  arcIntegrals(p.xc, p.yc, p.r, B.uL[i], B.sL[i], B.uR[i], B.sR[i], out, k);
+}
+
+/**
+ * Each slice's weight (stratum by stratum, between the linear boundaries and the base, summed
+ * exactly), centroid, pore pressure and base strength, from the edge values and the base.
+ * Returns the total weight.
+ */
+function weighSlices(ws: SliceWorkspace, n: number, nt: number): number {
+  const { prepared, g, pieces } = ws;
+  const tol = prepared.tol;
+  const { gamma, gammaSat, c: cohesion, tanPhi, suRate, suDatum } = prepared.strata;
+  const stratumMaterial = g.stratumMaterial;
+  const water = prepared.section.water;
+  const gw = water.unitWeight;
+  const ru = water.kind === 'ru' ? water.ru : 0;
+  const S = ws.slices;
+  const { xl, xr, yTopL, yTopR, yBaseL, yBaseR, area, weight, cx, cy, porePressure } = S;
+  const outC = S.cohesion;
+  const outT = S.tanPhi;
+  const outM = S.material;
+  const soil = g.soilStrata;
+  const pz = g.at.piezometric !== null;
+  const T = ws.edgeTops;
+  const P = ws.edgePz;
+  const B = ws.base;
+  const m = n + 1;
+  // I[0..2]: the boundary above, I[3..5]: the one below, I[6..8]: the piezometric line
+  const I = ws.integrals;
+  let total = 0;
+  for (let i = 0; i < n; i++) {
+    const x0 = xl[i];
+    const x1 = xr[i];
+    const b = x1 - x0;
+    const p = pieces[B.piece[i]];
+    const ybm = B.mid[i];
+    const g0 = T[i];
+    const g1 = T[i + 1];
     yTopL[i] = g0;
     yTopR[i] = g1;
-    yBaseL[i] = yb0;
-    yBaseR[i] = yb1;
+    const pL = pz ? P[i] : 0;
+    const pR = pz ? P[i + 1] : 0;
     const pm = 0.5 * (pL + pR);
 
-    // weight, stratum by stratum, between linear boundaries and the base
     let A = 0;
     let W = 0;
     let WX = 0;
     let WY = 0;
     let base = 0;
-    lineIntegrals(x0, x1, g0, g1, I, 0);
+    lineIntegralsAt(xl, xr, i, T, i, T, i + 1, I, 0);
     for (let k = 0; k < soil; k++) {
-      const tm = 0.5 * (topL[k] + topR[k]);
+      const tm = 0.5 * (T[k * m + i] + T[k * m + i + 1]);
       if (tm <= ybm + tol) break;
-      const b0 = k + 1 < nt ? topL[k + 1] : -Infinity;
-      const b1 = k + 1 < nt ? topR[k + 1] : -Infinity;
+      const below = k + 1 < nt;
+      const b0 = below ? T[(k + 1) * m + i] : -Infinity;
+      const b1 = below ? T[(k + 1) * m + i + 1] : -Infinity;
       const bm = 0.5 * (b0 + b1);
       const full = bm > ybm + tol;
-      if (full) lineIntegrals(x0, x1, b0, b1, I, 3);
-      else if (p.arc) arcIntegrals(p.xc, p.yc, p.r, uL, sL, uR, sR, I, 3);
-      else lineIntegrals(x0, x1, yb0, yb1, I, 3);
+      if (full) lineIntegralsAt(xl, xr, i, T, (k + 1) * m + i, T, (k + 1) * m + i + 1, I, 3);
+      else if (p.arc) arcIntegralsAt(p, B, i, I, 3);
+      else lineIntegralsAt(xl, xr, i, yBaseL, i, yBaseR, i, I, 3);
       const lowerMid = full ? bm : ybm;
       base = k;
       const gk = gamma[k];
       const gs = gammaSat[k];
       if (pz && gs !== gk && pm > lowerMid && pm < tm) {
         // the part below the piezometric line is saturated
-        lineIntegrals(x0, x1, pL, pR, I, 6);
+        lineIntegralsAt(xl, xr, i, P, i, P, i + 1, I, 6);
         const a1 = I[0] - I[6];
         const a2 = I[6] - I[3];
         A += a1 + a2;
@@ -427,7 +499,7 @@ function fillSlices(ws: SliceWorkspace): boolean {
     }
     area[i] = A;
     weight[i] = W;
-    cx[i] = W > 0 ? WX / W : xm;
+    cx[i] = W > 0 ? WX / W : 0.5 * (x0 + x1);
     cy[i] = W > 0 ? WY / W : 0.5 * (ybm + 0.5 * (g0 + g1));
     total += W;
 
@@ -437,61 +509,109 @@ function fillSlices(ws: SliceWorkspace): boolean {
     const datum = suDatum[base];
     outC[i] = cohesion[base] + (datum > ybm ? suRate[base] * (datum - ybm) : 0);
     outT[i] = tanPhi[base];
+  }
+  return total;
+}
 
-    // forces on the top: ponded water, strip surcharges, line loads
-    let qx = 0;
-    let qy = 0;
-    let qm = 0;
-    if (pz) {
-      const hm = pm - 0.5 * (g0 + g1);
-      if (hm > 0) {
-        const h0 = pL > g0 ? pL - g0 : 0;
-        const h1 = pR > g1 ? pR - g1 : 0;
-        const slope = (g1 - g0) / b;
-        const gm = 0.5 * (g0 + g1);
-        const h6 = b / 6;
-        // per unit x: fy = −γw h, fx = γw h g′; moment x·fy − g·fx (Simpson, exact: degree 2)
-        const fy = -gw * h6 * (h0 + 4 * hm + h1);
-        qy += fy;
-        qx += -slope * fy;
-        qm +=
-          -gw * h6 * ((x0 + g0 * slope) * h0 + 4 * (xm + gm * slope) * hm + (x1 + g1 * slope) * h1);
-      }
+/**
+ * The forces on each slice's top: ponded water above the ground (from the edge values of the
+ * piezometric line), strip surcharges and line loads; zero where there are none.
+ */
+function loadSlices(ws: SliceWorkspace, n: number): void {
+  const g = ws.g;
+  const S = ws.slices;
+  const { xl, xr, yTopL, yTopR, qx: outQx, qy: outQy, qm: outQm } = S;
+  outQx.fill(0, 0, n);
+  outQy.fill(0, 0, n);
+  outQm.fill(0, 0, n);
+  if (g.at.piezometric) {
+    const gw = ws.prepared.section.water.unitWeight;
+    const P = ws.edgePz;
+    for (let i = 0; i < n; i++) {
+      const x0 = xl[i];
+      const x1 = xr[i];
+      const g0 = yTopL[i];
+      const g1 = yTopR[i];
+      const pL = P[i];
+      const pR = P[i + 1];
+      const hm = 0.5 * (pL + pR) - 0.5 * (g0 + g1);
+      if (!(hm > 0)) continue;
+      const b = x1 - x0;
+      const xm = 0.5 * (x0 + x1);
+      const h0 = pL > g0 ? pL - g0 : 0;
+      const h1 = pR > g1 ? pR - g1 : 0;
+      const slope = (g1 - g0) / b;
+      const gm = 0.5 * (g0 + g1);
+      const h6 = b / 6;
+      // per unit x: fy = −γw h, fx = γw h g′; moment x·fy − g·fx (Simpson, exact: degree 2)
+      const fy = -gw * h6 * (h0 + 4 * hm + h1);
+      outQy[i] += fy;
+      outQx[i] += -slope * fy;
+      outQm[i] +=
+        -gw * h6 * ((x0 + g0 * slope) * h0 + 4 * (xm + gm * slope) * hm + (x1 + g1 * slope) * h1);
     }
-    for (let k = 0; k < strips.length; k++) {
-      const st = strips[k];
-      const a = st.from > x0 ? st.from : x0;
-      const c = st.to < x1 ? st.to : x1;
+  }
+  const strips = g.strips;
+  for (let k = 0; k < strips.length; k++) {
+    const st = strips[k];
+    for (let i = 0; i < n; i++) {
+      const a = st.from > xl[i] ? st.from : xl[i];
+      const c = st.to < xr[i] ? st.to : xr[i];
       if (c > a) {
         const f = -st.pressure * (c - a);
-        qy += f;
-        qm += 0.5 * (a + c) * f;
+        outQy[i] += f;
+        outQm[i] += 0.5 * (a + c) * f;
       }
     }
-    for (let k = 0; k < lineLoads.length; k++) {
-      const l = lineLoads[k];
-      if ((l.x >= x0 && l.x < x1) || (i === n - 1 && l.x === x1)) {
-        const yq = lookupY(at.ground, l.x);
-        qx += l.fx;
-        qy += l.fy;
-        qm += l.x * l.fy - yq * l.fx;
-      }
-    }
-    outQx[i] = qx;
-    outQy[i] = qy;
-    outQm[i] = qm;
-    pL = pR;
-    const swap = topL;
-    topL = topR;
-    topR = swap;
-    uL = uR;
-    sL = sR;
   }
+  const lineLoads = g.lineLoads;
+  for (let k = 0; k < lineLoads.length; k++) {
+    const l = lineLoads[k];
+    for (let i = 0; i < n; i++) {
+      if ((l.x >= xl[i] && l.x < xr[i]) || (i === n - 1 && l.x === xr[i])) {
+        const yq = lookupY(g.at.ground, l.x);
+        outQx[i] += l.fx;
+        outQy[i] += l.fy;
+        outQm[i] += l.x * l.fy - yq * l.fx;
+      }
+    }
+  }
+}
+
+/**
+ * Cut the mass above the surface into slices, given the ends and pieces in `ws`: every
+ * per-slice quantity — weight by stratum, base strength, pore pressure, surface loads, crack
+ * water — is computed here (in the passes above) and only here. Returns false when there is
+ * no soil above it.
+ */
+function fillSlices(ws: SliceWorkspace): boolean {
+  const g = ws.g;
+  const edges = ws.edges.values;
+  const n = ws.edges.length - 1;
+  if (ws.slices.xl.length < n) ws.slices = sliceSet(Math.max(n, 2 * ws.slices.xl.length));
+  if (ws.base.mid.length < n) ws.base = baseScratch(ws.slices.xl.length);
+  const S = ws.slices;
+  S.n = n;
+  S.mirrored = ws.mirrored;
+  const { xl, xr } = S;
+  for (let i = 0; i < n; i++) {
+    xl[i] = edges[i];
+    xr[i] = edges[i + 1];
+  }
+  // strata tops that can reach the surface (tops are ordered: none below them can)
+  const bottom = lowest(ws.pieces);
+  let nt = 1;
+  while (nt < g.tops.length && g.topMax[nt] >= bottom) nt++;
+  edgeValues(ws, n, nt);
+  baseSlices(ws, n);
+  const total = weighSlices(ws, n, nt);
+  loadSlices(ws, n);
   if (ws.crackWater > 0) {
     // pushes the mass toward −x, acting hw/3 above the bottom of the crack
+    const gw = ws.prepared.section.water.unitWeight;
     const Pw = 0.5 * gw * ws.crackWater * ws.crackWater;
-    outQx[n - 1] -= Pw;
-    outQm[n - 1] += (yBaseR[n - 1] + ws.crackWater / 3) * Pw;
+    S.qx[n - 1] -= Pw;
+    S.qm[n - 1] += (S.yBaseR[n - 1] + ws.crackWater / 3) * Pw;
   }
   return total > 0;
 }
