@@ -44,8 +44,11 @@ test('solver bench (packages/core/bench/run.js)', () => {
     );
   }
   expect(out).toMatch(
+    /^\d+-section corridor through the core .*one thread and \d+ threads in turn, \d+ pairs:$/m,
+  );
+  expect(out).toMatch(
     new RegExp(
-      `^\\d+-section corridor through the core .*: ${number} ms; one worker: ${number} ms; speed-up ${number}$`,
+      `^  one thread ${number} ms, \\d+ threads ${number} ms \\(medians\\); speed-up ${number} \\(median of the pairs' ratios; range ${number}–${number}; target ≥ ${number}, 0\\.9 × \\d+\\)$`,
       'm',
     ),
   );

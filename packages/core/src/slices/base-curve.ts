@@ -9,6 +9,28 @@ export type BasePiece =
   | { arc: false; x0: number; x1: number; y0: number; y1: number }
   | { arc: true; x0: number; x1: number; xc: number; yc: number; r: number };
 
+/**
+ * A straight piece. Every piece is made by linePiece or arcPiece, with the same fields in the
+ * same order (a line's xc, yc, r and an arc's y0, y1 are NaN), so that the slicer's loops see
+ * one shape of object and the compiler optimises them once.
+ */
+export function linePiece(x0: number, x1: number, y0: number, y1: number): BasePiece {
+  const p = { arc: false, x0, x1, y0, y1, xc: NaN, yc: NaN, r: NaN };
+  return p;
+}
+
+/** An arc of the lower half of the circle (xc, yc, r) from x0 to x1 (see linePiece). */
+export function arcPiece(
+  x0: number,
+  x1: number,
+  xc: number,
+  yc: number,
+  r: number,
+): BasePiece & { arc: true } {
+  const p = { arc: true, x0, x1, y0: NaN, y1: NaN, xc, yc, r };
+  return p as BasePiece & { arc: true };
+}
+
 /** Elevation of one piece at x (x inside the piece). */
 export function pieceY(p: BasePiece, x: number): number {
   if (p.arc) return p.yc - arcS(x - p.xc, p.r);

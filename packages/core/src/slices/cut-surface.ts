@@ -4,10 +4,12 @@ import type { CircleSurface, PolylineSurface } from '../model/types';
 import {
   type BasePiece,
   arcIntegrals,
+  arcPiece,
   arcS,
   arcU,
   curveY,
   lineIntegralsAt,
+  linePiece,
   meetsInto,
   pieceY,
 } from './base-curve';
@@ -85,7 +87,7 @@ function baseScratch(capacity: number): SliceWorkspace['base'] {
 /** A workspace for slicing surfaces of one prepared section. */
 export function sliceWorkspace(prepared: PreparedSection, capacity = 64): SliceWorkspace {
   const tops = prepared.normal.tops.length + 1;
-  const arc = () => ({ arc: true as const, x0: 0, x1: 0, xc: 0, yc: 0, r: 1 });
+  const arc = () => arcPiece(0, 0, 0, 0, 1);
   return {
     prepared,
     slices: sliceSet(capacity),
@@ -180,9 +182,7 @@ function findEnds(
 
 /** A piece restricted to [a, b]. */
 function restrict(p: BasePiece, a: number, b: number): BasePiece {
-  return p.arc
-    ? { ...p, x0: a, x1: b }
-    : { arc: false, x0: a, x1: b, y0: pieceY(p, a), y1: pieceY(p, b) };
+  return p.arc ? arcPiece(a, b, p.xc, p.yc, p.r) : linePiece(a, b, pieceY(p, a), pieceY(p, b));
 }
 
 /** Lowest elevation of the pieces. */
@@ -252,7 +252,7 @@ function clipPieces(
       for (let k = 0; k + 1 < xs.length; k++) {
         const u = xs.values[k];
         const w = xs.values[k + 1];
-        out.push({ arc: false, x0: u, x1: w, y0: lookupY(rigidAt, u), y1: lookupY(rigidAt, w) });
+        out.push(linePiece(u, w, lookupY(rigidAt, u), lookupY(rigidAt, w)));
       }
     }
   }
@@ -264,7 +264,7 @@ export function polylinePieces(surface: PolylineSurface, mirror: boolean): BaseP
   const pts = mirror ? [...surface.points].reverse().map((p) => [-p[0], p[1]]) : surface.points;
   const pieces: BasePiece[] = [];
   for (let i = 0; i + 1 < pts.length; i++) {
-    pieces.push({ arc: false, x0: pts[i][0], x1: pts[i + 1][0], y0: pts[i][1], y1: pts[i + 1][1] });
+    pieces.push(linePiece(pts[i][0], pts[i + 1][0], pts[i][1], pts[i + 1][1]));
   }
   return pieces;
 }
