@@ -280,6 +280,7 @@ async function main() {
   const pg0 = new Map(postgresPids().map((pid) => [pid, cpuSeconds(pid)]));
   const cpuAt0 = [cpuOf(workerProcs.map((c) => c.pid)), cpuSeconds(api.pid), 0];
   const t0 = performance.now();
+  const mono0 = process.hrtime.bigint() / 1000n;
   const batch = await post(`/api/v1/projects/${project.id}/batches`, body, token);
   const tPosted = performance.now();
   const timeout = new Promise((_, reject) =>
@@ -287,6 +288,10 @@ async function main() {
   );
   const progress = await Promise.race([followToDone(base, token, batch.id), childFailure, timeout]);
   const t1 = performance.now();
+  // Profiles (BENCH_NODE_ARGS=--cpu-prof) are stamped on the same clock: the measured window.
+  if (process.env.BENCH_NODE_ARGS) {
+    console.log(`  window (monotonic µs): ${mono0} ${process.hrtime.bigint() / 1000n}`);
+  }
   // PostgreSQL's processes that ended meanwhile are not counted (the pools keep theirs open).
   const cpuAt1 = [
     cpuOf(workerProcs.map((c) => c.pid)),
