@@ -136,6 +136,25 @@ function postgresPids() {
   }
 }
 
+/** When the batch's first analysis started, its last ended and it closed: seconds after `wall0`. */
+async function timelineOf(url, batchId, wall0) {
+  const { Client } = require('pg');
+  const client = new Client({ connectionString: url });
+  await client.connect();
+  try {
+    const { rows } = await client.query(
+      `SELECT min(r.started_at) AS first, max(r.finished_at) AS last, b.finished_at AS closed
+         FROM batches b JOIN sections s ON s.batch_id = b.id JOIN results r ON r.section_id = s.id
+        WHERE b.id = $1 GROUP BY b.finished_at`,
+      [batchId],
+    );
+    const at = (d) => (d ? `${((d.getTime() - wall0) / 1000).toFixed(2)} s` : '—');
+    return { first: at(rows[0]?.first), last: at(rows[0]?.last), closed: at(rows[0]?.closed) };
+  } finally {
+    await client.end();
+  }
+}
+
 /** Stops the children and waits for them to exit. */
 async function stopChildren() {
   finished = true;
@@ -280,6 +299,7 @@ async function main() {
   const pg0 = new Map(postgresPids().map((pid) => [pid, cpuSeconds(pid)]));
   const cpuAt0 = [cpuOf(workerProcs.map((c) => c.pid)), cpuSeconds(api.pid), 0];
   const t0 = performance.now();
+  const wall0 = Date.now();
   const mono0 = process.hrtime.bigint() / 1000n;
   const batch = await post(`/api/v1/projects/${project.id}/batches`, body, token);
   const tPosted = performance.now();
@@ -300,6 +320,7 @@ async function main() {
   ];
   const wall = (t1 - t0) / 1000;
   const memory = workers.map((w) => residentMb(w.pid));
+  const timeline = await timelineOf(url, batch.id, wall0);
   await stopChildren();
   const cpu1 = process.cpuUsage(cpu0);
   const cpu2 = process.cpuUsage();
@@ -329,6 +350,10 @@ async function main() {
     `  CPU a section: service ${(workerMs + apiMs + pgMs).toFixed(1)} ms (workers ` +
       `${workerMs.toFixed(1)}, API ${apiMs.toFixed(1)}, PostgreSQL ${pgMs.toFixed(1)}); ` +
       `the core alone ${coreCpuMs.toFixed(1)} ms`,
+  );
+  console.log(
+    `  timeline from the POST: first analysis started ${timeline.first}, last ended ` +
+      `${timeline.last}, batch closed ${timeline.closed}, done event ${wall.toFixed(2)} s`,
   );
   console.log(
     `  worker processes' resident memory after the batch: ${memory

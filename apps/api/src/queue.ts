@@ -161,27 +161,39 @@ export async function enqueueSections(jobs: SectionJob[], transaction: Transacti
 }
 
 /**
- * Calls `wake` whenever new section jobs are submitted (enqueueSections' notice), over a
- * connection of its own; while the database is away it connects again (every second, up to 15 s
- * apart). A hint only: the worker polls the queue anyway. Returns the function that stops it.
+ * Calls `wake` whenever new section jobs are submitted (enqueueSections' notice). A hint only:
+ * the worker polls the queue anyway. Returns the function that stops it.
  */
 export function onNewJobs(wake: () => void): () => Promise<void> {
+  return listen(NEW_JOBS_CHANNEL, () => wake());
+}
+
+/**
+ * Calls `onNotice` with the payload of each PostgreSQL notification on `channel`, over a
+ * connection of its own, and once with null when it starts listening (notices may have been
+ * missed before); while the database is away it connects again (every second, up to 15 s
+ * apart). Returns the function that stops it.
+ */
+export function listen(
+  channel: string,
+  onNotice: (payload: string | null) => void,
+): () => Promise<void> {
   const stopping = new AbortController();
   let client: Client | null = null;
-  const listen = async () => {
+  const run = async () => {
     for (let pause = 1000; !stopping.signal.aborted; pause = Math.min(pause * 2, 15000)) {
       const c = new Client({ connectionString: config.databaseUrl });
       const lost = new Promise<void>((resolve) => {
         c.on('error', () => resolve());
         c.on('end', () => resolve());
       });
-      c.on('notification', () => wake());
+      c.on('notification', (n) => onNotice(n.payload ?? null));
       try {
         await c.connect();
-        await c.query(`LISTEN ${NEW_JOBS_CHANNEL}`);
+        await c.query(`LISTEN ${channel}`);
         client = c;
         pause = 1000;
-        wake(); // jobs may have come while it was not listening
+        onNotice(null);
         await Promise.race([
           lost,
           new Promise((r) => stopping.signal.addEventListener('abort', r, { once: true })),
@@ -194,7 +206,7 @@ export function onNewJobs(wake: () => void): () => Promise<void> {
       await delay(pause, undefined, { signal: stopping.signal }).catch(() => undefined);
     }
   };
-  const listening = listen();
+  const listening = run();
   return async () => {
     stopping.abort();
     await client?.end().catch(() => undefined);

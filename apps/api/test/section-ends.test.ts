@@ -2,9 +2,9 @@
  * The worker's bulk path (issue 14, item 2): jobs taken several at a time with their sections
  * read in one statement, a taken job's clock in the queue restarted as it starts, ends written
  * together in one statement (each section ended once, its input copied into its result, a
- * second delivery skipped), and idle workers woken when a submission commits. Runs the API's
- * build of the analysis thread (npm run build:node). Its own database, so that no other file's
- * worker takes its jobs.
+ * second delivery skipped), the batch's close told to those who follow it, and idle workers
+ * woken when a submission commits. Runs the API's build of the analysis thread (npm run
+ * build:node). Its own database, so that no other file's worker takes its jobs.
  */
 import crypto from 'node:crypto';
 import request from 'supertest';
@@ -116,6 +116,16 @@ test('taken together, analysed, written together: each section ends once with it
       finishedAt: new Date(),
     });
   }
+  // Those who follow the batch are told when it closes (at once, not at their next poll).
+  const closed: (number | null)[] = [];
+  let listening: () => void = () => undefined;
+  const started = new Promise<void>((r) => (listening = r));
+  const stopListening = solve.onBatchClosed((id) => {
+    closed.push(id);
+    listening();
+  });
+  await started;
+
   // The same end twice in a group (two deliveries of one job): the second is skipped.
   const written = await solve.endSections([...ends, ends[0]]);
   expect(written.slice(0, 2).every((e) => e === 'done' || e === 'unsolved')).toBe(true);
@@ -152,6 +162,10 @@ test('taken together, analysed, written together: each section ends once with it
     { bind: [batchId], type: QueryTypes.SELECT },
   );
   expect(batch.status).toBe('done');
+  for (let i = 0; i < 50 && !closed.includes(batchId); i++)
+    await new Promise((r) => setTimeout(r, 20));
+  await stopListening();
+  expect(closed).toEqual([null, batchId]);
 
   // Another delivery later: skipped, nothing rewritten.
   expect(await solve.endSections([ends[1]])).toEqual(['skipped']);

@@ -16,7 +16,7 @@ import { config } from '../config';
 import { sequelize, whenDatabaseIsBack } from '../db';
 import { log } from '../log';
 import { SectionRow, type SectionStatus } from '../models';
-import type { SectionJob } from '../queue';
+import { listen, type SectionJob } from '../queue';
 import type { SolvedSection } from '../solver';
 import { batchFinished, sectionBelowFs } from './mail';
 
@@ -316,16 +316,31 @@ export async function giveUp(job: SectionJob, signal?: AbortSignal): Promise<boo
   return n > 0;
 }
 
+/** The channel a batch's close is told on (its id), at the close's commit. */
+const BATCH_CLOSED_CHANNEL = 'scarpline_batch_closed';
+
 /**
- * Marks the batch done when no section is queued or running. Each worker checks after its own
- * commit, so the last one always sees every other; the conditional update closes it once.
+ * Calls `closed` with a batch's id when a worker closes it (and with null when it starts
+ * listening, or listens again after an outage: closes may have been missed). Returns the
+ * function that stops it.
+ */
+export function onBatchClosed(closed: (batchId: number | null) => void): () => Promise<void> {
+  return listen(BATCH_CLOSED_CHANNEL, (payload) =>
+    closed(payload === null ? null : Number(payload)),
+  );
+}
+
+/**
+ * Marks the batch done when no section is queued or running, and tells those who listen
+ * (onBatchClosed). Each worker checks after its own commit, so the last one always sees every
+ * other; the conditional update closes it once.
  */
 export async function closeBatchIfLast(batchId: number): Promise<boolean> {
   const rows = await sequelize.query(
     `UPDATE batches SET status = 'done', finished_at = now(), updated_at = now()
       WHERE id = $1 AND status = 'running'
         AND NOT EXISTS (SELECT 1 FROM sections WHERE batch_id = $1 AND status IN ('queued', 'running'))
-      RETURNING id`,
+      RETURNING id, pg_notify('${BATCH_CLOSED_CHANNEL}', id::text)`,
     { bind: [batchId], type: QueryTypes.SELECT },
   );
   if (rows.length === 0) return false;
