@@ -272,6 +272,8 @@ export async function startWorker(): Promise<RunningWorker> {
     }
     current = data.sectionId;
     const marking = markRunning(data, signal);
+    // Awaited after the analysis; heard meanwhile, so that a stop while it waits ends nothing.
+    marking.catch(() => undefined);
     const startedAt = new Date();
     const outcome = await solver.solve(section.input, config.jobTimeout * 1000);
     const finishedAt = new Date();
