@@ -179,6 +179,10 @@ export function listen(
   onNotice: (payload: string | null) => void,
 ): () => Promise<void> {
   const stopping = new AbortController();
+  // Made once: a listener added after the abort would never hear it.
+  const stopped = new Promise<void>((r) =>
+    stopping.signal.addEventListener('abort', () => r(), { once: true }),
+  );
   let client: Client | null = null;
   const run = async () => {
     for (let pause = 1000; !stopping.signal.aborted; pause = Math.min(pause * 2, 15000)) {
@@ -193,11 +197,8 @@ export function listen(
         await c.query(`LISTEN ${channel}`);
         client = c;
         pause = 1000;
-        onNotice(null);
-        await Promise.race([
-          lost,
-          new Promise((r) => stopping.signal.addEventListener('abort', r, { once: true })),
-        ]);
+        if (!stopping.signal.aborted) onNotice(null);
+        await Promise.race([lost, stopped]);
       } catch {
         // the database is away: try again after the pause
       }
