@@ -53,6 +53,11 @@ export interface Config {
   retryDelay: number;
   jobTimeout: number;
   workerConcurrency: number;
+  /**
+   * Section jobs a worker process takes from the queue at once (WORKER_FETCH); it takes more
+   * when it is down to its last, so that its analysis thread never waits for the queue.
+   */
+  workerFetch: number;
   /** How often pg-boss's maintenance runs (expires timed-out jobs), in seconds. */
   queueMaintenance: number;
   /** How often a live-progress stream reads the database, in milliseconds. */
@@ -138,6 +143,7 @@ function read(): Config {
     retryDelay: num('JOB_RETRY_DELAY', 1),
     jobTimeout: num('JOB_TIMEOUT', 120),
     workerConcurrency: num('WORKER_CONCURRENCY', os.availableParallelism()),
+    workerFetch: Math.max(1, Math.floor(num('WORKER_FETCH', 4))),
     queueMaintenance: num('QUEUE_MAINTENANCE_SECONDS', 30),
     eventPollMs: num('EVENT_POLL_MS', 500),
     corsOrigin: process.env.CORS_ORIGIN ?? '',

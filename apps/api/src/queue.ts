@@ -1,4 +1,6 @@
 /** pg-boss 10 in the application database: one job per section, retries, dead letters. */
+import { setTimeout as delay } from 'node:timers/promises';
+import { Client } from 'pg';
 import PgBoss from 'pg-boss';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { config } from './config';
@@ -8,6 +10,8 @@ import type pg from 'pg';
 
 export const SECTION_QUEUE = 'section-analysis';
 export const DEAD_QUEUE = 'section-analysis-dead';
+/** The channel a submission notifies (at its commit) that new section jobs wait. */
+const NEW_JOBS_CHANNEL = 'scarpline_section_jobs';
 
 export interface SectionJob {
   sectionId: number;
@@ -116,6 +120,21 @@ export async function queueDepth(): Promise<{ queue: string; state: string; jobs
 }
 
 /**
+ * Restarts the expiry clock of a job this worker took some time ago and is about to start: a
+ * job taken together with others waits its turn in the worker, and its time in the queue's
+ * hands (expireSeconds) is counted from here, as if it had been taken now. False when the job
+ * is no longer this worker's (it expired meanwhile: the queue has taken it back).
+ */
+export async function restartJobClock(id: string, retryCount: number): Promise<boolean> {
+  const rows = await sequelize.query(
+    `UPDATE pgboss.job SET started_on = now()
+      WHERE name = $1 AND id = $2 AND state = 'active' AND retry_count = $3 RETURNING id`,
+    { bind: [SECTION_QUEUE, id, retryCount], type: QueryTypes.SELECT },
+  );
+  return rows.length > 0;
+}
+
+/**
  * Enqueues one job per section inside the caller's transaction, so a batch and its jobs are
  * written together or not at all.
  */
@@ -137,4 +156,61 @@ export async function enqueueSections(jobs: SectionJob[], transaction: Transacti
     })),
     { db },
   );
+  // Delivered at the commit: the idle workers take the jobs at once instead of at their next poll.
+  await client.query(`NOTIFY ${NEW_JOBS_CHANNEL}`);
+}
+
+/**
+ * Calls `wake` whenever new section jobs are submitted (enqueueSections' notice). A hint only:
+ * the worker polls the queue anyway. Returns the function that stops it.
+ */
+export function onNewJobs(wake: () => void): () => Promise<void> {
+  return listen(NEW_JOBS_CHANNEL, () => wake());
+}
+
+/**
+ * Calls `onNotice` with the payload of each PostgreSQL notification on `channel`, over a
+ * connection of its own, and once with null when it starts listening (notices may have been
+ * missed before); while the database is away it connects again (every second, up to 15 s
+ * apart). Returns the function that stops it.
+ */
+export function listen(
+  channel: string,
+  onNotice: (payload: string | null) => void,
+): () => Promise<void> {
+  const stopping = new AbortController();
+  // Made once: a listener added after the abort would never hear it.
+  const stopped = new Promise<void>((r) =>
+    stopping.signal.addEventListener('abort', () => r(), { once: true }),
+  );
+  let client: Client | null = null;
+  const run = async () => {
+    for (let pause = 1000; !stopping.signal.aborted; pause = Math.min(pause * 2, 15000)) {
+      const c = new Client({ connectionString: config.databaseUrl });
+      const lost = new Promise<void>((resolve) => {
+        c.on('error', () => resolve());
+        c.on('end', () => resolve());
+      });
+      c.on('notification', (n) => onNotice(n.payload ?? null));
+      try {
+        await c.connect();
+        await c.query(`LISTEN ${channel}`);
+        client = c;
+        pause = 1000;
+        if (!stopping.signal.aborted) onNotice(null);
+        await Promise.race([lost, stopped]);
+      } catch {
+        // the database is away: try again after the pause
+      }
+      client = null;
+      await c.end().catch(() => undefined);
+      await delay(pause, undefined, { signal: stopping.signal }).catch(() => undefined);
+    }
+  };
+  const listening = run();
+  return async () => {
+    stopping.abort();
+    await client?.end().catch(() => undefined);
+    await listening;
+  };
 }

@@ -4,19 +4,53 @@
  * analysis stopped (AnalysisStopped: its work bound, or the deadline it asked about every few
  * hundred trial surfaces), or the error it ended with. Being a thread, the worker can end it
  * when it does not stop by itself.
+ *
+ * The section may come as its JSON text (as the database gives it) and the result goes back
+ * as the few fields the worker looks at plus the JSON text of the columns it writes: turning
+ * objects into text and back is done here, beside the analysis, and not on the worker's main
+ * thread, which only passes the text on to the database.
  */
+import crypto from 'node:crypto';
 import { parentPort } from 'node:worker_threads';
-import { AnalysisStopped, analyzeSection, type Section } from '@scarpline/core';
-import type { ThreadAnswer, ThreadJob } from './solver';
+import { AnalysisStopped, analyzeSection, unsolvedReason, type Section } from '@scarpline/core';
+import type { SectionResult } from '@scarpline/core/result';
+import type { SolvedSection, ThreadAnswer, ThreadJob } from './solver';
 
 const port = parentPort;
 if (!port) throw new Error('solve-thread.js runs as a worker thread (see solver.ts)');
 
+/** The hash of a section's input stored with its result (sha256 of its JSON). */
+function inputHash(input: unknown): string {
+  return crypto.createHash('sha256').update(JSON.stringify(input)).digest('hex');
+}
+
+/** What the worker writes of a result: the fields it reads, and the JSON columns as text. */
+function solved(result: SectionResult, input: unknown): SolvedSection {
+  const governing = result.results.find((m) => m.method === result.governing?.method);
+  const surface = governing?.surface ?? null;
+  return {
+    verdict: result.verdict,
+    governing: result.governing,
+    requiredFs: result.requiredFs,
+    reason: result.verdict === 'no-fs' ? unsolvedReason(result.results) : null,
+    solverVersion: result.solverVersion,
+    caution: result.caution,
+    inputHash: inputHash(input),
+    json: {
+      methods: JSON.stringify(result.results),
+      criticalSurface: surface === null ? null : JSON.stringify(surface),
+      warnings: JSON.stringify(result.warnings),
+      search: result.search === null ? null : JSON.stringify(result.search),
+    },
+  };
+}
+
 port.on('message', ({ section, deadline }: ThreadJob) => {
   let answer: ThreadAnswer;
   try {
-    const result = analyzeSection(section as Section, { shouldStop: () => Date.now() > deadline });
-    answer = { kind: 'result', result };
+    const input: unknown = typeof section === 'string' ? JSON.parse(section) : section;
+    const result = analyzeSection(input as Section, { shouldStop: () => Date.now() > deadline });
+    answer = { kind: 'result', result: solved(result, input) };
   } catch (e) {
     answer =
       e instanceof AnalysisStopped

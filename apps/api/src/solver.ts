@@ -12,22 +12,46 @@ import type { SectionResult } from '@scarpline/core/result';
 
 /** What the worker sends its thread. */
 export interface ThreadJob {
-  section: object;
+  /** The section, or its JSON text (as the database gives it: the thread parses it). */
+  section: object | string;
   /** Date.now() past which the analysis stops itself. */
   deadline: number;
+}
+
+/**
+ * A finished analysis as the thread hands it back (solve-thread.ts): the fields the worker
+ * reads, and the JSON text of the columns it writes as they are.
+ */
+export interface SolvedSection {
+  verdict: SectionResult['verdict'];
+  governing: SectionResult['governing'];
+  requiredFs: number | null;
+  /** Why no method converged (verdict no-fs), else null. */
+  reason: string | null;
+  solverVersion: string;
+  caution: string;
+  /** sha256 of the input's JSON, stored with the result. */
+  inputHash: string;
+  /** The per-method reports, the governing method's critical surface, the warnings, the search. */
+  json: {
+    methods: string;
+    criticalSurface: string | null;
+    warnings: string;
+    search: string | null;
+  };
 }
 
 /** What the thread answers. */
 export type ThreadAnswer =
   | { kind: 'ready' }
-  | { kind: 'result'; result: SectionResult }
+  | { kind: 'result'; result: SolvedSection }
   | { kind: 'stopped'; code: 'work-limit' | 'stopped'; message: string }
   | { kind: 'error'; message: string };
 
 /** How an analysis ended. */
 export type SolveOutcome =
   /** It finished (its verdict may still be no-fs). */
-  | { kind: 'result'; result: SectionResult }
+  | { kind: 'result'; result: SolvedSection }
   /** It was stopped by its work bound or its time limit: the reason says what to change. */
   | { kind: 'stopped'; reason: string }
   /** It failed (an exception, the thread's end, its memory): worth another attempt. */
@@ -78,10 +102,10 @@ export class Solver {
   }
 
   /**
-   * Analyses one section within `limitMs` (counted from when the thread has the section). One
-   * at a time: the worker takes one job at a time.
+   * Analyses one section (or its JSON text) within `limitMs` (counted from when the thread has
+   * the section). One at a time: the thread analyses one section at a time.
    */
-  async solve(section: object, limitMs: number): Promise<SolveOutcome> {
+  async solve(section: object | string, limitMs: number): Promise<SolveOutcome> {
     if (this.running) throw new Error('Solver.solve: one section at a time');
     if (this.closed) return { kind: 'aborted' };
     let thread: Worker;

@@ -27,4 +27,15 @@ test('API batch bench (apps/api/bench/batch-300.js)', () => {
   );
   expect(r.stdout).toMatch(/^ {2}POST \(validate, store, enqueue\): \d+\.\d\d s$/m);
   expect(r.stdout).toMatch(/^ {2}wall time POST → done: \d+\.\d s; \d+\.\d sections\/s$/m);
+  // The reference in the same run, and the ratio to it (issue 14, item 6).
+  expect(r.stdout).toMatch(
+    /^ {2}the core alone, 2 worker threads, chunks of 1: \d+\.\d\d s \(before \d+\.\d\d s, after \d+\.\d\d s\); \d+\.\d sections\/s$/m,
+  );
+  expect(r.stdout).toMatch(/^ {2}ratio service \/ core throughput: \d+\.\d\d$/m);
+  expect(r.stdout).toMatch(
+    /^ {2}CPU a section: service \d+\.\d ms \(workers \d+\.\d, API \d+\.\d, PostgreSQL \d+\.\d\); the core alone \d+\.\d ms$/m,
+  );
+  expect(r.stdout).toMatch(
+    /^ {2}worker processes' resident memory after the batch: \d+ MB, \d+ MB$/m,
+  );
 }, 120_000);

@@ -51,7 +51,8 @@ export async function submitBatch(p: Principal, projectId: number, parsed: Parse
         featureProperties: parsed.featureProperties?.[s.id] ?? null,
         inputWarnings: (parsed.sectionWarnings[s.id] ?? []).map(sectionMessage),
       })),
-      { transaction: t, returning: true },
+      // Only the ids come back: the rows' inputs need not travel back from the database.
+      { transaction: t, returning: ['id'] },
     );
     await enqueueSections(
       rows.map((r) => ({ sectionId: r.id, run: 1 })),

@@ -10,6 +10,7 @@ import { CAUTION } from '@scarpline/core/caution';
 import { config } from '../config';
 import { Batch } from '../models';
 import { progress } from './batches';
+import { onBatchClosed } from './solve';
 import { lastHeartbeat, stalledWords } from './workers';
 
 type Progress = Awaited<ReturnType<typeof progress>>;
@@ -57,9 +58,13 @@ interface Poller {
   listeners: Set<(s: Snapshot) => void>;
   latest: Snapshot | null;
   stop: AbortController;
+  /** Reads at once instead of at the next tick (the batch was closed). */
+  wake: () => void;
 }
 
 const pollers = new Map<number, Poller>();
+/** Wakes the poller of a batch a worker closes, while any batch is polled. */
+let closedListener: (() => Promise<void>) | null = null;
 
 async function snapshot(batchId: number): Promise<Snapshot> {
   const batch = await Batch.findByPk(batchId);
@@ -90,10 +95,12 @@ async function poll(batchId: number, poller: Poller, intervalMs: number): Promis
     } catch {
       // the database is unreachable just now: read again at the next tick
     }
+    const woken = new AbortController();
+    poller.wake = () => woken.abort();
     try {
-      await delay(intervalMs, undefined, { signal });
+      await delay(intervalMs, undefined, { signal: AbortSignal.any([signal, woken.signal]) });
     } catch {
-      return; // nobody follows any more
+      if (signal.aborted) return; // nobody follows any more
     }
   }
 }
@@ -106,8 +113,11 @@ async function poll(batchId: number, poller: Poller, intervalMs: number): Promis
 function follow(batchId: number, listener: (s: Snapshot) => void, intervalMs: number): () => void {
   let poller = pollers.get(batchId);
   if (!poller) {
-    poller = { listeners: new Set(), latest: null, stop: new AbortController() };
+    poller = { listeners: new Set(), latest: null, stop: new AbortController(), wake: () => {} };
     pollers.set(batchId, poller);
+    closedListener ??= onBatchClosed((id) => {
+      for (const [polled, q] of pollers) if (id === null || id === polled) q.wake();
+    });
     void poll(batchId, poller, intervalMs);
   }
   const p = poller;
@@ -118,6 +128,10 @@ function follow(batchId: number, listener: (s: Snapshot) => void, intervalMs: nu
     if (p.listeners.size === 0 && pollers.get(batchId) === p) {
       pollers.delete(batchId);
       p.stop.abort();
+      if (pollers.size === 0 && closedListener) {
+        void closedListener();
+        closedListener = null;
+      }
     }
   };
 }

@@ -1,29 +1,24 @@
 /**
- * Solving one section (the worker's job): analyse it in the worker's thread within the time
- * limit, write how it ended once per run, close the batch.
+ * Solving sections (the worker's jobs): read the sections a worker has taken, mark each running
+ * as its analysis starts, write how each ended once per run, close the batch. The worker
+ * (worker.ts) runs the analyses and hands their ends here, several at a time when they come
+ * quicker than they are written.
  *
  * Delivery is at least once (a job whose worker died is handed out again), so every write is
  * idempotent and a section ends exactly once: its move from queued/running to done/failed is a
- * conditional update, the result is written in the same transaction, and only the job that
- * made the move sends mail. A job for an older run (superseded by a re-run), or for a section
- * that has already ended, does nothing but make sure its batch is closed. Every step waits for
- * the database when it is away (a restart) instead of failing the job.
+ * conditional update, the result is written in the same statement, and only the job that made
+ * the move sends mail. A job for an older run (superseded by a re-run), or for a section that
+ * has already ended, does nothing but make sure its batch is closed. Every step waits for the
+ * database when it is away (a restart) instead of failing the job.
  */
-import crypto from 'node:crypto';
-import { SOLVER_VERSION, unsolvedReason } from '@scarpline/core';
-import type { SectionResult } from '@scarpline/core/result';
-import { Op, QueryTypes } from 'sequelize';
+import { QueryTypes } from 'sequelize';
 import { config } from '../config';
 import { sequelize, whenDatabaseIsBack } from '../db';
 import { log } from '../log';
-import { ResultRow, SectionRow, type SectionStatus } from '../models';
-import type { SectionJob } from '../queue';
-import type { Solver } from '../solver';
+import { SectionRow, type SectionStatus } from '../models';
+import { listen, type SectionJob } from '../queue';
+import type { SolvedSection } from '../solver';
 import { batchFinished, sectionBelowFs } from './mail';
-
-export function inputHash(input: object): string {
-  return crypto.createHash('sha256').update(JSON.stringify(input)).digest('hex');
-}
 
 /**
  * How a job ended: `done`, `unsolved` (no method converged: failed with the reasons), `stopped`
@@ -39,6 +34,7 @@ export class JobFailed extends Error {
 }
 
 const WAITING: SectionStatus[] = ['queued', 'running'];
+const WAITING_SQL = `('queued', 'running')`;
 
 /** Runs a database step, waiting for the database while it is away (logged once a step). */
 function step<T>(what: string, operation: () => Promise<T>, signal?: AbortSignal): Promise<T> {
@@ -52,142 +48,243 @@ function step<T>(what: string, operation: () => Promise<T>, signal?: AbortSignal
   });
 }
 
-/**
- * Runs a section's job in `solver` (one attempt; `attempt` counts from 0). Resolves with how it
- * ended; throws JobFailed (or another error) for the queue to retry.
- */
-export async function solveSection(
-  job: SectionJob,
-  attempt: number,
-  solver: Solver,
+/** A section as a worker holds it: what it needs to analyse it and to write how it ended. */
+export interface HeldSection {
+  id: number;
+  run: number;
+  batchId: number;
+  key: string;
+  status: SectionStatus;
+  /** The section's input as JSON text (the analysis thread parses it). */
+  input: string;
+}
+
+/** Whether a job's section still waits for it (same run, not ended). */
+export function waitsFor(section: HeldSection | undefined, job: SectionJob): boolean {
+  return !!section && section.run === job.run && WAITING.includes(section.status);
+}
+
+/** Reads the sections of the jobs a worker has taken, in one statement; by id. */
+export async function readSections(
+  jobs: SectionJob[],
   signal?: AbortSignal,
-): Promise<JobEnd> {
-  const where = { id: job.sectionId, run: job.run, status: { [Op.in]: WAITING } };
-  const section = await step('read the section', () => SectionRow.findByPk(job.sectionId), signal);
-  if (!section || section.run !== job.run || !WAITING.includes(section.status)) {
-    if (section) await step('close the batch', () => closeBatchIfLast(section.batchId), signal);
-    return 'skipped';
-  }
-  await step('mark it running', () => SectionRow.update({ status: 'running' }, { where }), signal);
-  const startedAt = new Date();
-  const outcome = await solver.solve(section.input, config.jobTimeout * 1000);
-  const finishedAt = new Date();
-  if (outcome.kind === 'aborted') return 'abandoned';
-
-  if (outcome.kind === 'error') {
-    const reason = `attempt ${attempt + 1}: ${outcome.reason}`.slice(0, 2000);
-    // Back to queued until the retry takes it (or the dead letters end it).
-    await step(
-      'record the failed attempt',
-      () => SectionRow.update({ status: 'queued', failReason: reason }, { where }),
-      signal,
-    );
-    throw new JobFailed(reason);
-  }
-
-  let ended: boolean;
-  let end: JobEnd;
-  let result: SectionResult | null = null;
-  if (outcome.kind === 'stopped') {
-    end = 'stopped';
-    ended = await step(
-      'end it failed',
-      async () => {
-        const [n] = await SectionRow.update(
-          { status: 'failed', failReason: outcome.reason.slice(0, 2000) },
-          { where },
-        );
-        return n > 0;
-      },
-      signal,
-    );
-  } else {
-    result = outcome.result;
-    end = result.verdict === 'no-fs' ? 'unsolved' : 'done';
-    ended = await step(
-      'write the result',
-      () => writeResult(section, job.run, attempt, result!, startedAt, finishedAt),
-      signal,
-    );
-  }
-  if (!ended) {
-    // Another delivery of this job ended the section first.
-    await step('close the batch', () => closeBatchIfLast(section.batchId), signal);
-    return 'skipped';
-  }
-  log.info(
-    {
-      sectionId: section.id,
-      batchId: section.batchId,
-      run: job.run,
-      end,
-      attempt: attempt + 1,
-      ms: finishedAt.getTime() - startedAt.getTime(),
-    },
-    'section ended',
+): Promise<Map<number, HeldSection>> {
+  if (jobs.length === 0) return new Map();
+  const rows = await step(
+    'read the sections',
+    () =>
+      sequelize.query<HeldSection>(
+        `SELECT id, run, batch_id AS "batchId", key, status, input::text AS input
+           FROM sections WHERE id = ANY($1::int[])`,
+        { bind: [jobs.map((j) => j.sectionId)], type: QueryTypes.SELECT },
+      ),
+    signal,
   );
-  if (result?.verdict === 'below') {
-    const r = result;
-    await step(
-      'mail',
-      () => sectionBelowFs(section, r.governing?.fs ?? null, r.requiredFs),
-      signal,
-    );
-  }
-  await step('close the batch', () => closeBatchIfLast(section.batchId), signal);
-  return end;
+  return new Map(rows.map((r) => [r.id, r]));
+}
+
+/** Marks a section running as its analysis starts (if it still waits for this run). */
+export async function markRunning(job: SectionJob, signal?: AbortSignal): Promise<void> {
+  await step(
+    'mark it running',
+    () =>
+      sequelize.query(
+        `UPDATE sections SET status = 'running', updated_at = now()
+          WHERE id = $1 AND run = $2 AND status IN ${WAITING_SQL}`,
+        { bind: [job.sectionId, job.run] },
+      ),
+    signal,
+  );
+}
+
+/** How a section's analysis ended, as the worker hands it over to be written. */
+export type SectionEnd = {
+  job: SectionJob;
+  /** The attempt, counted from 0. */
+  attempt: number;
+  section: HeldSection;
+} & (
+  | { kind: 'result'; result: SolvedSection; startedAt: Date; finishedAt: Date }
+  /** Stopped by its work bound or time limit: `reason` says what to change. */
+  | { kind: 'stopped'; reason: string; startedAt: Date; finishedAt: Date }
+);
+
+const RESULT_COLUMNS = `section_id, run, verdict, governing_method, governing_fs, required_fs,
+  methods, critical_surface, warnings, search, reason, solver_version, input_hash, started_at,
+  finished_at, duration_ms, attempt`;
+
+/**
+ * Writes results and ends their sections in one statement (atomic as a transaction): only the
+ * sections that still wait for the result's run end, and only those get a result row (the
+ * section's input copied into it, in the database). Returns the ids of the sections it ended.
+ * One end per section and run (the caller's).
+ */
+async function writeResults(ends: (SectionEnd & { kind: 'result' })[]): Promise<Set<number>> {
+  const col = <T>(f: (e: SectionEnd & { kind: 'result' }) => T) => ends.map(f);
+  const rows = await sequelize.query<{ id: number }>(
+    `WITH r AS (
+       SELECT * FROM unnest($1::int[], $2::int[], $3::text[], $4::text[], $5::float8[],
+         $6::float8[], $7::jsonb[], $8::jsonb[], $9::jsonb[], $10::jsonb[], $11::text[],
+         $12::text[], $13::text[], $14::timestamptz[], $15::timestamptz[], $16::int[], $17::int[])
+         AS r(${RESULT_COLUMNS})
+     ), ended AS (
+       UPDATE sections s
+          SET status = CASE WHEN r.verdict = 'no-fs' THEN 'failed' ELSE 'done' END,
+              fail_reason = r.reason, updated_at = now()
+         FROM r
+        WHERE s.id = r.section_id AND s.run = r.run AND s.status IN ${WAITING_SQL}
+       RETURNING s.id, s.input
+     ), written AS (
+       INSERT INTO results (${RESULT_COLUMNS}, input, created_at, updated_at)
+       SELECT r.*, ended.input, now(), now() FROM r JOIN ended ON ended.id = r.section_id
+       ON CONFLICT (section_id, run) DO UPDATE SET
+         verdict = EXCLUDED.verdict, governing_method = EXCLUDED.governing_method,
+         governing_fs = EXCLUDED.governing_fs, required_fs = EXCLUDED.required_fs,
+         methods = EXCLUDED.methods, critical_surface = EXCLUDED.critical_surface,
+         warnings = EXCLUDED.warnings, search = EXCLUDED.search, reason = EXCLUDED.reason,
+         solver_version = EXCLUDED.solver_version, input_hash = EXCLUDED.input_hash,
+         started_at = EXCLUDED.started_at, finished_at = EXCLUDED.finished_at,
+         duration_ms = EXCLUDED.duration_ms, attempt = EXCLUDED.attempt,
+         input = EXCLUDED.input, updated_at = EXCLUDED.updated_at
+     )
+     SELECT id FROM ended`,
+    {
+      bind: [
+        col((e) => e.job.sectionId),
+        col((e) => e.job.run),
+        col((e) => e.result.verdict),
+        col((e) => e.result.governing?.method ?? null),
+        col((e) => e.result.governing?.fs ?? null),
+        col((e) => e.result.requiredFs),
+        col((e) => e.result.json.methods),
+        col((e) => e.result.json.criticalSurface),
+        col((e) => e.result.json.warnings),
+        col((e) => e.result.json.search),
+        col((e) => e.result.reason?.slice(0, 2000) ?? null),
+        col((e) => e.result.solverVersion),
+        col((e) => e.result.inputHash),
+        col((e) => e.startedAt),
+        col((e) => e.finishedAt),
+        col((e) => e.finishedAt.getTime() - e.startedAt.getTime()),
+        col((e) => e.attempt + 1),
+      ],
+      type: QueryTypes.SELECT,
+    },
+  );
+  return new Set(rows.map((r) => r.id));
+}
+
+/** Ends a section stopped by its work bound or time limit; false when it had already ended. */
+async function endStopped(job: SectionJob, reason: string): Promise<boolean> {
+  const rows = await sequelize.query(
+    `UPDATE sections SET status = 'failed', fail_reason = $3, updated_at = now()
+      WHERE id = $1 AND run = $2 AND status IN ${WAITING_SQL} RETURNING id`,
+    { bind: [job.sectionId, job.run, reason.slice(0, 2000)], type: QueryTypes.SELECT },
+  );
+  return rows.length > 0;
 }
 
 /**
- * Writes a result and ends the section in one transaction, if the section still waits for
- * this run; false (and nothing written) when it has already ended.
+ * Writes how sections ended (results together, in one statement), logs each, mails a section
+ * below its required FS, and closes the batches. Resolves with each end's JobEnd, in order: a
+ * section that another delivery of its job had ended first is `skipped`. Throws when the
+ * database fails otherwise (nothing of the statement that failed is written).
  */
-async function writeResult(
-  section: SectionRow,
-  run: number,
-  attempt: number,
-  result: SectionResult,
-  startedAt: Date,
-  finishedAt: Date,
-): Promise<boolean> {
-  const unsolved = result.verdict === 'no-fs';
-  const reason = unsolved ? unsolvedReason(result.results) : null;
-  const governing = result.results.find((m) => m.method === result.governing?.method);
-  return sequelize.transaction(async (transaction) => {
-    const [n] = await SectionRow.update(
-      { status: unsolved ? 'failed' : 'done', failReason: reason },
-      { where: { id: section.id, run, status: { [Op.in]: WAITING } }, transaction },
-    );
-    if (n === 0) return false;
-    await ResultRow.upsert(
-      {
-        sectionId: section.id,
-        run,
-        verdict: result.verdict,
-        governingMethod: result.governing?.method ?? null,
-        governingFs: result.governing?.fs ?? null,
-        requiredFs: result.requiredFs,
-        methods: result.results,
-        criticalSurface: governing?.surface ?? null,
-        warnings: result.warnings,
-        search: result.search,
-        reason,
-        solverVersion: SOLVER_VERSION,
-        inputHash: inputHash(section.input),
-        startedAt,
-        finishedAt,
-        durationMs: finishedAt.getTime() - startedAt.getTime(),
-        attempt: attempt + 1,
-        input: section.input,
-      },
-      {
-        transaction,
-        // Sequelize writes these names into ON CONFLICT as they are: the column names.
-        conflictFields: ['section_id' as 'sectionId', 'run'],
-      },
-    );
+export async function endSections(ends: SectionEnd[], signal?: AbortSignal): Promise<JobEnd[]> {
+  // One end per section and run in a statement; a second (another delivery) is skipped.
+  const seen = new Set<string>();
+  const first = ends.map((e) => {
+    const k = `${e.job.sectionId}:${e.job.run}`;
+    if (seen.has(k)) return false;
+    seen.add(k);
     return true;
   });
+  const results = ends.filter((e, i) => first[i] && e.kind === 'result') as (SectionEnd & {
+    kind: 'result';
+  })[];
+  const ended =
+    results.length > 0
+      ? await step('write the results', () => writeResults(results), signal)
+      : new Set<number>();
+  const out: JobEnd[] = [];
+  for (const [i, e] of ends.entries()) {
+    let end: JobEnd;
+    if (!first[i]) end = 'skipped';
+    else if (e.kind === 'result') {
+      end = !ended.has(e.job.sectionId)
+        ? 'skipped'
+        : e.result.verdict === 'no-fs'
+          ? 'unsolved'
+          : 'done';
+    } else {
+      const reason = e.reason;
+      end = (await step('end it failed', () => endStopped(e.job, reason), signal))
+        ? 'stopped'
+        : 'skipped';
+    }
+    out.push(end);
+    if (end === 'skipped') continue;
+    log.info(
+      {
+        sectionId: e.job.sectionId,
+        batchId: e.section.batchId,
+        run: e.job.run,
+        end,
+        attempt: e.attempt + 1,
+        ms: e.finishedAt.getTime() - e.startedAt.getTime(),
+      },
+      'section ended',
+    );
+  }
+  // Mail after every end is logged: a worker that dies while mailing has logged them all.
+  for (const [i, e] of ends.entries()) {
+    if (out[i] === 'skipped' || e.kind !== 'result' || e.result.verdict !== 'below') continue;
+    const r = e.result;
+    const row = await step(
+      'read the section',
+      () => SectionRow.findByPk(e.section.id, { attributes: ['id', 'batchId', 'key'] }),
+      signal,
+    );
+    if (row) {
+      await step('mail', () => sectionBelowFs(row, r.governing?.fs ?? null, r.requiredFs), signal);
+    }
+  }
+  await closeBatches(
+    ends.map((e) => e.section.batchId),
+    signal,
+  );
+  return out;
+}
+
+/**
+ * An attempt that failed (worth another): the section goes back to queued, with the reason,
+ * until the retry takes it (or the dead letters end it). Returns the JobFailed to fail the job with.
+ */
+export async function recordFailedAttempt(
+  job: SectionJob,
+  attempt: number,
+  reason: string,
+  signal?: AbortSignal,
+): Promise<JobFailed> {
+  const message = `attempt ${attempt + 1}: ${reason}`.slice(0, 2000);
+  await step(
+    'record the failed attempt',
+    () =>
+      sequelize.query(
+        `UPDATE sections SET status = 'queued', fail_reason = $3, updated_at = now()
+          WHERE id = $1 AND run = $2 AND status IN ${WAITING_SQL}`,
+        { bind: [job.sectionId, job.run, message] },
+      ),
+    signal,
+  );
+  return new JobFailed(message);
+}
+
+/** Makes sure each batch is closed when none of its sections waits any more (once each). */
+export async function closeBatches(batchIds: number[], signal?: AbortSignal): Promise<void> {
+  for (const id of new Set(batchIds)) {
+    await step('close the batch', () => closeBatchIfLast(id), signal);
+  }
 }
 
 /**
@@ -205,7 +302,7 @@ export async function giveUp(job: SectionJob, signal?: AbortSignal): Promise<boo
     () =>
       SectionRow.update(
         { status: 'failed', failReason: reason },
-        { where: { id: section.id, run: job.run, status: { [Op.in]: WAITING } } },
+        { where: { id: section.id, run: job.run, status: WAITING } },
       ),
     signal,
   );
@@ -219,16 +316,31 @@ export async function giveUp(job: SectionJob, signal?: AbortSignal): Promise<boo
   return n > 0;
 }
 
+/** The channel a batch's close is told on (its id), at the close's commit. */
+const BATCH_CLOSED_CHANNEL = 'scarpline_batch_closed';
+
 /**
- * Marks the batch done when no section is queued or running. Each worker checks after its own
- * commit, so the last one always sees every other; the conditional update closes it once.
+ * Calls `closed` with a batch's id when a worker closes it (and with null when it starts
+ * listening, or listens again after an outage: closes may have been missed). Returns the
+ * function that stops it.
+ */
+export function onBatchClosed(closed: (batchId: number | null) => void): () => Promise<void> {
+  return listen(BATCH_CLOSED_CHANNEL, (payload) =>
+    closed(payload === null ? null : Number(payload)),
+  );
+}
+
+/**
+ * Marks the batch done when no section is queued or running, and tells those who listen
+ * (onBatchClosed). Each worker checks after its own commit, so the last one always sees every
+ * other; the conditional update closes it once.
  */
 export async function closeBatchIfLast(batchId: number): Promise<boolean> {
   const rows = await sequelize.query(
     `UPDATE batches SET status = 'done', finished_at = now(), updated_at = now()
       WHERE id = $1 AND status = 'running'
         AND NOT EXISTS (SELECT 1 FROM sections WHERE batch_id = $1 AND status IN ('queued', 'running'))
-      RETURNING id`,
+      RETURNING id, pg_notify('${BATCH_CLOSED_CHANNEL}', id::text)`,
     { bind: [batchId], type: QueryTypes.SELECT },
   );
   if (rows.length === 0) return false;
