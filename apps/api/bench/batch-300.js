@@ -25,7 +25,10 @@
  *   BENCH_FETCH=n                                           WORKER_FETCH of the workers
  */
 const { spawn } = require('node:child_process');
-const { Worker } = require('node:worker_threads');
+// The solver bench's own thread runner, so that both benches time the core alone the same way
+// (a bench script, not the API: it may reach into the core's bench folder).
+// eslint-disable-next-line no-restricted-syntax
+const { timeOnThreads } = require('../../../packages/core/bench/threads');
 const fs = require('node:fs');
 const net = require('node:net');
 const path = require('node:path');
@@ -53,41 +56,8 @@ function corridor(n) {
   return { ...c, id: `bench-${n}`, title: `${c.title} (benchmark, ${n} sections)`, sections };
 }
 
-/**
- * Milliseconds the core alone takes for `sections` on `threads` worker threads, fed CORE_CHUNK
- * sections at a time (as packages/core/bench/run.js's corridor run); start-up not counted.
- */
-async function coreRun(sections, threads) {
-  const pool = Array.from(
-    { length: threads },
-    () => new Worker(path.join(__dirname, 'core-thread.js')),
-  );
-  await Promise.all(
-    pool.map((w) => new Promise((resolve) => (w.once('message', resolve), w.postMessage([])))),
-  );
-  const t0 = performance.now();
-  let next = 0;
-  let done = 0;
-  await new Promise((resolve, reject) => {
-    const feed = (w) => {
-      if (next >= sections.length) return;
-      w.postMessage(sections.slice(next, next + CORE_CHUNK));
-      next += CORE_CHUNK;
-    };
-    for (const w of pool) {
-      w.on('message', (fs) => {
-        done += fs.length;
-        if (done === sections.length) resolve();
-        else feed(w);
-      });
-      w.on('error', reject);
-      feed(w);
-    }
-  });
-  const ms = performance.now() - t0;
-  await Promise.all(pool.map((w) => w.terminate()));
-  return ms;
-}
+/** Milliseconds the core alone takes for `sections` on `threads` worker threads, CORE_CHUNK a message. */
+const coreRun = (sections, threads) => timeOnThreads(sections, threads, CORE_CHUNK);
 
 /** Resident memory of a process in MB (Linux /proc), or null where it cannot be read. */
 function residentMb(pid) {

@@ -5,8 +5,8 @@
 const { readFileSync, readdirSync } = require('node:fs');
 const { join } = require('node:path');
 const os = require('node:os');
-const { Worker } = require('node:worker_threads');
 const core = require('../dist/index.js');
+const { timeOnThreads } = require('./threads');
 
 const ROOT = join(__dirname, '..', '..', '..');
 const EXAMPLES = join(ROOT, 'examples');
@@ -187,35 +187,7 @@ const many = Array.from({ length: SMOKE ? 6 : 300 }, (_, i) => ({
 }));
 // one section a message: a worker never waits while another still has a queue of its own
 const CHUNK = 1;
-async function corridorRun(workers) {
-  const pool = Array.from({ length: workers }, () => new Worker(join(__dirname, 'worker.js')));
-  // start-up (loading the core) is not counted: each worker first answers an empty chunk
-  await Promise.all(
-    pool.map((w) => new Promise((resolve) => (w.once('message', resolve), w.postMessage([])))),
-  );
-  const t0 = performance.now();
-  let next = 0;
-  let done = 0;
-  await new Promise((resolve, reject) => {
-    const feed = (w) => {
-      if (next >= many.length) return;
-      w.postMessage(many.slice(next, next + CHUNK));
-      next += CHUNK;
-    };
-    for (const w of pool) {
-      w.on('message', (fs) => {
-        done += fs.length;
-        if (done === many.length) resolve();
-        else feed(w);
-      });
-      w.on('error', reject);
-      feed(w);
-    }
-  });
-  const ms = performance.now() - t0;
-  await Promise.all(pool.map((w) => w.terminate()));
-  return ms;
-}
+const corridorRun = (threads) => timeOnThreads(many, threads, CHUNK);
 
 (async () => {
   const cores = os.cpus().length;

@@ -341,7 +341,8 @@ function baseSlices(ws: SliceWorkspace, n: number): void {
   const sRs = B.sR;
   const onPiece = B.piece;
   if (pieces.length === 1 && pieces[0].arc) {
-    // one arc, the search's case: its numbers read once
+    // one arc, the search's case: its numbers read once. The general loop below gives the same
+    // numbers, but compiled it sometimes boxes them (measured: half the runs allocated 6× more)
     const { xc, yc, r } = pieces[0];
     let uL = arcU(xl[0] - xc, r);
     let sL = arcS(uL, r);
