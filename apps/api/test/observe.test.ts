@@ -6,11 +6,10 @@
  * so that the job figures are this file's alone.
  */
 import request from 'supertest';
-import { dropDatabase, ownDatabase, setEnv } from './own-database';
+import { type OwnService, ownService, setEnv } from './own-database';
 import { corridorBatch } from './sections';
 
-let url: string;
-let restore: () => void;
+let svc: OwnService;
 type Mods = {
   app: import('express').Express;
   sequelize: typeof import('../src/db').sequelize;
@@ -22,25 +21,18 @@ type Mods = {
 let m: Mods;
 
 beforeAll(async () => {
-  url = await ownDatabase('observe');
-  restore = setEnv({ DATABASE_URL: url, HEARTBEAT_SECONDS: '0.5', METRICS_TOKEN: '' });
+  svc = await ownService('observe', { HEARTBEAT_SECONDS: '0.5', METRICS_TOKEN: '' });
   m = {
-    app: (await import('../src/app')).createApp(),
-    sequelize: (await import('../src/db')).sequelize,
+    app: svc.app,
+    sequelize: svc.sequelize,
     startWorker: (await import('../src/worker')).startWorker,
-    stopQueue: (await import('../src/queue')).stopQueue,
+    stopQueue: svc.queue.stopQueue,
     log: await import('../src/log'),
-    helpers: await import('./helpers'),
+    helpers: svc.helpers,
   };
-  await (await import('../src/migrate')).migrate(m.sequelize);
 });
 
-afterAll(async () => {
-  await m.stopQueue();
-  await m.sequelize.close();
-  await dropDatabase(url);
-  restore();
-});
+afterAll(() => svc.close());
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/;
 

@@ -44,3 +44,43 @@ export function setEnv(vars: Record<string, string>): () => void {
     }
   };
 }
+
+/** The service on a database of its own, as ownService gives it. */
+export interface OwnService {
+  app: import('express').Express;
+  sequelize: typeof import('../src/db').sequelize;
+  queue: typeof import('../src/queue');
+  helpers: typeof import('./helpers');
+  /** Stops the queue, closes the database, drops it and puts the environment back. */
+  close(): Promise<void>;
+}
+
+/**
+ * The API on a database of its own (`suffix`, see ownDatabase), with `env` set before anything
+ * from src/ is imported, migrated: what a test file whose workers, heartbeats or queue must
+ * stay apart needs first. Import the rest of src/ dynamically after it.
+ */
+export async function ownService(
+  suffix: string,
+  env: Record<string, string> = {},
+): Promise<OwnService> {
+  const url = await ownDatabase(suffix);
+  const restore = setEnv({ DATABASE_URL: url, ...env });
+  const app = (await import('../src/app')).createApp();
+  const { sequelize } = await import('../src/db');
+  const queue = await import('../src/queue');
+  const helpers = await import('./helpers');
+  await (await import('../src/migrate')).migrate(sequelize);
+  return {
+    app,
+    sequelize,
+    queue,
+    helpers,
+    async close() {
+      await queue.stopQueue();
+      await sequelize.close();
+      await dropDatabase(url);
+      restore();
+    },
+  };
+}

@@ -9,11 +9,10 @@
 import crypto from 'node:crypto';
 import request from 'supertest';
 import { QueryTypes } from 'sequelize';
-import { dropDatabase, ownDatabase, setEnv } from './own-database';
+import { type OwnService, ownService } from './own-database';
 import { corridorBatch } from './sections';
 
-let url: string;
-let restore: () => void;
+let svc: OwnService;
 type Mods = {
   app: import('express').Express;
   sequelize: typeof import('../src/db').sequelize;
@@ -26,26 +25,21 @@ let m: Mods;
 let solver: InstanceType<Mods['Solver']>;
 
 beforeAll(async () => {
-  url = await ownDatabase('section_ends');
-  restore = setEnv({ DATABASE_URL: url });
+  svc = await ownService('section_ends');
   m = {
-    app: (await import('../src/app')).createApp(),
-    sequelize: (await import('../src/db')).sequelize,
-    queue: await import('../src/queue'),
+    app: svc.app,
+    sequelize: svc.sequelize,
+    queue: svc.queue,
     solve: await import('../src/services/solve'),
     Solver: (await import('../src/solver')).Solver,
-    helpers: await import('./helpers'),
+    helpers: svc.helpers,
   };
-  await (await import('../src/migrate')).migrate(m.sequelize);
   solver = new m.Solver();
 });
 
 afterAll(async () => {
   await solver.close();
-  await m.queue.stopQueue();
-  await m.sequelize.close();
-  await dropDatabase(url);
-  restore();
+  await svc.close();
 });
 
 test('taken together, analysed, written together: each section ends once with its input', async () => {

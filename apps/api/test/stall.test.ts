@@ -7,12 +7,11 @@
  */
 import type { Server } from 'node:http';
 import request from 'supertest';
-import { dropDatabase, ownDatabase, setEnv } from './own-database';
+import { type OwnService, ownService } from './own-database';
 import { corridorBatch } from './sections';
 import { openStream } from './event-stream';
 
-let url: string;
-let restore: () => void;
+let svc: OwnService;
 type Mods = {
   app: import('express').Express;
   sequelize: typeof import('../src/db').sequelize;
@@ -27,24 +26,21 @@ let server: Server;
 let base: string;
 
 beforeAll(async () => {
-  url = await ownDatabase('stall');
-  restore = setEnv({
-    DATABASE_URL: url,
+  svc = await ownService('stall', {
     HEARTBEAT_SECONDS: '0.5',
     WORKER_STALE_SECONDS: '2',
     EVENT_POLL_MS: '100',
     SMTP_URL: '',
   });
   m = {
-    app: (await import('../src/app')).createApp(),
-    sequelize: (await import('../src/db')).sequelize,
+    app: svc.app,
+    sequelize: svc.sequelize,
     startWorker: (await import('../src/worker')).startWorker,
-    stopQueue: (await import('../src/queue')).stopQueue,
+    stopQueue: svc.queue.stopQueue,
     workers: await import('../src/services/workers'),
     mail: await import('../src/services/mail'),
-    helpers: await import('./helpers'),
+    helpers: svc.helpers,
   };
-  await (await import('../src/migrate')).migrate(m.sequelize);
   await m.mail.startSmtpFake(0);
   server = m.app.listen(0, '127.0.0.1');
   await new Promise((r) => server.once('listening', r));
@@ -55,11 +51,8 @@ beforeAll(async () => {
 afterAll(async () => {
   server.closeAllConnections();
   await new Promise((r) => server.close(r));
-  await m.stopQueue();
   await m.mail.stopSmtpFake();
-  await m.sequelize.close();
-  await dropDatabase(url);
-  restore();
+  await svc.close();
 });
 
 /** Polls `check` until it is true; throws after `limitMs` (a bound, not a timing). */

@@ -8,11 +8,10 @@
  */
 import request from 'supertest';
 import { QueryTypes } from 'sequelize';
-import { dropDatabase, ownDatabase, setEnv } from './own-database';
+import { type OwnService, ownService } from './own-database';
 import { HEAVY_ANALYSIS, HEAVY_CENTRES, corridorBatch } from './sections';
 
-let url: string;
-let restore: () => void;
+let svc: OwnService;
 type Mods = {
   app: import('express').Express;
   sequelize: typeof import('../src/db').sequelize;
@@ -24,26 +23,18 @@ type Mods = {
 let m: Mods;
 
 beforeAll(async () => {
-  url = await ownDatabase('time_limit');
-  restore = setEnv({ DATABASE_URL: url, JOB_TIMEOUT: '3' });
-  const queue = await import('../src/queue');
+  svc = await ownService('time_limit', { JOB_TIMEOUT: '3' });
   m = {
-    app: (await import('../src/app')).createApp(),
-    sequelize: (await import('../src/db')).sequelize,
+    app: svc.app,
+    sequelize: svc.sequelize,
     startWorker: (await import('../src/worker')).startWorker,
-    stopQueue: queue.stopQueue,
-    queues: { section: queue.SECTION_QUEUE, dead: queue.DEAD_QUEUE },
-    helpers: await import('./helpers'),
+    stopQueue: svc.queue.stopQueue,
+    queues: { section: svc.queue.SECTION_QUEUE, dead: svc.queue.DEAD_QUEUE },
+    helpers: svc.helpers,
   };
-  await (await import('../src/migrate')).migrate(m.sequelize);
 });
 
-afterAll(async () => {
-  await m.stopQueue();
-  await m.sequelize.close();
-  await dropDatabase(url);
-  restore();
-});
+afterAll(() => svc.close());
 
 test('a heavy section stops at the limit, failed with what to change, once; the batch behind it goes on', async () => {
   const { app, helpers, sequelize } = m;
