@@ -5,34 +5,45 @@
 const { join } = require('node:path');
 const { Worker } = require('node:worker_threads');
 
-/** Milliseconds the core takes for `sections` on `threads` worker threads. */
-async function timeOnThreads(sections, threads, chunk) {
-  const pool = Array.from({ length: threads }, () => new Worker(join(__dirname, 'worker.js')));
-  await Promise.all(
-    pool.map((w) => new Promise((resolve) => (w.once('message', resolve), w.postMessage([])))),
-  );
+/** Milliseconds the pool takes to analyse every section once. */
+function pass(pool, sections, chunk) {
   const t0 = performance.now();
   let next = 0;
   let done = 0;
-  await new Promise((resolve, reject) => {
+  return new Promise((resolve, reject) => {
     const feed = (w) => {
       if (next >= sections.length) return;
       w.postMessage(sections.slice(next, next + chunk));
       next += chunk;
     };
     for (const w of pool) {
+      w.removeAllListeners('message');
       w.on('message', (fs) => {
         done += fs.length;
-        if (done === sections.length) resolve();
+        if (done === sections.length) resolve(performance.now() - t0);
         else feed(w);
       });
-      w.on('error', reject);
+      w.once('error', reject);
       feed(w);
     }
   });
-  const ms = performance.now() - t0;
+}
+
+/**
+ * Milliseconds the core takes for `sections` on `threads` fresh worker threads (`cold`: each
+ * thread's V8 compiles the solver while it works, as in one `scarpline batch`), and, with
+ * `warm: true`, for a second pass on the same threads once compiled (`warm`, as in a
+ * long-running worker).
+ */
+async function timeOnThreads(sections, threads, chunk, { warm = false } = {}) {
+  const pool = Array.from({ length: threads }, () => new Worker(join(__dirname, 'worker.js')));
+  await Promise.all(
+    pool.map((w) => new Promise((resolve) => (w.once('message', resolve), w.postMessage([])))),
+  );
+  const cold = await pass(pool, sections, chunk);
+  const second = warm ? await pass(pool, sections, chunk) : undefined;
   await Promise.all(pool.map((w) => w.terminate()));
-  return ms;
+  return warm ? { cold, warm: second } : cold;
 }
 
 module.exports = { timeOnThreads };
