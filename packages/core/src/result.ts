@@ -142,3 +142,109 @@ export interface HowFound {
   /** The critical circle's FS as the search found it, and cut afresh and solved by Bishop's method in full. */
   confirmation: { method: MethodId; searched: number; exact: number | null };
 }
+
+// --- design cases (issue: every station under every case) -------------------------------
+
+/**
+ * The kind of a design case. The kind decides what is computed besides the factor of safety:
+ * `rapid-drawdown` runs the three-stage drawdown (and the drained drawdown beside it);
+ * `seismic` adds the yield coefficient and the permanent displacement. The others are names
+ * of the trade for a set of water, strength and loads (EM 1110-2-1902, 2003, ch. 3).
+ */
+export const CASE_KINDS = [
+  'end-of-construction',
+  'long-term',
+  'steady-seepage',
+  'rapid-drawdown',
+  'seismic',
+  'surcharge',
+  'other',
+] as const;
+export type CaseKind = (typeof CASE_KINDS)[number];
+
+/** One estimate of the permanent displacement of a sliding block (section units: mm or in). */
+export interface DisplacementEstimate {
+  /** `jibson-2007` or `ambraseys-menu-1988`. */
+  relation: string;
+  /** Median displacement and the value one standard deviation (of the log) above it. */
+  median: number;
+  plusOneSd: number;
+  /** Whether the inputs lie within the data the relation was fitted to. */
+  inRange: boolean;
+  warnings: Warning[];
+}
+
+/** The earthquake part of a seismic case. */
+export interface SeismicReport {
+  /** The yield coefficient: the kh at which the least FS of the search is 1.0, with its surface; null when none in range. */
+  ky: number | null;
+  kySurface: ReportedSurface | null;
+  /** Analyses (full searches) the root finding took. */
+  analyses: number;
+  /** Design peak ground acceleration as a fraction of g, and the magnitude when given. */
+  pga: number | null;
+  magnitude: number | null;
+  displacements: DisplacementEstimate[];
+  /** The allowable displacement the user gave, and whether the governing estimate (the largest median) is within it. */
+  allowable: number | null;
+  within: boolean | null;
+}
+
+/** Which stage set the strength of a slice in a rapid-drawdown analysis. */
+export type DrawdownStage = 'drained' | 'undrained' | 'drained-lower';
+
+/** The rapid-drawdown part of a case: the three-stage F and the drained-drawdown F beside it. */
+export interface DrawdownReport {
+  /** Stage 1 (before drawdown, effective stresses), stage 2 (undrained), stage 3 (drained where lower): F of each, by the governing method. */
+  stages: { stage: 1 | 2 | 3; fs: number | null }[];
+  /** F with post-drawdown pore pressures and drained strengths everywhere (the lower-bound comparison). */
+  drainedFs: number | null;
+  /** Per slice of the governing surface: the strength used and the stage that set it. */
+  slices: { x: number; material: string; strength: number; stage: DrawdownStage }[];
+}
+
+/**
+ * The result of one design case: the factors of safety of its methods on its critical surface,
+ * as a single-case section result always was, with the case's kind and requirement.
+ */
+export interface CaseResult {
+  name: string;
+  kind: CaseKind;
+  requiredFs: number | null;
+  /** The methods whose FS govern this case (the rest are for comparison). */
+  governs: MethodId[];
+  results: MethodReport[];
+  governing: { method: MethodId; fs: number } | null;
+  /** governing FS / required FS (null without either). */
+  ratio: number | null;
+  verdict: Verdict;
+  warnings: Warning[];
+  search: SearchReport | null;
+  drawdown?: DrawdownReport;
+  seismic?: SeismicReport;
+}
+
+/**
+ * The result of a station: every case, and the station's verdict — it meets the requirement
+ * only when every case does; the governing case has the lowest FS / required FS (or, for a
+ * displacement, the largest displacement / allowable).
+ */
+export interface StationResult {
+  id: string;
+  title: string;
+  station: number | null;
+  units: UnitSystem;
+  cases: CaseResult[];
+  governing: {
+    case: string;
+    method: MethodId;
+    fs: number;
+    requiredFs: number | null;
+    ratio: number | null;
+  } | null;
+  verdict: Verdict;
+  /** Warnings of the station as a whole (e.g. `no-significant-slope`). */
+  warnings: Warning[];
+  solverVersion: string;
+  caution: string;
+}
