@@ -202,3 +202,58 @@ export interface Section {
   crack: Crack | null;
   analysis: Analysis;
 }
+
+// --- design cases ---------------------------------------------------------------------
+
+/** The kinds of design case (result.ts CASE_KINDS lists them). */
+export type DesignCaseKind =
+  | 'end-of-construction'
+  | 'long-term'
+  | 'steady-seepage'
+  | 'rapid-drawdown'
+  | 'seismic'
+  | 'surcharge'
+  | 'other';
+
+/**
+ * How a material behaves during a rapid drawdown (Duncan, Wright & Wong 1990): `free` drains
+ * as the water falls (drained strength with the post-drawdown pore pressures throughout);
+ * `slow` does not (stage 2 takes its undrained strength from the consolidation stresses, by
+ * the isotropically consolidated "R" envelope: intercept dR (kPa) and slope ψR (degrees)).
+ */
+export type DrawdownDrainage = { drains: 'free' } | { drains: 'slow'; dR: number; psiR: number };
+
+/** A rapid drawdown: the water after it (the case's own water is the water before). */
+export interface DrawdownSpec {
+  after: Water;
+  /** By material name; a material not listed drains freely. */
+  materials: Record<string, DrawdownDrainage>;
+}
+
+/** What the displacement estimate of a seismic case needs (SI: pga in g, displacement in m). */
+export interface EarthquakeSpec {
+  pga: number | null;
+  magnitude: number | null;
+  allowableDisplacement: number | null;
+}
+
+/**
+ * One design case of a section, in SI, with the case's overrides already merged into the
+ * section's own water, materials, loads, seismic, crack and analysis (caseSection puts them
+ * back into a Section to analyse).
+ */
+export interface DesignCase {
+  name: string;
+  kind: DesignCaseKind;
+  requiredFs: number | null;
+  /** The methods whose FS govern; null: every method asked governs (the lowest FS). */
+  governs: MethodId[] | null;
+  water: Water;
+  materials: Record<string, Material>;
+  loads: Load[];
+  seismic: Seismic;
+  crack: Crack | null;
+  analysis: Analysis;
+  drawdown: DrawdownSpec | null;
+  earthquake: EarthquakeSpec | null;
+}
