@@ -5,6 +5,7 @@
  */
 // --- the parts each importable alone (package.json `exports`): model, input, units, formats
 export * from './model';
+export { caseKindOf, caseSection, designCases } from './model/design-cases';
 export * from './input';
 export * from './formats';
 export * from './units';

@@ -201,6 +201,12 @@ export interface Section {
   seismic: Seismic;
   crack: Crack | null;
   analysis: Analysis;
+  /**
+   * The design cases the file lists, each with the section's settings and its own overrides
+   * merged. Absent or empty: the section's own settings are its one case (analysis.case and
+   * requiredFs name it and set its requirement); designCases() gives the list either way.
+   */
+  cases?: DesignCase[];
 }
 
 // --- design cases ---------------------------------------------------------------------
