@@ -17,6 +17,7 @@ import {
   bishop,
   bishopCircleEvaluator,
   bishopIteration,
+  caseSection,
   parseSections,
   prepareSection,
   seededRandom,
@@ -30,11 +31,14 @@ import { layeredSection } from './support';
 const FIXTURE = join(__dirname, 'fixtures', 'evaluator-bounds.json');
 const EXAMPLES = join(__dirname, '..', '..', 'examples');
 
+// every example section, and each design case of one that lists cases (as the section it sees)
 const examples: [string, Section][] = readdirSync(EXAMPLES)
   .filter((f) => f.endsWith('.yaml'))
   .flatMap((f) =>
-    parseSections(readFileSync(join(EXAMPLES, f), 'utf8'), f).sections.map(
-      (s) => [s.id, s] as [string, Section],
+    parseSections(readFileSync(join(EXAMPLES, f), 'utf8'), f).sections.flatMap((s) =>
+      s.cases
+        ? s.cases.map((c) => [`${s.id} ${c.name}`, caseSection(s, c)] as [string, Section])
+        : [[s.id, s] as [string, Section]],
     ),
   );
 const layered: [string, Section][] = [201, 202, 203, 204, 205, 206, 207, 208].map((seed, i) => [

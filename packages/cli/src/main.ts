@@ -200,7 +200,7 @@ withOverrides(
     `
 Examples:
   $ scarpline plot examples/levee-land-side.yaml --svg levee.svg
-  $ scarpline plot examples/embankment-stages.yaml --svg stages.svg --section wcb-2940-R-lt
+  $ scarpline plot examples/corridor/corridor.json --svg corridor.svg --section wcb-main@1600
 
 Exit status: 0 when drawn, 1 when the file is invalid.`,
   )

@@ -27,7 +27,8 @@ describe('scarpline analyze: formats, units, overrides, stdin', () => {
     const { code, out } = run([
       'analyze',
       'examples/cut-homogeneous.yaml',
-      'examples/embankment-stages.yaml',
+      // two sections of two methods each: one document a design case
+      'packages/core/test/fixtures/embankment-stages-two-documents.yaml',
       '--csv',
     ]);
     expect(code).toBe(2);

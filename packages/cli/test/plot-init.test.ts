@@ -5,6 +5,8 @@ import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { run } from './run';
 
 const dir = mkdtempSync(join(tmpdir(), 'scarpline-plot-'));
+/** A file of two section documents (a section written twice, one design case each). */
+const TWO = 'packages/core/test/fixtures/embankment-stages-two-documents.yaml';
 
 describe('scarpline plot', () => {
   test('writes a well-formed SVG of the section with its critical surface and the caution', () => {
@@ -27,28 +29,14 @@ describe('scarpline plot', () => {
 
   test('several sections: one file each, or --section for one', () => {
     const base = join(dir, 'stages.svg');
-    const r = run(['plot', 'examples/embankment-stages.yaml', '--svg', base]);
+    const r = run(['plot', TWO, '--svg', base]);
     expect(r.code).toBe(0);
     expect(existsSync(join(dir, 'stages-wcb-2940-R-eoc.svg'))).toBe(true);
     expect(existsSync(join(dir, 'stages-wcb-2940-R-lt.svg'))).toBe(true);
-    const one = run([
-      'plot',
-      'examples/embankment-stages.yaml',
-      '--svg',
-      join(dir, 'lt.svg'),
-      '--section',
-      'wcb-2940-R-lt',
-    ]);
+    const one = run(['plot', TWO, '--svg', join(dir, 'lt.svg'), '--section', 'wcb-2940-R-lt']);
     expect(one.code).toBe(0);
     expect(readFileSync(join(dir, 'lt.svg'), 'utf8')).toContain('long term');
-    const none = run([
-      'plot',
-      'examples/embankment-stages.yaml',
-      '--svg',
-      join(dir, 'x.svg'),
-      '--section',
-      'nope',
-    ]);
+    const none = run(['plot', TWO, '--svg', join(dir, 'x.svg'), '--section', 'nope']);
     expect(none.code).toBe(1);
     expect(none.err).toMatch(/--section: no section "nope"/);
   });

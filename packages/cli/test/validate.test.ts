@@ -28,7 +28,7 @@ describe('scarpline validate', () => {
     expect(err).toBe('');
     expect(code).toBe(0);
     expect(out).toMatch(/examples\/cut-homogeneous\.yaml: valid: 1 section$/m);
-    expect(out).toMatch(/examples\/embankment-stages\.yaml: valid: 2 sections$/m);
+    expect(out).toMatch(/examples\/embankment-stages\.yaml: valid: 1 section$/m);
     // A directory is searched recursively: the corridor batch is found.
     expect(out).toMatch(/examples\/corridor\/corridor\.json: valid: \d{2,} sections$/m);
     expect(out).not.toMatch(/invalid/);

@@ -11,15 +11,19 @@ import {
   METHOD_IDS,
   US_TO_SI,
   analyzeSection,
+  caseSection,
   parseSections,
   type Section,
 } from '@scarpline/core';
 
 const EXAMPLES = join(__dirname, '..', '..', '..', 'examples');
 const files = readdirSync(EXAMPLES).filter((f) => /\.ya?ml$/.test(f));
+// every example section, each of its design cases as the section that case sees
 const sections: [string, Section][] = files.flatMap((f) =>
-  parseSections(readFileSync(join(EXAMPLES, f), 'utf8'), f).sections.map(
-    (s) => [`${f} ${s.id}`, s] as [string, Section],
+  parseSections(readFileSync(join(EXAMPLES, f), 'utf8'), f).sections.flatMap((s) =>
+    s.cases
+      ? s.cases.map((c) => [`${f} ${s.id} ${c.name}`, caseSection(s, c)] as [string, Section])
+      : [[`${f} ${s.id}`, s] as [string, Section]],
   ),
 );
 const validate = new Ajv2020({ strict: false }).compile(resultSchema);

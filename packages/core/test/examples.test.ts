@@ -1,6 +1,14 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { formatMessage, parseSections, type Polyline, type Section } from '@scarpline/core';
+import {
+  analyzeSection,
+  caseSection,
+  designCases,
+  formatMessage,
+  parseSections,
+  type Polyline,
+  type Section,
+} from '@scarpline/core';
 
 const EXAMPLES = join(__dirname, '..', '..', '..', 'examples');
 const yamlFiles = readdirSync(EXAMPLES)
@@ -34,9 +42,10 @@ describe('examples', () => {
     expect(messages.map(formatMessage)).toEqual([]);
     expect(sections.length).toBeGreaterThanOrEqual(1);
     expect(readFileSync(join(EXAMPLES, file), 'utf8').startsWith('# ')).toBe(true);
-    for (const s of sections) {
-      expect(s.analysis.case).toEqual(expect.any(String));
-      expect(s.analysis.requiredFs).toEqual(expect.any(Number));
+    // every case is named and has its requirement: the section's own, or each of its cases
+    for (const c of sections.flatMap(designCases)) {
+      expect(c.name).not.toBe('as given');
+      expect(c.requiredFs).toEqual(expect.any(Number));
     }
   });
 
@@ -130,5 +139,44 @@ describe('examples', () => {
       expect(arc(x)).toBeLessThan(y(s.ground, x));
       if (rigid) expect(arc(x)).toBeGreaterThan(y(rigid.top, x));
     }
+  });
+});
+
+describe('embankment-stages.yaml: one section of two cases for the two documents it replaces', () => {
+  // The file as it was: the whole section written twice, one design case a document.
+  const fixture = join(__dirname, 'fixtures', 'embankment-stages-two-documents.yaml');
+  const documents = parseSections(readFileSync(fixture, 'utf8'), 'two-documents.yaml').sections;
+  const [section] = read('embankment-stages.yaml').sections;
+
+  test('one section with the two cases, in the order of the documents', () => {
+    expect(read('embankment-stages.yaml').sections).toHaveLength(1);
+    expect(documents.map((d) => [d.analysis.case, d.analysis.requiredFs])).toEqual([
+      ['end-of-construction', 1.3],
+      ['long-term', 1.5],
+    ]);
+    expect(section.cases!.map((c) => [c.kind, c.requiredFs])).toEqual([
+      ['end-of-construction', 1.3],
+      ['long-term', 1.5],
+    ]);
+  });
+
+  test.each([0, 1])('case %i sees the section its document gave, and gives its numbers', (i) => {
+    const view = caseSection(section, section.cases![i]);
+    const document = documents[i];
+    for (const key of [
+      'ground',
+      'materials',
+      'strata',
+      'water',
+      'loads',
+      'seismic',
+      'crack',
+    ] as const)
+      expect(view[key]).toEqual(document[key]);
+    expect({ ...view.analysis, case: null }).toEqual({ ...document.analysis, case: null });
+    const fs = (s: Section) => analyzeSection(s).results.map((r) => [r.method, r.fs]);
+    const numbers = fs(view);
+    expect(numbers).toEqual(fs(document));
+    expect(numbers.every(([, f]) => typeof f === 'number' && f > 0.5 && f < 5)).toBe(true);
   });
 });

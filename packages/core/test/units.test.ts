@@ -6,6 +6,7 @@ import {
   POUND_IN_KG,
   QUANTITY_KINDS,
   rawSectionToSi,
+  SI_FILE_TO_SI,
   STANDARD_GRAVITY,
   toSi,
   US_TO_SI,
@@ -40,6 +41,7 @@ const EXACT: Record<QuantityKind, BigNumber> = {
   pressure: lbfExact.div(ftExact.pow(2)).div(1000),
   unitWeight: lbfExact.div(ftExact.pow(3)).div(1000),
   pressurePerLength: lbfExact.div(ftExact.pow(3)).div(1000),
+  displacement: B('0.0254'),
 };
 
 /** The same factors through mathjs's unit conversions (its ft, lbf, kN, kPa definitions). */
@@ -50,6 +52,7 @@ const MATHJS: Record<QuantityKind, [string, string]> = {
   pressure: ['lbf/ft^2', 'kPa'],
   unitWeight: ['lbf/ft^3', 'kN/m^3'],
   pressurePerLength: ['lbf/ft^2/ft', 'kPa/m'],
+  displacement: ['in', 'm'],
 };
 
 describe('US_TO_SI (NIST SP 811 exact definitions)', () => {
@@ -103,6 +106,15 @@ describe('toSi and fromSi', () => {
     expectExact(toSi(10, 'length', 'us'), 3.048);
     expect(toSi(10, 'length', 'si')).toBe(10);
     expectExact(toSi(62.4, 'unitWeight', 'us'), (62.4 * LBF) / FT ** 3 / 1000);
+  });
+  test('a displacement is in mm in an si file and in in a us file (1 in = 0.0254 m exactly)', () => {
+    expect(toSi(150, 'displacement', 'si')).toBeCloseTo(0.15, 15);
+    expectExact(toSi(6, 'displacement', 'us'), 6 * IN);
+    expectExact(fromSi(0.1524, 'displacement', 'si'), 152.4);
+    expectExact(fromSi(0.1524, 'displacement', 'us'), 6);
+    expect(SI_FILE_TO_SI.displacement).toBe(0.001);
+    for (const kind of QUANTITY_KINDS.filter((k) => k !== 'displacement'))
+      expect(SI_FILE_TO_SI[kind]).toBe(1);
   });
   test('fromSi undoes toSi', () => {
     for (const kind of Object.keys(US_TO_SI) as (keyof typeof US_TO_SI)[]) {
@@ -201,5 +213,84 @@ describe('rawSectionToSi', () => {
   test('an si section comes back equal', () => {
     const siRaw: RawSection = { ...raw, units: 'si' };
     expect(rawSectionToSi(siRaw)).toEqual(siRaw);
+  });
+
+  describe('design cases', () => {
+    const withCases: RawSection = {
+      ...raw,
+      cases: [
+        {
+          name: 'drawdown',
+          kind: 'rapid-drawdown',
+          water: { piezometric: 110, unitWeight: 62.4 },
+          materials: {
+            clay: {
+              unitWeight: 118,
+              strength: { model: 'mohr-coulomb', cohesion: 100, frictionAngle: 26 },
+            },
+          },
+          loads: [{ type: 'strip', from: 31, to: 41, pressure: 200 }],
+          crack: { depth: 4, waterDepth: 1 },
+          analysis: { surface: { type: 'circle', center: [21, 151], radius: 61 } },
+          drawdown: {
+            after: {
+              piezometric: [
+                [0, 99],
+                [50, 101],
+              ],
+            },
+            materials: { clay: { drains: 'slow', dR: 300, psiR: 15 }, sand: { drains: 'free' } },
+          },
+        },
+        {
+          name: 'quake',
+          kind: 'seismic',
+          seismic: { kh: 0.15 },
+          earthquake: { pga: 0.3, magnitude: 6.5, allowableDisplacement: 6 },
+        },
+      ],
+    };
+    const [dd, quake] = rawSectionToSi(withCases).cases!;
+
+    test("a case's overrides convert as the section's settings do", () => {
+      expectExact(dd.water!.piezometric as number, 110 * FT);
+      expectExact(dd.water!.unitWeight!, (62.4 * LBF) / FT ** 3 / 1000);
+      expectExact(dd.materials!.clay.unitWeight!, (118 * LBF) / FT ** 3 / 1000);
+      const clay = dd.materials!.clay.strength!;
+      if (clay.model !== 'mohr-coulomb') throw new Error('clay');
+      expectExact(clay.cohesion, (100 * LBF) / FT ** 2 / 1000);
+      expect(clay.frictionAngle).toBe(26);
+      const strip = dd.loads![0];
+      if (strip.type !== 'strip') throw new Error('strip');
+      expectExact(strip.from, 31 * FT);
+      expectExact(strip.pressure, (200 * LBF) / FT ** 2 / 1000);
+      expectExact(dd.crack!.depth as number, 4 * FT);
+      expectExact(dd.crack!.waterDepth!, 1 * FT);
+      const surface = dd.analysis!.surface as { center: [number, number]; radius: number };
+      expectExact(surface.radius, 61 * FT);
+      expect(quake.seismic).toEqual({ kh: 0.15 });
+    });
+    test('the water after drawdown in m, dR in kPa, ψR in degrees', () => {
+      const after = dd.drawdown!.after.piezometric as [number, number][];
+      expectExact(after[1][1], 101 * FT);
+      const clay = dd.drawdown!.materials!.clay;
+      if (clay.drains !== 'slow') throw new Error('slow');
+      expectExact(clay.dR, (300 * LBF) / FT ** 2 / 1000);
+      expect(clay.psiR).toBe(15);
+      expect(dd.drawdown!.materials!.sand).toEqual({ drains: 'free' });
+    });
+    test('an allowable displacement in m: from in (us) or mm (si); pga and magnitude unchanged', () => {
+      expect(quake.earthquake!.pga).toBe(0.3);
+      expect(quake.earthquake!.magnitude).toBe(6.5);
+      expectExact(quake.earthquake!.allowableDisplacement!, 6 * IN);
+      const si = rawSectionToSi({ ...withCases, units: 'si' });
+      expect(si.cases![1].earthquake!.allowableDisplacement).toBeCloseTo(0.006, 15);
+      // every other value of an si file keeps its number
+      expect({ ...si, cases: [si.cases![0]] }).toEqual({
+        ...withCases,
+        units: 'si',
+        cases: [withCases.cases![0]],
+      });
+    });
   });
 });

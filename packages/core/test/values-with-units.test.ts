@@ -43,6 +43,18 @@ describe('readValueWithUnit: converted to the file’s unit system (mathjs, load
     expect(value(' -3.5e1 m ', 'length', 'si')).toBe(-35);
     expect(value('10 psf/ft', 'pressurePerLength', 'us')).toBe(10);
     expect(value('3000 lbf/ft', 'forcePerLength', 'us')).toBe(3000);
+    expect(value('150 mm', 'displacement', 'si')).toBe(150);
+    expect(value('6 in', 'displacement', 'us')).toBe(6);
+  });
+  test('displacements: mm in si files, in in us files (1 in = 25.4 mm exactly)', () => {
+    near(value('6 in', 'displacement', 'si'), 152.4);
+    near(value('15 cm', 'displacement', 'si'), 150);
+    near(value('0.1 m', 'displacement', 'us'), 100 / 25.4);
+    near(value('0.5 ft', 'displacement', 'us'), 6);
+    expect(readValueWithUnit('15 kPa', 'displacement', 'si')).toMatchObject({
+      ok: false,
+      code: 'wrong-dimension',
+    });
   });
   test('lengths: 12 ft = 3.6576 m, 18 in = 1.5 ft (NIST exact foot and inch)', () => {
     near(value('12 ft', 'length', 'si'), 12 * FT);
@@ -132,6 +144,7 @@ describe('the schemas', () => {
       'unitWeight',
       'forcePerLength',
       'pressurePerLength',
+      'displacement',
       'boundary',
     ]) {
       expect(defs[name].pattern).toBe(VALUE_WITH_UNIT_PATTERN);
@@ -146,6 +159,8 @@ describe('the schemas', () => {
     ...['trialBand'],
     ...['slices', 'nx', 'ny', 'count', 'moves', 'points', 'radiusCount', 'vertices'],
     ...['restarts', 'seed'],
+    // a drawdown's ψR (an angle), an earthquake's pga (a fraction of g) and magnitude
+    ...['psiR', 'pga', 'magnitude'],
   ]);
   test.each([
     ['section', sectionSchema],
@@ -184,6 +199,31 @@ describe('the schemas', () => {
     expect(quantityAt('batch', ['sections', 4, 'water', 'unitWeight'])).toBe('unitWeight');
     expect(quantityAt('batch', ['sections', 4, 'materials', 'x', 'strength', 'cohesion'])).toBe(
       'pressure',
+    );
+    // the settings of design cases
+    expect(quantityAt('section', ['cases', 0, 'water', 'piezometric'])).toBe('length');
+    expect(quantityAt('section', ['cases', 0, 'materials', 'clay', 'unitWeight'])).toBe(
+      'unitWeight',
+    );
+    expect(quantityAt('section', ['cases', 0, 'materials', 'clay', 'strength', 'su'])).toBe(
+      'pressure',
+    );
+    expect(quantityAt('section', ['cases', 1, 'loads', 0, 'pressure'])).toBe('pressure');
+    expect(quantityAt('section', ['cases', 1, 'analysis', 'surface', 'radius'])).toBe('length');
+    expect(quantityAt('section', ['cases', 1, 'drawdown', 'after', 'piezometric'])).toBe('length');
+    expect(quantityAt('section', ['cases', 1, 'drawdown', 'materials', 'core', 'dR'])).toBe(
+      'pressure',
+    );
+    expect(quantityAt('section', ['cases', 1, 'earthquake', 'allowableDisplacement'])).toBe(
+      'displacement',
+    );
+    expect(quantityAt('batch', ['template', 'cases', 0, 'water', 'depth'])).toBe('length');
+    expect(quantityAt('batch', ['sections', 3, 'cases', 0, 'drawdown', 'after', 'depth'])).toBe(
+      'length',
+    );
+    expect(quantityAt('section', ['cases', 1, 'earthquake', 'pga'])).toBeUndefined();
+    expect(quantityAt('section', ['cases', 1, 'drawdown', 'materials', 'core', 'psiR'])).toBe(
+      undefined,
     );
     // plain numbers
     expect(quantityAt('section', ['station'])).toBeUndefined();

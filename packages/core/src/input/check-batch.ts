@@ -4,8 +4,9 @@ import { listWords } from './words';
 
 /**
  * Checks of a corridor batch that its schema cannot express, in the template and in each
- * section: a stratum below the first gives its top by exactly one of depth and elevation, and
- * water is given by at most one of depth, elevation and ru.
+ * section: a stratum below the first gives its top by exactly one of depth and elevation;
+ * water (a case's too) is given by at most one of depth, elevation and ru, and the water after
+ * a drawdown by one of depth and elevation.
  *
  * @example checkBatch(batch) // → [{ path: ['template', 'strata', 1], code: 'top-both', … }]
  */
@@ -40,19 +41,40 @@ export function checkBatch(batch: unknown): Issue[] {
         }
       });
     }
-    if (isRecord(part.water)) {
-      const given = ['depth', 'elevation', 'ru'].filter(
-        (k) => (part.water as Record<string, unknown>)[k] !== undefined,
-      );
-      if (given.length > 1) {
-        issues.push({
-          severity: 'error',
-          path: [...base, 'water'],
-          code: 'water-both',
-          message: `gives ${listWords(given)}; give one of them`,
-        });
-      }
+    checkWater(part.water, [...base, 'water'], issues);
+    if (Array.isArray(part.cases)) {
+      part.cases.forEach((c: unknown, j: number) => {
+        if (!isRecord(c)) return;
+        checkWater(c.water, [...base, 'cases', j, 'water'], issues);
+        if (isRecord(c.drawdown) && isRecord(c.drawdown.after)) {
+          const at: PathKey[] = [...base, 'cases', j, 'drawdown', 'after'];
+          checkWater(c.drawdown.after, at, issues);
+          if (c.drawdown.after.depth === undefined && c.drawdown.after.elevation === undefined) {
+            issues.push({
+              severity: 'error',
+              path: at,
+              code: 'missing',
+              message:
+                'depth or elevation is missing (the piezometric line after drawdown, below the ground or as an elevation)',
+            });
+          }
+        }
+      });
     }
   }
   return issues;
+}
+
+/** Water given by at most one of depth, elevation and ru. */
+function checkWater(water: unknown, path: PathKey[], issues: Issue[]): void {
+  if (!isRecord(water)) return;
+  const given = ['depth', 'elevation', 'ru'].filter((k) => water[k] !== undefined);
+  if (given.length > 1) {
+    issues.push({
+      severity: 'error',
+      path,
+      code: 'water-both',
+      message: `gives ${listWords(given)}; give one of them`,
+    });
+  }
 }

@@ -1,9 +1,11 @@
 import { WORK_LIMIT } from '../work-limit';
-import { estimateWork } from './estimate-work';
+import { caseWorkWords, estimateCaseWork, estimateWork } from './estimate-work';
+import { caseOrigin, mergeCaseData } from '../model/merge-case';
+import { checkCases } from './check-cases';
+import { betweenWords, checkBoundary } from './check-boundary';
 import type { RawStrength } from '../model/raw-section';
 import { STRENGTH_MODELS, checkStrength } from '../strength/registry';
 import { lowerEnvelope } from '../geometry/lower-envelope';
-import { boundaryOverGround } from '../model/boundary-over-ground';
 import type { Polyline, UnitSystem } from '../model/types';
 import { UNIT_LABELS } from '../model/units';
 import { aboveIntervals, type AboveInterval } from './above-intervals';
@@ -23,16 +25,23 @@ const WATER_WEIGHT = { si: [9, 10.5], us: [57, 67] } as const;
  * boundary or piezometric line that goes back in x or does not span the ground; both a
  * piezometric line and ru; a strip with from ≥ to; a load off the ground; crack water deeper
  * than the crack; a polyline surface whose x does not increase; infinite-slope without its
- * settings; phi-zero-circle on a polyline surface. Warnings: a boundary that rises above the
- * ground or the stratum above (it is clipped), a stratum left with no thickness, unused
- * materials, implausible unit weights, strata below a rigid base, a required FS below 1, and
- * the like.
+ * settings; phi-zero-circle on a polyline surface; more work than an analysis may use (all
+ * cases together). Warnings: a boundary that rises above the ground or the stratum above (it
+ * is clipped), a stratum left with no thickness, unused materials, implausible unit weights,
+ * strata below a rigid base, a required FS below 1, and the like. Each design case is checked
+ * as the section it sees (checkCases), its messages at the case's settings.
  *
  * @example checkSection(yamlData) // → [{ severity: 'warning', path: ['strata', 2, 'top'], … }]
  */
 export function checkSection(data: unknown): Issue[] {
+  if (!isRecord(data)) return [];
+  const own = checkSettings(data);
+  return [...own, ...checkCases(data, own, checkSettings), ...checkWork(data)];
+}
+
+/** The checks of checkSection on one set of settings: the section's own, or as a case sees them. */
+function checkSettings(data: Record<string, unknown>): Issue[] {
   const issues: Issue[] = [];
-  if (!isRecord(data)) return issues;
   const units: UnitSystem = data.units === 'us' ? 'us' : 'si';
   const L = lengthUnit(units);
   const err = (path: PathKey[], code: string, message: string, key = false): void => {
@@ -174,46 +183,12 @@ export function checkSection(data: unknown): Issue[] {
   }
 
   // --- boundaries: shape and span
-  const checkBoundary = (b: unknown, path: PathKey[], what: string): Polyline | null => {
-    if (isNumber(b)) return ground ? boundaryOverGround(b, ground) : null;
-    if (!isPointList(b)) return null;
-    let ordered = true;
-    for (let j = 1; j < b.length; j++) {
-      if (b[j][0] < b[j - 1][0]) {
-        ordered = false;
-        err(
-          [...path, j],
-          'boundary-x-order',
-          `x = ${num(b[j][0])} goes back from the point before (x = ${num(b[j - 1][0])}); x may not decrease along ${what}`,
-        );
-      }
-    }
-    if (!ordered || !ground) return null;
-    const bx0 = b[0][0];
-    const bx1 = b[b.length - 1][0];
-    let spans = true;
-    if (bx0 > gx0 + tol) {
-      spans = false;
-      err(
-        path,
-        'boundary-short',
-        `${what} starts at x = ${num(bx0)} ${L}, ${num(bx0 - gx0)} ${L} right of the ground's left end (x = ${num(gx0)} ${L}); it must span the whole ground`,
-      );
-    }
-    if (bx1 < gx1 - tol) {
-      spans = false;
-      err(
-        path,
-        'boundary-short',
-        `${what} ends at x = ${num(bx1)} ${L}, ${num(gx1 - bx1)} ${L} left of the ground's right end (x = ${num(gx1)} ${L}); it must span the whole ground`,
-      );
-    }
-    return spans ? boundaryOverGround(b, ground) : null;
-  };
+  const spanning = (b: unknown, path: PathKey[], what: string): Polyline | null =>
+    checkBoundary(b, path, what, ground, units, issues);
 
   const tops: (Polyline | null)[] = strata.map((s, i) =>
     i > 0 && isRecord(s)
-      ? checkBoundary(
+      ? spanning(
           s.top,
           ['strata', i, 'top'],
           typeof s.material === 'string' ? `the top of ${s.material}` : 'the top',
@@ -222,12 +197,7 @@ export function checkSection(data: unknown): Issue[] {
   );
 
   // --- boundaries: clipping under the ground and the stratum above
-  const between = (spans: AboveInterval[]): string => {
-    const parts = spans.slice(0, 3).map((s) => `x = ${num(s.from)} and ${num(s.to)} ${L}`);
-    const more = spans.length > 3 ? ` and ${spans.length - 3} more places` : '';
-    const rise = Math.max(...spans.map((s) => s.rise));
-    return `between ${parts.join(' and between ')}${more} (by up to ${num(rise)} ${L})`;
-  };
+  const between = (spans: AboveInterval[]): string => betweenWords(spans, units);
   if (ground) {
     let above: Polyline = ground;
     let chain = true;
@@ -280,7 +250,7 @@ export function checkSection(data: unknown): Issue[] {
       err(['water'], 'water-both', 'gives both a piezometric line and ru; give one of them');
     }
     if (water.piezometric !== undefined) {
-      checkBoundary(water.piezometric, ['water', 'piezometric'], 'the piezometric line');
+      spanning(water.piezometric, ['water', 'piezometric'], 'the piezometric line');
     }
     const gw = water.unitWeight;
     const [lo, hi] = WATER_WEIGHT[units];
@@ -427,16 +397,50 @@ export function checkSection(data: unknown): Issue[] {
       );
     }
   }
-  // --- the work the analysis asks for
-  const work = estimateWork(data.analysis, Array.isArray(data.strata) ? data.strata.length : 1);
-  if (work > WORK_LIMIT) {
-    err(
-      isRecord(data.analysis) && data.analysis.surface !== undefined
-        ? ['analysis', 'surface']
-        : ['analysis'],
-      'too-much-work',
-      `asks for about ${work.toExponential(1)} slice evaluations, more than the ${WORK_LIMIT.toExponential(0)} an analysis may use: use fewer grid centres, radii, moves, ground-range points, restarts or slices`,
-    );
-  }
   return issues;
+}
+
+/**
+ * The work the analysis asks for, all cases together: an error past WORK_LIMIT, at the
+ * settings that make the largest part of it.
+ */
+function checkWork(data: Record<string, unknown>): Issue[] {
+  const strata = Array.isArray(data.strata) ? data.strata.length : 1;
+  const cases = Array.isArray(data.cases) ? data.cases.filter(isRecord) : [];
+  if (cases.length === 0) {
+    const work = estimateWork(data.analysis, strata);
+    if (work <= WORK_LIMIT) return [];
+    const a = data.analysis;
+    return [
+      {
+        severity: 'error',
+        path: isRecord(a) && a.surface !== undefined ? ['analysis', 'surface'] : ['analysis'],
+        code: 'too-much-work',
+        message: `asks for about ${work.toExponential(1)} slice evaluations, more than the ${WORK_LIMIT.toExponential(0)} an analysis may use: use fewer grid centres, radii, moves, ground-range points, restarts or slices`,
+      },
+    ];
+  }
+  const parts = cases.map((c) => {
+    const view = mergeCaseData(data, c);
+    return { c, view, work: estimateCaseWork(view.analysis, strata, c.kind) };
+  });
+  const work = parts.reduce((sum, p) => sum + p.work, 0);
+  if (work <= WORK_LIMIT) return [];
+  const largest = parts.reduce((a, b) => (b.work > a.work ? b : a));
+  const index = (data.cases as unknown[]).indexOf(largest.c);
+  const a = largest.view.analysis;
+  const surface: PathKey[] =
+    isRecord(a) && a.surface !== undefined ? ['analysis', 'surface'] : ['analysis'];
+  const from = caseOrigin(largest.c, surface);
+  const name = typeof largest.c.name === 'string' ? quoteText(largest.c.name) : `cases[${index}]`;
+  const n = parts.length;
+  const counted = caseWorkWords(cases.map((c) => c.kind));
+  return [
+    {
+      severity: 'error',
+      path: from ? ['cases', index, ...from] : isRecord(data.analysis) ? surface : ['cases'],
+      code: 'too-much-work',
+      message: `the ${n === 1 ? 'case asks' : `${n} cases ask`} for about ${work.toExponential(1)} slice evaluations${n === 1 ? '' : ` together (${name} about ${largest.work.toExponential(1)})`}, more than the ${WORK_LIMIT.toExponential(0)} an analysis may use${counted ? ` (${counted})` : ''}: use fewer grid centres, radii, moves, ground-range points, restarts or slices${n === 1 ? '' : ', or fewer cases'}`,
+    },
+  ];
 }

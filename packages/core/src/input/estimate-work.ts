@@ -40,3 +40,39 @@ export function estimateWork(analysis: unknown, strata: number): number {
   const polish = 3 * 300 + strata * 200 + 300;
   return (grid + ground + noncircular + eachMethod + polish) * (slices + 20);
 }
+
+/**
+ * The searches a design case of each kind runs, where more than one: a rapid drawdown
+ * searches for the three-stage surface (up to three stages on each trial surface) and for the
+ * fully drained drawdown beside it; a seismic case repeats the search at each step of the root
+ * finding for its yield coefficient ky. Upper bounds for the estimate of the work; the
+ * analyses of these kinds stay within them.
+ */
+export const CASE_SEARCHES: Readonly<Partial<Record<string, number>>> = {
+  'rapid-drawdown': 4,
+  seismic: 12,
+};
+
+/**
+ * An estimate of the slice evaluations of one design case: estimateWork for its settings (the
+ * section's with the case's merged in), times the searches its kind runs (CASE_SEARCHES).
+ *
+ * @example estimateCaseWork({ slices: 30, surface: { type: 'auto' } }, 2, 'seismic') // → 12 × 595 600
+ */
+export function estimateCaseWork(analysis: unknown, strata: number, kind: unknown): number {
+  const searches = typeof kind === 'string' ? (CASE_SEARCHES[kind] ?? 1) : 1;
+  return estimateWork(analysis, strata) * searches;
+}
+
+/**
+ * How the work of the cases is counted, in words, for the message of a section that asks for
+ * too much.
+ *
+ * @example caseWorkWords(['long-term', 'seismic']) // → 'a seismic case counts as 12 searches'
+ */
+export function caseWorkWords(kinds: readonly unknown[]): string {
+  const words = Object.entries(CASE_SEARCHES)
+    .filter(([kind]) => kinds.includes(kind))
+    .map(([kind, n]) => `a ${kind} case counts as ${n} searches`);
+  return words.join(', ');
+}

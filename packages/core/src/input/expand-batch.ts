@@ -34,9 +34,12 @@ const below = (ground: Point[], depth: number): Point[] => ground.map(([x, y]) =
 /**
  * Expands a corridor batch (schemas/batch.schema.json) into sections: each item of `sections`
  * merged with the `template` (the item's value replaces the template's; materials merge by
- * name, seismic and analysis setting by setting), strata and water given by depth turned into
- * polylines that follow the section's ground, and the id `<batch id>@<station>`. Items without
- * a number station or a ground polyline are left out (the batch schema reports them).
+ * name, seismic and analysis setting by setting; the template's cases each merged with the
+ * item's case of the same name, by the same rules, with drawdown and earthquake setting by
+ * setting, and the item's other cases added after them), strata and water (a case's, and a
+ * drawdown's water after it) given by depth turned into polylines that follow the section's
+ * ground, and the id `<batch id>@<station>`. Items without a number station or a ground
+ * polyline are left out (the batch schema reports them).
  *
  * @example expandBatch(batch)[0].data.id // → 'north-cut@0'
  */
@@ -91,60 +94,83 @@ export function* expandSections(batch: Record<string, unknown>): Generator<Expan
     data.ground = ground;
     map(['ground'], [...S, 'ground']);
 
-    /** The item's value if it has one, else the template's; with the base path it came from. */
-    const pick = (key: string): [unknown, PathKey[]] | null => {
-      if (item[key] !== undefined) return [item[key], [...S, key]];
-      if (template[key] !== undefined) return [template[key], [...T, key]];
-      return null;
+    /** The item's value if it has one, else the template's, put at `at` with its origin. */
+    const pick = (
+      tv: unknown,
+      iv: unknown,
+      tBase: PathKey[] | null,
+      iBase: PathKey[] | null,
+      at: PathKey[],
+    ): unknown => {
+      if (iv !== undefined && iBase) {
+        map(at, iBase);
+        return iv;
+      }
+      if (tv !== undefined && tBase) {
+        map(at, tBase);
+        return tv;
+      }
+      return undefined;
     };
+    /** Two groups of settings merged setting by setting (or name by name), the item's over the template's. */
+    const merge = (
+      tv: unknown,
+      iv: unknown,
+      tBase: PathKey[] | null,
+      iBase: PathKey[] | null,
+      at: PathKey[],
+    ): unknown => {
+      const t = isRecord(tv) && tBase ? tv : null;
+      const i = isRecord(iv) && iBase ? iv : null;
+      if (!t && !i) return pick(tv, iv, tBase, iBase, at);
+      map(at, i && iBase ? iBase : (tBase as PathKey[]));
+      if (t && tBase) for (const k of Object.keys(t)) map([...at, k], [...tBase, k]);
+      if (i && iBase) for (const k of Object.keys(i)) map([...at, k], [...iBase, k]);
+      return { ...t, ...i };
+    };
+    /** Water of the batch (depth below this section's ground, elevation, or ru) as a section's. */
+    const water = (value: unknown, base: PathKey[], at: PathKey[]): unknown => {
+      map(at, base);
+      if (!isRecord(value)) return value;
+      const w: Record<string, unknown> = {};
+      if (value.depth !== undefined) {
+        w.piezometric = isNumber(value.depth) ? below(ground, value.depth) : value.depth;
+        if (isNumber(value.depth)) fromGround.push([...at, 'piezometric']);
+        map([...at, 'piezometric'], [...base, 'depth'], true);
+      } else if (value.elevation !== undefined) {
+        w.piezometric = value.elevation;
+        map([...at, 'piezometric'], [...base, 'elevation']);
+      }
+      for (const k of ['ru', 'unitWeight']) {
+        if (value[k] === undefined) continue;
+        w[k] = value[k];
+        map([...at, k], [...base, k]);
+      }
+      return w;
+    };
+
     for (const key of ['offset', 'loads', 'crack']) {
-      const picked = pick(key);
-      if (!picked) continue;
-      data[key] = picked[0];
-      map([key], picked[1]);
+      const v = pick(template[key], item[key], [...T, key], [...S, key], [key]);
+      if (v !== undefined) data[key] = v;
     }
-
-    // Materials merge by name.
-    const tm = isRecord(template.materials) ? template.materials : null;
-    const im = isRecord(item.materials) ? item.materials : null;
-    if (tm || im) {
-      data.materials = { ...tm, ...im };
-      map(['materials'], im ? [...S, 'materials'] : [...T, 'materials']);
-      for (const name of Object.keys(tm ?? {})) map(['materials', name], [...T, 'materials', name]);
-      for (const name of Object.keys(im ?? {})) map(['materials', name], [...S, 'materials', name]);
-    } else {
-      const picked = pick('materials');
-      if (picked) {
-        data.materials = picked[0];
-        map(['materials'], picked[1]);
-      }
-    }
-
-    // Seismic and analysis merge setting by setting.
-    for (const key of ['seismic', 'analysis']) {
-      const tv = isRecord(template[key]) ? template[key] : null;
-      const iv = isRecord(item[key]) ? item[key] : null;
-      if (tv || iv) {
-        data[key] = { ...tv, ...iv };
-        map([key], iv ? [...S, key] : [...T, key]);
-        for (const k of Object.keys(tv ?? {})) map([key, k], [...T, key, k]);
-        for (const k of Object.keys(iv ?? {})) map([key, k], [...S, key, k]);
-      } else {
-        const picked = pick(key);
-        if (picked) {
-          data[key] = picked[0];
-          map([key], picked[1]);
-        }
-      }
+    // Materials merge by name; seismic and analysis setting by setting.
+    for (const key of ['materials', 'seismic', 'analysis']) {
+      const v = merge(template[key], item[key], [...T, key], [...S, key], [key]);
+      if (v !== undefined) data[key] = v;
     }
 
     // Strata: depth below this section's ground or elevation.
-    const strata = pick('strata');
-    if (strata) {
-      const [value, base] = strata;
-      map(['strata'], base);
-      if (Array.isArray(value)) {
-        data.strata = value.map((s: unknown, k: number) => {
+    const strata = pick(
+      template.strata,
+      item.strata,
+      [...T, 'strata'],
+      [...S, 'strata'],
+      ['strata'],
+    );
+    if (strata !== undefined) {
+      const base: PathKey[] = item.strata !== undefined ? [...S, 'strata'] : [...T, 'strata'];
+      if (Array.isArray(strata)) {
+        data.strata = strata.map((s: unknown, k: number) => {
           map(['strata', k], [...base, k]);
           if (!isRecord(s)) return s;
           const stratum: Record<string, unknown> = {};
@@ -159,31 +185,113 @@ export function* expandSections(batch: Record<string, unknown>): Generator<Expan
           }
           return stratum;
         });
-      } else data.strata = value;
+      } else data.strata = strata;
     }
 
     // Water: depth below this section's ground, elevation, or ru.
-    const water = pick('water');
-    if (water) {
-      const [value, base] = water;
-      map(['water'], base);
-      if (isRecord(value)) {
-        const w: Record<string, unknown> = {};
-        if (value.depth !== undefined) {
-          w.piezometric = isNumber(value.depth) ? below(ground, value.depth) : value.depth;
-          if (isNumber(value.depth)) fromGround.push(['water', 'piezometric']);
-          map(['water', 'piezometric'], [...base, 'depth'], true);
-        } else if (value.elevation !== undefined) {
-          w.piezometric = value.elevation;
-          map(['water', 'piezometric'], [...base, 'elevation']);
-        }
-        for (const k of ['ru', 'unitWeight']) {
-          if (value[k] === undefined) continue;
-          w[k] = value[k];
-          map(['water', k], [...base, k]);
-        }
-        data.water = w;
-      } else data.water = value;
+    if (item.water !== undefined) data.water = water(item.water, [...S, 'water'], ['water']);
+    else if (template.water !== undefined)
+      data.water = water(template.water, [...T, 'water'], ['water']);
+
+    // Cases: the template's, each merged with the item's case of the same name, then the item's others.
+    const designCase = (
+      tv: unknown,
+      iv: unknown,
+      tBase: PathKey[] | null,
+      iBase: PathKey[] | null,
+      at: PathKey[],
+    ): unknown => {
+      const t = isRecord(tv) && tBase ? tv : null;
+      const i = isRecord(iv) && iBase ? iv : null;
+      if (!t || !i) {
+        const [one, base] = t && tBase ? [t, tBase] : [iv, iBase as PathKey[]];
+        return isRecord(one)
+          ? caseSettings(one, null, base, null, at)
+          : pick(tv, iv, tBase, iBase, at);
+      }
+      return caseSettings(t, i, tBase as PathKey[], iBase, at);
+    };
+    const caseSettings = (
+      t: Record<string, unknown>,
+      i: Record<string, unknown> | null,
+      tBase: PathKey[],
+      iBase: PathKey[] | null,
+      at: PathKey[],
+    ): Record<string, unknown> => {
+      map(at, i && iBase ? iBase : tBase);
+      const out: Record<string, unknown> = {};
+      for (const key of new Set([...Object.keys(t), ...Object.keys(i ?? {})])) {
+        const tv = t[key];
+        const iv = i?.[key];
+        const tk = [...tBase, key];
+        const ik = iBase && [...iBase, key];
+        const dk = [...at, key];
+        let v: unknown;
+        if (['materials', 'seismic', 'analysis', 'earthquake'].includes(key))
+          v = merge(tv, iv, tk, ik, dk);
+        else if (key === 'water')
+          v = iv !== undefined && ik ? water(iv, ik, dk) : water(tv, tk, dk);
+        else if (key === 'drawdown') v = drawdown(tv, iv, tk, ik, dk);
+        else v = pick(tv, iv, tk, ik, dk);
+        if (v !== undefined) out[key] = v;
+      }
+      return out;
+    };
+    /** A drawdown: setting by setting, its materials by name, the water after it as a section's. */
+    const drawdown = (
+      tv: unknown,
+      iv: unknown,
+      tBase: PathKey[],
+      iBase: PathKey[] | null,
+      at: PathKey[],
+    ): unknown => {
+      const merged = merge(tv, iv, tBase, iBase, at);
+      if (!isRecord(merged)) return merged;
+      const t = isRecord(tv) ? tv : {};
+      const i = isRecord(iv) && iBase ? iv : {};
+      const ib = (k: string) => (iBase ? [...iBase, k] : null);
+      const materials = merge(t.materials, i.materials, [...tBase, 'materials'], ib('materials'), [
+        ...at,
+        'materials',
+      ]);
+      if (materials !== undefined) merged.materials = materials;
+      if (i.after !== undefined && iBase)
+        merged.after = water(i.after, [...iBase, 'after'], [...at, 'after']);
+      else if (t.after !== undefined)
+        merged.after = water(t.after, [...tBase, 'after'], [...at, 'after']);
+      return merged;
+    };
+    const templateCases: unknown[] = Array.isArray(template.cases) ? template.cases : [];
+    const itemCases: unknown[] = Array.isArray(item.cases) ? item.cases : [];
+    if (template.cases !== undefined || item.cases !== undefined) {
+      map(['cases'], item.cases !== undefined ? [...S, 'cases'] : [...T, 'cases']);
+      const nameOf = (c: unknown): string | null =>
+        isRecord(c) && typeof c.name === 'string' ? c.name : null;
+      const merged = new Set<number>();
+      const cases: unknown[] = [];
+      templateCases.forEach((tc, j) => {
+        const name = nameOf(tc);
+        const m =
+          name === null ? -1 : itemCases.findIndex((c, k) => !merged.has(k) && nameOf(c) === name);
+        if (m >= 0) merged.add(m);
+        cases.push(
+          designCase(
+            tc,
+            m >= 0 ? itemCases[m] : undefined,
+            [...T, 'cases', j],
+            m >= 0 ? [...S, 'cases', m] : null,
+            ['cases', cases.length],
+          ),
+        );
+      });
+      itemCases.forEach((ic, m) => {
+        if (!merged.has(m))
+          cases.push(designCase(undefined, ic, null, [...S, 'cases', m], ['cases', cases.length]));
+      });
+      data.cases =
+        Array.isArray(template.cases) || Array.isArray(item.cases)
+          ? cases
+          : (item.cases ?? template.cases);
     }
 
     const best = (path: readonly PathKey[]): Origin => {

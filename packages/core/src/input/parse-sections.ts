@@ -412,11 +412,26 @@ function readDocument(locate: Locate, data: unknown, reading: Reading, screened:
 
 /**
  * The values a batch's sections hold once each is given the template, and the strata and water
- * given by depth a copy of its ground each: counted before any section is made.
+ * (cases' water too) given by depth a copy of its ground each: counted before any section is
+ * made.
  */
 function expandedValues(batch: Record<string, unknown>, items: readonly unknown[]): number {
   const template = isRecord(batch.template) ? batch.template : {};
   const shared = countValues(template);
+  const byDepth = (water: unknown): number =>
+    isRecord(water) && water.depth !== undefined ? 1 : 0;
+  /** The water levels of cases given by depth (a case's water, the water after a drawdown). */
+  const caseLayers = (cases: unknown): number =>
+    Array.isArray(cases)
+      ? cases.reduce(
+          (n: number, c: unknown) =>
+            isRecord(c)
+              ? n + byDepth(c.water) + (isRecord(c.drawdown) ? byDepth(c.drawdown.after) : 0)
+              : n,
+          0,
+        )
+      : 0;
+  const templateCaseLayers = caseLayers(template.cases);
   let total = 0;
   for (const item of items) {
     if (!isRecord(item)) continue;
@@ -425,7 +440,10 @@ function expandedValues(batch: Record<string, unknown>, items: readonly unknown[
     const layers =
       (Array.isArray(strata)
         ? strata.filter((s) => isRecord(s) && s.depth !== undefined).length
-        : 0) + (isRecord(water) && water.depth !== undefined ? 1 : 0);
+        : 0) +
+      byDepth(water) +
+      templateCaseLayers +
+      caseLayers(item.cases);
     total += shared + countValues(item) + layers * countValues(item.ground);
   }
   return total;

@@ -1,6 +1,7 @@
 import { SECTION_FORMAT } from '../formats';
-import type { RawMaterial, RawSection } from '../model/raw-section';
-import type { Section, UnitSystem } from '../model/types';
+import type { RawAnalysis, RawCase, RawMaterial, RawSection, RawWater } from '../model/raw-section';
+import type { Analysis, DesignCase, Material, Section, UnitSystem, Water } from '../model/types';
+import { fromSi } from '../model/units';
 import { isRigid, strengthDocument } from '../strength/registry';
 import { parseSections } from './parse-sections';
 import { screenData } from './screen-data';
@@ -20,33 +21,15 @@ function defined<T extends object>(o: T): { [K in keyof T]?: Exclude<T[K], null>
  * water's unit weight, seismic coefficients) and every stratum's top as the polyline it was
  * clipped to, so that reading the document gives the same section again, all but `units`: the
  * document says `si`, and readSectionDocument gives back the units to report results in. What
- * reading drops (the section's description) is not in the section and not written.
+ * reading drops (the section's description) is not in the section and not written. Each design
+ * case is written as what it changes in the section's settings.
  *
  * @example sectionDocument(section).materials.clay.strength // → { model: 'mohr-coulomb', … }
  */
 export function sectionDocument(s: Section): RawSection {
   const materials: Record<string, RawMaterial> = {};
-  for (const [name, m] of Object.entries(s.materials)) {
-    const strength = strengthDocument(m.strength);
-    const description = m.description ? { description: m.description } : {};
-    materials[name] =
-      isRigid(m.strength) && m.unitWeight === 0
-        ? { ...description, strength }
-        : {
-            ...description,
-            unitWeight: m.unitWeight,
-            saturatedUnitWeight: m.saturatedUnitWeight,
-            strength,
-          };
-  }
-  const w = s.water;
-  const water =
-    w.kind === 'piezometric'
-      ? { piezometric: w.line, unitWeight: w.unitWeight }
-      : w.kind === 'ru'
-        ? { ru: w.ru, unitWeight: w.unitWeight }
-        : { unitWeight: w.unitWeight };
-  const a = s.analysis;
+  for (const [name, m] of Object.entries(s.materials)) materials[name] = materialDocument(m);
+  const water = waterDocument(s.water);
   const doc: RawSection = {
     format: SECTION_FORMAT,
     id: s.id,
@@ -61,19 +44,99 @@ export function sectionDocument(s: Section): RawSection {
     seismic: s.seismic,
     ...(s.crack ? { crack: s.crack } : {}),
     analysis: defined({
-      methods: a.methods,
-      slices: a.slices,
-      surface: a.surface,
-      infiniteSlope: a.infiniteSlope,
-      interslice: a.interslice,
-      trialBand: a.trialBand,
-      searchEachMethod: a.searchEachMethod,
-      case: a.case,
-      requiredFs: a.requiredFs,
+      ...analysisDocument(s.analysis),
+      case: s.analysis.case,
+      requiredFs: s.analysis.requiredFs,
     }),
+    ...(s.cases && s.cases.length > 0 ? { cases: s.cases.map((c) => caseDocument(c, s)) } : {}),
   };
   // A plain copy: the document shares nothing with the section.
   return JSON.parse(JSON.stringify(doc)) as RawSection;
+}
+
+function materialDocument(m: Material): RawMaterial {
+  const strength = strengthDocument(m.strength);
+  const description = m.description ? { description: m.description } : {};
+  return isRigid(m.strength) && m.unitWeight === 0
+    ? { ...description, strength }
+    : {
+        ...description,
+        unitWeight: m.unitWeight,
+        saturatedUnitWeight: m.saturatedUnitWeight,
+        strength,
+      };
+}
+
+function waterDocument(w: Water): RawWater {
+  return w.kind === 'piezometric'
+    ? { piezometric: w.line, unitWeight: w.unitWeight }
+    : w.kind === 'ru'
+      ? { ru: w.ru, unitWeight: w.unitWeight }
+      : { unitWeight: w.unitWeight };
+}
+
+/** The analysis settings but the case's name and requirement. */
+function analysisDocument(a: Analysis): Omit<RawAnalysis, 'case' | 'requiredFs'> {
+  return defined({
+    methods: a.methods,
+    slices: a.slices,
+    surface: a.surface,
+    infiniteSlope: a.infiniteSlope,
+    interslice: a.interslice,
+    trialBand: a.trialBand,
+    searchEachMethod: a.searchEachMethod,
+  });
+}
+
+const same = (a: unknown, b: unknown): boolean => JSON.stringify(a) === JSON.stringify(b);
+
+/**
+ * A design case written back as the case of a section document: what differs from the
+ * section's own settings (a material that differs written whole, the analysis setting by
+ * setting), so that merging it into the section gives the case again.
+ */
+function caseDocument(c: DesignCase, s: Section): RawCase {
+  const doc: RawCase = { name: c.name, kind: c.kind };
+  if (c.requiredFs !== null && c.requiredFs !== s.analysis.requiredFs)
+    doc.requiredFs = c.requiredFs;
+  if (c.governs) doc.governs = c.governs;
+  const water = waterDocument(c.water);
+  if (!same(water, waterDocument(s.water))) doc.water = water;
+  const materials: Record<string, RawMaterial> = {};
+  for (const [name, m] of Object.entries(c.materials)) {
+    const written = materialDocument(m);
+    if (!same(written, materialDocument(s.materials[name]))) materials[name] = written;
+  }
+  if (Object.keys(materials).length > 0) doc.materials = materials;
+  if (!same(c.loads, s.loads)) doc.loads = c.loads;
+  if (!same(c.seismic, s.seismic)) doc.seismic = c.seismic;
+  if (c.crack && !same(c.crack, s.crack)) doc.crack = c.crack;
+  const own = analysisDocument(s.analysis) as Record<string, unknown>;
+  const analysis = Object.fromEntries(
+    Object.entries(analysisDocument(c.analysis)).filter(([k, v]) => !same(v, own[k])),
+  );
+  if (Object.keys(analysis).length > 0) doc.analysis = analysis;
+  if (c.drawdown) {
+    const after = c.drawdown.after;
+    const slow = Object.entries(c.drawdown.materials).filter(([, d]) => d.drains === 'slow');
+    doc.drawdown = {
+      after: { piezometric: after.kind === 'piezometric' ? after.line : [] },
+      ...(slow.length > 0 ? { materials: Object.fromEntries(slow) } : {}),
+    };
+  }
+  const e = c.earthquake;
+  if (e && (e.pga !== null || e.magnitude !== null || e.allowableDisplacement !== null)) {
+    doc.earthquake = defined({
+      pga: e.pga,
+      magnitude: e.magnitude,
+      // a displacement is written in mm in an si document
+      allowableDisplacement:
+        e.allowableDisplacement === null
+          ? null
+          : fromSi(e.allowableDisplacement, 'displacement', 'si'),
+    });
+  }
+  return doc;
 }
 
 /**

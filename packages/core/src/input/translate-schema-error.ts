@@ -71,6 +71,23 @@ const MISSING_HINTS: Record<string, string> = {
   units: 'si (m, kN, kPa, kN/m³) or us (ft, lbf, psf, pcf)',
   ground: 'the ground surface [[x, y], ...] from left to right',
   strata: 'the strata from top to bottom',
+  name: 'every design case has a name, unique in the section',
+  kind: 'end-of-construction, long-term, steady-seepage, rapid-drawdown, seismic, surcharge or other',
+  drawdown:
+    'a rapid-drawdown case gives the water after drawdown and how each material drains: drawdown: { after: { piezometric: … }, materials: … }',
+  after: 'the water after drawdown: after: { piezometric: … }',
+  piezometric: 'the piezometric line after drawdown, an elevation or a polyline',
+  drains: 'free or slow',
+  dR: 'a slowly draining material gives its undrained strength envelope: dR and psiR',
+  psiR: 'a slowly draining material gives its undrained strength envelope: dR and psiR',
+};
+
+/** Why a setting is refused where it is written (a `false` schema), by its name. */
+const NOT_ALLOWED_HINTS: Record<string, string> = {
+  drawdown: 'only a rapid-drawdown case gives drawdown',
+  earthquake: 'only a seismic case gives earthquake',
+  case: "a case is named by its name (analysis.case names a section's own case)",
+  requiredFs: "a case's requirement is its requiredFs, beside its name and kind",
 };
 
 const NAME_RULE = 'use letters, digits and . _ - + @, starting with a letter or digit, no spaces';
@@ -249,8 +266,10 @@ export function translateSchemaError(
         missing === 'suDatum' ? ' (the elevation at which Su equals su, below which it grows)' : '';
       return issue('missing', `${property} needs ${missing} as well${hint}`, path, atGroup);
     }
-    case 'false schema':
-      return issue('not-allowed', 'is not allowed here');
+    case 'false schema': {
+      const hint = typeof field === 'string' ? NOT_ALLOWED_HINTS[field] : undefined;
+      return issue('not-allowed', `is not allowed here${hint ? `: ${hint}` : ''}`);
+    }
     default:
       return issue('schema', error.message ?? `fails the ${error.keyword} rule of the schema`);
   }

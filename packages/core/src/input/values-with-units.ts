@@ -17,6 +17,7 @@ const QUANTITY_DEFS: Record<string, QuantityKind> = {
   unitWeight: 'unitWeight',
   forcePerLength: 'forcePerLength',
   pressurePerLength: 'pressurePerLength',
+  displacement: 'displacement',
   boundary: 'length',
 };
 

@@ -76,6 +76,9 @@ const FIELD_KINDS: Record<string, QuantityKind | 'angle'> = {
   offset: 'length',
   suDatum: 'length',
   elevation: 'length',
+  dR: 'pressure',
+  psiR: 'angle',
+  allowableDisplacement: 'displacement',
 };
 
 /**

@@ -1,13 +1,38 @@
 import { normaliseStrength } from '../strength/registry';
 import { boundaryOverGround } from './boundary-over-ground';
 import { lowerEnvelope } from '../geometry/lower-envelope';
-import type { RawSection } from './raw-section';
-import type { Analysis, Load, Material, Polyline, Section, Stratum, Water } from './types';
+import { mergeCase } from './merge-case';
+import type {
+  RawAnalysis,
+  RawCase,
+  RawCrack,
+  RawLoad,
+  RawMaterial,
+  RawSection,
+  RawSeismic,
+  RawStratum,
+  RawWater,
+} from './raw-section';
+import type {
+  Analysis,
+  Crack,
+  DesignCase,
+  DrawdownDrainage,
+  DrawdownSpec,
+  Load,
+  Material,
+  Polyline,
+  Section,
+  Seismic,
+  Stratum,
+  UnitSystem,
+  Water,
+} from './types';
 import { toSi } from './units';
 import { SECTION_FORMAT } from '../formats';
 
 /** Default unit weight of water: 9.81 kN/m³ for si files, 62.4 pcf for us files (common practice). */
-function defaultWaterUnitWeight(units: RawSection['units']): number {
+function defaultWaterUnitWeight(units: UnitSystem): number {
   return units === 'us' ? toSi(62.4, 'unitWeight', 'us') : 9.81;
 }
 
@@ -16,29 +41,56 @@ function defaultWaterUnitWeight(units: RawSection['units']): number {
  * first stratum's top is the ground, every other top a polyline over the ground's x-range
  * clipped under the ground and under the stratum above; water none/piezometric/ru; loads [];
  * seismic 0; no crack; methods [bishop], 30 slices, surface auto (none when only the infinite
- * slope is asked for). Assumes the section passed the schema and checkSection without errors.
+ * slope is asked for). A section that lists cases gets each as a DesignCase: the section's
+ * settings with the case's overrides merged (mergeCase), normalised by the same functions.
+ * Assumes the section passed the schema and checkSection without errors.
  *
  * @example normaliseSection(rawSectionToSi(raw)).strata[0].top // → the ground
  */
 export function normaliseSection(raw: RawSection): Section {
   const ground: Polyline = raw.ground.map(([x, y]) => [x, y]);
+  const section: Section = {
+    format: SECTION_FORMAT,
+    id: raw.id,
+    title: raw.title ?? raw.id,
+    station: raw.station ?? null,
+    offset: raw.offset ?? null,
+    units: raw.units,
+    ground,
+    materials: normaliseMaterials(raw.materials),
+    strata: normaliseStrata(raw.strata, ground),
+    water: normaliseWater(raw.water, ground, raw.units),
+    loads: normaliseLoads(raw.loads),
+    seismic: normaliseSeismic(raw.seismic),
+    crack: normaliseCrack(raw.crack),
+    analysis: normaliseAnalysis(raw.analysis),
+  };
+  if (raw.cases && raw.cases.length > 0)
+    section.cases = raw.cases.map((c) => normaliseCase(raw, c, ground));
+  return section;
+}
 
+/** The materials by name: unit weights filled in (saturated defaults to bulk; 0 for a rigid base without one). */
+function normaliseMaterials(raw: Record<string, RawMaterial>): Record<string, Material> {
   const materials: Record<string, Material> = {};
-  for (const [name, m] of Object.entries(raw.materials)) {
+  for (const [name, m] of Object.entries(raw)) {
     const unitWeight = m.unitWeight ?? 0;
-    const strength = normaliseStrength(m.strength);
     materials[name] = {
       name,
       ...(m.description ? { description: m.description } : {}),
       unitWeight,
       saturatedUnitWeight: m.saturatedUnitWeight ?? unitWeight,
-      strength,
+      strength: normaliseStrength(m.strength),
     };
   }
+  return materials;
+}
 
+/** The strata: the first one's top is the ground, each other top over the ground's x-range, clipped under the one above. */
+function normaliseStrata(raw: RawStratum[], ground: Polyline): Stratum[] {
   const strata: Stratum[] = [];
   let above = ground;
-  raw.strata.forEach((s, i) => {
+  raw.forEach((s, i) => {
     const top =
       i === 0 || s.top === undefined
         ? ground.map(([x, y]): [number, number] => [x, y])
@@ -46,27 +98,43 @@ export function normaliseSection(raw: RawSection): Section {
     strata.push({ material: s.material, top });
     above = top;
   });
+  return strata;
+}
 
-  const unitWeight = raw.water?.unitWeight ?? defaultWaterUnitWeight(raw.units);
-  let water: Water = { kind: 'none', unitWeight };
-  if (raw.water?.piezometric !== undefined) {
-    water = {
-      kind: 'piezometric',
-      line: boundaryOverGround(raw.water.piezometric, ground),
-      unitWeight,
-    };
-  } else if (raw.water?.ru !== undefined) water = { kind: 'ru', ru: raw.water.ru, unitWeight };
+/** The water: a piezometric line over the ground's x-range, ru, or none; γw by default. */
+function normaliseWater(raw: RawWater | undefined, ground: Polyline, units: UnitSystem): Water {
+  const unitWeight = raw?.unitWeight ?? defaultWaterUnitWeight(units);
+  if (raw?.piezometric !== undefined)
+    return { kind: 'piezometric', line: boundaryOverGround(raw.piezometric, ground), unitWeight };
+  if (raw?.ru !== undefined) return { kind: 'ru', ru: raw.ru, unitWeight };
+  return { kind: 'none', unitWeight };
+}
 
-  const loads: Load[] = (raw.loads ?? []).map((l) =>
+/** The loads; a line load's angle 0 by default. */
+function normaliseLoads(raw: RawLoad[] | undefined): Load[] {
+  return (raw ?? []).map((l) =>
     l.type === 'strip'
       ? { type: 'strip', from: l.from, to: l.to, pressure: l.pressure }
       : { type: 'line', x: l.x, force: l.force, angle: l.angle ?? 0 },
   );
+}
 
-  const a = raw.analysis ?? {};
+/** The seismic coefficients, 0 by default. */
+function normaliseSeismic(raw: RawSeismic | undefined): Seismic {
+  return { kh: raw?.kh ?? 0, kv: raw?.kv ?? 0 };
+}
+
+/** The tension crack, its water 0 deep by default; null for none. */
+function normaliseCrack(raw: RawCrack | undefined): Crack | null {
+  return raw ? { depth: raw.depth, waterDepth: raw.waterDepth ?? 0 } : null;
+}
+
+/** The analysis settings: methods [bishop], 30 slices, surface auto (none when only the infinite slope is asked for). */
+function normaliseAnalysis(raw: RawAnalysis | undefined): Analysis {
+  const a = raw ?? {};
   const methods = a.methods ? [...a.methods] : ['bishop' as const];
   const onlyInfinite = methods.every((m) => m === 'infinite-slope');
-  const analysis: Analysis = {
+  return {
     methods,
     slices: a.slices ?? 30,
     surface: a.surface ? { ...a.surface } : onlyInfinite ? null : { type: 'auto' },
@@ -90,21 +158,59 @@ export function normaliseSection(raw: RawSection): Section {
     case: a.case ?? null,
     requiredFs: a.requiredFs ?? null,
   };
+}
 
+/**
+ * One case of a section: the section's settings with the case's merged in (mergeCase), then
+ * normalised as the section's are. Its requirement is its own requiredFs, else the section's
+ * analysis.requiredFs. A rapid-drawdown case's water after drawdown takes the unit weight of
+ * the water before, and every material of the section that its drawdown does not list drains
+ * freely. A seismic case always has its earthquake (null settings where not given); the other
+ * kinds have none.
+ */
+function normaliseCase(raw: RawSection, c: RawCase, ground: Polyline): DesignCase {
+  const merged = mergeCase(raw, c);
+  const water = normaliseWater(merged.water, ground, raw.units);
+  const analysis = normaliseAnalysis(merged.analysis);
   return {
-    format: SECTION_FORMAT,
-    id: raw.id,
-    title: raw.title ?? raw.id,
-    station: raw.station ?? null,
-    offset: raw.offset ?? null,
-    units: raw.units,
-    ground,
-    materials,
-    strata,
+    name: c.name,
+    kind: c.kind,
+    requiredFs: analysis.requiredFs,
+    governs: c.governs ? [...c.governs] : null,
     water,
-    loads,
-    seismic: { kh: raw.seismic?.kh ?? 0, kv: raw.seismic?.kv ?? 0 },
-    crack: raw.crack ? { depth: raw.crack.depth, waterDepth: raw.crack.waterDepth ?? 0 } : null,
+    materials: normaliseMaterials(merged.materials),
+    loads: normaliseLoads(merged.loads),
+    seismic: normaliseSeismic(merged.seismic),
+    crack: normaliseCrack(merged.crack),
     analysis,
+    drawdown: c.drawdown ? normaliseDrawdown(c.drawdown, raw, water, ground) : null,
+    earthquake:
+      c.kind === 'seismic'
+        ? {
+            pga: c.earthquake?.pga ?? null,
+            magnitude: c.earthquake?.magnitude ?? null,
+            allowableDisplacement: c.earthquake?.allowableDisplacement ?? null,
+          }
+        : null,
   };
+}
+
+function normaliseDrawdown(
+  raw: NonNullable<RawCase['drawdown']>,
+  section: RawSection,
+  before: Water,
+  ground: Polyline,
+): DrawdownSpec {
+  const after = normaliseWater(
+    { piezometric: raw.after.piezometric, unitWeight: before.unitWeight },
+    ground,
+    section.units,
+  );
+  const materials: Record<string, DrawdownDrainage> = {};
+  for (const name of Object.keys(section.materials)) {
+    const d = raw.materials?.[name];
+    materials[name] =
+      d?.drains === 'slow' ? { drains: 'slow', dR: d.dR, psiR: d.psiR } : { drains: 'free' };
+  }
+  return { after, materials };
 }

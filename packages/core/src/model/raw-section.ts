@@ -4,6 +4,7 @@
  */
 import type { SECTION_FORMAT } from '../formats';
 import type {
+  DesignCaseKind,
   InfiniteSlopeSpec,
   IntersliceFunction,
   MethodId,
@@ -55,6 +56,53 @@ export interface RawAnalysis {
   requiredFs?: number;
 }
 
+export interface RawSeismic {
+  kh?: number;
+  kv?: number;
+}
+
+export interface RawCrack {
+  depth: number | 'auto';
+  waterDepth?: number;
+}
+
+/** What a case changes in a material of the section: the properties it gives replace the section's. */
+export type RawMaterialOverride = Partial<RawMaterial>;
+
+/** How a material drains in a rapid drawdown, as written (dR in the file's pressure unit). */
+export type RawDrainage = { drains: 'free' } | { drains: 'slow'; dR: number; psiR: number };
+
+export interface RawDrawdown {
+  /** The piezometric line after drawdown. */
+  after: { piezometric: RawBoundary };
+  materials?: Record<string, RawDrainage>;
+}
+
+export interface RawEarthquake {
+  /** Design peak ground acceleration, a fraction of g. */
+  pga?: number;
+  magnitude?: number;
+  /** In the file's displacement unit (mm or in). */
+  allowableDisplacement?: number;
+}
+
+/** A design case as written: its name, kind and requirement, and its overrides of the section's settings. */
+export interface RawCase {
+  name: string;
+  kind: DesignCaseKind;
+  requiredFs?: number;
+  governs?: MethodId[];
+  water?: RawWater;
+  materials?: Record<string, RawMaterialOverride>;
+  loads?: RawLoad[];
+  seismic?: RawSeismic;
+  crack?: RawCrack;
+  /** Settings of the section's analysis to change (not its case or requiredFs: the case's own). */
+  analysis?: Omit<RawAnalysis, 'case' | 'requiredFs'>;
+  drawdown?: RawDrawdown;
+  earthquake?: RawEarthquake;
+}
+
 export interface RawSection {
   format: typeof SECTION_FORMAT;
   id: string;
@@ -68,7 +116,8 @@ export interface RawSection {
   strata: RawStratum[];
   water?: RawWater;
   loads?: RawLoad[];
-  seismic?: { kh?: number; kv?: number };
-  crack?: { depth: number | 'auto'; waterDepth?: number };
+  seismic?: RawSeismic;
+  crack?: RawCrack;
   analysis?: RawAnalysis;
+  cases?: RawCase[];
 }

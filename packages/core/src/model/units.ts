@@ -5,12 +5,30 @@
  * SP 811 (2008), Appendix B, and checked against mathjs in packages/core/test/units.test.ts.
  */
 import { strengthQuantities } from '../strength/registry';
-import type { RawBoundary, RawSection } from './raw-section';
+import type {
+  RawBoundary,
+  RawCase,
+  RawCrack,
+  RawLoad,
+  RawMaterialOverride,
+  RawSection,
+  RawWater,
+} from './raw-section';
 import type { Point, SurfaceSpec, UnitSystem } from './types';
 
-/** The kinds of quantity that differ between the unit systems (angles and ratios do not). */
+/**
+ * The kinds of quantity that differ between the unit systems (angles and ratios do not). A
+ * displacement is a length written in a smaller unit (mm, in): the permanent displacement of a
+ * slope in an earthquake, a few centimetres.
+ */
 export type QuantityKind =
-  'length' | 'force' | 'forcePerLength' | 'pressure' | 'unitWeight' | 'pressurePerLength';
+  | 'length'
+  | 'force'
+  | 'forcePerLength'
+  | 'pressure'
+  | 'unitWeight'
+  | 'pressurePerLength'
+  | 'displacement';
 
 /** Every quantity kind, in a fixed order. */
 export const QUANTITY_KINDS: readonly QuantityKind[] = [
@@ -20,10 +38,13 @@ export const QUANTITY_KINDS: readonly QuantityKind[] = [
   'pressure',
   'unitWeight',
   'pressurePerLength',
+  'displacement',
 ];
 
 /** 1 ft in m, exactly (NIST SP 811, B.8: the international foot). */
 export const FOOT_IN_M = 0.3048;
+/** 1 in in m, exactly (NIST SP 811, B.8). */
+export const INCH_IN_M = 0.0254;
 /** 1 lb (avoirdupois pound) in kg, exactly (NIST SP 811, B.8). */
 export const POUND_IN_KG = 0.45359237;
 /** Standard acceleration of gravity g_n in m/s², exactly (NIST SP 811, B.8; CGPM 1901). */
@@ -52,6 +73,23 @@ export const US_TO_SI: Readonly<Record<QuantityKind, number>> = Object.freeze({
   pressure: N / FT ** 2 / 1000,
   unitWeight: N / FT ** 3 / 1000,
   pressurePerLength: N / FT ** 2 / FT / 1000,
+  displacement: INCH_IN_M,
+});
+
+/**
+ * SI value of one `si` file unit of each kind: 1 (the file's unit is the SI unit), except a
+ * displacement, written in mm in an si file (in in a us file) and held in m inside.
+ *
+ * @example SI_FILE_TO_SI.displacement // → 0.001 (m per mm)
+ */
+export const SI_FILE_TO_SI: Readonly<Record<QuantityKind, number>> = Object.freeze({
+  length: 1,
+  force: 1,
+  forcePerLength: 1,
+  pressure: 1,
+  unitWeight: 1,
+  pressurePerLength: 1,
+  displacement: 0.001,
 });
 
 /** Unit symbols for messages and output. */
@@ -63,6 +101,7 @@ export const UNIT_LABELS: Readonly<Record<UnitSystem, Readonly<Record<QuantityKi
     pressure: 'kPa',
     unitWeight: 'kN/m³',
     pressurePerLength: 'kPa/m',
+    displacement: 'mm',
   },
   us: {
     length: 'ft',
@@ -71,6 +110,7 @@ export const UNIT_LABELS: Readonly<Record<UnitSystem, Readonly<Record<QuantityKi
     pressure: 'psf',
     unitWeight: 'pcf',
     pressurePerLength: 'psf/ft',
+    displacement: 'in',
   },
 };
 
@@ -78,9 +118,10 @@ export const UNIT_LABELS: Readonly<Record<UnitSystem, Readonly<Record<QuantityKi
  * A value in the given unit system converted to SI.
  *
  * @example toSi(10, 'length', 'us') // → 3.048
+ * @example toSi(150, 'displacement', 'si') // → 0.15 (mm to m)
  */
 export function toSi(value: number, kind: QuantityKind, units: UnitSystem): number {
-  return units === 'us' ? value * US_TO_SI[kind] : value;
+  return units === 'us' ? value * US_TO_SI[kind] : value * SI_FILE_TO_SI[kind];
 }
 
 /**
@@ -89,7 +130,7 @@ export function toSi(value: number, kind: QuantityKind, units: UnitSystem): numb
  * @example fromSi(3.048, 'length', 'us') // → 10
  */
 export function fromSi(value: number, kind: QuantityKind, units: UnitSystem): number {
-  return units === 'us' ? value / US_TO_SI[kind] : value;
+  return units === 'us' ? value / US_TO_SI[kind] : value / SI_FILE_TO_SI[kind];
 }
 
 const pointToSi = (p: Point, f: number): Point => [p[0] * f, p[1] * f];
@@ -108,54 +149,90 @@ function surfaceToSi(s: SurfaceSpec, f: number): SurfaceSpec {
   return { ...s };
 }
 
+/** The SI value of one file unit of each kind, in a unit system. */
+type Factor = (kind: QuantityKind) => number;
+
+function materialsToSi(materials: Record<string, RawMaterialOverride>, f: Factor): void {
+  for (const m of Object.values(materials)) {
+    if (m.unitWeight !== undefined) m.unitWeight *= f('unitWeight');
+    if (m.saturatedUnitWeight !== undefined) m.saturatedUnitWeight *= f('unitWeight');
+    if (!m.strength) continue;
+    const s = m.strength as unknown as Record<string, number>;
+    for (const [key, kind] of Object.entries(strengthQuantities(m.strength)))
+      if (kind && s[key] !== undefined) s[key] *= f(kind);
+  }
+}
+
+function waterToSi(w: RawWater | undefined, f: Factor): void {
+  if (!w) return;
+  if (w.piezometric !== undefined) w.piezometric = boundaryToSi(w.piezometric, f('length'));
+  if (w.unitWeight !== undefined) w.unitWeight *= f('unitWeight');
+}
+
+function loadsToSi(loads: RawLoad[] | undefined, f: Factor): void {
+  const L = f('length');
+  for (const load of loads ?? []) {
+    if (load.type === 'strip') {
+      load.from *= L;
+      load.to *= L;
+      load.pressure *= f('pressure');
+    } else {
+      load.x *= L;
+      load.force *= f('forcePerLength');
+    }
+  }
+}
+
+function crackToSi(crack: RawCrack | undefined, L: number): void {
+  if (!crack) return;
+  if (typeof crack.depth === 'number') crack.depth *= L;
+  if (crack.waterDepth !== undefined) crack.waterDepth *= L;
+}
+
+function analysisToSi(a: RawCase['analysis'], L: number): void {
+  if (!a) return;
+  if (a.surface) a.surface = surfaceToSi(a.surface, L);
+  if (a.infiniteSlope) a.infiniteSlope.depth *= L;
+}
+
+/** A case's own settings in SI: its overrides as the section's, its drawdown and earthquake. */
+function caseToSi(c: RawCase, f: Factor): void {
+  const L = f('length');
+  if (c.materials) materialsToSi(c.materials, f);
+  waterToSi(c.water, f);
+  loadsToSi(c.loads, f);
+  crackToSi(c.crack, L);
+  analysisToSi(c.analysis, L);
+  if (c.drawdown) {
+    c.drawdown.after.piezometric = boundaryToSi(c.drawdown.after.piezometric, L);
+    for (const d of Object.values(c.drawdown.materials ?? {}))
+      if (d.drains === 'slow') d.dR *= f('pressure');
+  }
+  const e = c.earthquake;
+  if (e?.allowableDisplacement !== undefined) e.allowableDisplacement *= f('displacement');
+}
+
 /**
- * A schema-valid section converted to SI. A section already in `si` is returned as a copy;
- * `units` keeps the file's system so that results can be reported back in it.
+ * A schema-valid section converted to SI, its cases included. `units` keeps the file's
+ * system so that results can be reported back in it. Values whose file unit is the SI unit
+ * (every one in an si file but a displacement, written in mm) keep their numbers exactly.
  *
  * @example rawSectionToSi(usSection).ground // → the ground in metres
  */
 export function rawSectionToSi(raw: RawSection): RawSection {
   const copy = JSON.parse(JSON.stringify(raw)) as RawSection;
-  if (raw.units !== 'us') return copy;
-  const L = US_TO_SI.length;
-  const P = US_TO_SI.pressure;
-  const G = US_TO_SI.unitWeight;
+  const units = raw.units;
+  const f: Factor = (kind) => (units === 'us' ? US_TO_SI[kind] : SI_FILE_TO_SI[kind]);
+  const L = f('length');
 
   // station (chainage) and offset place the section on the corridor: labels, kept as given
   copy.ground = copy.ground.map((p) => pointToSi(p, L));
-  for (const m of Object.values(copy.materials)) {
-    if (m.unitWeight !== undefined) m.unitWeight *= G;
-    if (m.saturatedUnitWeight !== undefined) m.saturatedUnitWeight *= G;
-    const s = m.strength as unknown as Record<string, number>;
-    for (const [key, kind] of Object.entries(strengthQuantities(m.strength)))
-      if (kind && s[key] !== undefined) s[key] *= US_TO_SI[kind];
-  }
+  materialsToSi(copy.materials, f);
   for (const st of copy.strata) if (st.top !== undefined) st.top = boundaryToSi(st.top, L);
-  if (copy.water) {
-    const w = copy.water;
-    if (w.piezometric !== undefined) w.piezometric = boundaryToSi(w.piezometric, L);
-    if (w.unitWeight !== undefined) w.unitWeight *= G;
-  }
-  if (copy.loads) {
-    for (const load of copy.loads) {
-      if (load.type === 'strip') {
-        load.from *= L;
-        load.to *= L;
-        load.pressure *= P;
-      } else {
-        load.x *= L;
-        load.force *= US_TO_SI.forcePerLength;
-      }
-    }
-  }
-  if (copy.crack) {
-    if (typeof copy.crack.depth === 'number') copy.crack.depth *= L;
-    if (copy.crack.waterDepth !== undefined) copy.crack.waterDepth *= L;
-  }
-  const a = copy.analysis;
-  if (a) {
-    if (a.surface) a.surface = surfaceToSi(a.surface, L);
-    if (a.infiniteSlope) a.infiniteSlope.depth *= L;
-  }
+  waterToSi(copy.water, f);
+  loadsToSi(copy.loads, f);
+  crackToSi(copy.crack, L);
+  analysisToSi(copy.analysis, L);
+  for (const c of copy.cases ?? []) caseToSi(c, f);
   return copy;
 }

@@ -43,6 +43,7 @@ const KIND_WORDS: Record<QuantityKind, { noun: string; examples: string }> = {
     noun: 'a rate of pressure with depth',
     examples: '"1.5 kPa/m" or "10 psf/ft"',
   },
+  displacement: { noun: 'a displacement', examples: '"150 mm" or "6 in"' },
 };
 
 /**
@@ -115,10 +116,10 @@ export type ValueWithUnit =
 
 /**
  * A value written with its unit, converted to the unit of its kind in the file's system (ft,
- * psf, pcf, lbf/ft, psf/ft in `us`; m, kPa, kN/m³, kN/m, kPa/m in `si`). A value already in
- * that unit keeps its number exactly. A unit of another dimension (a force where a pressure
- * belongs) or an unknown unit is an error with a message in plain words. Loads mathjs on
- * first use.
+ * psf, pcf, lbf/ft, psf/ft, and in for a displacement in `us`; m, kPa, kN/m³, kN/m, kPa/m,
+ * and mm for a displacement in `si`). A value already in that unit keeps its number exactly.
+ * A unit of another dimension (a force where a pressure belongs) or an unknown unit is an error
+ * with a message in plain words. Loads mathjs on first use.
  *
  * @example readValueWithUnit('35 kPa', 'pressure', 'us') // → { ok: true, value: 730.99… }
  * @example readValueWithUnit('12 kN', 'pressure', 'si').ok // → false (a force, not a pressure)
