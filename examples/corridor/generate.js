@@ -2,8 +2,10 @@
 // Writes corridor.json: a corridor batch (format scarpline-batch/1) of the Wendlecombe bypass,
 // an invented road, with a cross-section every 20 m from chainage 1+000 to 2+200 (61 sections,
 // right-hand side, centreline at x = 0). The natural ground rises and falls along the line, so
-// the road runs alternately on embankment and in cut. Deterministic: a seeded pseudo-random
-// generator makes the same file every time. Invented demonstration data: not for design.
+// the road runs alternately on embankment and in cut. Every station has a long-term and an
+// earthquake case; the embankment stations an end-of-construction case as well.
+// Deterministic: a seeded pseudo-random generator makes the same file every time. Invented
+// demonstration data: not for design.
 //
 //   node examples/corridor/generate.js
 'use strict';
@@ -90,8 +92,24 @@ function section(s) {
       { material: 'mudstone', elevation: shift(under, 6) },
     ];
     item.water = { elevation: shift(under, 1.5) };
+    // The weathered mudstone under a new fill has not drained by the end of construction.
+    item.cases = [
+      {
+        name: 'end of construction',
+        kind: 'end-of-construction',
+        requiredFs: 1.3,
+        materials: { 'weathered-mudstone': { strength: { model: 'undrained', su: 60 } } },
+      },
+    ];
   }
-  if (s === 1600) item.analysis = { requiredFs: 1.6 };
+  if (s === 1600) {
+    // Over the culvert: a higher requirement in the long term, and less movement in an earthquake.
+    item.analysis = { requiredFs: 1.6 };
+    item.cases = [
+      ...(item.cases ?? []),
+      { name: 'earthquake', earthquake: { allowableDisplacement: 50 } },
+    ];
+  }
   return item;
 }
 
@@ -103,7 +121,7 @@ const batch = {
   id: 'wcb-main',
   title: 'Wendlecombe bypass, main line, right-hand side',
   description:
-    'Invented demonstration corridor (not for design): sections every 20 m, centreline at x = 0, road platform 8 m wide, side slopes 1:2 in fill and in cut. In cut the strata follow the cut surface by depth; on embankment they are given as elevations under the fill.',
+    'Invented demonstration corridor (not for design): sections every 20 m, centreline at x = 0, road platform 8 m wide, side slopes 1:2 in fill and in cut. In cut the strata follow the cut surface by depth; on embankment they are given as elevations under the fill. Design cases: long term (required FS 1.5, 1.6 over the culvert at 1+600) and an earthquake (kh 0.1; pga 0.2 g, magnitude 6, 100 mm allowed, 50 mm over the culvert) everywhere, and the end of construction (the weathered mudstone undrained) on embankment.',
   units: 'si',
   template: {
     offset: 0,
@@ -126,9 +144,19 @@ const batch = {
       methods: ['bishop', 'spencer'],
       slices: 30,
       surface: { type: 'auto' },
-      case: 'long-term',
       requiredFs: 1.5,
     },
+    // Every station: long term (the requirement of the analysis), and an earthquake.
+    cases: [
+      { name: 'long term', kind: 'long-term' },
+      {
+        name: 'earthquake',
+        kind: 'seismic',
+        requiredFs: 1.1,
+        seismic: { kh: 0.1 },
+        earthquake: { pga: 0.2, magnitude: 6, allowableDisplacement: 100 },
+      },
+    ],
   },
   sections,
 };
