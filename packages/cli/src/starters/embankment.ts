@@ -1,12 +1,13 @@
 import { HEAD, SURFACE_NOTE } from './common';
 
-/** An embankment on soft clay at the end of construction (undrained). */
+/** An embankment on soft clay in two design cases: end of construction and long term. */
 export const embankment = `${HEAD}#
-# Starter: a 5 m embankment of granular fill on soft clay, end of construction: the clay
-# undrained, its Su growing with depth below the original ground.
+# Starter: a 5 m embankment of granular fill on soft clay in two design cases: the end of
+# construction (the clay undrained, its Su growing with depth below the original ground) and
+# the long term (the clay drained, once the pore pressures of construction have dissipated).
 format: scarpline/1
 id: embankment-starter
-title: Embankment on soft clay, end of construction (starter)
+title: Embankment on soft clay, end of construction and long term (starter)
 station: 0
 offset: 0
 units: si
@@ -36,6 +37,21 @@ analysis:
   slices: 40
 ${SURFACE_NOTE}
   surface: { type: circle, center: [20, 21], radius: 16 }
-  case: end-of-construction
-  requiredFs: 1.3
+  requiredFs: 1.3     # the requirement of a case that gives none
+# Design cases: every case is analyzed, and the section meets its requirement only when every
+# case does. A case starts from the settings above and changes what it gives: water, loads,
+# seismic and crack replace the section's; materials merge by name (the properties given
+# replace the section's, a strength the whole strength); analysis merges setting by setting.
+# kind: end-of-construction, long-term, steady-seepage, rapid-drawdown (give drawdown),
+# seismic (give earthquake for the displacement), surcharge or other.
+cases:
+  - name: end of construction
+    kind: end-of-construction   # the settings above as they are: the clay undrained
+  - name: long term
+    kind: long-term
+    requiredFs: 1.5             # set by the design case and the governing code
+    materials:
+      soft-clay:                # drained: c′ and φ′; its unit weight stays as above
+        saturatedUnitWeight: 17
+        strength: { model: mohr-coulomb, cohesion: 2, frictionAngle: 24 }
 `;

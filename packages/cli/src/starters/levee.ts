@@ -1,13 +1,14 @@
 import { HEAD, SURFACE_NOTE } from './common';
 
-/** A levee's land side under steady seepage, with ponded water on the river side. */
+/** A levee under steady seepage (land side) and a rapid drawdown of the river (river side). */
 export const levee = `${HEAD}#
 # Starter: a clay levee 6 m high, the river on the left at its design level: the
 # piezometric line stands above the river-side ground (ponded water) and falls through the
-# bank to the land-side toe. Steady seepage, land-side slope.
+# bank to the land-side toe. Two design cases: steady seepage (land-side slope) and a rapid
+# drawdown of the river after the flood (river-side slope).
 format: scarpline/1
 id: levee-starter
-title: Levee, land side under steady seepage (starter)
+title: Levee, steady seepage and rapid drawdown (starter)
 station: 0
 offset: 30
 units: si
@@ -37,6 +38,25 @@ analysis:
   interslice: { shape: half-sine }
 ${SURFACE_NOTE}
   surface: { type: circle, center: [45, 38], radius: 16.1 }
-  case: steady-seepage
-  requiredFs: 1.5
+  requiredFs: 1.5     # the requirement of a case that gives none
+# Design cases: every case is analyzed, and the section meets its requirement only when every
+# case does. A case starts from the settings above and changes what it gives: water, loads,
+# seismic and crack replace the section's; materials merge by name; analysis merges setting by
+# setting.
+cases:
+  - name: steady seepage
+    kind: steady-seepage        # the settings above as they are: the land side
+  - name: rapid drawdown
+    kind: rapid-drawdown
+    requiredFs: 1.2             # set by the design case and the governing code
+    # the water before drawdown is the water above; after it, the river is back at +24.5
+    drawdown:
+      after: { piezometric: [[0, 24.5], [20, 24.5], [36, 26], [47, 24], [70, 23.5]] }
+      # free: drains as the water falls; slow: keeps for a while the undrained strength of its
+      # consolidation under the flood (dR, ψR: its isotropically consolidated undrained envelope)
+      materials:
+        bank: { drains: slow, dR: 10, psiR: 16 }
+        foundation: { drains: slow, dR: 6, psiR: 14 }
+    analysis:
+      surface: { type: circle, center: [16, 39], radius: 17.5 }   # the river side
 `;
