@@ -57,6 +57,49 @@ describe('parseGeoJsonCorridor', () => {
     expect(features[0].properties.name).toBe('XS-1200');
   });
 
+  test("the header's template cases, and a feature's changes to them, as in a batch", () => {
+    const head = {
+      ...header,
+      template: {
+        ...header.template,
+        cases: [
+          { name: 'long term', kind: 'long-term' },
+          { name: 'earthquake', kind: 'seismic', requiredFs: 1.1, seismic: { kh: 0.1 } },
+        ],
+      },
+    };
+    const t = text(
+      [
+        feature(1200, line(352100, 5120400, PROFILE)),
+        feature(1220, line(352112, 5120416, PROFILE), {
+          cases: [
+            { name: 'earthquake', seismic: { kh: 0.15 } },
+            { name: 'cracked', kind: 'other', crack: { depth: 'auto' }, colour: 'red' },
+          ],
+        }),
+      ],
+      head,
+    );
+    const { sections, messages } = parseGeoJsonCorridor(t, 'corridor.geojson');
+    // a feature's case is located in the feature's property (a GeoJSON message: at the value)
+    const lines = t.split('\n');
+    const row = lines.findIndex((l) => l.includes('"colour"'));
+    expect(messages.map(formatMessage)).toEqual([
+      `corridor.geojson:${row + 1}:${lines[row].indexOf('"red"') + 1} features[1].properties.cases[1].colour: unknown setting in design case; the settings here are name, kind, requiredFs, governs, water, materials, loads, seismic, crack, analysis, drawdown and earthquake`,
+    ]);
+    expect(sections.map((s) => s.id)).toEqual(['wcb-gis@1200']);
+    const fixed = parseGeoJsonCorridor(
+      t.replace(', "colour": "red"', '').replace(/,\s*"colour": "red"/, ''),
+      'c.geojson',
+    );
+    expect(fixed.messages).toEqual([]);
+    expect(fixed.sections[1].cases!.map((c) => [c.name, c.requiredFs, c.seismic.kh])).toEqual([
+      ['long term', 1.3, 0],
+      ['earthquake', 1.1, 0.15],
+      ['cracked', 1.3, 0],
+    ]);
+  });
+
   test('a feature without z, without a station or not a line is reported where it is; the rest read', () => {
     const t = text([
       feature(1200, line(0, 0, PROFILE)),

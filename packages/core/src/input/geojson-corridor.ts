@@ -54,6 +54,7 @@ const SECTION_KEYS = [
   'seismic',
   'crack',
   'analysis',
+  'cases',
 ];
 const HEADER_MEMBER = 'scarpline';
 
@@ -156,7 +157,7 @@ function jsonSyntax(text: string): { line: number; column: number; message: stri
  * `station` property is the chainage. The section's ground profile is z along the line's
  * horizontal length: the first vertex is at offset 0, each next one at the horizontal
  * distance walked so far. Properties named like the settings of a batch section (title,
- * offset, materials, strata, water, loads, seismic, crack, analysis) apply to that section;
+ * offset, materials, strata, water, loads, seismic, crack, analysis, cases) apply to that section;
  * other properties are kept for the results but not read.
  *
  * The settings shared by every section come from the batch header: the FeatureCollection's
