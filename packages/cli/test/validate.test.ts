@@ -43,6 +43,19 @@ describe('scarpline validate', () => {
     expect(out).toMatch(/ranges\.yaml: invalid: 13 errors$/m);
   });
 
+  test("design cases: each message at the case's setting, in a section and in a corridor", () => {
+    const file = join(BAD, 'cases.yaml');
+    const { code, out } = run(['validate', file]);
+    expect(code).toBe(1);
+    expect(out).toContain(
+      `${file}:23:20 cases[1].drawdown.materials.bnak: no material of the section is named "bnak"; did you mean bank?`,
+    );
+    expect(out).toContain(
+      `${file}:57:9 sections[1].cases[1]: kind is missing (end-of-construction, long-term,`,
+    );
+    expect(out).toMatch(/cases\.yaml: invalid: 10 errors, 3 warnings$/m);
+  });
+
   test('valid and invalid files together: exit 1, each file summarised', () => {
     const { code, out } = run([
       'validate',
