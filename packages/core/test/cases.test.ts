@@ -13,6 +13,9 @@ import {
   type Message,
   type Section,
 } from '@scarpline/core';
+import { sectionSchema } from '@scarpline/schemas';
+import { METHOD_IDS } from '@scarpline/core';
+import { CASE_KINDS } from '../src/result';
 import { caseOrigin, mergeCase } from '../src/model/merge-case';
 import { estimateCaseWork, estimateWork } from '../src/input/estimate-work';
 import type { RawSection } from '../src/model/raw-section';
@@ -345,6 +348,13 @@ describe('mergeCase and caseOrigin: the rules in one place', () => {
 });
 
 describe('the schema of cases: located messages', () => {
+  test('the kinds of case are the result’s CASE_KINDS; the methods those of METHOD_IDS', () => {
+    type Defs = Record<string, { properties?: Record<string, { enum?: unknown }>; enum?: unknown }>;
+    const defs = (sectionSchema as unknown as { $defs: Defs }).$defs;
+    expect(defs.case.properties?.kind.enum).toEqual([...CASE_KINDS]);
+    expect(defs.method.enum).toEqual([...METHOD_IDS]);
+  });
+
   const only = (cases: string) => `${BASE}cases:\n${cases}`;
 
   test('name and kind are needed; the kind is one of the kinds', () => {

@@ -1,3 +1,4 @@
+import type { DesignCaseKind } from '../model/types';
 import { isRecord } from './guards';
 
 const count = (v: unknown, fallback: number) =>
@@ -48,7 +49,7 @@ export function estimateWork(analysis: unknown, strata: number): number {
  * finding for its yield coefficient ky. Upper bounds for the estimate of the work; the
  * analyses of these kinds stay within them.
  */
-export const CASE_SEARCHES: Readonly<Partial<Record<string, number>>> = {
+export const CASE_SEARCHES: Readonly<Partial<Record<DesignCaseKind, number>>> = {
   'rapid-drawdown': 4,
   seismic: 12,
 };
@@ -60,7 +61,7 @@ export const CASE_SEARCHES: Readonly<Partial<Record<string, number>>> = {
  * @example estimateCaseWork({ slices: 30, surface: { type: 'auto' } }, 2, 'seismic') // → 12 × 595 600
  */
 export function estimateCaseWork(analysis: unknown, strata: number, kind: unknown): number {
-  const searches = typeof kind === 'string' ? (CASE_SEARCHES[kind] ?? 1) : 1;
+  const searches = typeof kind === 'string' ? (CASE_SEARCHES[kind as DesignCaseKind] ?? 1) : 1;
   return estimateWork(analysis, strata) * searches;
 }
 
