@@ -142,7 +142,7 @@ const grid5000 = {
 };
 let trials5000 = 0;
 const search5000 = timeMs(() => {
-  const r = core.analyzeSection(grid5000);
+  const r = core.caseView(core.analyzeSection(grid5000));
   trials5000 = r.search.trials;
 });
 
@@ -161,7 +161,7 @@ for (const file of readdirSync(EXAMPLES).filter((f) => f.endsWith('.yaml'))) {
     let result;
     const ms = timeMs(
       () => {
-        result = core.analyzeSection(section);
+        result = core.caseView(core.analyzeSection(section));
       },
       SMOKE ? 1 : 5,
     );

@@ -5,7 +5,7 @@
  */
 // --- the parts each importable alone (package.json `exports`): model, input, units, formats
 export * from './model';
-export { caseKindOf, caseSection, designCases } from './model/design-cases';
+export { caseKindOf, caseSection, designCases, sectionOfCase } from './model/design-cases';
 export * from './input';
 export * from './formats';
 export * from './units';
@@ -90,7 +90,17 @@ export type {
   SearchReport,
   HowFound,
   CircleOrigin,
+  CaseKind,
+  CaseResult,
+  StationResult,
+  SeismicReport,
+  DisplacementEstimate,
+  DrawdownReport,
+  DrawdownStage,
 } from './result';
+export { CASE_KINDS } from './result';
+export { caseOf, caseView } from './case-view';
+export { stationResult, stationVerdict, MIN_RELIEF, FS_CAP } from './station-result';
 
 // --- drawing, the one vocabulary of results and the export table
 export * from './draw';
