@@ -58,6 +58,16 @@ export { Trials, type CircleTrial, type CircleEvaluator, type TrialStage } from 
 export { nelderMead } from './numeric/nelder-mead';
 export { seededRandom } from './numeric/seeded-random';
 
+// --- earthquake: the yield coefficient and the sliding-block displacement ---
+export {
+  yieldCoefficient,
+  type FsAtKh,
+  type PseudoStaticAnalysis,
+  type YieldCoefficient,
+  type YieldOptions,
+  type YieldOutcome,
+} from './seismic/yield-coefficient';
+
 // --- methods and the front door ---
 export { ordinary } from './methods/ordinary';
 export { bishop, bishopIteration } from './methods/bishop';
