@@ -13,6 +13,7 @@
  */
 import {
   analyzeSection,
+  caseView,
   bishop,
   prepareSection,
   sliceSurface,
@@ -287,7 +288,7 @@ const seededCases: [string, Section][] = SEEDS.map((seed) => [
 
 describe('the search on thin weak layers: at most 0.3 % above a dense exhaustive exact search', () => {
   test.each([...reported, ...seededCases])('%s', (_name, section) => {
-    const r = analyzeSection(section);
+    const r = caseView(analyzeSection(section));
     const bishopF = r.results.find((m) => m.method === 'bishop')!.fs!;
     // the reported F is the exact evaluation of the reported circle
     const how = r.search!.howFound!;
@@ -300,7 +301,7 @@ describe('the search on thin weak layers: at most 0.3 % above a dense exhaustive
 
 describe('the seam of the report: the circle follows the bottom of the seam', () => {
   test('the least circle touches the bottom of the seam, far below the deep circle once reported (F 2.30)', () => {
-    const r = analyzeSection(reported[0][1]);
+    const r = caseView(analyzeSection(reported[0][1]));
     const circle = r.results[0].surface;
     expect(circle?.type).toBe('circle');
     if (circle?.type !== 'circle') return;

@@ -7,6 +7,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import {
   analyzeSection,
+  caseView,
   circlePolygonMoments,
   bishopCircleEvaluator,
   nelderMead,
@@ -129,7 +130,7 @@ describe("Taylor's stability numbers for φ = 0 (Taylor 1937; values from memory
         requiredFs: null,
       },
     });
-    const r = analyzeSection(section);
+    const r = caseView(analyzeSection(section));
     const fs = r.results.find((m) => m.method === 'phi-zero-circle')!.fs!;
     const N = su / (gamma * H * fs);
     expect(relErr(N, 0.191)).toBeLessThan(0.03);
@@ -166,7 +167,7 @@ describe("Taylor's stability numbers for φ = 0 (Taylor 1937; values from memory
           requiredFs: null,
         },
       });
-      const fs = analyzeSection(section).governing!.fs;
+      const fs = caseView(analyzeSection(section)).governing!.fs;
       return su / (gamma * H * fs);
     });
     expect(Ns[1]).toBeGreaterThan(Ns[0]);
@@ -207,7 +208,7 @@ describe('cohesionless slope (common practice: circles tend to the infinite slop
   });
 
   test('the search reports the infinite slope as governing, with the cohesionless-circle warning', () => {
-    const r = analyzeSection(section);
+    const r = caseView(analyzeSection(section));
     expect(r.governing?.method).toBe('infinite-slope');
     expect(r.governing?.fs).toBeCloseTo(fInf, 10);
     expect(r.warnings.map((w) => w.code)).toContain('cohesionless-circle');
@@ -264,7 +265,7 @@ describe('grid moves', () => {
         surface: { type: 'grid', centers: { x: [30, 40], y: [25, 32], nx: 6, ny: 6 }, moves: 16 },
       },
     };
-    const r = analyzeSection(section);
+    const r = caseView(analyzeSection(section));
     expect(r.search!.moves.length).toBeGreaterThan(0);
     const g = r.search!.grid!;
     expect(g.x[0]).toBeLessThan(30);
@@ -278,7 +279,7 @@ describe('grid moves', () => {
         surface: { type: 'grid', centers: { x: [30, 40], y: [25, 32], nx: 6, ny: 6 }, moves: 0 },
       },
     };
-    const r = analyzeSection(section);
+    const r = caseView(analyzeSection(section));
     expect(r.warnings.map((w) => w.code)).toContain('minimum-on-edge');
   });
 });
@@ -321,7 +322,7 @@ describe('noncircular search', () => {
     expect(found.circle).not.toBeNull();
     expect(found.polyline).not.toBeNull();
     expect(found.polyline!.fs).toBeLessThan(0.9 * found.circle!.fs);
-    const r = analyzeSection(section);
+    const r = caseView(analyzeSection(section));
     expect(r.results[0].surface?.type).toBe('polyline');
   });
 });
@@ -329,10 +330,21 @@ describe('noncircular search', () => {
 describe('every example finds its critical surface without a warning it should not have', () => {
   const sections = exampleSections();
   test.each(sections)('%s', (_id, given) => {
-    const r = analyzeSection({
-      ...given,
-      analysis: { ...given.analysis, surface: { type: 'auto' } },
-    });
+    // (a section that lists design cases: each case searched, the governing one looked at)
+    const r = caseView(
+      analyzeSection({
+        ...given,
+        analysis: { ...given.analysis, surface: { type: 'auto' } },
+        ...(given.cases
+          ? {
+              cases: given.cases.map((c) => ({
+                ...c,
+                analysis: { ...c.analysis, surface: { type: 'auto' as const } },
+              })),
+            }
+          : {}),
+      }),
+    );
     expect(r.governing).not.toBeNull();
     const codes = r.warnings.map((w) => w.code);
     for (const bad of ['minimum-on-edge', 'no-surface', 'no-convergence', 'surface-rejected'])

@@ -12,7 +12,13 @@
  */
 import crypto from 'node:crypto';
 import { parentPort } from 'node:worker_threads';
-import { AnalysisStopped, analyzeSection, unsolvedReason, type Section } from '@scarpline/core';
+import {
+  AnalysisStopped,
+  analyzeSection,
+  caseView,
+  unsolvedReason,
+  type Section,
+} from '@scarpline/core';
 import type { SectionResult } from '@scarpline/core/result';
 import type { SolvedSection, ThreadAnswer, ThreadJob } from './solver';
 
@@ -50,7 +56,11 @@ port.on('message', ({ section, deadline }: ThreadJob) => {
   try {
     const input: unknown = typeof section === 'string' ? JSON.parse(section) : section;
     const result = analyzeSection(input as Section, { shouldStop: () => Date.now() > deadline });
-    answer = { kind: 'result', result: solved(result, input) };
+    // the governing case, with the station's verdict over every case
+    answer = {
+      kind: 'result',
+      result: solved({ ...caseView(result), verdict: result.verdict }, input),
+    };
   } catch (e) {
     answer =
       e instanceof AnalysisStopped

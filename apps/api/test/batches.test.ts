@@ -89,7 +89,7 @@ test('a 3-section corridor posted as JSON is solved by the worker; results reada
       reviewState: 'pending',
       geometry: null,
       result: {
-        verdict: expect.stringMatching(/^(meets|below)$/),
+        verdict: expect.stringMatching(/^(meets|below|no-slope)$/),
         governingMethod: expect.any(String),
         requiredFs: 1.5,
         warnings: expect.any(Array),
@@ -175,7 +175,7 @@ test('section files uploaded with multipart become a batch', async () => {
     .get(`/api/v1/batches/${res.body.id}/sections?verdict=fail`)
     .auth(engineer, { type: 'bearer' });
   expectProblem(old, 400);
-  expect(old.body.detail).toMatch(/meets, below, no-fs, no-requirement, input-error/);
+  expect(old.body.detail).toMatch(/meets, below, no-fs, no-requirement, no-slope, input-error/);
 });
 
 test('an invalid batch → 422 with located messages, nothing written', async () => {

@@ -4,8 +4,8 @@ import {
   analyzeSection,
   formatMessage,
   parseSections,
-  resultInUnits,
-  type SectionResult,
+  stationInUnits,
+  type StationResult,
   type UnitSystem,
 } from '@scarpline/core';
 import { collectFiles } from './collect-files';
@@ -21,18 +21,20 @@ export interface AnalyzeOptions extends Overrides {
 }
 
 /**
- * The exit code of analysed sections: 1 when a file was invalid or a section has no factor
- * of safety (no method converged), else 2 when one is below its required FS, else 0.
+ * The exit code of analysed sections, from every case of every section: 1 when a file was
+ * invalid or a case has no factor of safety (no method converged), else 2 when a case is below
+ * its required FS, else 0 (a station's verdict is the worst of its cases').
  */
-export function exitCode(bad: boolean, results: readonly SectionResult[]): number {
+export function exitCode(bad: boolean, results: readonly StationResult[]): number {
   if (bad || results.some((r) => r.verdict === 'no-fs')) return 1;
   return results.some((r) => r.verdict === 'below') ? 2 : 0;
 }
 
 /**
  * `scarpline analyze`: parse every file (`-` is standard input), analyse every section with
- * the command line's overrides, and print a table per section, or the result contract as
- * JSON (`{ caution, sections }`), or CSV (a row per section and method). Returns the exit
+ * the command line's overrides under each of its design cases, and print a table per section
+ * (its cases, then the station's verdict), or the result contract as JSON (`{ caution,
+ * sections }`), or CSV (a row per section, case and method). Returns the exit
  * code (see exitCode).
  */
 export function analyzeFiles(
@@ -47,7 +49,7 @@ export function analyzeFiles(
   const inputs = paths.includes('-') ? [...files, '-'] : files;
   let bad = missing.length > 0;
   for (const m of missing) err(`${m}: no such file or directory`);
-  const results: { file: string; result: SectionResult }[] = [];
+  const results: { file: string; result: StationResult }[] = [];
   for (const file of inputs) {
     let input: { name: string; text: string };
     try {
@@ -78,7 +80,7 @@ export function analyzeFiles(
         bad = true;
         continue;
       }
-      if (options.units) r = resultInUnits(r, options.units);
+      if (options.units) r = stationInUnits(r, options.units);
       results.push({ file: input.name, result: r });
     }
   }

@@ -193,6 +193,7 @@ withOverrides(
 )
   .requiredOption('--svg <out>', 'the SVG file to write (several sections: OUT-<id>.svg each)')
   .option('-s, --section <id>', 'draw only this section of the file')
+  .option('--case <name>', 'draw this design case (default: the governing case of each section)')
   .option('--width <px>', 'width of the drawing in pixels', '1100')
   .option('--radii', "draw each circle's radii to the ends of its arc")
   .addHelpText(
@@ -210,6 +211,7 @@ Exit status: 0 when drawn, 1 when the file is invalid.`,
       opts: {
         svg: string;
         section?: string;
+        case?: string;
         width: string;
         radii?: boolean;
         method?: string[];
@@ -227,6 +229,7 @@ Exit status: 0 when drawn, 1 when the file is invalid.`,
         {
           svg: opts.svg,
           section: opts.section,
+          case: opts.case,
           ...checkOverrides(opts),
           width,
           radii: opts.radii === true,

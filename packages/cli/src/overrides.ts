@@ -51,19 +51,32 @@ export function checkOverrides(o: {
 }
 
 /**
- * A section with the command line's settings in place of its own.
+ * A section with the command line's settings in place of its own, in every design case (--method
+ * also makes every method asked govern).
  *
  * @example applyOverrides(section, { method: ['bishop'], slices: 50 }).analysis.slices // → 50
  */
 export function applyOverrides(section: Section, o: Overrides): Section {
   if (!o.method && o.slices === undefined && o.requiredFs === undefined) return section;
+  const analysis = (a: Section['analysis']): Section['analysis'] => ({
+    ...a,
+    ...(o.method ? { methods: [...(o.method as MethodId[])] } : {}),
+    ...(o.slices !== undefined ? { slices: o.slices } : {}),
+    ...(o.requiredFs !== undefined ? { requiredFs: o.requiredFs } : {}),
+  });
   return {
     ...section,
-    analysis: {
-      ...section.analysis,
-      ...(o.method ? { methods: [...(o.method as MethodId[])] } : {}),
-      ...(o.slices !== undefined ? { slices: o.slices } : {}),
-      ...(o.requiredFs !== undefined ? { requiredFs: o.requiredFs } : {}),
-    },
+    analysis: analysis(section.analysis),
+    // every design case the file lists takes the same overrides
+    ...(section.cases
+      ? {
+          cases: section.cases.map((c) => ({
+            ...c,
+            analysis: analysis(c.analysis),
+            ...(o.requiredFs !== undefined ? { requiredFs: o.requiredFs } : {}),
+            ...(o.method ? { governs: null } : {}),
+          })),
+        }
+      : {}),
   };
 }

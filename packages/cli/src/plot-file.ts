@@ -2,6 +2,8 @@ import { writeFileSync } from 'node:fs';
 import {
   CAUTION,
   analyzeSection,
+  caseView,
+  sectionOfCase,
   drawSection,
   formatMessage,
   fsText,
@@ -16,6 +18,8 @@ import { readInput, STDIN_NAME, UserError } from './read-input';
 export interface PlotOptions extends Overrides {
   svg: string;
   section?: string;
+  /** The design case to draw; the governing case of each section when not given. */
+  case?: string;
   width?: number;
   /** Draw each circle's radii to the ends of its arc. */
   radii?: boolean;
@@ -71,16 +75,24 @@ export function plotFile(
   }
   for (const s of chosen) {
     const section = applyOverrides(s, options);
-    const result = analyzeSection(section);
+    const station = analyzeSection(section);
+    const names = station.cases.map((c) => c.name);
+    if (options.case !== undefined && !names.includes(options.case))
+      throw new UserError(
+        `--case: no case ${JSON.stringify(options.case)} in ${s.id}; it has ${names.join(', ')}`,
+      );
+    const name = options.case ?? station.governing?.case;
+    const result = caseView(station, name);
     const path = chosen.length === 1 ? options.svg : svgNameFor(options.svg, s.id);
     writeFileSync(
       path,
-      `${drawSection(section, result, { width: options.width, radii: options.radii })}\n`,
+      `${drawSection(sectionOfCase(section, result.case ?? undefined), result, { width: options.width, radii: options.radii })}\n`,
     );
     const fs = result.governing
       ? `governing FS ${fsText(result.governing.fs)} (${result.governing.method})`
       : 'no method converged';
-    out(`wrote ${path}: ${s.id}, ${fs}`);
+    const drawn = station.cases.length > 1 ? `, case ${result.case}` : '';
+    out(`wrote ${path}: ${s.id}${drawn}, ${fs}`);
   }
   if (chosen.length) out(`Caution: ${CAUTION}`);
   return 0;

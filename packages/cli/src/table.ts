@@ -5,7 +5,8 @@ import {
   UNIT_LABELS,
   VERDICT_WORDS,
   type MethodReport,
-  type SectionResult,
+  type CaseResult,
+  type StationResult,
 } from '@scarpline/core';
 
 const fmt = (v: number | null, digits = 3) => (v === null ? '—' : v.toFixed(digits));
@@ -22,32 +23,57 @@ export function surfaceText(m: MethodReport, length: string): string {
   return `plane at ${s.angle}°, ${fmt(s.depth, 2)} ${length} deep`;
 }
 
+/** The lines of one case: a row per method, the governing FS against the requirement, how the search found it, the warnings. */
+function caseLines(c: CaseResult, length: string, indent: string): string[] {
+  const lines: string[] = [];
+  lines.push(`${indent}method             FS       converged  surface`);
+  for (const m of c.results) {
+    lines.push(
+      `${indent}${m.method.padEnd(18)} ${(m.fs === null ? '—' : fsText(m.fs)).padStart(6)}   ${(m.converged ? 'yes' : 'no').padEnd(9)}  ${m.converged ? surfaceText(m, length) : (m.reason ?? '')}`,
+    );
+  }
+  const words = VERDICT_WORDS[c.verdict];
+  const comparing = c.results.filter((m) => !c.governs.includes(m.method)).map((m) => m.method);
+  if (c.governing) {
+    const against = c.requiredFs !== null ? ` against required ${c.requiredFs}` : '';
+    lines.push(
+      `${indent}governing: ${c.governing.method} FS ${fsText(c.governing.fs)}${against}: ${words}`,
+    );
+  } else lines.push(`${indent}governing: no method converged: ${words}`);
+  if (comparing.length > 0) lines.push(`${indent}for comparison only: ${comparing.join(', ')}`);
+  if (c.search?.howFound)
+    for (const w of howFoundWords(c.search.howFound)) lines.push(`${indent}${w}`);
+  for (const w of distinctWarnings({ results: c.results, warnings: c.warnings })) {
+    lines.push(`${indent}warning${w.method ? ` (${w.method})` : ''}: ${w.message}`);
+  }
+  return lines;
+}
+
 /**
- * A readable report of one section: a row per method (FS, converged, surface or the reason
- * it gave none), the governing FS against the required FS with the verdict in words, and the
- * warnings in plain words, each once.
+ * A readable report of one section: for each design case, a row per method (FS, converged,
+ * surface or the reason it gave none), the governing FS against the required FS with the
+ * verdict in words, and the warnings in plain words, each once; with more than one case, the
+ * station's verdict and its governing case last. A section of one case reads as it always did.
  *
  * @example sectionTable(result) // → ['wcb-1240-L  Wendlecombe bypass, …', '  method  FS …', …]
  */
-export function sectionTable(r: SectionResult): string[] {
+export function sectionTable(r: StationResult): string[] {
   const length = UNIT_LABELS[r.units].length;
-  const lines = [`${r.id}  ${r.title}${r.case ? `  [${r.case}]` : ''}`];
-  lines.push('  method             FS       converged  surface');
-  for (const m of r.results) {
-    lines.push(
-      `  ${m.method.padEnd(18)} ${(m.fs === null ? '—' : fsText(m.fs)).padStart(6)}   ${(m.converged ? 'yes' : 'no').padEnd(9)}  ${m.converged ? surfaceText(m, length) : (m.reason ?? '')}`,
-    );
+  if (r.cases.length === 1) {
+    const c = r.cases[0];
+    const named = c.name !== 'as given' ? `  [${c.name}]` : '';
+    return [`${r.id}  ${r.title}${named}`, ...caseLines(c, length, '  ')];
   }
-  const words = VERDICT_WORDS[r.verdict];
-  if (r.governing) {
-    const against = r.requiredFs !== null ? ` against required ${r.requiredFs}` : '';
-    lines.push(
-      `  governing: ${r.governing.method} FS ${fsText(r.governing.fs)}${against}: ${words}`,
-    );
-  } else lines.push(`  governing: no method converged: ${words}`);
-  if (r.search?.howFound) for (const w of howFoundWords(r.search.howFound)) lines.push(`  ${w}`);
-  for (const w of distinctWarnings(r)) {
-    lines.push(`  warning${w.method ? ` (${w.method})` : ''}: ${w.message}`);
+  const lines = [`${r.id}  ${r.title}  (${r.cases.length} design cases)`];
+  for (const c of r.cases) {
+    const req = c.requiredFs !== null ? `, required FS ${c.requiredFs}` : '';
+    lines.push(`  case ${c.name} (${c.kind}${req})`);
+    lines.push(...caseLines(c, length, '    '));
   }
+  const g = r.governing;
+  const below = r.cases.filter((c) => c.verdict === 'below').map((c) => c.name);
+  lines.push(
+    `  station: ${VERDICT_WORDS[r.verdict]}${below.length > 0 ? ` in ${below.join(', ')}` : r.verdict === 'meets' ? ' in every case' : ''}${g ? `; governing case ${g.case}: ${g.method} FS ${fsText(g.fs)}${g.ratio !== null ? `, ${g.ratio.toFixed(2)} × required` : ''}` : ''}`,
+  );
   return lines;
 }

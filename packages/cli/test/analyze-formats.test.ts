@@ -11,11 +11,14 @@ type Doc = {
   sections: {
     id: string;
     units: string;
-    results: {
-      method: string;
-      fs: number | null;
-      surface: { type: string; center: number[]; radius: number } | null;
-      slices: { weight: number; x: number }[];
+    cases: {
+      results: {
+        method: string;
+        fs: number | null;
+        surface: { type: string; center: number[]; radius: number } | null;
+        slices: { weight: number; x: number }[];
+      }[];
+      requiredFs: number | null;
     }[];
     governing: { fs: number } | null;
     requiredFs: number | null;
@@ -38,6 +41,7 @@ describe('scarpline analyze: formats, units, overrides, stdin', () => {
       'id',
       'station',
       'case',
+      'kind',
       'units',
       'method',
       'fs',
@@ -45,6 +49,7 @@ describe('scarpline analyze: formats, units, overrides, stdin', () => {
       'governing',
       'required_fs',
       'verdict',
+      'station_verdict',
       'reason',
       'caution',
     ]);
@@ -71,15 +76,22 @@ describe('scarpline analyze: formats, units, overrides, stdin', () => {
     expect(validate(b)).toBe(true);
     expect(a.units).toBe('us');
     // the circle as given in the file, in feet
-    expect(a.results[0].surface).toEqual({ type: 'circle', center: [55.08, 265], radius: 69.67 });
+    expect(a.cases[0].results[0].surface).toEqual({
+      type: 'circle',
+      center: [55.08, 265],
+      radius: 69.67,
+    });
     expect(b.units).toBe('si');
-    expect(b.results[0].surface?.radius).toBeCloseTo(69.67 * 0.3048, 9);
+    expect(b.cases[0].results[0].surface?.radius).toBeCloseTo(69.67 * 0.3048, 9);
     // slice weights: lbf per ft of run against kN per m (1 lbf/ft = 0.0145939 kN/m)
-    expect(b.results[0].slices[5].weight).toBeCloseTo(
-      a.results[0].slices[5].weight * 0.014593903,
+    expect(b.cases[0].results[0].slices[5].weight).toBeCloseTo(
+      a.cases[0].results[0].slices[5].weight * 0.014593903,
       6,
     );
-    expect(b.results[0].slices[5].x).toBeCloseTo(a.results[0].slices[5].x * 0.3048, 9);
+    expect(b.cases[0].results[0].slices[5].x).toBeCloseTo(
+      a.cases[0].results[0].slices[5].x * 0.3048,
+      9,
+    );
     expect(b.governing?.fs).toBe(a.governing?.fs);
     const table = run(['analyze', 'examples/cut-us-units.yaml']).out;
     expect(table).toMatch(/circle centre \(55\.08, 265\.00\) R 69\.67 ft/);
@@ -99,11 +111,11 @@ describe('scarpline analyze: formats, units, overrides, stdin', () => {
     ]);
     expect(code).toBe(0);
     const s = (JSON.parse(out) as Doc).sections[0];
-    expect(s.results.map((m) => m.method)).toEqual(['bishop', 'janbu']);
+    expect(s.cases[0].results.map((m) => m.method)).toEqual(['bishop', 'janbu']);
     // 25 equal slices, each vertex or crossing inside the mass (five here) cutting one in two
-    expect(s.results[0].slices.length).toBeGreaterThanOrEqual(25);
-    expect(s.results[0].slices.length).toBeLessThanOrEqual(31);
-    expect(s.requiredFs).toBe(1.2);
+    expect(s.cases[0].results[0].slices.length).toBeGreaterThanOrEqual(25);
+    expect(s.cases[0].results[0].slices.length).toBeLessThanOrEqual(31);
+    expect(s.cases[0].requiredFs).toBe(1.2);
   });
 
   test('a bad override is a plain message and exit 1', () => {

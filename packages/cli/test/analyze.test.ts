@@ -87,10 +87,10 @@ describe('scarpline analyze', () => {
     ]);
     expect(code).toBe(0);
     const doc = JSON.parse(out) as {
-      sections: { results: { method: string; converged: boolean }[] }[];
+      sections: { cases: { results: { method: string; converged: boolean }[] }[] }[];
     };
     const methods = doc.sections.flatMap((s) =>
-      s.results.filter((m) => m.converged).map((m) => m.method),
+      s.cases[0].results.filter((m) => m.converged).map((m) => m.method),
     );
     expect(methods).toEqual(
       expect.arrayContaining(['infinite-slope', 'phi-zero-circle', 'log-spiral', 'bishop']),

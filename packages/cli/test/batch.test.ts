@@ -49,7 +49,7 @@ describe('scarpline batch', () => {
     expect(r.out).toMatch(/1240 +wcb-test@1240 .*input error/);
     expect(r.out).toMatch(/1260 +wcb-test@1260 +bishop +\d\.\d{3} +1\.7 +below/);
     expect(r.out).toContain(
-      '4 of 4 sections: meets the required FS: 2, below the required FS: 1, no factor of safety: 0, no requirement given: 0, input error: 1',
+      '4 of 4 sections: meets the required FS: 2, below the required FS: 1, no factor of safety: 0, no requirement given: 0, no significant slope: 0, input error: 1',
     );
     expect(r.out).toMatch(/Caution: /);
     // not a terminal: a plain line per section on standard error, after the caution

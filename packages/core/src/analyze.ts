@@ -3,7 +3,9 @@ import { METHODS } from './methods/registry';
 import type { MethodWarning } from './methods/types';
 import { notRun, runOnPlane, runOnSurface } from './method-report';
 import type { CircleSurface, MethodId, PolylineSurface, Section } from './model/types';
-import type { MethodReport, SectionResult, Warning } from './result';
+import { caseSection, designCases } from './model/design-cases';
+import { stationResult } from './station-result';
+import type { MethodReport, SectionResult, StationResult, Warning } from './result';
 import { resultInUnits } from './result-units';
 import { refineCircle } from './search/refine-circle';
 import { searchReport } from './search/search-report';
@@ -45,21 +47,15 @@ function ownCircle(
 }
 
 /**
- * Analyse one validated, normalised section: each requested method on the given slip
- * surface (a circle or a polyline) or, for the infinite slope, on analysis.infiniteSlope.
- * Methods are dispatched through the registry (methods/registry.ts); the result is built in SI
- * and converted once (resultInUnits). It is plain JSON in the section's own units, with the governing (lowest converged)
- * factor of safety, its verdict against the required FS, the warnings and the caution.
- *
- * The work is bounded (options.workLimit, default WORK_LIMIT slice evaluations) and may be
- * stopped by the caller (options.shouldStop): either throws AnalysisStopped, whose message
- * says what to change.
- *
- * @example analyzeSection(parseSections(text, 'cut.yaml').sections[0]).governing
+ * One design case: each requested method on the given slip surface (a circle or a polyline)
+ * or, for the infinite slope, on analysis.infiniteSlope. Methods are dispatched through the
+ * registry (methods/registry.ts); the result is built in SI and converted once
+ * (resultInUnits). It is plain JSON in the section's own units, with the governing (lowest
+ * converged) factor of safety, its verdict against the required FS, the warnings and the
+ * caution: the shape a single case is drawn and listed in (caseView gives it for a station).
  */
-export function analyzeSection(section: Section, options: AnalyzeOptions = {}): SectionResult {
+function analyzeCase(section: Section, meter: WorkMeter): SectionResult {
   const prepared = prepareSection(section);
-  const meter = new WorkMeter(options);
   const analysis = section.analysis;
   const surface = analysis.surface;
   const warnings: Warning[] = [];
@@ -174,3 +170,24 @@ export function analyzeSection(section: Section, options: AnalyzeOptions = {}): 
 
 /** Warnings of a method result, for callers that only need the codes. */
 export type { MethodWarning };
+
+/**
+ * Analyse one validated, normalised section under each of its design cases (designCases: the
+ * cases its file lists, or its own settings as its one case) and give the station's result:
+ * every case as analyzeCase gives it, the governing case and the station's verdict
+ * (station-result.ts). The work is bounded over all the cases together (options.workLimit,
+ * default WORK_LIMIT slice evaluations) and may be stopped by the caller
+ * (options.shouldStop): either throws AnalysisStopped, whose message says what to change.
+ *
+ * @example analyzeSection(parseSections(text, 'cut.yaml').sections[0]).governing
+ */
+export function analyzeSection(section: Section, options: AnalyzeOptions = {}): StationResult {
+  const meter = new WorkMeter(options);
+  const listed = (section.cases?.length ?? 0) > 0;
+  const cases = designCases(section).map((c) => ({
+    spec: c,
+    // a file without cases is analysed exactly as it always was
+    result: analyzeCase(listed ? caseSection(section, c) : section, meter),
+  }));
+  return stationResult(section, cases, SOLVER_VERSION);
+}

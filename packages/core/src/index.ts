@@ -5,7 +5,7 @@
  */
 // --- the parts each importable alone (package.json `exports`): model, input, units, formats
 export * from './model';
-export { caseKindOf, caseSection, designCases } from './model/design-cases';
+export { caseKindOf, caseSection, designCases, sectionOfCase } from './model/design-cases';
 export * from './input';
 export * from './formats';
 export * from './units';
@@ -58,6 +58,26 @@ export { Trials, type CircleTrial, type CircleEvaluator, type TrialStage } from 
 export { nelderMead } from './numeric/nelder-mead';
 export { seededRandom } from './numeric/seeded-random';
 
+// --- earthquake: the yield coefficient and the sliding-block displacement ---
+export {
+  yieldCoefficient,
+  type FsAtKh,
+  type PseudoStaticAnalysis,
+  type YieldCoefficient,
+  type YieldOptions,
+  type YieldOutcome,
+} from './seismic/yield-coefficient';
+export { slidingBlockEstimate, type DisplacementRelation } from './seismic/sliding-block';
+export { jibson2007 } from './seismic/jibson-2007';
+export { jibson2007Magnitude } from './seismic/jibson-2007-magnitude';
+export { ambraseysMenu1988 } from './seismic/ambraseys-menu-1988';
+export { DISPLACEMENT_RELATIONS } from './seismic/relations';
+export {
+  seismicReport,
+  type SeismicOutcome,
+  type SeismicReportOptions,
+} from './seismic/seismic-report';
+
 // --- methods and the front door ---
 export { ordinary } from './methods/ordinary';
 export { bishop, bishopIteration } from './methods/bishop';
@@ -90,7 +110,17 @@ export type {
   SearchReport,
   HowFound,
   CircleOrigin,
+  CaseKind,
+  CaseResult,
+  StationResult,
+  SeismicReport,
+  DisplacementEstimate,
+  DrawdownReport,
+  DrawdownStage,
 } from './result';
+export { CASE_KINDS } from './result';
+export { caseOf, caseView } from './case-view';
+export { stationResult, stationVerdict, MIN_RELIEF, FS_CAP } from './station-result';
 
 // --- drawing, the one vocabulary of results and the export table
 export * from './draw';

@@ -1,6 +1,13 @@
 import type { Point, UnitSystem } from './model/types';
 import { type QuantityKind, fromSi, toSi } from './model/units';
-import type { GridReport, MethodReport, ReportedSurface, SectionResult } from './result';
+import { caseView } from './case-view';
+import type {
+  GridReport,
+  MethodReport,
+  ReportedSurface,
+  SectionResult,
+  StationResult,
+} from './result';
 
 /**
  * A section result with every value converted to another unit system: lengths, forces per
@@ -87,4 +94,20 @@ export function resultInUnits<T extends SectionResult>(r: T, to: UnitSystem): T 
     results: r.results.map(method),
     ...(r.search !== undefined ? { search } : {}),
   };
+}
+
+/**
+ * A station's result with every case converted to another unit system (resultInUnits on each
+ * case's methods and search; the station as resultInUnits converts it).
+ *
+ * @example stationInUnits(result, 'us').cases[0].results[0].surface // → the circle in feet
+ */
+export function stationInUnits(r: StationResult, to: UnitSystem): StationResult {
+  if (r.units === to) return r;
+  const cases = r.cases.map((c) => {
+    const v = resultInUnits({ ...caseView(r, c.name) }, to);
+    return { ...c, results: v.results, search: v.search };
+  });
+  const station = resultInUnits({ ...caseView(r), results: [], search: null }, to).station;
+  return { ...r, units: to, station, cases };
 }

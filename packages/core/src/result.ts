@@ -7,6 +7,7 @@ import type { MethodId, Point, SearchSurface, UnitSystem } from './model/types';
 import type { Verdict } from './verdict';
 
 export { howFoundWords } from './search-words';
+export { caseOf, caseView } from './case-view';
 
 /** One slice as reported (section coordinates and units; forces per unit run). */
 export interface SliceReport {

@@ -5,4 +5,4 @@
  */
 export type { UnitSystem } from './model/types';
 export * from './model/units';
-export { resultInUnits } from './result-units';
+export { resultInUnits, stationInUnits } from './result-units';

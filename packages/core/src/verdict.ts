@@ -13,9 +13,18 @@
  * - `no-fs`: no method gave a factor of safety (none converged, none applied, or the solver
  *   stopped), so there is nothing to compare;
  * - `no-requirement`: a factor of safety, but the section gives no required FS;
+ * - `no-slope`: no significant slope (station-result.ts: the ground hardly rises, or the least
+ *   FS is so large that no slip surface matters), said instead of a meaningless FS;
  * - `input-error`: the section did not read (the file or the batch has errors about it).
  */
-export const VERDICTS = ['meets', 'below', 'no-fs', 'no-requirement', 'input-error'] as const;
+export const VERDICTS = [
+  'meets',
+  'below',
+  'no-fs',
+  'no-requirement',
+  'no-slope',
+  'input-error',
+] as const;
 export type Verdict = (typeof VERDICTS)[number];
 
 /** The verdict in words, as sentences, tables and legends print it. */
@@ -24,6 +33,7 @@ export const VERDICT_WORDS: Readonly<Record<Verdict, string>> = {
   below: 'below the required FS',
   'no-fs': 'no factor of safety',
   'no-requirement': 'no requirement given',
+  'no-slope': 'no significant slope',
   'input-error': 'input error',
 };
 
@@ -33,6 +43,7 @@ export const VERDICT_SHORT: Readonly<Record<Verdict, string>> = {
   below: 'below',
   'no-fs': 'no FS',
   'no-requirement': 'no requirement',
+  'no-slope': 'no slope',
   'input-error': 'input error',
 };
 

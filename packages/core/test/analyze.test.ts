@@ -12,6 +12,7 @@ import {
   US_TO_SI,
   analyzeSection,
   caseSection,
+  caseView,
   parseSections,
   type Section,
 } from '@scarpline/core';
@@ -33,11 +34,15 @@ describe('analyzeSection on every example, every method', () => {
     const all = { ...section, analysis: { ...section.analysis, methods: [...METHOD_IDS] } };
     if (!all.analysis.infiniteSlope)
       all.analysis.infiniteSlope = { angle: 20, depth: 2, waterRatio: 0 };
-    const r = analyzeSection(all);
-    const json = JSON.stringify(r);
+    const station = analyzeSection(all);
+    const json = JSON.stringify(station);
     expect(json).not.toMatch(/NaN|Infinity/);
     expect(validate(JSON.parse(json))).toBe(true);
-    expect(r.caution).toBe(CAUTION);
+    expect(station.caution).toBe(CAUTION);
+    // a file without cases is its one case, and the station's verdict is that case's
+    expect(station.cases).toHaveLength(1);
+    const r = caseView(station);
+    expect(station.verdict).toBe(r.verdict);
     expect(r.results.map((m) => m.method)).toEqual([...METHOD_IDS]);
     for (const m of r.results) {
       if (m.converged) {
@@ -59,8 +64,8 @@ describe('analyzeSection on every example, every method', () => {
 
 describe('units: a us file is answered in us units', () => {
   const [, us] = sections.find(([n]) => n.startsWith('cut-us-units'))!;
-  const inUs = analyzeSection(us);
-  const inSi = analyzeSection({ ...us, units: 'si' });
+  const inUs = caseView(analyzeSection(us));
+  const inSi = caseView(analyzeSection({ ...us, units: 'si' }));
   test('the same factors of safety either way (the solver works in SI)', () => {
     for (let i = 0; i < inUs.results.length; i++)
       expect(inUs.results[i].fs).toBeCloseTo(inSi.results[i].fs!, 12);
@@ -85,11 +90,12 @@ describe('units: a us file is answered in us units', () => {
 
 describe('a searched surface: the result carries the search and still matches the schema', () => {
   test.each(sections)('%s', (_name, section) => {
-    const r = analyzeSection({
+    const station = analyzeSection({
       ...section,
       analysis: { ...section.analysis, surface: { type: 'auto' } },
     });
-    expect(validate(JSON.parse(JSON.stringify(r)))).toBe(true);
+    expect(validate(JSON.parse(JSON.stringify(station)))).toBe(true);
+    const r = caseView(station);
     expect(r.search?.map?.fs.length).toBeGreaterThan(0);
     const band = r.search!.trialBand;
     expect(band.within).toBe(0.05);
@@ -108,8 +114,9 @@ describe('a searched surface: the result carries the search and still matches th
   test('analysis.trialBand sets the band: a wider one keeps at least as many, 0 keeps none', () => {
     const s = sections[0][1];
     const run = (trialBand: number) =>
-      analyzeSection({ ...s, analysis: { ...s.analysis, surface: { type: 'auto' }, trialBand } })
-        .search!.trialBand;
+      caseView(
+        analyzeSection({ ...s, analysis: { ...s.analysis, surface: { type: 'auto' }, trialBand } }),
+      ).search!.trialBand;
     const [none, narrow, wide] = [run(0), run(0.02), run(0.2)];
     expect(none).toEqual({ within: 0, count: 0, surfaces: [] });
     expect(wide.count).toBeGreaterThanOrEqual(narrow.count);

@@ -5,7 +5,14 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
-import { CAUTION, analyzeSection, drawSection, parseSections, type Section } from '@scarpline/core';
+import {
+  CAUTION,
+  analyzeSection,
+  caseView,
+  drawSection,
+  parseSections,
+  type Section,
+} from '@scarpline/core';
 import { niceStep, niceTicks } from '../src/draw/nice-ticks';
 import { scaleLinear } from '../src/draw/scale-linear';
 import { ACCENT, fsColor, materialFill, MATERIAL_RAMPS, RIGID_FILL } from '../src/draw/palette';
@@ -239,7 +246,7 @@ describe('shapes from geometry', () => {
 describe('drawSection', () => {
   test('the levee: well-formed SVG with strata, ponded water, the critical surface, slices and the caution', () => {
     const s = section('levee-land-side.yaml');
-    const r = analyzeSection(s);
+    const r = caseView(analyzeSection(s));
     const svg = drawSection(s, r);
     expect(XMLValidator.validate(svg)).toBe(true);
     const tree = parser.parse(svg);
@@ -291,7 +298,7 @@ describe('drawSection', () => {
 
   test('a US section is drawn in feet with loads in psf', () => {
     const s = section('cut-us-units.yaml');
-    const svg = drawSection(s, analyzeSection(s));
+    const svg = drawSection(s, caseView(analyzeSection(s)));
     expect(svg).toContain('x (ft)');
     expect(svg).toContain('1800 psf');
     expect(svg).toContain('c′ 150 psf, φ′ 26°');
@@ -318,7 +325,7 @@ describe('drawSection', () => {
       },
       howFound: null,
     };
-    const r = { ...analyzeSection(s), search };
+    const r = { ...caseView(analyzeSection(s)), search };
     const svg = drawSection(s, r);
     expect(XMLValidator.validate(svg)).toBe(true);
     const tree = parser.parse(svg);
@@ -355,10 +362,12 @@ describe('drawSection', () => {
   test('a section whose method did not converge still draws, and says so', () => {
     const s = section('cut-homogeneous.yaml');
     // a circle wholly above the ground: rejected, so no method gives an FS
-    const r = analyzeSection({
-      ...s,
-      analysis: { ...s.analysis, surface: { type: 'circle', center: [30, 120], radius: 5 } },
-    });
+    const r = caseView(
+      analyzeSection({
+        ...s,
+        analysis: { ...s.analysis, surface: { type: 'circle', center: [30, 120], radius: 5 } },
+      }),
+    );
     const svg = drawSection(s, r);
     expect(XMLValidator.validate(svg)).toBe(true);
     expect(svg).toContain('no method converged');

@@ -3,6 +3,7 @@ import { join } from 'node:path';
 import {
   analyzeSection,
   caseSection,
+  caseView,
   designCases,
   formatMessage,
   parseSections,
@@ -174,9 +175,21 @@ describe('embankment-stages.yaml: one section of two cases for the two documents
     ] as const)
       expect(view[key]).toEqual(document[key]);
     expect({ ...view.analysis, case: null }).toEqual({ ...document.analysis, case: null });
-    const fs = (s: Section) => analyzeSection(s).results.map((r) => [r.method, r.fs]);
+    const fs = (s: Section) => caseView(analyzeSection(s)).results.map((r) => [r.method, r.fs]);
     const numbers = fs(view);
     expect(numbers).toEqual(fs(document));
     expect(numbers.every(([, f]) => typeof f === 'number' && f > 0.5 && f < 5)).toBe(true);
+  });
+
+  test('the station analyzed whole gives each case the numbers and verdict of its document', () => {
+    const station = analyzeSection(section);
+    expect(station.cases.map((c) => c.name)).toEqual(['end of construction', 'long term']);
+    station.cases.forEach((c, i) => {
+      const alone = caseView(analyzeSection(documents[i]));
+      expect(c.results.map((r) => [r.method, r.fs])).toEqual(
+        alone.results.map((r) => [r.method, r.fs]),
+      );
+      expect([c.requiredFs, c.verdict]).toEqual([alone.requiredFs, alone.verdict]);
+    });
   });
 });

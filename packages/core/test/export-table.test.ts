@@ -8,6 +8,7 @@ import Ajv2020 from 'ajv/dist/2020';
 import { exportTableSchema, resultSchema } from '@scarpline/schemas';
 import {
   analyzeSection,
+  caseView,
   CAUTION,
   EXPORT_COLUMNS,
   exportCollection,
@@ -46,7 +47,7 @@ function corridorResults(n: number): SectionResult[] {
   const text = readFileSync(join(__dirname, '../../../examples/corridor/corridor.json'), 'utf8');
   const corridor = JSON.parse(text) as { sections: unknown[] };
   const small = JSON.stringify({ ...corridor, sections: corridor.sections.slice(0, n) });
-  return parseSections(small, 'corridor.json').sections.map((s) => analyzeSection(s));
+  return parseSections(small, 'corridor.json').sections.map((s) => caseView(analyzeSection(s)));
 }
 
 describe('the vocabulary', () => {

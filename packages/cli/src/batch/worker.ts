@@ -7,25 +7,32 @@ import { writeFileSync } from 'node:fs';
 import { parentPort } from 'node:worker_threads';
 import {
   analyzeSection,
+  caseView,
   drawSection,
   exportRecord,
-  resultInUnits,
-  type DrawableResult,
+  sectionOfCase,
+  stationInUnits,
 } from '@scarpline/core';
 import type { Reply, Task } from './messages';
 
 parentPort?.on('message', (task: Task) => {
   let reply: Reply;
   try {
-    const result: DrawableResult = analyzeSection(task.section);
+    const result = analyzeSection(task.section);
+    // the drawing of the governing case, as that case sees the section
+    const governing = result.governing?.case;
     if (task.svgPath)
-      writeFileSync(task.svgPath, `${drawSection(task.section, result, { idPrefix: 'sl' })}\n`);
-    const shown = task.units ? resultInUnits(result, task.units) : result;
+      writeFileSync(
+        task.svgPath,
+        `${drawSection(sectionOfCase(task.section, governing), caseView(result, governing), { idPrefix: 'sl' })}\n`,
+      );
+    const shown = task.units ? stationInUnits(result, task.units) : result;
     reply = {
       index: task.index,
       ok: true,
       json: JSON.stringify(shown),
-      record: exportRecord(shown),
+      // the station's row: its governing case, and the station's verdict over every case
+      record: exportRecord({ ...caseView(shown), verdict: shown.verdict }),
     };
   } catch (e) {
     reply = { index: task.index, ok: false, error: e instanceof Error ? e.message : String(e) };

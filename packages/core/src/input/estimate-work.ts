@@ -43,11 +43,12 @@ export function estimateWork(analysis: unknown, strata: number): number {
 }
 
 /**
- * The searches a design case of each kind runs, where more than one: a rapid drawdown
+ * The searches a design case of each kind is counted as, where more than one: a rapid drawdown
  * searches for the three-stage surface (up to three stages on each trial surface) and for the
  * fully drained drawdown beside it; a seismic case repeats the search at each step of the root
- * finding for its yield coefficient ky. Upper bounds for the estimate of the work; the
- * analyses of these kinds stay within them.
+ * finding for its yield coefficient ky (about ten steps for most slopes; seismic/
+ * yield-coefficient.ts allows 40). An allowance for the check of a file's settings, not a
+ * bound: the analysis itself counts every slice evaluation against its work bound.
  */
 export const CASE_SEARCHES: Readonly<Partial<Record<DesignCaseKind, number>>> = {
   'rapid-drawdown': 4,

@@ -58,3 +58,15 @@ export function caseSection(section: Section, c: DesignCase): Section {
     cases: [],
   };
 }
+
+/**
+ * The section as the named case sees it (caseSection), the first case when none is named or
+ * the name is not one of its cases; the section itself when its file lists no cases.
+ *
+ * @example drawSection(sectionOfCase(section, 'long-term'), caseView(result, 'long-term'))
+ */
+export function sectionOfCase(section: Section, name?: string): Section {
+  if (!section.cases || section.cases.length === 0) return section;
+  const c = section.cases.find((k) => k.name === name) ?? section.cases[0];
+  return caseSection(section, c);
+}

@@ -13,6 +13,7 @@ export const VERDICT_ICONS: Readonly<Record<Verdict, string>> = {
   below: 'cancel',
   'no-fs': 'block',
   'no-requirement': 'remove_circle_outline',
+  'no-slope': 'horizontal_rule',
   'input-error': 'report',
 };
 
