@@ -19,6 +19,7 @@ import { evaluate } from 'mathjs';
 import {
   ambraseysMenu1988,
   analyzeSection,
+  caseView,
   infiniteSlope,
   jibson2007,
   jibson2007Magnitude,
@@ -29,7 +30,7 @@ import {
   type FsAtKh,
   type PseudoStaticAnalysis,
   type Section,
-  type SectionResult,
+  type StationResult,
 } from '@scarpline/core';
 import { GAMMA_W, mohrCoulomb } from './support';
 
@@ -49,12 +50,9 @@ function infiniteFsAt(beta: number, phi: number): FsAtKh {
   });
 }
 
-/**
- * The least FS of a section's analysis and its surface. analyzeSection returns today's
- * SectionResult (`governing.fs`, the critical surface among `results`); when it returns a
- * StationResult with `cases`, only this function changes.
- */
-function leastFs(result: SectionResult): PseudoStaticAnalysis {
+/** The least FS of a section's analysis (its one case) and its surface. */
+function leastFs(station: StationResult): PseudoStaticAnalysis {
+  const result = caseView(station);
   const g = result.governing;
   if (!g) return { fs: null, surface: null };
   return { fs: g.fs, surface: result.results.find((r) => r.method === g.method)?.surface ?? null };

@@ -6,6 +6,8 @@ import {
   VERDICT_WORDS,
   type MethodReport,
   type CaseResult,
+  type SeismicReport,
+  type UnitSystem,
   type StationResult,
 } from '@scarpline/core';
 
@@ -23,8 +25,36 @@ export function surfaceText(m: MethodReport, length: string): string {
   return `plane at ${s.angle}°, ${fmt(s.depth, 2)} ${length} deep`;
 }
 
+/**
+ * A seismic case's yield coefficient and displacements in words: ky and how it was found, each
+ * relation's median and +1 SD (and whether the inputs lie in its range), the allowable.
+ */
+export function seismicWords(s: SeismicReport, units: UnitSystem): string[] {
+  const unit = units === 'us' ? 'in' : 'mm';
+  const d = (v: number) => `${v.toFixed(v < 10 ? 1 : 0)} ${unit}`;
+  const lines = [
+    s.ky === null
+      ? `yield coefficient: none found up to the cap (${s.analyses} searches)`
+      : `yield coefficient ky = ${s.ky.toFixed(3)} (the kh at which the least FS is 1.000; ${s.analyses} searches)`,
+  ];
+  if (s.pga !== null)
+    lines.push(
+      `design pga ${s.pga} g${s.magnitude !== null ? `, magnitude ${s.magnitude}` : ''}: permanent displacement of the sliding block`,
+    );
+  for (const e of s.displacements)
+    lines.push(
+      `  ${e.relation}: median ${d(e.median)}, +1 SD ${d(e.plusOneSd)}${e.inRange ? '' : ' (outside the data the relation was fitted to)'}`,
+    );
+  if (s.allowable !== null)
+    lines.push(
+      `allowable displacement ${d(s.allowable)}: ${s.within === null ? 'not compared' : s.within ? 'within it' : 'exceeded'}`,
+    );
+  return lines;
+}
+
 /** The lines of one case: a row per method, the governing FS against the requirement, how the search found it, the warnings. */
-function caseLines(c: CaseResult, length: string, indent: string): string[] {
+function caseLines(c: CaseResult, units: UnitSystem, indent: string): string[] {
+  const length = UNIT_LABELS[units].length;
   const lines: string[] = [];
   lines.push(`${indent}method             FS       converged  surface`);
   for (const m of c.results) {
@@ -41,6 +71,7 @@ function caseLines(c: CaseResult, length: string, indent: string): string[] {
     );
   } else lines.push(`${indent}governing: no method converged: ${words}`);
   if (comparing.length > 0) lines.push(`${indent}for comparison only: ${comparing.join(', ')}`);
+  if (c.seismic) for (const w of seismicWords(c.seismic, units)) lines.push(`${indent}${w}`);
   if (c.search?.howFound)
     for (const w of howFoundWords(c.search.howFound)) lines.push(`${indent}${w}`);
   for (const w of distinctWarnings({ results: c.results, warnings: c.warnings })) {
@@ -58,17 +89,16 @@ function caseLines(c: CaseResult, length: string, indent: string): string[] {
  * @example sectionTable(result) // → ['wcb-1240-L  Wendlecombe bypass, …', '  method  FS …', …]
  */
 export function sectionTable(r: StationResult): string[] {
-  const length = UNIT_LABELS[r.units].length;
   if (r.cases.length === 1) {
     const c = r.cases[0];
     const named = c.name !== 'as given' ? `  [${c.name}]` : '';
-    return [`${r.id}  ${r.title}${named}`, ...caseLines(c, length, '  ')];
+    return [`${r.id}  ${r.title}${named}`, ...caseLines(c, r.units, '  ')];
   }
   const lines = [`${r.id}  ${r.title}  (${r.cases.length} design cases)`];
   for (const c of r.cases) {
     const req = c.requiredFs !== null ? `, required FS ${c.requiredFs}` : '';
     lines.push(`  case ${c.name} (${c.kind}${req})`);
-    lines.push(...caseLines(c, length, '    '));
+    lines.push(...caseLines(c, r.units, '    '));
   }
   const g = r.governing;
   const below = r.cases.filter((c) => c.verdict === 'below').map((c) => c.name);

@@ -2,11 +2,12 @@ import { CAUTION } from './caution';
 import { METHODS } from './methods/registry';
 import type { MethodWarning } from './methods/types';
 import { notRun, runOnPlane, runOnSurface } from './method-report';
-import type { CircleSurface, MethodId, PolylineSurface, Section } from './model/types';
+import type { CircleSurface, DesignCase, MethodId, PolylineSurface, Section } from './model/types';
 import { caseSection, designCases } from './model/design-cases';
-import { stationResult } from './station-result';
+import { type CaseAnalysis, governingOf, stationResult } from './station-result';
+import { seismicReport } from './seismic/seismic-report';
 import type { MethodReport, SectionResult, StationResult, Warning } from './result';
-import { resultInUnits } from './result-units';
+import { resultInUnits, seismicInUnits } from './result-units';
 import { refineCircle } from './search/refine-circle';
 import { searchReport } from './search/search-report';
 import { type SearchOutcome, searchSection } from './search/search-section';
@@ -184,10 +185,34 @@ export type { MethodWarning };
 export function analyzeSection(section: Section, options: AnalyzeOptions = {}): StationResult {
   const meter = new WorkMeter(options);
   const listed = (section.cases?.length ?? 0) > 0;
-  const cases = designCases(section).map((c) => ({
-    spec: c,
+  const cases = designCases(section).map((c): CaseAnalysis => {
     // a file without cases is analysed exactly as it always was
-    result: analyzeCase(listed ? caseSection(section, c) : section, meter),
-  }));
+    const cs = listed ? caseSection(section, c) : section;
+    const result = analyzeCase(cs, meter);
+    if (c.kind !== 'seismic') return { spec: c, result };
+    return { spec: c, result, ...earthquakeOf(cs, c, meter) };
+  });
   return stationResult(section, cases, SOLVER_VERSION);
+}
+
+/**
+ * The earthquake part of a seismic case (seismic/seismic-report.ts): the yield coefficient of
+ * the case's whole analysis — each step a full search at that kh, the case's kv as given, the
+ * least FS over the methods that govern the case — and the displacement estimates, in the
+ * section's units.
+ */
+function earthquakeOf(
+  cs: Section,
+  c: DesignCase,
+  meter: WorkMeter,
+): Pick<CaseAnalysis, 'seismic' | 'warnings'> {
+  const fsAt = (kh: number) => {
+    // in SI: the surface is the search's own
+    const r = analyzeCase({ ...cs, units: 'si', seismic: { ...cs.seismic, kh } }, meter);
+    const g = governingOf(r, c.governs);
+    const m = g ? r.results.find((x) => x.method === g.method) : undefined;
+    return { fs: g?.fs ?? null, surface: m?.surface ?? null };
+  };
+  const out = seismicReport(fsAt, c.earthquake);
+  return { seismic: seismicInUnits(out.seismic, cs.units), warnings: out.warnings };
 }

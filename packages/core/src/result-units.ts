@@ -6,8 +6,27 @@ import type {
   MethodReport,
   ReportedSurface,
   SectionResult,
+  SeismicReport,
   StationResult,
 } from './result';
+
+/**
+ * A reported slip surface with its lengths converted from one unit system to another.
+ *
+ * @example surfaceInUnits({ type: 'plane', angle: 30, depth: 3.048 }, 'si', 'us').depth // → 10
+ */
+export function surfaceInUnits(
+  s: ReportedSurface,
+  from: UnitSystem,
+  to: UnitSystem,
+): ReportedSurface {
+  const L = (v: number) => fromSi(toSi(v, 'length', from), 'length', to);
+  const pt = (p: Point): Point => [L(p[0]), L(p[1])];
+  if (s.type === 'circle') return { ...s, center: pt(s.center), radius: L(s.radius) };
+  if (s.type === 'polyline') return { ...s, points: s.points.map(pt) };
+  if (s.type === 'plane') return { ...s, depth: L(s.depth) };
+  return { ...s, pole: pt(s.pole), r0: L(s.r0), r1: L(s.r1), points: s.points.map(pt) };
+}
 
 /**
  * A section result with every value converted to another unit system: lengths, forces per
@@ -25,13 +44,8 @@ export function resultInUnits<T extends SectionResult>(r: T, to: UnitSystem): T 
   const L = (v: number) => c(v, 'length');
   const F = (v: number) => c(v, 'forcePerLength');
   const pt = (p: Point): Point => [L(p[0]), L(p[1])];
-  const surface = (s: ReportedSurface | null): ReportedSurface | null => {
-    if (!s) return s;
-    if (s.type === 'circle') return { ...s, center: pt(s.center), radius: L(s.radius) };
-    if (s.type === 'polyline') return { ...s, points: s.points.map(pt) };
-    if (s.type === 'plane') return { ...s, depth: L(s.depth) };
-    return { ...s, pole: pt(s.pole), r0: L(s.r0), r1: L(s.r1), points: s.points.map(pt) };
-  };
+  const surface = (s: ReportedSurface | null): ReportedSurface | null =>
+    s && surfaceInUnits(s, from, to);
   const grid = (g: GridReport): GridReport => ({
     ...g,
     x: [L(g.x[0]), L(g.x[1])],
@@ -110,4 +124,36 @@ export function stationInUnits(r: StationResult, to: UnitSystem): StationResult 
   });
   const station = resultInUnits({ ...caseView(r), results: [], search: null }, to).station;
   return { ...r, units: to, station, cases };
+}
+
+/** 1 inch in m, exactly (NIST SP 811, B.8). */
+const INCH_IN_M = 0.0254;
+
+/**
+ * A displacement in SI (m) as results write it: mm in si files, in (inches) in us files — the
+ * units displacement relations and allowable displacements are stated in.
+ *
+ * @example displacementOut(0.15, 'si') // → 150
+ */
+export function displacementOut(m: number, units: UnitSystem): number {
+  return units === 'us' ? m / INCH_IN_M : m * 1000;
+}
+
+/**
+ * The earthquake report of a seismic case, built in SI, in the section's units: the ky
+ * surface's coordinates as lengths, displacements in mm or in (displacementOut).
+ */
+export function seismicInUnits(s: SeismicReport, to: UnitSystem): SeismicReport {
+  const d = (m: number) => displacementOut(m, to);
+  const surface = s.kySurface ? surfaceInUnits(s.kySurface, 'si', to) : null;
+  return {
+    ...s,
+    kySurface: surface,
+    displacements: s.displacements.map((e) => ({
+      ...e,
+      median: d(e.median),
+      plusOneSd: d(e.plusOneSd),
+    })),
+    allowable: s.allowable === null ? null : d(s.allowable),
+  };
 }

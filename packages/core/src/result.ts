@@ -165,7 +165,7 @@ export type CaseKind = (typeof CASE_KINDS)[number];
 
 /** One estimate of the permanent displacement of a sliding block (section units: mm or in). */
 export interface DisplacementEstimate {
-  /** `jibson-2007` or `ambraseys-menu-1988`. */
+  /** `jibson-2007` (eq. 6), `jibson-2007-magnitude` (eq. 7, with M) or `ambraseys-menu-1988`. */
   relation: string;
   /** Median displacement and the value one standard deviation (of the log) above it. */
   median: number;

@@ -7,7 +7,24 @@
  */
 import { CAUTION } from './caution';
 import type { DesignCase, MethodId, Section } from './model/types';
-import type { CaseResult, SectionResult, StationResult, Warning } from './result';
+import type {
+  CaseResult,
+  DrawdownReport,
+  SectionResult,
+  SeismicReport,
+  StationResult,
+  Warning,
+} from './result';
+
+/** What the analysis of one design case gives: its methods (analyzeCase), and the reports of its kind. */
+export interface CaseAnalysis {
+  spec: DesignCase;
+  result: SectionResult;
+  seismic?: SeismicReport;
+  drawdown?: DrawdownReport;
+  /** Warnings of the kind's own analysis (the yield coefficient's, the drawdown's). */
+  warnings?: Warning[];
+}
 import { type Verdict, verdictOf } from './verdict';
 
 /**
@@ -28,7 +45,7 @@ export const FS_CAP = 10;
  * The governing FS of a case over the methods that govern it (all methods asked when the case
  * does not say); the infinite slope that stands for circles in cohesionless soil always governs.
  */
-function governingOf(
+export function governingOf(
   r: SectionResult,
   governs: MethodId[] | null,
 ): { method: MethodId; fs: number } | null {
@@ -69,11 +86,14 @@ function relief(section: Section): number {
   return Math.max(...ys) - Math.min(...ys);
 }
 
-/** One case's result from its analysis (analyzeCase) and its settings. */
-function caseResultOf(spec: DesignCase, r: SectionResult, flat: boolean): CaseResult {
+/** One case's result from its analysis (analyzeCase and its kind's reports) and its settings. */
+function caseResultOf(a: CaseAnalysis, flat: boolean): CaseResult {
+  const { spec, result: r } = a;
   const governing = governingOf(r, spec.governs);
-  const warnings: Warning[] = [...r.warnings];
+  const warnings: Warning[] = [...r.warnings, ...(a.warnings ?? [])];
   let verdict = verdictOf(governing?.fs ?? null, spec.requiredFs);
+  // a seismic case with an allowable displacement meets it only within it
+  if (a.seismic?.within === false && verdict === 'meets') verdict = 'below';
   if (flat || (governing !== null && governing.fs > FS_CAP)) {
     verdict = 'no-slope';
     warnings.push({
@@ -97,28 +117,39 @@ function caseResultOf(spec: DesignCase, r: SectionResult, flat: boolean): CaseRe
     verdict,
     warnings,
     search: r.search,
+    ...(a.drawdown ? { drawdown: a.drawdown } : {}),
+    ...(a.seismic ? { seismic: a.seismic } : {}),
   };
 }
 
 /**
  * The station's result from each case's analysis, in the order the cases are listed. The
- * governing case is the one with the lowest FS / required FS (cases without a requirement
- * compared by FS, after those with one); its FS, method and ratio are the station's.
+ * governing case is the one with the lowest FS / required FS, or allowable / largest median
+ * displacement where a seismic case's is lower (cases without a requirement compared by FS,
+ * after those with one); its FS, method and ratio are the station's.
  *
  * @example stationResult(section, [{ spec, result }], '0.1.0').verdict // → 'meets'
  */
 export function stationResult(
   section: Section,
-  cases: readonly { spec: DesignCase; result: SectionResult }[],
+  cases: readonly CaseAnalysis[],
   solverVersion: string,
 ): StationResult {
   const flat = relief(section) < MIN_RELIEF;
-  const results = cases.map(({ spec, result }) => caseResultOf(spec, result, flat));
+  const results = cases.map((a) => caseResultOf(a, flat));
+  // FS / required FS, or allowable / largest median displacement where that is lower
+  const capacity = (c: CaseResult): number | null => {
+    let x = c.ratio;
+    const s = c.seismic;
+    const d = s ? Math.max(0, ...s.displacements.map((e) => e.median)) : 0;
+    if (s?.allowable && d > 0) x = Math.min(x ?? Infinity, s.allowable / d);
+    return x;
+  };
+  const key = (c: CaseResult): [number, number] => {
+    const x = capacity(c);
+    return [x === null ? 1 : 0, x ?? c.governing!.fs];
+  };
   let gov: CaseResult | null = null;
-  const key = (c: CaseResult): [number, number] => [
-    c.ratio === null ? 1 : 0,
-    c.ratio ?? c.governing!.fs,
-  ];
   for (const c of results) {
     if (c.governing === null || c.verdict === 'no-slope') continue;
     if (gov === null) gov = c;
