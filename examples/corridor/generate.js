@@ -98,7 +98,7 @@ function section(s) {
         name: 'end of construction',
         kind: 'end-of-construction',
         requiredFs: 1.3,
-        materials: { 'weathered-mudstone': { strength: { model: 'undrained', su: 60 } } },
+        materials: { 'weathered-mudstone': { strength: { model: 'undrained', su: 40 } } },
       },
     ];
   }
