@@ -62,6 +62,26 @@ describe('examples', () => {
     expect(rises).toContain(false);
   });
 
+  test("the corridor's cases: long term (each station's own settings, as the file had them before its cases), earthquake, and end of construction on embankment", () => {
+    const file = join(EXAMPLES, 'corridor', 'corridor.json');
+    const { sections } = parseSections(readFileSync(file, 'utf8'), 'corridor.json');
+    const names = new Set(sections.map((s) => s.cases!.map((c) => c.name).join(', ')));
+    expect(names).toEqual(
+      new Set(['long term, earthquake', 'long term, earthquake, end of construction']),
+    );
+    for (const s of sections) {
+      const [longTerm, quake] = s.cases!;
+      const { cases: _view, ...view } = caseSection(s, longTerm);
+      const { cases: _own, ...own } = s;
+      expect(view).toEqual({ ...own, analysis: { ...own.analysis, case: 'long term' } });
+      expect(quake).toMatchObject({
+        kind: 'seismic',
+        requiredFs: 1.1,
+        seismic: { kh: 0.1, kv: 0 },
+      });
+    }
+  });
+
   test('the cases asked for are all there', () => {
     const all: Section[] = yamlFiles.flatMap((f) => read(f).sections);
     const models = (s: Section) => Object.values(s.materials).map((m) => m.strength.model);
