@@ -365,7 +365,20 @@ describe('SectionDetail', () => {
 
   it('shows the cases side by side, the governing marked, and the drawing, methods and slices of the case picked', async () => {
     await open('viewer');
-    backend.expectOne('/api/v1/sections/7').flush(view(1, 'done', null, { result: caseResult() }));
+    const earthquake = {
+      ...INPUT,
+      name: 'earthquake',
+      kind: 'seismic' as const,
+      requiredFs: 1.1,
+      governs: null,
+      seismic: { kh: 0.1, kv: 0 },
+      drawdown: null,
+      earthquake: { pga: 0.25, magnitude: 6.5, allowableDisplacement: 0.15 },
+    };
+    const input: SectionInput = { ...INPUT, cases: [earthquake] };
+    backend
+      .expectOne('/api/v1/sections/7')
+      .flush(view(1, 'done', null, { result: caseResult(), input }));
     await flushSide();
     const rows = Array.from(q('case-table')?.querySelectorAll('tbody tr') ?? []);
     const cells = rows.map((r) =>
@@ -432,6 +445,12 @@ describe('SectionDetail', () => {
     expect(q('method-table')?.querySelector('td.fs')?.textContent?.trim()).toBe('1.163');
     expect(q('drawdown-report')).toBeNull();
     expect(q('seismic-report')?.textContent).toContain('Yield coefficient');
+    expect(q('seismic-report')?.textContent).toContain(
+      'The factors of safety above are pseudo-static, with the horizontal seismic coefficient kh = 0.1.',
+    );
+    expect(q('input-cases')?.textContent?.replace(/\s+/g, ' ').trim()).toBe(
+      'earthquake (seismic): required FS 1.1; every method governs; kh 0.1; design PGA 0.25 g',
+    );
     expect(q('slice-table')?.querySelector('td[data-stage]')).toBeNull();
     // the header stays the station's: the governing case
     expect(q('section-fs')?.textContent).toContain('1.104');

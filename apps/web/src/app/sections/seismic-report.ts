@@ -23,7 +23,7 @@ export function displacementUnit(units: UnitSystem): string {
   selector: 'sl-seismic-report',
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    @if (kh() !== null) {
+    @if (kh() !== null && kh()! > 0) {
       <p>
         The factors of safety above are pseudo-static, with the horizontal seismic coefficient kh =
         <span class="sl-num">{{ plain(kh()) }}</span>.
@@ -192,12 +192,14 @@ export class SeismicReportView {
     const u = this.unit();
     const median = `${fixed(largest.median, this.digits())} ${u}`;
     const by = RELATIONS[largest.relation] ?? largest.relation;
+    const n = r.displacements.length;
+    const the = n === 1 ? 'The median' : n === 2 ? 'The larger median' : 'The largest median';
     if (r.allowable === null || r.within === null) {
-      return `The larger median is ${median} (${by}); no allowable displacement is given to compare it with.`;
+      return `${the} is ${median} (${by}); no allowable displacement is given to compare it with.`;
     }
     const allowed = `${fixed(r.allowable, this.digits())} ${u}`;
     return r.within
-      ? `The larger median, ${median} (${by}), is within the allowable ${allowed}.`
-      : `The larger median, ${median} (${by}), exceeds the allowable ${allowed}.`;
+      ? `${the}, ${median} (${by}), is within the allowable ${allowed}.`
+      : `${the}, ${median} (${by}), exceeds the allowable ${allowed}.`;
   });
 }
