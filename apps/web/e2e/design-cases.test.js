@@ -15,8 +15,8 @@ const CASES = ['long term', 'surcharge'];
 
 /**
  * The first stations of the demo corridor under our own two cases: the long term as the
- * corridor asks it, and a heavy surcharge whose requirement (2.5) no station of the corridor
- * meets, so that every case has stations to mark and the cases differ.
+ * corridor asks it, and a surcharge whose requirement is set high on purpose (4.0), so that
+ * it fails stations the long term does not and a checker has something to tell apart.
  */
 function corridorWithCases() {
   const c = JSON.parse(fs.readFileSync(CORRIDOR, 'utf8'));
@@ -28,7 +28,7 @@ function corridorWithCases() {
     {
       name: CASES[1],
       kind: 'surcharge',
-      requiredFs: 2.5,
+      requiredFs: 4,
       loads: [{ type: 'strip', from: 0, to: 7.3, pressure: 30 }],
     },
   ];
@@ -80,7 +80,11 @@ test(
         below[name] = r.body.items.map((s) => s.key).sort();
         assert.equal(batch.body.caseCounts[name]?.below ?? 0, below[name].length);
       }
-      assert.equal(below[CASES[1]].length, STATIONS, 'no station meets the surcharge case');
+      assert.ok(
+        below[CASES[1]].length > below[CASES[0]].length,
+        'the surcharge case fails more stations than the long term',
+      );
+      const anyCase = new Set(Object.values(below).flat()).size;
 
       // A chart per case, each marking its own failing stations.
       const charts = page.getByTestId('case-chart');
@@ -97,9 +101,7 @@ test(
       }
       assert.match(
         await page.getByTestId('cases-below').innerText(),
-        new RegExp(
-          `${STATIONS} of ${STATIONS} stations below the required FS in at least one case`,
-        ),
+        new RegExp(`${anyCase} of \\d+ stations below the required FS in at least one case`),
       );
 
       // A row opens to every case; the governing one is marked.
@@ -111,14 +113,18 @@ test(
       assert.match(await cases.innerText(), /governing/);
       await shot(page, 'batch-cases');
 
-      // Filter: the stations below in the long-term case only.
+      // Filter: the stations below in one case, then in the other.
       await page.getByTestId('pass-filter').getByText('Below', { exact: true }).click();
-      await page.getByTestId('case-filter').click();
-      await page.getByRole('option', { name: `case ${CASES[0]}`, exact: true }).click();
-      await eventually(
-        async () => (await page.getByTestId('section-row').count()) === below[CASES[0]].length,
-        { what: `the ${below[CASES[0]].length} stations below in the case ${CASES[0]}` },
-      );
+      const rowKeys = async () =>
+        (await page.getByTestId('section-row').locator('a').allInnerTexts()).sort();
+      for (const name of [CASES[1], CASES[0]]) {
+        await page.getByTestId('case-filter').click();
+        await page.getByRole('option', { name: `case ${name}`, exact: true }).click();
+        await eventually(
+          async () => JSON.stringify(await rowKeys()) === JSON.stringify(below[name]),
+          { what: `the ${below[name].length} stations below in the case ${name}` },
+        );
+      }
 
       // The section page: the cases side by side, the drawing of the case picked.
       await page.goto(`/batches/${batchId}`);

@@ -279,6 +279,14 @@ export class SectionTable {
     });
   }
 
+  /**
+   * A governing FS as the table writes it: none where the verdict says there is no
+   * significant slope (a large FS there means nothing; the verdict says why).
+   */
+  protected fsOf(r: Pick<SectionListCase, 'verdict' | 'governingFs'> | null | undefined): string {
+    return r?.verdict === 'no-slope' ? '—' : formatFs(r?.governingFs);
+  }
+
   /** Every case of a listed section, the governing one marked. */
   protected casesOf(s: SectionListItem): (SectionListCase & { governing: boolean })[] {
     const r = s.result;

@@ -187,7 +187,8 @@ export class CaseTable {
       kind: caseKindWords(c.kind),
       governing: c.name === this.governingCase(),
       method: c.governing ? methodName(c.governing.method) : '—',
-      fs: fsText(c.governing?.fs),
+      // no significant slope: a large FS there means nothing (the verdict says why)
+      fs: c.verdict === 'no-slope' ? '—' : fsText(c.governing?.fs),
       required: plain(c.requiredFs),
       ratio: fsText(c.ratio),
       verdict: verdictView(c.verdict),

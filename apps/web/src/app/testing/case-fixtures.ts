@@ -39,6 +39,9 @@ export function stationOf(
   const gov = cases
     .filter((c) => c.ratio !== null)
     .reduce<SectionListCase | null>((g, c) => (g === null || c.ratio! < g.ratio! ? c : g), null);
+  // With no case to govern (no significant slope anywhere), the service sums the station up
+  // by its first case.
+  const summary = gov ?? cases[0] ?? null;
   return {
     id,
     key: `wcb-main@${station}`,
@@ -53,9 +56,9 @@ export function stationOf(
     geometry: null,
     result: {
       verdict: worst,
-      governingMethod: gov?.governingMethod ?? null,
-      governingFs: gov?.governingFs ?? null,
-      requiredFs: gov?.requiredFs ?? null,
+      governingMethod: summary?.governingMethod ?? null,
+      governingFs: summary?.governingFs ?? null,
+      requiredFs: summary?.requiredFs ?? null,
       warnings: [],
       governingCase: gov?.name ?? null,
       ratio: gov?.ratio ?? null,
