@@ -35,6 +35,21 @@ function corridorWithCases() {
   return JSON.stringify(c, null, 2);
 }
 
+/** Chooses whose verdict the table filters by (the select opened again until it shows). */
+async function chooseCase(page, name) {
+  const select = page.getByTestId('case-filter');
+  const option = page.getByRole('option', { name: `case ${name}`, exact: true });
+  await eventually(
+    async () => {
+      if (!(await option.isVisible())) await select.click();
+      return option.isVisible();
+    },
+    { what: `the choice of the case ${name}` },
+  );
+  await option.click();
+  await page.getByRole('listbox').waitFor({ state: 'detached' });
+}
+
 let browser;
 before(async () => {
   browser = await launch();
@@ -118,8 +133,7 @@ test(
       const rowKeys = async () =>
         (await page.getByTestId('section-row').locator('a').allInnerTexts()).sort();
       for (const name of [CASES[1], CASES[0]]) {
-        await page.getByTestId('case-filter').click();
-        await page.getByRole('option', { name: `case ${name}`, exact: true }).click();
+        await chooseCase(page, name);
         await eventually(
           async () => JSON.stringify(await rowKeys()) === JSON.stringify(below[name]),
           { what: `the ${below[name].length} stations below in the case ${name}` },
