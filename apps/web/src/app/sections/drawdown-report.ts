@@ -35,7 +35,7 @@ const STAGE_WORDS: Readonly<Record<1 | 2 | 3, { title: string; what: string }>> 
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <p>
-      A rapid drawdown analysed in three stages (Duncan, Wright &amp; Wong 1990; US Army Corps of
+      A rapid drawdown analyzed in three stages (Duncan, Wright &amp; Wong 1990; US Army Corps of
       Engineers EM 1110-2-1902, Appendix G). The factor of safety of the procedure is that of its
       last stage.
     </p>
