@@ -77,6 +77,7 @@ export type { SliceMethodResult, MethodWarning } from './methods/types';
 export { analyzeSection, SOLVER_VERSION } from './analyze';
 export { howFoundWords } from './search-words';
 export * from './caution';
+export { withBaseStrengths, baseStrengths, type BaseStrengths } from './slices/base-strengths';
 export { AnalysisStopped, WORK_LIMIT, WorkMeter, type AnalyzeOptions } from './work-limit';
 export { METHODS, methodsFor, type MethodEntry } from './methods/registry';
 export type {
