@@ -42,6 +42,8 @@ export {
   type CohesionlessSlope,
 } from './search/search-section';
 export { bishopCircleEvaluator } from './search/circle-evaluator';
+export { bishopSearchEvaluation, type SearchEvaluation } from './search/search-evaluation';
+export { searchWarnings } from './search/search-warnings';
 export { boundaries, touchRadius, type Boundary } from './search/boundaries';
 export {
   searchSettings,
