@@ -82,7 +82,7 @@ afterAll(async () => {
   await sequelize.close();
 });
 
-test('CSV: the core’s results table, a row per station, then review state and job state', async () => {
+test('CSV: the core’s results table, per station a row per case then the station’s, then review state and job state', async () => {
   await request(app)
     .post(`/api/v1/sections/${jsonBatch.sections[1].id}/reviews`)
     .auth(reviewer, bearer)
@@ -99,10 +99,13 @@ test('CSV: the core’s results table, a row per station, then review state and 
     'station',
     'chainage',
     'section_id',
+    'row',
     'case',
+    'kind',
     'governing_method',
     'fs',
     'required_fs',
+    'ratio',
     'verdict',
     'warnings',
     'note',
@@ -110,23 +113,30 @@ test('CSV: the core’s results table, a row per station, then review state and 
     'review_state',
     'job_state',
   ]);
-  expect(body).toHaveLength(3);
+  // each station is its one case here: its case row, then its station row
+  expect(body).toHaveLength(6);
   const sections = await Promise.all(
     jsonBatch.sections.map((s) =>
       request(app).get(`/api/v1/sections/${s.id}`).auth(viewer, bearer),
     ),
   );
-  body.forEach((row, i) => {
+  body.forEach((row, j) => {
+    const i = Math.floor(j / 2);
     const s = sections[i].body;
+    const [c] = s.result.cases;
+    expect(s.result.governingCase === null || s.result.governingCase === c.name).toBe(true);
     expect(row).toEqual([
       String(s.station),
       s.stationLabel,
       s.key,
+      j % 2 === 0 ? 'case' : 'station',
       s.input.analysis.case,
-      s.result.governing.method,
-      s.result.governing.fs.toFixed(3),
+      'long-term',
+      c.governing.method,
+      c.governing.fs.toFixed(3),
       '1.5',
-      s.result.verdict,
+      c.ratio === null ? '' : c.ratio.toFixed(3),
+      j % 2 === 0 ? c.verdict : s.result.verdict,
       expect.stringMatching(/^\d+$/),
       '',
       CAUTION,
@@ -134,7 +144,7 @@ test('CSV: the core’s results table, a row per station, then review state and 
       'done',
     ]);
   });
-  expect(body.map((r) => Number(r[0]))).toEqual([1000, 1020, 1040]);
+  expect(body.map((r) => Number(r[0]))).toEqual([1000, 1000, 1020, 1020, 1040, 1040]);
 });
 
 test('GeoJSON from JSON input: features with null geometry and the results table’s properties', async () => {
@@ -149,34 +159,45 @@ test('GeoJSON from JSON input: features with null geometry and the results table
   const fc = JSON.parse(res.text);
   expect(fc.type).toBe('FeatureCollection');
   expect(fc.name).toBe('wcb-export');
-  expect(fc.features).toHaveLength(3);
+  expect(fc.features).toHaveLength(6);
   const one = await request(app)
     .get(`/api/v1/sections/${jsonBatch.sections[0].id}`)
     .auth(viewer, bearer);
+  const [c] = one.body.result.cases;
+  const properties = {
+    station: 1000,
+    chainage: '1+000',
+    section_id: one.body.key,
+    row: 'case',
+    case: one.body.input.analysis.case,
+    kind: 'long-term',
+    governing_method: one.body.result.governing.method,
+    fs: Number(one.body.result.governing.fs.toFixed(3)),
+    required_fs: 1.5,
+    ratio: c.ratio === null ? null : Number(c.ratio.toFixed(3)),
+    verdict: c.verdict,
+    warnings: expect.any(Number),
+    note: null,
+    caution: CAUTION,
+    review_state: 'pending',
+    job_state: 'done',
+  };
   expect(fc.features[0]).toEqual({
+    type: 'Feature',
+    id: `${one.body.key}#${c.name}`,
+    geometry: null,
+    properties,
+  });
+  expect(fc.features[1]).toEqual({
     type: 'Feature',
     id: one.body.key,
     geometry: null,
-    properties: {
-      station: 1000,
-      chainage: '1+000',
-      section_id: one.body.key,
-      case: one.body.input.analysis.case,
-      governing_method: one.body.result.governing.method,
-      fs: Number(one.body.result.governing.fs.toFixed(3)),
-      required_fs: 1.5,
-      verdict: one.body.result.verdict,
-      warnings: expect.any(Number),
-      note: null,
-      caution: CAUTION,
-      review_state: 'pending',
-      job_state: 'done',
-    },
+    properties: { ...properties, row: 'station', verdict: one.body.result.verdict },
   });
   expect(schemaErrors('ResultsGeoJson', fc)).toEqual([]);
   expect(
     fc.features.map((f: { properties: { chainage: string } }) => f.properties.chainage),
-  ).toEqual(['1+000', '1+020', '1+040']);
+  ).toEqual(['1+000', '1+000', '1+020', '1+020', '1+040', '1+040']);
 });
 
 test('GeoJSON from a GeoJSON corridor keeps each section line as its geometry', async () => {
@@ -191,14 +212,21 @@ test('GeoJSON from a GeoJSON corridor keeps each section line as its geometry', 
   const res = await request(app)
     .get(`/api/v1/batches/${up.body.id}/results.geojson`)
     .auth(viewer, bearer);
-  const fc = JSON.parse(res.text);
-  expect(fc.features.map((f: { geometry: unknown }) => f.geometry)).toEqual(
-    geo.features.map((f: { geometry: unknown }) => f.geometry),
-  );
-  for (const f of fc.features) {
+  const all = JSON.parse(res.text);
+  for (const f of all.features) {
     expect(f.properties.fs).toBeGreaterThan(0);
     expect(f.properties.caution).toBe(CAUTION);
   }
+  // a feature per case, then the station's, each with the station's line
+  expect(all.features.map((f: { geometry: unknown }) => f.geometry)).toEqual(
+    geo.features.flatMap((f: { geometry: unknown }) => [f.geometry, f.geometry]),
+  );
+  const fc = {
+    ...all,
+    features: all.features.filter(
+      (f: { properties: { row: string } }) => f.properties.row === 'station',
+    ),
+  };
   // The feature's own attributes come back first, as the command line gives them.
   expect(Object.keys(fc.features[1].properties).slice(0, 3)).toEqual([
     'station',
@@ -297,6 +325,9 @@ test('sections without a result: no verdict while queued, no-fs with the reason 
     '0',
     '0+000',
     'unfinished@0',
+    'station',
+    '',
+    '',
     '',
     '',
     '',
@@ -308,7 +339,7 @@ test('sections without a result: no verdict while queued, no-fs with the reason 
     'pending',
     'queued',
   ]);
-  expect(failed.slice(7, 10)).toEqual(['no-fs', '', 'the job ran out of time or retries']);
+  expect(failed.slice(10, 13)).toEqual(['no-fs', '', 'the job ran out of time or retries']);
   expect(failed.slice(-1)).toEqual(['failed']);
   const geo = await request(app)
     .get(`/api/v1/batches/${b.id}/results.geojson`)

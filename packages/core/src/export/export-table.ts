@@ -122,6 +122,24 @@ export function unsolvedReason(
   );
 }
 
+/**
+ * Why a station has no factor of safety to compare: its one case's methods and their reasons,
+ * or, when it has several, each case without one by name.
+ *
+ * @example stationUnsolvedReason(result.cases) // → 'end of construction: bishop: no convergence after 200 iterations'
+ */
+export function stationUnsolvedReason(
+  cases: readonly Pick<ExportableCase, 'name' | 'verdict' | 'results'>[],
+): string {
+  if (cases.length === 1) return unsolvedReason(cases[0].results);
+  return (
+    cases
+      .filter((c) => c.verdict === 'no-fs')
+      .map((c) => `${c.name}: ${unsolvedReason(c.results)}`)
+      .join('; ') || 'no case gave a factor of safety'
+  );
+}
+
 const chainageOf = (station: number | null, units: UnitSystem) =>
   station === null ? null : chainageLabel(station, units);
 
@@ -169,14 +187,7 @@ export function caseRecord(s: ExportableStation, c: ExportableCase): ExportRecor
  */
 export function stationRecord(s: ExportableStation): ExportRecord {
   const c = stationCase(s);
-  const unsolved = s.cases.filter((k) => k.verdict === 'no-fs');
-  const note =
-    s.verdict !== 'no-fs'
-      ? null
-      : s.cases.length === 1
-        ? unsolvedReason(s.cases[0].results)
-        : unsolved.map((k) => `${k.name}: ${unsolvedReason(k.results)}`).join('; ') ||
-          'no case gave a factor of safety';
+  const note = s.verdict === 'no-fs' ? stationUnsolvedReason(s.cases) : null;
   return {
     station: s.station,
     chainage: chainageOf(s.station, s.units),
