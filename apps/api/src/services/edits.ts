@@ -55,8 +55,8 @@ function editError(path: string, code: string, message: string): Problem {
  *
  * @example casesPatch([{ name: 'long term', kind: 'long-term' }], { 'long term': { requiredFs: 1.4 } })
  */
-export function casesPatch(current: Json | undefined, edits: Json): Json {
-  if (edits === null || Array.isArray(edits)) return edits;
+export function casesPatch(current: unknown, edits: unknown): Json {
+  if (edits === null || Array.isArray(edits)) return edits as Json;
   if (!isObject(edits)) {
     throw editError(
       'cases',
@@ -64,7 +64,7 @@ export function casesPatch(current: Json | undefined, edits: Json): Json {
       'give the cases as a list (it replaces them all) or as an object of edits by case name',
     );
   }
-  const list: Json[] = Array.isArray(current) ? [...current] : [];
+  const list: Json[] = Array.isArray(current) ? [...(current as Json[])] : [];
   const named = (name: string) => list.findIndex((c) => isObject(c) && c.name === name);
   for (const [name, patch] of Object.entries(edits)) {
     const at = named(name);
