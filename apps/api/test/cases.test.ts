@@ -57,6 +57,23 @@ let views: SectionBody[];
 
 const TWO_CASES = 3;
 
+/**
+ * The corridor's first four stations, each its own one case named long-term: whatever cases
+ * the demo corridor lists are left out, so that the test gives the stations its own.
+ */
+function singleCaseBatch() {
+  const c = corridorBatch('wcb-cases', 4, { case: 'long-term' }) as {
+    template: Record<string, unknown>;
+    sections: Record<string, unknown>[];
+  };
+  const { cases: _template, ...template } = c.template;
+  return {
+    ...c,
+    template,
+    sections: c.sections.map(({ cases: _own, ...s }) => s),
+  };
+}
+
 beforeAll(async () => {
   svc = await ownService('cases');
   const { app, helpers, sequelize } = svc;
@@ -72,7 +89,7 @@ beforeAll(async () => {
   const post = await request(app)
     .post(`/api/v1/projects/${project.body.id}/batches`)
     .auth(engineer, bearer)
-    .send(corridorBatch('wcb-cases', 4));
+    .send(singleCaseBatch());
   expect(post.status).toBe(201);
   batchId = post.body.id;
   const rows = await sequelize.query<{ id: number; input: Section }>(
