@@ -24,12 +24,19 @@ export const HEAVY_ANALYSIS = {
 export const HEAVY_CENTRES = 100;
 
 /** The corridor batch with its first `n` sections, `analysis` merged into the template's. */
-export function corridorBatch(id: string, n: number, analysis: object = {}) {
+export function corridorBatch(
+  id: string,
+  n: number,
+  analysis: object = {},
+  { oneCase = false }: { oneCase?: boolean } = {},
+) {
   const c = JSON.parse(fs.readFileSync(CORRIDOR, 'utf8'));
-  return {
-    ...c,
-    id,
-    template: { ...c.template, analysis: { ...c.template.analysis, ...analysis } },
-    sections: c.sections.slice(0, n),
-  };
+  const template = { ...c.template, analysis: { ...c.template.analysis, ...analysis } };
+  let sections = c.sections.slice(0, n);
+  if (oneCase) {
+    // each station's own settings as its one case: the design cases left out
+    delete template.cases;
+    sections = sections.map(({ cases: _cases, ...rest }: { cases?: unknown }) => rest);
+  }
+  return { ...c, id, template, sections };
 }
