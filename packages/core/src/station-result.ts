@@ -36,8 +36,8 @@ export const MIN_RELIEF = 0.5;
 
 /**
  * A governing FS above which the slope is reported as having no significant slope rather
- * than as a number: the search's least FS above 10 says the ground is too flat, or too strong,
- * for any slip surface to matter (common practice).
+ * than as a number, when every case of the station is above it: the search's least FS above 10
+ * says the ground is too flat, or too strong, for any slip surface to matter (common practice).
  */
 export const FS_CAP = 10;
 
@@ -87,20 +87,20 @@ function relief(section: Section): number {
 }
 
 /** One case's result from its analysis (analyzeCase and its kind's reports) and its settings. */
-function caseResultOf(a: CaseAnalysis, flat: boolean): CaseResult {
+function caseResultOf(a: CaseAnalysis, flat: boolean, strong: boolean): CaseResult {
   const { spec, result: r } = a;
   const governing = governingOf(r, spec.governs);
   const warnings: Warning[] = [...r.warnings, ...(a.warnings ?? [])];
   let verdict = verdictOf(governing?.fs ?? null, spec.requiredFs);
   // a seismic case with an allowable displacement meets it only within it
   if (a.seismic?.within === false && verdict === 'meets') verdict = 'below';
-  if (flat || (governing !== null && governing.fs > FS_CAP)) {
+  if (flat || strong) {
     verdict = 'no-slope';
     warnings.push({
       code: 'no-significant-slope',
       message: flat
         ? `no significant slope: the ground rises less than ${MIN_RELIEF} m (1.6 ft) across the section`
-        : `no significant slope: the least factor of safety is above ${FS_CAP} (${governing!.fs.toFixed(1)})`,
+        : `no significant slope: the least factor of safety of every case is above ${FS_CAP}${governing ? ` (here ${governing.fs.toFixed(1)})` : ''}`,
     });
   }
   return {
@@ -136,7 +136,16 @@ export function stationResult(
   solverVersion: string,
 ): StationResult {
   const flat = relief(section) < MIN_RELIEF;
-  const results = cases.map((a) => caseResultOf(a, flat));
+  // the ground decides, so every case says the same: no case may fail or govern on a slope that
+  // another case (a seismic coefficient, a water level) shows to be a real one
+  const fsOf = (a: CaseAnalysis) => governingOf(a.result, a.spec.governs)?.fs ?? null;
+  const strong =
+    cases.some((a) => fsOf(a) !== null) &&
+    cases.every((a) => {
+      const fs = fsOf(a);
+      return fs === null || fs > FS_CAP;
+    });
+  const results = cases.map((a) => caseResultOf(a, flat, strong));
   // FS / required FS, or allowable / largest median displacement where that is lower
   const capacity = (c: CaseResult): number | null => {
     let x = c.ratio;

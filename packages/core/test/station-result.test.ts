@@ -100,6 +100,24 @@ describe('the station under its cases', () => {
     expect(r.governing).toBeNull();
     expect(r.cases[0].warnings.map((w) => w.code)).toContain('no-significant-slope');
   });
+
+  test('a slope no case finds significant says so in every case; one case that does makes it real', () => {
+    // the demo corridor's station 1040: a low cut (relief about 1 m) whose long-term FS is
+    // above 10, while its earthquake case (kh 0.15) brings the least FS to about 4
+    const text = readFileSync(
+      join(__dirname, '..', '..', '..', 'examples', 'corridor', 'corridor.json'),
+      'utf8',
+    );
+    const s = parseSections(text, 'corridor.json').sections.find((x) => x.id === 'wcb-main@1040')!;
+    const own = analyzeSection({ ...s, cases: [] });
+    expect(own.verdict).toBe('no-slope');
+    expect(own.cases[0].governing!.fs).toBeGreaterThan(10);
+    const all = analyzeSection(s);
+    expect(all.cases.length).toBeGreaterThan(1);
+    expect(all.cases.some((c) => c.governing!.fs <= 10)).toBe(true);
+    expect(all.cases.every((c) => c.verdict !== 'no-slope')).toBe(true);
+    expect(all.verdict).not.toBe('no-slope');
+  });
 });
 
 describe('a seismic case: the yield coefficient through the whole analysis', () => {
