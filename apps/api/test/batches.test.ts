@@ -1,4 +1,3 @@
-import fs from 'node:fs';
 import path from 'node:path';
 import request from 'supertest';
 import { CAUTION } from '@scarpline/core';
@@ -9,6 +8,7 @@ import { enqueueSections, stopQueue } from '../src/queue';
 import { fakeInbox, startSmtpFake, stopSmtpFake } from '../src/services/mail';
 import { startWorker } from '../src/worker';
 import { expectProblem, makeUsers, schemaErrors, signIn, waitForBatch } from './helpers';
+import { oneCaseCorridor } from './sections';
 
 const EXAMPLES = path.resolve(__dirname, '../../../examples');
 const app = createApp();
@@ -19,9 +19,7 @@ let users: Awaited<ReturnType<typeof makeUsers>>;
 
 /** The first n stations of the demo corridor. */
 function smallCorridor(n: number) {
-  const corridor = JSON.parse(
-    fs.readFileSync(path.join(EXAMPLES, 'corridor/corridor.json'), 'utf8'),
-  );
+  const corridor = oneCaseCorridor();
   return { ...corridor, id: `wcb-test-${n}`, sections: corridor.sections.slice(0, n) };
 }
 

@@ -8,6 +8,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import request from 'supertest';
 import { QueryTypes } from 'sequelize';
+import { oneCaseCorridor } from './sections';
 
 // The jobs this file submits get a short time limit, so a killed worker's job comes back soon
 // (read when src/config is imported below, in beforeAll; restored in afterAll).
@@ -92,9 +93,7 @@ test('SIGKILL a worker mid-batch: another finishes it, no section lost or solved
     .post('/api/v1/projects')
     .auth(engineer, { type: 'bearer' })
     .send({ name: 'Killed worker (test)' });
-  const corridor = JSON.parse(
-    fs.readFileSync(path.join(ROOT, 'examples/corridor/corridor.json'), 'utf8'),
-  );
+  const corridor = oneCaseCorridor();
   const n = Math.min(10, corridor.sections.length);
   const post = await request(app)
     .post(`/api/v1/projects/${project.body.id}/batches`)
