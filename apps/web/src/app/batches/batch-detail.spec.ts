@@ -8,6 +8,7 @@ import type { Batch, BatchProgress, SectionListItem } from './batch-types';
 import { aBatch, progressOf } from '../testing/batch-fixtures';
 import { apiTestProviders } from '../testing/api-testing';
 import { signInAs } from '../testing/sign-in-as';
+import { CASE_STATIONS, caseFields } from '../testing/case-fixtures';
 
 /** Of three sections unless said otherwise. */
 function progress(done: number, failed = 0, total = 3): BatchProgress {
@@ -235,6 +236,45 @@ describe('BatchDetail', () => {
     expect(chart).toContain('150+00');
     const bar = el.querySelector('.scale-bar text[text-anchor=middle]')?.textContent?.trim();
     expect(bar).toMatch(/^\d+(\.\d+)? ft$/);
+    // one case: the page as it always was, no chart per case, no counts by case
+    expect(el.querySelectorAll('[data-testid=chainage-chart]')).toHaveLength(1);
+    expect(el.querySelector('[data-testid=case-chart]')).toBeNull();
+    expect(el.querySelector('[data-testid=case-counts]')).toBeNull();
+    expect(el.querySelector('#chart-title')?.textContent?.trim()).toBe('FS along the chainage');
+    fixture.destroy();
+  });
+
+  it('shows a batch of several design cases by case: counts, a chart per case, the governing case', async () => {
+    const fixture = TestBed.createComponent(BatchDetail);
+    fixture.componentRef.setInput('id', '5');
+    await fixture.whenStable();
+    backend
+      .expectOne('/api/v1/batches/5')
+      .flush({ ...batch('done', progress(4, 0, 4)), ...caseFields() });
+    await fixture.whenStable();
+    for (const r of backend.match((req) => req.url === '/api/v1/batches/5/sections')) {
+      r.flush({ page: 1, pageSize: 500, total: 4, items: CASE_STATIONS, caution: 'c' });
+    }
+    flushData();
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    expect(el.querySelector('#chart-title')?.textContent?.trim()).toBe(
+      'FS along the chainage, by design case',
+    );
+    expect(el.querySelectorAll('[data-testid=case-chart]')).toHaveLength(3);
+    const counts = Array.from(el.querySelectorAll('[data-testid=case-counts] tr')).map((r) =>
+      Array.from(r.children).map((c) => c.textContent?.replace(/\s+/g, ' ').trim()),
+    );
+    const each = 'check_circle2 meets · cancel1 below · horizontal_rule1 no slope';
+    expect(counts).toEqual([
+      ['end of construction', each],
+      ['long term', each],
+      ['earthquake', each],
+    ]);
+    const governing = Array.from(el.querySelectorAll('[data-testid=governing-case]')).map((c) =>
+      c.textContent?.trim(),
+    );
+    expect(governing).toEqual(['earthquake', 'end of construction', 'long term', '—']);
     fixture.destroy();
   });
 

@@ -40,13 +40,16 @@ import type {
   SectionListItem,
 } from './batch-types';
 import { BatchesApi } from './batches-api';
+import { CaseCharts } from './case-charts';
 import { ChainageChart } from './chainage-chart';
+import { batchCases } from './design-cases';
 import { keepLast, nothingYet } from './keep-last';
 import { PlanView } from './plan-view';
 import { batchUnits } from './scales';
 import { SectionTable } from './section-table';
 import { userName } from '../core/user-name';
-import { JOB_STATE_WORDS } from '@scarpline/core/verdict';
+import { JOB_STATE_WORDS, VERDICTS } from '@scarpline/core/verdict';
+import { verdictView } from '../shared/verdict';
 
 /** Saves a fetched file through an object URL (the download carried the bearer token). */
 function save(blob: Blob, fileName: string): void {
@@ -78,6 +81,7 @@ function save(blob: Blob, fileName: string): void {
     MatProgressBarModule,
     Caution,
     PageState,
+    CaseCharts,
     ChainageChart,
     PlanView,
     SectionTable,
@@ -194,6 +198,20 @@ export class BatchDetail {
   protected readonly submittedByText = computed(() => {
     const b = this.batch();
     return b ? userName(b.submitter, this.auth.user()?.id) : '';
+  });
+  /** The design cases of the batch; one (or none) shows the batch as a single case is. */
+  protected readonly cases = computed(() => batchCases(this.batch(), this.all().value ?? []));
+  protected readonly manyCases = computed(() => this.cases().length > 1);
+  /** The done sections of each case by verdict (Batch.caseCounts), in the core's words. */
+  protected readonly caseCounts = computed(() => {
+    const counts = this.batch()?.caseCounts ?? {};
+    return this.cases().map((c) => ({
+      name: c.name,
+      verdicts: VERDICTS.filter((v) => (counts[c.name]?.[v] ?? 0) > 0).map((v) => ({
+        ...verdictView(v),
+        count: counts[c.name]?.[v] ?? 0,
+      })),
+    }));
   });
   /** The units of the batch's sections, for the plan's scale bar. */
   protected readonly units = computed(() => batchUnits(this.all().value ?? []));

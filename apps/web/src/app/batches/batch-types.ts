@@ -3,7 +3,7 @@
  * events.ts, exports.ts, reviews.ts, review-requests.ts).
  */
 import type { Message } from '@scarpline/core/input';
-import type { Warning } from '@scarpline/core/result';
+import type { CaseKind, Warning } from '@scarpline/core/result';
 import type { JobState, Verdict } from '@scarpline/core/verdict';
 import type { UserRef } from '../core/models';
 import type { ReviewState, ReviewSummary } from '../reviews/review-types';
@@ -12,8 +12,10 @@ import type { Units } from './scales';
 export type BatchStatus = 'running' | 'done';
 /** The state of a section's job: the core's job states (queued, running, done, failed). */
 export type SectionStatus = JobState;
-/** The verdict of a result: the core's codes (meets, below, no-fs, no-requirement, input-error). */
+/** The verdict of a result: the core's codes (meets, below, no-fs, no-requirement, no-slope, input-error). */
 export type { Verdict };
+/** The kind of a design case: the core's CASE_KINDS (end-of-construction, long-term, …). */
+export type { CaseKind };
 
 /** How far a batch has come (services/batches.ts `progress`). */
 export interface BatchProgress {
@@ -48,6 +50,13 @@ export interface Batch {
   finishedAt: string | null;
   progress: BatchProgress;
   review: ReviewSummary;
+  /**
+   * Every design case named in the batch, in the order first seen (one for a batch of
+   * sections without cases); absent from an API before design cases.
+   */
+  cases?: string[];
+  /** Done sections by case and verdict: `{ 'long term': { meets: 58, below: 3 } }`. */
+  caseCounts?: Record<string, Partial<Record<Verdict, number>>>;
   caution: string;
 }
 
@@ -65,13 +74,34 @@ export interface Geometry {
   coordinates?: unknown;
 }
 
-/** The current result of a listed section. */
+/** One design case of a listed section's result. */
+export interface SectionListCase {
+  name: string;
+  kind: CaseKind;
+  verdict: Verdict;
+  governingMethod: string | null;
+  governingFs: number | null;
+  requiredFs: number | null;
+  /** governingFs / requiredFs; null without either, or with no significant slope. */
+  ratio: number | null;
+}
+
+/**
+ * The current result of a listed section: the station's verdict over every case, and the
+ * governing case's method, FS and required FS.
+ */
 export interface SectionListResult {
   verdict: Verdict;
   governingMethod: string | null;
   governingFs: number | null;
   requiredFs: number | null;
   warnings?: Warning[];
+  /** The case with the lowest FS / required FS; absent from an API before design cases. */
+  governingCase?: string | null;
+  /** The governing case's FS / required FS. */
+  ratio?: number | null;
+  /** Every case of the station, in the order the section lists them. */
+  cases?: SectionListCase[];
 }
 
 /** One item of GET /batches/:id/sections. */
@@ -102,7 +132,7 @@ export interface SectionPage {
   caution: string;
 }
 
-export type SectionSort = 'station' | 'fs';
+export type SectionSort = 'station' | 'fs' | 'ratio';
 
 /** The query of GET /batches/:id/sections (pages count from 1; pageSize at most 500). */
 export interface SectionQuery {
@@ -112,6 +142,8 @@ export interface SectionQuery {
   pageSize?: number;
   status?: SectionStatus;
   verdict?: Verdict;
+  /** With `verdict`: the sections whose case of this name has that verdict. */
+  case?: string;
 }
 
 /**
@@ -124,11 +156,19 @@ export interface ResultProperties {
   chainage: string | null;
   /** The section's id in the input (`<batch id>@<station>`): the key of a listed section. */
   section_id: string;
+  /**
+   * A row of one design case, or the station's row (the governing case, the station's
+   * verdict) after its cases; absent from an API before design cases (a station's row).
+   */
+  row?: 'case' | 'station';
   case: string | null;
+  kind?: CaseKind | null;
   governing_method: string | null;
   /** To three decimals. */
   fs: number | null;
   required_fs: number | null;
+  /** fs / required_fs. */
+  ratio?: number | null;
   verdict: Verdict | null;
   warnings: number | null;
   note: string | null;

@@ -62,6 +62,20 @@ describe('BatchesApi', () => {
     req.flush(page(3, 25, 61));
   });
 
+  it('asks for the verdict of one design case (case with verdict), sorted by FS over required FS', () => {
+    api.sections(12, { sort: 'ratio', verdict: 'below', case: 'end of construction' }).subscribe();
+    let req = backend.expectOne((r) => r.url === '/api/v1/batches/12/sections');
+    expect(req.request.urlWithParams).toBe(
+      '/api/v1/batches/12/sections?sort=ratio&verdict=below&case=end%20of%20construction',
+    );
+    req.flush(page(1, 50, 0));
+    // a case without a verdict filters nothing: it is not sent
+    api.sections(12, { case: 'long term' }).subscribe();
+    req = backend.expectOne((r) => r.url === '/api/v1/batches/12/sections');
+    expect(req.request.params.keys()).toEqual([]);
+    req.flush(page(1, 50, 0));
+  });
+
   it('leaves out what the query does not set', () => {
     api.sections(12).subscribe();
     const req = backend.expectOne('/api/v1/batches/12/sections');

@@ -50,6 +50,7 @@ export class BatchesApi {
     if (q.pageSize !== undefined) params = params.set('pageSize', q.pageSize);
     if (q.status) params = params.set('status', q.status);
     if (q.verdict) params = params.set('verdict', q.verdict);
+    if (q.case !== undefined && q.verdict) params = params.set('case', q.case);
     return this.http.get<SectionPage>(`${API}/batches/${batchId}/sections`, { params });
   }
 

@@ -3,6 +3,7 @@ import type { SectionListItem } from './batch-types';
 import { chainageMarker, CHAINAGE_STYLE } from '@scarpline/core/draw';
 import { ChainageChart, chainagePoints } from './chainage-chart';
 import type { Units } from './scales';
+import { aCase, CASE_STATIONS, stationOf } from '../testing/case-fixtures';
 
 function item(
   id: number,
@@ -159,9 +160,11 @@ describe('ChainageChart', () => {
     expect(el.querySelector('.summary')?.textContent).toContain(
       '2 of 5 stations below the required FS: 1+020, 1+060.',
     );
-    expect(el.querySelector('[data-testid=chainage-chart]')?.getAttribute('aria-describedby')).toBe(
-      'chainage-summary',
-    );
+    const describedBy = el
+      .querySelector('[data-testid=chainage-chart]')
+      ?.getAttribute('aria-describedby');
+    expect(describedBy).toMatch(/^chainage-summary-\d+$/);
+    expect(el.querySelector(`#${describedBy}`)).toBe(el.querySelector('.summary'));
   });
 
   it('gives every point a title and opens its section on click and on Enter', async () => {
@@ -241,5 +244,65 @@ describe('ChainageChart', () => {
     const el = f.nativeElement as HTMLElement;
     expect(el.querySelector('svg')).toBeNull();
     expect(el.textContent).toContain('No results to plot yet');
+  });
+
+  it("charts one case: each station's FS and required FS in that case, its own failures marked", async () => {
+    const { points } = chainagePoints(CASE_STATIONS, 'long term');
+    expect(points.map((p) => [p.station, p.fs, p.requiredFs, p.verdict, p.hidden])).toEqual([
+      [1000, 1.71, 1.5, 'meets', false],
+      [1020, 1.62, 1.5, 'meets', false],
+      [1040, 1.38, 1.5, 'below', false],
+      [1060, null, null, 'no-slope', true],
+    ]);
+    const f = TestBed.createComponent(ChainageChart);
+    f.componentRef.setInput('sections', CASE_STATIONS);
+    f.componentRef.setInput('caseName', 'end of construction');
+    f.componentRef.setInput('width', 640);
+    await f.whenStable();
+    const el = f.nativeElement as HTMLElement;
+    const pts = Array.from(el.querySelectorAll('g.pt'));
+    // the station with no significant slope holds the axis but is not drawn
+    expect(pts.map((g) => [g.getAttribute('data-station'), g.getAttribute('data-mark')])).toEqual([
+      ['1000', 'meets'],
+      ['1020', 'below'],
+      ['1040', 'meets'],
+    ]);
+    expect(pts[1].querySelector('title')?.textContent).toBe(
+      'Station 1+020, case end of construction: FS 1.21, required 1.30 (below the required FS)',
+    );
+    expect(el.querySelector('svg')?.getAttribute('aria-label')).toBe(
+      'Factor of safety of the case end of construction along the chainage',
+    );
+    expect(el.querySelector('.summary')?.textContent).toBe(
+      '1 of 3 stations below the required FS: 1+020. 1: no significant slope (not plotted).',
+    );
+    expect(el.querySelector('.legend')?.textContent).toContain('FS of the case');
+  });
+
+  it('lays every case out on the same chainage axis, a station without the case left undrawn', async () => {
+    const added = stationOf(9, 1100, [aCase('long term', 'long-term', 1.6, 1.5)]);
+    const all = [...CASE_STATIONS, added];
+    const tickTexts = async (caseName: string) => {
+      const f = TestBed.createComponent(ChainageChart);
+      f.componentRef.setInput('sections', all);
+      f.componentRef.setInput('caseName', caseName);
+      f.componentRef.setInput('width', 640);
+      await f.whenStable();
+      const el = f.nativeElement as HTMLElement;
+      return {
+        ticks: Array.from(el.querySelectorAll('text.tick[text-anchor=middle]')).map((t) => [
+          t.textContent?.trim(),
+          t.getAttribute('x'),
+        ]),
+        drawn: Array.from(el.querySelectorAll('g.pt')).map((g) => g.getAttribute('data-station')),
+        summary: el.querySelector('.summary')?.textContent ?? '',
+      };
+    };
+    const quake = await tickTexts('earthquake');
+    const longTerm = await tickTexts('long term');
+    expect(quake.ticks).toEqual(longTerm.ticks);
+    expect(quake.drawn).toEqual(['1000', '1020', '1040']);
+    expect(longTerm.drawn).toEqual(['1000', '1020', '1040', '1100']);
+    expect(quake.summary).toContain('1 without this case (not plotted).');
   });
 });

@@ -28,15 +28,25 @@ import { batchUnits, formatChainage, formatFs, lengthUnit, type Units } from './
 export interface ChartPoint extends ChainagePoint {
   sectionId: number;
   label: string;
-  /** The result's verdict (meets, below, no-requirement, no-fs). */
+  /** The result's verdict (meets, below, no-requirement, no-fs, no-slope). */
   verdict: Verdict;
+  /**
+   * Laid out but not drawn: the station has no significant slope, or (in a case's chart) it
+   * does not have that case. Kept in the layout so that every chart of a batch shares its
+   * chainage axis.
+   */
+  hidden: boolean;
 }
 
 /**
  * The stations to plot (those with a station and a result: an FS, or none when no method gave
- * one), by chainage, and how many were left out (no station, or no result yet).
+ * one), by chainage, and how many were left out (no station, or no result yet). With a case's
+ * name, each station's FS, required FS and verdict are that case's.
  */
-export function chainagePoints(items: readonly SectionListItem[]): {
+export function chainagePoints(
+  items: readonly SectionListItem[],
+  caseName: string | null = null,
+): {
   points: ChartPoint[];
   units: Units | null;
   skipped: number;
@@ -46,24 +56,32 @@ export function chainagePoints(items: readonly SectionListItem[]): {
   for (const s of items) {
     const r = s.result;
     if (s.station === null || !r) continue;
-    const fs = r.governingFs !== null && Number.isFinite(r.governingFs) ? r.governingFs : null;
+    const of = caseName === null ? r : (r.cases?.find((c) => c.name === caseName) ?? null);
+    const verdict = of?.verdict ?? 'no-fs';
+    const hidden = of === null || verdict === 'no-slope';
+    const fs =
+      !hidden && of.governingFs !== null && Number.isFinite(of.governingFs) ? of.governingFs : null;
     points.push({
       sectionId: s.id,
       station: s.station,
       label: s.stationLabel ?? formatChainage(s.station, units),
       fs,
-      requiredFs: r.requiredFs,
-      verdict: r.verdict,
+      requiredFs: hidden ? null : of.requiredFs,
+      verdict,
+      hidden,
     });
   }
   points.sort((a, b) => a.station - b.station || a.sectionId - b.sectionId);
   return { points, units, skipped: items.length - points.length };
 }
 
+let charts = 0;
+
 /**
- * The governing FS of every station along the chainage: the core's chart (chainageLayout and
- * its marks and look, the same as the command's chainage.svg), drawn here so that each station
- * is a link to its section (click, Enter, arrow keys) with its words on hover and focus.
+ * The governing FS of every station along the chainage (or, given a case, that case's FS): the
+ * core's chart (chainageLayout and its marks and look, the same as the command's chainage.svg),
+ * drawn here so that each station is a link to its section (click, Enter, arrow keys) with its
+ * words on hover and focus.
  */
 @Component({
   selector: 'sl-chainage-chart',
@@ -74,18 +92,22 @@ export function chainagePoints(items: readonly SectionListItem[]): {
 export class ChainageChart {
   /** Every section of the batch (not one page). */
   readonly sections = input.required<readonly SectionListItem[]>();
+  /** The design case to chart; null: each station's governing case. */
+  readonly caseName = input<string | null>(null);
   /** The drawing width in px; measured from the container when not given. */
   readonly width = input<number | null>(null);
   readonly height = input(320);
   /** A click (or Enter) on a station: the section id. */
   readonly open = output<number>();
 
+  /** The id of the words that describe the chart (one per chart on the page). */
+  protected readonly summaryId = `chainage-summary-${++charts}`;
   /** The width of the container, once measured. */
   private readonly measured = observedWidth();
   protected readonly active = signal<number | null>(null);
   protected readonly focusIndex = signal(0);
 
-  protected readonly data = computed(() => chainagePoints(this.sections()));
+  protected readonly data = computed(() => chainagePoints(this.sections(), this.caseName()));
   protected readonly layout = computed(() =>
     chainageLayout(this.data().points, {
       width: this.width() ?? this.measured() ?? 960,
@@ -93,22 +115,31 @@ export class ChainageChart {
       units: this.data().units,
     }),
   );
+  /** The stations drawn (the hidden ones only hold the axis). */
+  protected readonly shown = computed(() => this.layout().stations.filter((s) => !s.point.hidden));
   protected readonly failing = computed(() =>
-    this.data().points.filter((p) => p.verdict === 'below'),
+    this.data().points.filter((p) => !p.hidden && p.verdict === 'below'),
   );
   protected readonly xTitle = computed(() => {
     const u = lengthUnit(this.data().units);
     return u ? `Chainage (${u})` : 'Chainage';
   });
+  protected readonly chartLabel = computed(() => {
+    const c = this.caseName();
+    return c === null
+      ? 'Governing factor of safety along the chainage'
+      : `Factor of safety of the case ${c} along the chainage`;
+  });
   /** The marks the chart shows, with their words and counts, for the legend. */
   protected readonly legend = computed(() => {
-    const count = (m: ChainageMark) => this.layout().stations.filter((s) => s.mark === m).length;
+    const count = (m: ChainageMark) => this.shown().filter((s) => s.mark === m).length;
     return (['meets', 'below', 'no-requirement', 'no-fs'] as const)
       .filter((m) => m === 'meets' || m === 'below' || count(m) > 0)
       .map((mark) => ({ mark, words: CHAINAGE_MARK_WORDS[mark], count: count(mark) }));
   });
   protected readonly summary = computed(() => {
-    const { points, skipped } = this.data();
+    const { skipped } = this.data();
+    const points = this.data().points.filter((p) => !p.hidden);
     const fails = this.failing();
     const judged = points.filter((p) => p.verdict === 'meets' || p.verdict === 'below').length;
     const parts: string[] = [];
@@ -130,7 +161,11 @@ export class ChainageChart {
     if (free > 0) parts.push(`${free}: ${VERDICT_WORDS['no-requirement']}.`);
     const none = points.filter((p) => p.fs === null).length;
     if (none > 0) parts.push(`${none}: ${VERDICT_WORDS['no-fs']} (× under the axis).`);
-    const above = this.layout().stations.filter((p) => p.clipped).length;
+    const flat = this.data().points.filter((p) => p.verdict === 'no-slope').length;
+    if (flat > 0) parts.push(`${flat}: ${VERDICT_WORDS['no-slope']} (not plotted).`);
+    const without = this.data().points.filter((p) => p.hidden && p.verdict !== 'no-slope').length;
+    if (without > 0) parts.push(`${without} without this case (not plotted).`);
+    const above = this.shown().filter((p) => p.clipped).length;
     if (above > 0) {
       parts.push(`${above} with FS above ${this.layout().yMax} drawn at the top edge.`);
     }
@@ -139,7 +174,7 @@ export class ChainageChart {
   });
   protected readonly activePoint = computed(() => {
     const i = this.active();
-    return i === null ? null : (this.layout().stations[i] ?? null);
+    return i === null ? null : (this.shown()[i] ?? null);
   });
 
   protected readonly style = CHAINAGE_STYLE;
@@ -152,7 +187,9 @@ export class ChainageChart {
     const p = s.point;
     const req = p.requiredFs === null ? '' : `, required ${formatFs(p.requiredFs)}`;
     const fs = p.fs === null ? 'no FS' : `FS ${formatFs(p.fs)}`;
-    return `Station ${p.label}: ${fs}${req} (${VERDICT_WORDS[p.verdict]})`;
+    const c = this.caseName();
+    const station = c === null ? `Station ${p.label}` : `Station ${p.label}, case ${c}`;
+    return `${station}: ${fs}${req} (${VERDICT_WORDS[p.verdict]})`;
   }
 
   protected choose(s: PlacedStation<ChartPoint>): void {
@@ -165,7 +202,7 @@ export class ChainageChart {
       this.choose(s);
       return;
     }
-    const next = steppedIndex(e.key, i, this.layout().stations.length);
+    const next = steppedIndex(e.key, i, this.shown().length);
     if (next === null) return;
     e.preventDefault();
     this.focusIndex.set(next);

@@ -1,6 +1,6 @@
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import type { ResultCollection, ResultFeature } from './batch-types';
-import { FS_RAMP, fsBin, fsBins, PlanView } from './plan-view';
+import { FS_RAMP, fsBin, fsBins, PlanView, stationFeatures } from './plan-view';
 import type { Units } from './scales';
 
 function feature(
@@ -227,5 +227,34 @@ describe('PlanView', () => {
     const el = f.nativeElement as HTMLElement;
     expect(el.querySelector('svg')).toBeNull();
     expect(el.textContent).toContain("this batch's input had no coordinates");
+  });
+
+  it('draws each section line once, as its station’s row, when the results have a row per case', async () => {
+    const line = [
+      [0, 0],
+      [50, 0],
+    ];
+    const station = feature(1, line, 1.21, 1.3);
+    const rows = (n: number) => [
+      {
+        ...station,
+        properties: { ...station.properties, row: 'case' as const, case: 'long term', fs: 1.6 + n },
+      },
+      {
+        ...station,
+        properties: { ...station.properties, row: 'case' as const, case: 'end of construction' },
+      },
+      {
+        ...station,
+        properties: { ...station.properties, row: 'station' as const, case: 'end of construction' },
+      },
+    ];
+    const c = collection([...rows(0)]);
+    expect(stationFeatures(c)?.features.map((f) => f.properties.row)).toEqual(['station']);
+    // results of an API before design cases have no rows: kept as they are
+    const old = collection([feature(1, line, 1.7)]);
+    expect(stationFeatures(old)).toBe(old);
+    const f = await render(c);
+    expect((f.nativeElement as HTMLElement).querySelectorAll('polyline.stroke')).toHaveLength(1);
   });
 });

@@ -114,6 +114,21 @@ function coordsOf(f: ResultFeature): Coord[][] {
 const PAD = { left: 24, right: 64, top: 44, bottom: 52 };
 
 /**
+ * The stations' features of the results: the export gives a row per station and design case,
+ * then the station's own row (its governing case, its verdict); the plan draws each section
+ * line once, as its station's row.
+ */
+export function stationFeatures(collection: ResultCollection | null): ResultCollection | null {
+  if (!collection || collection.features.every((f) => f.properties.row !== 'case')) {
+    return collection;
+  }
+  return {
+    ...collection,
+    features: collection.features.filter((f) => f.properties.row !== 'case'),
+  };
+}
+
+/**
  * The section lines in plan at one scale in x and y (north up): the corridor's bounding box
  * fitted into width × at most maxHeight, the height shrunk to what the drawing needs. The
  * coordinates are in the corridor's units (`units`, null when not known).
@@ -253,7 +268,10 @@ export function planLayout(
   styleUrl: './plan-view.scss',
 })
 export class PlanView {
+  /** The results as the export gives them (the rows of each case are left out: stationFeatures). */
   readonly results = input.required<ResultCollection | null>();
+  /** The stations' rows of the results, one a section line. */
+  protected readonly stations = computed(() => stationFeatures(this.results()));
   /** The units of the batch's sections: the coordinates are in these (null: not known). */
   readonly units = input<Units | null>(null);
   /** The drawing width in px; measured from the container when not given. */
@@ -269,7 +287,7 @@ export class PlanView {
 
   protected readonly layout = computed(() =>
     planLayout(
-      this.results(),
+      this.stations(),
       this.units(),
       this.width() ?? this.measured() ?? 960,
       this.maxHeight(),
@@ -277,13 +295,13 @@ export class PlanView {
   );
   protected readonly bins = computed(() =>
     fsBins(
-      (this.results()?.features ?? [])
+      (this.stations()?.features ?? [])
         .map((f) => f.properties.required_fs)
         .filter((r): r is number => r !== null),
     ),
   );
   protected readonly withoutCoords = computed(() => {
-    const n = this.results()?.features.length ?? 0;
+    const n = this.stations()?.features.length ?? 0;
     return n - this.layout().lines.length;
   });
   protected readonly activeLine = computed(() => {

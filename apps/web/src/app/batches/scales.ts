@@ -35,3 +35,11 @@ export function formatNumber(v: number): string {
 export function formatFs(v: number | null | undefined): string {
   return v === null || v === undefined || !Number.isFinite(v) ? '—' : v.toFixed(2);
 }
+
+/**
+ * A factor of safety over its required value to three decimals, as the core writes an FS
+ * (0.998 stays below 1 where two decimals would write 1.00).
+ */
+export function formatRatio(v: number | null | undefined): string {
+  return v === null || v === undefined || !Number.isFinite(v) ? '—' : v.toFixed(3);
+}

@@ -3,6 +3,8 @@ import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import type { SectionListItem, SectionPage } from './batch-types';
 import { filterSections, SectionTable } from './section-table';
 import { apiTestProviders } from '../testing/api-testing';
+import { CASE_STATIONS, caseFields } from '../testing/case-fixtures';
+import { batchCases } from './design-cases';
 
 function item(id: number, station: number | null, fs: number | null): SectionListItem {
   return {
@@ -167,5 +169,190 @@ describe('SectionTable', () => {
         { active: 'station', direction: 'asc' },
       ).map((s) => s.id),
     ).toEqual([3]);
+  });
+
+  it('shows a batch of one case as it always was: no governing case, no ratio, nothing to open', async () => {
+    request().flush(pageOf(ALL));
+    await fixture.whenStable();
+    const heads = Array.from(el.querySelectorAll('th.mat-mdc-header-cell')).map((h) =>
+      h.textContent?.trim(),
+    );
+    expect(heads).toEqual([
+      'Station',
+      'Section',
+      'Governing method',
+      'FS',
+      'Required FS',
+      'Verdict',
+      'Warnings',
+      'Review',
+      'Run status',
+    ]);
+    expect(el.querySelector('[data-testid=expand-cases]')).toBeNull();
+    expect(el.querySelector('[data-testid=case-filter]')).toBeNull();
+  });
+});
+
+describe('SectionTable of a batch with design cases', () => {
+  let fixture: ComponentFixture<SectionTable>;
+  let backend: HttpTestingController;
+  let el: HTMLElement;
+
+  beforeEach(async () => {
+    TestBed.configureTestingModule({ providers: apiTestProviders() });
+    backend = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(SectionTable);
+    fixture.componentRef.setInput('batchId', 7);
+    fixture.componentRef.setInput('all', CASE_STATIONS);
+    fixture.componentRef.setInput('cases', batchCases(caseFields(), CASE_STATIONS));
+    await fixture.whenStable();
+    el = fixture.nativeElement as HTMLElement;
+  });
+
+  afterEach(() => backend.verify());
+
+  const request = () => backend.expectOne((r) => r.url === '/api/v1/batches/7/sections');
+  const rows = () => Array.from(el.querySelectorAll('[data-testid=section-row]'));
+
+  it('shows the governing case and its FS over the required FS in each row', async () => {
+    request().flush(pageOf(CASE_STATIONS));
+    await fixture.whenStable();
+    const cells = (r: Element) =>
+      Array.from(r.querySelectorAll('td')).map((td) => td.textContent?.replace(/\s+/g, ' ').trim());
+    // expand, station, section, case, method, FS, required, ratio, verdict, …
+    expect(cells(rows()[1]).slice(1, 9)).toEqual([
+      '1+020',
+      'wcb-main@1020Main line, station 1020',
+      'end of construction',
+      "Spencer's method",
+      '1.21',
+      '1.30',
+      '0.931',
+      'cancelbelow',
+    ]);
+    // no significant slope: no FS written, whatever large FS the service sums it up with
+    expect(cells(rows()[3]).slice(3, 9)).toEqual([
+      '—',
+      "Spencer's method",
+      '—',
+      '1.30',
+      '—',
+      'horizontal_ruleno slope',
+    ]);
+  });
+
+  it('opens a row to every case: name, kind, method, FS, required, ratio, verdict, the governing marked', async () => {
+    request().flush(pageOf(CASE_STATIONS));
+    await fixture.whenStable();
+    expect(el.querySelector('[data-testid=case-rows]')).toBeNull();
+    const button = rows()[2].querySelector('[data-testid=expand-cases]') as HTMLButtonElement;
+    expect(button.getAttribute('aria-expanded')).toBe('false');
+    expect(button.getAttribute('aria-label')).toBe('Every case of station 1+040');
+    button.click();
+    await fixture.whenStable();
+    expect(button.getAttribute('aria-expanded')).toBe('true');
+    const table = el.querySelector('[data-testid=case-rows]') as HTMLTableElement;
+    expect(table.id).toBe(button.getAttribute('aria-controls'));
+    const lines = Array.from(table.querySelectorAll(':scope > tbody > tr')).map((r) =>
+      Array.from(r.children).map((c) => c.textContent?.replace(/\s+/g, ' ').trim()),
+    );
+    expect(lines).toEqual([
+      [
+        'end of construction',
+        'end of construction',
+        "Spencer's method",
+        '1.40',
+        '1.30',
+        '1.077',
+        'check_circlemeets',
+      ],
+      [
+        'long term star governing',
+        'long term',
+        "Spencer's method",
+        '1.38',
+        '1.50',
+        '0.920',
+        'cancelbelow',
+      ],
+      ['earthquake', 'seismic', "Spencer's method", '1.02', '1.10', '0.927', 'cancelbelow'],
+    ]);
+    button.click();
+    await fixture.whenStable();
+    expect(el.querySelector('[data-testid=case-rows]')).toBeNull();
+  });
+
+  it('asks the server for the stations whose chosen case is below (case with verdict)', async () => {
+    request().flush(pageOf(CASE_STATIONS));
+    await fixture.whenStable();
+    const select = el.querySelector('[data-testid=case-filter]') as HTMLElement;
+    // whose verdict: only once a verdict is chosen
+    expect(select.getAttribute('aria-disabled')).toBe('true');
+    const below = Array.from(el.querySelectorAll('[data-testid=pass-filter] button')).find(
+      (b) => b.textContent?.trim() === 'Below',
+    ) as HTMLButtonElement;
+    below.click();
+    await fixture.whenStable();
+    let req = request();
+    expect(req.request.params.get('verdict')).toBe('below');
+    expect(req.request.params.has('case')).toBe(false);
+    req.flush(pageOf([CASE_STATIONS[1], CASE_STATIONS[2]]));
+    await fixture.whenStable();
+    expect(select.getAttribute('aria-disabled')).toBe('false');
+
+    select.click();
+    await fixture.whenStable();
+    const option = Array.from(document.querySelectorAll('mat-option')).find(
+      (o) => o.textContent?.trim() === 'case earthquake',
+    ) as HTMLElement;
+    option.click();
+    await fixture.whenStable();
+    req = request();
+    expect(req.request.params.get('verdict')).toBe('below');
+    expect(req.request.params.get('case')).toBe('earthquake');
+    req.flush(pageOf([CASE_STATIONS[2]]));
+    await fixture.whenStable();
+    expect(rows()).toHaveLength(1);
+  });
+
+  it('offers the verdict no significant slope when a station has it', async () => {
+    request().flush(pageOf(CASE_STATIONS));
+    await fixture.whenStable();
+    const labels = Array.from(el.querySelectorAll('[data-testid=pass-filter] button')).map((b) =>
+      b.textContent?.trim(),
+    );
+    expect(labels).toEqual(['All', 'Meets', 'Below', 'No slope']);
+  });
+
+  it('sorts by FS over required FS on the server', async () => {
+    request().flush(pageOf(CASE_STATIONS));
+    await fixture.whenStable();
+    const header = el.querySelector('th[mat-sort-header=ratio] .mat-sort-header-container');
+    (header as HTMLElement).click();
+    await fixture.whenStable();
+    const req = request();
+    expect(req.request.params.get('sort')).toBe('ratio');
+    req.flush(pageOf(CASE_STATIONS));
+  });
+
+  it('filters by a case’s verdict and sorts by ratio over every section here, as the server does', () => {
+    request().flush(pageOf(CASE_STATIONS));
+    const ids = (caseName: string | null, verdict: 'below' | 'no-slope') =>
+      filterSections(
+        CASE_STATIONS,
+        { text: '', verdict, status: '', caseName },
+        { active: 'station', direction: 'asc' },
+      ).map((s) => s.id);
+    expect(ids(null, 'below')).toEqual([2, 3]);
+    expect(ids('end of construction', 'below')).toEqual([2]);
+    expect(ids('earthquake', 'below')).toEqual([3]);
+    expect(ids('long term', 'no-slope')).toEqual([4]);
+    expect(
+      filterSections(
+        CASE_STATIONS,
+        { text: '', verdict: 'all', status: '' },
+        { active: 'ratio', direction: 'asc' },
+      ).map((s) => s.id),
+    ).toEqual([3, 2, 1, 4]);
   });
 });

@@ -15,6 +15,7 @@ import { EMPTY, switchMap } from 'rxjs';
 import type { Problem } from '../core/models';
 import { loadState } from '../shared/load-state';
 import type {
+  SectionListCase,
   SectionListItem,
   SectionPage,
   SectionQuery,
@@ -23,25 +24,35 @@ import type {
 } from './batch-types';
 import { BatchesApi } from './batches-api';
 import { keepLast, nothingYet } from './keep-last';
-import { formatChainage, formatFs } from './scales';
+import { caseKindWords } from '../shared/case-kinds';
+import { hasVerdict, type BatchCase } from './design-cases';
+import { formatChainage, formatFs, formatRatio } from './scales';
 import { methodName } from '../shared/method-names';
 import { JOB_STATE_WORDS, JOB_STATES } from '@scarpline/core/verdict';
 import { capitalised, verdictView } from '../shared/verdict';
 import { verdictOfItem } from './words';
 
-/** The verdict filter: every section, or those that meet or are below their required FS. */
-export type VerdictFilter = 'all' | 'meets' | 'below';
+/** The verdict filter: every section, or those with this verdict. */
+export type VerdictFilter = 'all' | 'meets' | 'below' | 'no-slope';
 
-/** The sections matching a text (station, its label, the key or the title), as the server sorts. */
+/**
+ * The sections matching a text (station, its label, the key or the title), a run status and
+ * a verdict (the station's, or with `caseName` that case's), as the server sorts.
+ */
 export function filterSections(
   all: readonly SectionListItem[],
-  f: { text: string; verdict: VerdictFilter; status: SectionStatus | '' },
+  f: {
+    text: string;
+    verdict: VerdictFilter;
+    status: SectionStatus | '';
+    caseName?: string | null;
+  },
   sort: { active: SectionSort; direction: 'asc' | 'desc' },
 ): SectionListItem[] {
   const t = f.text.trim().toLowerCase();
   const rows = all.filter((s) => {
     if (f.status && s.status !== f.status) return false;
-    if (f.verdict !== 'all' && verdictOfItem(s) !== f.verdict) return false;
+    if (f.verdict !== 'all' && !hasVerdict(s, f.verdict, f.caseName ?? null)) return false;
     if (!t) return true;
     return (
       s.key.toLowerCase().includes(t) ||
@@ -51,7 +62,11 @@ export function filterSections(
     );
   });
   const value = (s: SectionListItem) =>
-    sort.active === 'fs' ? (s.result?.governingFs ?? null) : s.station;
+    sort.active === 'fs'
+      ? (s.result?.governingFs ?? null)
+      : sort.active === 'ratio'
+        ? (s.result?.ratio ?? null)
+        : s.station;
   const dir = sort.direction === 'desc' ? -1 : 1;
   return rows.sort((a, b) => {
     const va = value(a);
@@ -63,9 +78,38 @@ export function filterSections(
   });
 }
 
+/** The table's columns for a batch of one case, and the ones a batch of several adds. */
+const ONE_CASE_COLUMNS = [
+  'station',
+  'section',
+  'method',
+  'fs',
+  'required',
+  'verdict',
+  'warnings',
+  'review',
+  'status',
+];
+const CASES_COLUMNS = [
+  'expand',
+  'station',
+  'section',
+  'case',
+  'method',
+  'fs',
+  'required',
+  'ratio',
+  'verdict',
+  'warnings',
+  'review',
+  'status',
+];
+
 /**
  * The sections of a batch as a Material table: sorted, filtered and paged by the server; a
- * text filter (station or section) searches every section of the batch here instead.
+ * text filter (station or section) searches every section of the batch here instead. In a
+ * batch of several design cases each row shows its governing case and opens to every case,
+ * and the verdict filter can be that of one case.
  */
 @Component({
   selector: 'sl-section-table',
@@ -95,26 +139,30 @@ export class SectionTable {
   /** Every section of the batch (for the text filter); null while loading. */
   readonly all = input<readonly SectionListItem[] | null>(null);
 
-  protected readonly columns = [
-    'station',
-    'section',
-    'method',
-    'fs',
-    'required',
-    'verdict',
-    'warnings',
-    'review',
-    'status',
-  ];
+  /** The design cases of the batch when there are several; empty: shown as one case. */
+  readonly cases = input<readonly BatchCase[]>([]);
+
+  protected readonly manyCases = computed(() => this.cases().length > 1);
+  protected readonly columns = computed(() =>
+    this.manyCases() ? CASES_COLUMNS : ONE_CASE_COLUMNS,
+  );
   protected readonly statuses: readonly SectionStatus[] = JOB_STATES;
   protected jobWord(state: SectionStatus): string {
     return JOB_STATE_WORDS[state];
   }
   /** The verdicts the filter offers, in the core's words. */
-  protected readonly verdictChoices = (['meets', 'below'] as const).map((v) => ({
-    value: v,
-    label: capitalised(verdictView(v).short),
-  }));
+  protected readonly verdictChoices = computed(() => {
+    const all = this.all() ?? [];
+    const flat = all.some(
+      (s) =>
+        s.result?.verdict === 'no-slope' ||
+        (s.result?.cases ?? []).some((c) => c.verdict === 'no-slope'),
+    );
+    const codes: Exclude<VerdictFilter, 'all'>[] = flat
+      ? ['meets', 'below', 'no-slope']
+      : ['meets', 'below'];
+    return codes.map((v) => ({ value: v, label: capitalised(verdictView(v).short) }));
+  });
   protected readonly pageSizes = [25, 50, 100, 200];
 
   protected readonly sort = signal<{ active: SectionSort; direction: 'asc' | 'desc' }>({
@@ -125,6 +173,10 @@ export class SectionTable {
   protected readonly verdictFilter = signal<VerdictFilter>('all');
   protected readonly status = signal<SectionStatus | ''>('');
   protected readonly text = signal('');
+  /** Whose verdict the filter asks for: a case's, or the station's (null). */
+  protected readonly caseFilter = signal<string | null>(null);
+  /** The rows opened to show every case (by section id). */
+  protected readonly expanded = signal<ReadonlySet<number>>(new Set());
   private readonly retryTick = signal(0);
 
   /** The server's query, or null while the text filter works over every section here. */
@@ -137,7 +189,12 @@ export class SectionTable {
       pageSize: this.page().size,
     };
     if (this.status()) q.status = this.status() as SectionStatus;
-    if (this.verdictFilter() !== 'all') q.verdict = this.verdictFilter() as 'meets' | 'below';
+    const verdict = this.verdictFilter();
+    if (verdict !== 'all') {
+      q.verdict = verdict;
+      const c = this.caseFilter();
+      if (c !== null && this.manyCases()) q.case = c;
+    }
     return { batchId: this.batchId(), q, version: this.version(), retry: this.retryTick() };
   });
 
@@ -155,7 +212,12 @@ export class SectionTable {
     if (all === null) return { loading: true, rows: [], total: 0 };
     const rows = filterSections(
       all,
-      { text: this.text(), verdict: this.verdictFilter(), status: this.status() },
+      {
+        text: this.text(),
+        verdict: this.verdictFilter(),
+        status: this.status(),
+        caseName: this.manyCases() ? this.caseFilter() : null,
+      },
       this.sort(),
     );
     const { index, size } = this.page();
@@ -179,12 +241,14 @@ export class SectionTable {
   });
 
   protected readonly fs = formatFs;
+  protected readonly ratio = formatRatio;
+  protected readonly kindWords = caseKindWords;
   protected readonly method = methodName;
   protected readonly verdictOf = verdictOfItem;
   protected readonly shown = verdictView;
 
   protected onSort(e: Sort): void {
-    const active = e.active === 'fs' ? 'fs' : 'station';
+    const active = e.active === 'fs' || e.active === 'ratio' ? e.active : 'station';
     this.sort.set({ active, direction: e.direction === 'desc' ? 'desc' : 'asc' });
     this.page.update((p) => ({ ...p, index: 0 }));
   }
@@ -196,6 +260,37 @@ export class SectionTable {
   protected setVerdict(v: VerdictFilter): void {
     this.verdictFilter.set(v);
     this.page.update((p) => ({ ...p, index: 0 }));
+  }
+
+  protected setCase(name: string | null): void {
+    this.caseFilter.set(name);
+    if (this.verdictFilter() !== 'all') this.page.update((p) => ({ ...p, index: 0 }));
+  }
+
+  protected isOpen(id: number): boolean {
+    return this.expanded().has(id);
+  }
+
+  protected toggle(id: number): void {
+    this.expanded.update((open) => {
+      const next = new Set(open);
+      if (!next.delete(id)) next.add(id);
+      return next;
+    });
+  }
+
+  /**
+   * A governing FS as the table writes it: none where the verdict says there is no
+   * significant slope (a large FS there means nothing; the verdict says why).
+   */
+  protected fsOf(r: Pick<SectionListCase, 'verdict' | 'governingFs'> | null | undefined): string {
+    return r?.verdict === 'no-slope' ? '—' : formatFs(r?.governingFs);
+  }
+
+  /** Every case of a listed section, the governing one marked. */
+  protected casesOf(s: SectionListItem): (SectionListCase & { governing: boolean })[] {
+    const r = s.result;
+    return (r?.cases ?? []).map((c) => ({ ...c, governing: c.name === r?.governingCase }));
   }
 
   protected setStatus(v: SectionStatus | ''): void {

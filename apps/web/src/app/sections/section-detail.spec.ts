@@ -6,6 +6,7 @@ import type { InputWarning, RunResult, SectionInput, SectionView } from './secti
 import { WARNING_EXPLANATIONS } from './warning-codes';
 import { apiTestProviders } from '../testing/api-testing';
 import { signInAs } from '../testing/sign-in-as';
+import { caseResult } from '../testing/section-case-fixtures';
 
 const INPUT: SectionInput = {
   format: 'scarpline/1',
@@ -326,6 +327,134 @@ describe('SectionDetail', () => {
       );
     await fixture.whenStable();
     expect(el().querySelector('[role="alert"]')?.textContent).toContain('No such section.');
+    backend.verify();
+  });
+
+  it('shows a station of one case as it always was: no cases, no case in the drawing’s request', async () => {
+    await open('viewer');
+    const v = view(1, 'done', 1.7);
+    // the API of design cases lists the one case too
+    const r = v.result!;
+    r.governingCase = 'long-term';
+    r.cases = [
+      {
+        name: 'long-term',
+        kind: 'long-term',
+        requiredFs: 1.5,
+        governs: ['bishop'],
+        governing: r.governing,
+        ratio: 1.7 / 1.5,
+        verdict: 'meets',
+        warnings: [],
+        methods: r.methods,
+        criticalSurface: r.criticalSurface,
+        search: null,
+      },
+    ];
+    backend.expectOne('/api/v1/sections/7').flush(v);
+    await flushSide();
+    expect(q('case-table')).toBeNull();
+    expect(q('section-governing-case')).toBeNull();
+    expect(q('drawing-case')).toBeNull();
+    expect(el().querySelector('#drawing-title')?.textContent?.trim()).toBe('Cross-section');
+    const plot = backend.expectOne((req) => req.url === '/api/v1/sections/7/plot.svg');
+    expect(plot.request.params.has('case')).toBe(false);
+    plot.flush('<svg></svg>');
+    backend.verify();
+  });
+
+  it('shows the cases side by side, the governing marked, and the drawing, methods and slices of the case picked', async () => {
+    await open('viewer');
+    const earthquake = {
+      ...INPUT,
+      name: 'earthquake',
+      kind: 'seismic' as const,
+      requiredFs: 1.1,
+      governs: null,
+      seismic: { kh: 0.1, kv: 0 },
+      drawdown: null,
+      earthquake: { pga: 0.25, magnitude: 6.5, allowableDisplacement: 0.15 },
+    };
+    const input: SectionInput = { ...INPUT, cases: [earthquake] };
+    backend
+      .expectOne('/api/v1/sections/7')
+      .flush(view(1, 'done', null, { result: caseResult(), input }));
+    await flushSide();
+    const rows = Array.from(q('case-table')?.querySelectorAll('tbody tr') ?? []);
+    const cells = rows.map((r) =>
+      Array.from(r.children).map((c) => c.textContent?.replace(/\s+/g, ' ').trim()),
+    );
+    expect(cells).toEqual([
+      [
+        'radio_button_unchecked long term',
+        'long term',
+        "Spencer's method",
+        '1.682',
+        '1.5',
+        '1.121',
+        'check_circle meets the required FS',
+      ],
+      [
+        'radio_button_checked river drawdown star governing',
+        'rapid drawdown',
+        "Spencer's method",
+        '1.104',
+        '1.2',
+        '0.920',
+        'cancel below the required FS',
+      ],
+      [
+        'radio_button_unchecked earthquake',
+        'seismic',
+        "Spencer's method",
+        '1.163',
+        '1.1',
+        '1.057',
+        'check_circle meets the required FS',
+      ],
+    ]);
+    expect(q('section-governing-case')?.textContent?.trim()).toBe('river drawdown');
+    expect(q('section-verdict')?.textContent).toContain('below the required FS');
+    // the governing case is shown first: its drawing, its stages
+    let plot = backend.expectOne((req) => req.url === '/api/v1/sections/7/plot.svg');
+    expect(plot.request.params.get('case')).toBe('river drawdown');
+    plot.flush('<svg><text>river drawdown</text></svg>');
+    expect(q('drawing-case')?.textContent?.trim()).toBe('· case river drawdown');
+    expect(q('drawdown-report')).not.toBeNull();
+    expect(q('seismic-report')).toBeNull();
+    expect(q('method-table')?.querySelector('td.fs')?.textContent?.trim()).toBe('1.104');
+    const stages = Array.from(q('slice-table')?.querySelectorAll('td[data-stage]') ?? []).map(
+      (td) => td.getAttribute('data-stage'),
+    );
+    expect(stages).toEqual(['undrained', 'drained-lower', 'drained']);
+
+    // pick the earthquake case
+    const pick = Array.from(el().querySelectorAll<HTMLButtonElement>('[data-testid=pick-case]'));
+    expect(pick.map((b) => b.getAttribute('aria-pressed'))).toEqual(['false', 'true', 'false']);
+    pick[2].click();
+    await fixture.whenStable();
+    expect(pick.map((b) => b.getAttribute('aria-pressed'))).toEqual(['false', 'false', 'true']);
+    plot = backend.expectOne((req) => req.url === '/api/v1/sections/7/plot.svg');
+    expect(plot.request.params.get('case')).toBe('earthquake');
+    plot.flush('<svg><text>earthquake</text></svg>');
+    await fixture.whenStable();
+    expect(q('section-drawing')?.textContent).toBe('earthquake');
+    expect(q('section-drawing')?.getAttribute('aria-label')).toBe(
+      'Cross-section drawing of the case earthquake',
+    );
+    expect(q('method-table')?.querySelector('td.fs')?.textContent?.trim()).toBe('1.163');
+    expect(q('drawdown-report')).toBeNull();
+    expect(q('seismic-report')?.textContent).toContain('Yield coefficient');
+    expect(q('seismic-report')?.textContent).toContain(
+      'The factors of safety above are pseudo-static, with the horizontal seismic coefficient kh = 0.1.',
+    );
+    expect(q('input-cases')?.textContent?.replace(/\s+/g, ' ').trim()).toBe(
+      'earthquake (seismic): required FS 1.1; every method governs; kh 0.1; design PGA 0.25 g',
+    );
+    expect(q('slice-table')?.querySelector('td[data-stage]')).toBeNull();
+    // the header stays the station's: the governing case
+    expect(q('section-fs')?.textContent).toContain('1.104');
+    expect(el().querySelector('sl-caution')).not.toBeNull();
     backend.verify();
   });
 });

@@ -5,6 +5,7 @@ import {
   effect,
   inject,
   input,
+  linkedSignal,
   signal,
 } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
@@ -34,12 +35,15 @@ import { loadState, type Loaded } from '../shared/load-state';
 import { PageState } from '../shared/page-state';
 import { fsText, plain, when } from './format';
 import { methodName } from '../shared/method-names';
+import { CaseTable } from './case-table';
+import { DrawdownReportView } from './drawdown-report';
 import { MethodTable } from './method-table';
+import { SeismicReportView } from './seismic-report';
 import { RerunForm } from './rerun-form';
 import { RunHistory } from './run-history';
 import { SectionDrawing } from './section-drawing';
 import { SectionInputView } from './section-input';
-import type { RunResult, SectionView } from './section-types';
+import type { CaseView, RunResult, SectionView } from './section-types';
 import { SectionsApi } from './sections-api';
 import { SliceTable } from './slice-table';
 import { WarningList } from './warning-list';
@@ -71,6 +75,9 @@ function keepShown<T>(prev: Loaded<T>, next: Loaded<T>): Loaded<T> {
     Caution,
     PageState,
     SectionDrawing,
+    CaseTable,
+    DrawdownReportView,
+    SeismicReportView,
     MethodTable,
     SliceTable,
     WarningList,
@@ -139,7 +146,10 @@ export class SectionDetail {
   });
   protected readonly fileName = computed(() => {
     const s = this.section();
-    return s ? `${s.key.replace(/[^A-Za-z0-9._-]+/g, '_')}-run${s.run}.svg` : 'section.svg';
+    if (!s) return 'section.svg';
+    const safe = (t: string) => t.replace(/[^A-Za-z0-9._-]+/g, '_');
+    const c = this.drawnCase();
+    return `${safe(s.key)}-run${s.run}${c === null ? '' : `-${safe(c)}`}.svg`;
   });
   protected readonly submittedBy = computed(() => this.section()?.submittedBy ?? null);
   /** Who submitted the batch, by name ("(you)" for the signed-in user). */
@@ -159,13 +169,72 @@ export class SectionDetail {
     return r ? verdictView(r.verdict) : null;
   });
 
+  /** The design cases of the current result (one, or none from an API before them). */
+  protected readonly cases = computed<readonly CaseView[]>(
+    () => this.section()?.result?.cases ?? [],
+  );
+  /** Several cases: side by side, one of them shown; one case: the page as it always was. */
+  protected readonly manyCases = computed(() => this.cases().length > 1);
+  /** The case shown: the governing one until another is picked (kept while it still exists). */
+  protected readonly picked = linkedSignal<
+    { names: string[]; governing: string | null },
+    string | null
+  >({
+    source: () => ({
+      names: this.cases().map((c) => c.name),
+      governing: this.section()?.result?.governingCase ?? null,
+    }),
+    computation: (src, prev) =>
+      prev?.value != null && src.names.includes(prev.value)
+        ? prev.value
+        : (src.governing ?? src.names[0] ?? null),
+  });
+  /** The case shown, with its drawdown or earthquake report (also of a station's one case). */
+  protected readonly shownCase = computed(() => {
+    const cases = this.cases();
+    if (cases.length === 1) return cases[0];
+    return cases.find((c) => c.name === this.picked()) ?? null;
+  });
+  /** What the methods, slices and warnings show: the picked case's, or the result's. */
+  protected readonly shown = computed(() => {
+    const r = this.section()?.result;
+    if (!r) return null;
+    const c = this.manyCases() ? this.shownCase() : null;
+    if (c === null) {
+      return {
+        methods: r.methods,
+        governing: r.governing,
+        requiredFs: r.requiredFs,
+        warnings: r.warnings,
+        search: r.search ?? null,
+      };
+    }
+    return {
+      methods: c.methods,
+      governing: c.governing,
+      requiredFs: c.requiredFs,
+      warnings: c.warnings,
+      search: c.search,
+    };
+  });
+  /** The drawing's case: named only when there are several (one case draws as before). */
+  protected readonly drawnCase = computed(() => (this.manyCases() ? this.picked() : null));
+  /** The pseudo-static kh of the shown case, from the section's input. */
+  protected readonly caseKh = computed(() => {
+    const s = this.section();
+    const c = this.shownCase();
+    if (!s || !c) return null;
+    const spec = s.input.cases?.find((k) => k.name === c.name);
+    return spec ? spec.seismic.kh : s.input.seismic.kh;
+  });
+
   protected readonly fsText = fsText;
   protected readonly jobWords = JOB_STATE_WORDS;
   protected readonly methodName = methodName;
   protected readonly plain = plain;
   protected readonly when = when;
   /** The search's account of the critical circle, in the core's words (null without a search). */
-  protected howFound(r: RunResult): string[] | null {
+  protected howFound(r: Pick<RunResult, 'search'>): string[] | null {
     const h = r.search?.howFound;
     return h ? howFoundWords(h) : null;
   }

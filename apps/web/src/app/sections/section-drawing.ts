@@ -23,7 +23,8 @@ interface Drawing {
 }
 
 /**
- * The cross-section as the server draws it for the current run (strata, water, loads, the
+ * The cross-section as the server draws it for the current run (of one design case when
+ * named) (strata, water, loads, the
  * critical surfaces, slices, the FS map of the search, axes, legend, caution), inlined so it
  * scales with the page, with a download of the same SVG file. Reloads when `version` changes.
  */
@@ -63,7 +64,11 @@ interface Drawing {
           data-testid="section-drawing"
           tabindex="0"
           role="region"
-          aria-label="Cross-section drawing"
+          [attr.aria-label]="
+            caseName() === null
+              ? 'Cross-section drawing'
+              : 'Cross-section drawing of the case ' + caseName()
+          "
           [innerHTML]="drawing()?.html"
         ></div>
       }
@@ -117,21 +122,24 @@ export class SectionDrawing {
   readonly version = input<string>('');
   /** The name of the downloaded file. */
   readonly fileName = input<string>('section.svg');
+  /** The design case to draw (the section as it sees it); null: the result as stored. */
+  readonly caseName = input<string | null>(null);
 
   protected readonly fit = signal(true);
   private readonly tries = signal(0);
 
   private readonly request = computed(() => ({
     id: this.sectionId(),
+    caseName: this.caseName(),
     version: this.version(),
     tries: this.tries(),
   }));
 
   protected readonly loaded = toSignal(
     toObservable(this.request).pipe(
-      switchMap(({ id }) =>
+      switchMap(({ id, caseName }) =>
         loadState(
-          this.api.plotSvg(id).pipe(
+          this.api.plotSvg(id, caseName).pipe(
             // Our own server's drawing of the solver's result: trusted markup, inlined as is.
             map((text): Drawing => ({ text, html: this.sanitizer.bypassSecurityTrustHtml(text) })),
           ),

@@ -6,6 +6,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { fromSi, type QuantityKind } from '@scarpline/core/units';
 import { plain, pointText, unitOf } from './format';
 import { methodName } from '../shared/method-names';
+import { caseKindWords } from '../shared/case-kinds';
 import type { Load, Material, SectionInput } from './section-types';
 
 /**
@@ -97,6 +98,21 @@ import type { Load, Material, SectionInput } from './section-types';
       }
     </dl>
 
+    @if (cases().length > 0) {
+      <h3>Design cases</h3>
+      <p class="hint">
+        Each case starts from the settings above and replaces what it gives (water, loads, the
+        seismic coefficient, materials by name, analysis settings).
+      </p>
+      <ul class="cases" data-testid="input-cases">
+        @for (c of cases(); track c.name) {
+          <li>
+            <strong>{{ c.name }}</strong> ({{ c.kind }}): {{ c.facts }}
+          </li>
+        }
+      </ul>
+    }
+
     <details class="whole">
       <summary>The whole input as stored (JSON, SI units)</summary>
       <div class="json-tools">
@@ -159,7 +175,8 @@ import type { Load, Material, SectionInput } from './section-types';
       font-variant-numeric: tabular-nums;
       font-size: 13px;
     }
-    .loads {
+    .loads,
+    .cases {
       margin: 4px 0;
       padding-left: 20px;
     }
@@ -277,6 +294,27 @@ export class SectionInputView {
         ? `Strip load ${this.v(l.pressure, 'pressure')} from x = ${this.n(l.from, 'length')} to ${this.v(l.to, 'length')}`
         : `Line load ${this.v(l.force, 'forcePerLength')} at x = ${this.v(l.x, 'length')}, ${plain(l.angle, 1)}° from the downward vertical`,
     ),
+  );
+
+  /** The design cases of the input, each in a line: kind, requirement, what governs, kh. */
+  protected readonly cases = computed(() =>
+    (this.section().cases ?? []).map((c) => {
+      const facts = [
+        c.requiredFs === null ? 'no required FS' : `required FS ${plain(c.requiredFs)}`,
+        c.governs === null
+          ? 'every method governs'
+          : `governed by ${c.governs.map(methodName).join(', ')}`,
+      ];
+      if (c.seismic.kh > 0) facts.push(`kh ${plain(c.seismic.kh)}`);
+      if (c.drawdown) {
+        const slow = Object.values(c.drawdown.materials).filter((m) => m.drains === 'slow');
+        facts.push(
+          `rapid drawdown, ${slow.length} ${slow.length === 1 ? 'material drains' : 'materials drain'} slowly`,
+        );
+      }
+      if (c.earthquake?.pga != null) facts.push(`design PGA ${plain(c.earthquake.pga)} g`);
+      return { name: c.name, kind: caseKindWords(c.kind), facts: facts.join('; ') };
+    }),
   );
 
   protected readonly settings = computed((): [string, string][] => {

@@ -6,13 +6,33 @@
  */
 import type { Message } from '@scarpline/core/input';
 import type { Section } from '@scarpline/core/model';
-import type { MethodReport, ReportedSurface, SectionResult } from '@scarpline/core/result';
+import type {
+  CaseKind,
+  DrawdownReport,
+  MethodReport,
+  ReportedSurface,
+  SectionResult,
+  SeismicReport,
+  Warning,
+} from '@scarpline/core/result';
+import type { MethodId } from '@scarpline/core/model';
+import type { Verdict } from '@scarpline/core/verdict';
 import type { SectionStatus } from '../batches/batch-types';
 import type { UserRef } from '../core/models';
 import type { ReviewSummary } from '../reviews/review-types';
 
 export type { Load, Material, MethodId, Point, Strength, UnitSystem } from '@scarpline/core/model';
-export type { MethodReport, ReportedSurface, SliceReport, Warning } from '@scarpline/core/result';
+export type {
+  CaseKind,
+  DisplacementEstimate,
+  DrawdownReport,
+  DrawdownStage,
+  MethodReport,
+  ReportedSurface,
+  SeismicReport,
+  SliceReport,
+  Warning,
+} from '@scarpline/core/result';
 
 /** The stored input: the validated, normalised section as the solver took it (SI). */
 export type SectionInput = Section;
@@ -23,6 +43,30 @@ export type SectionInput = Section;
  * SectionResult.
  */
 export type SearchReport = NonNullable<SectionResult['search']>;
+
+/**
+ * One design case of a run's result (the core's CaseResult, its `results` named `methods` as
+ * in RunResult): its requirement, its methods on its critical surface, its verdict, and the
+ * rapid-drawdown or earthquake report of a case of that kind.
+ */
+export interface CaseView {
+  name: string;
+  kind: CaseKind;
+  requiredFs: number | null;
+  /** The methods whose FS govern the case (the others are for comparison). */
+  governs: MethodId[];
+  governing: { method: MethodId; fs: number } | null;
+  /** The governing FS over the required FS; null without either, or with no significant slope. */
+  ratio: number | null;
+  verdict: Verdict;
+  warnings: Warning[];
+  methods: MethodReport[];
+  criticalSurface: ReportedSurface | null;
+  /** With the current result of GET /sections/{id} only; null otherwise or without a search. */
+  search: SearchReport | null;
+  drawdown?: DrawdownReport;
+  seismic?: SeismicReport;
+}
 
 /**
  * One run's result as the API stores it (resultView): the solver's result (its verdict in the
@@ -42,6 +86,14 @@ export interface RunResult extends Pick<
   attempt: number;
   /** Only on the current run's result. */
   search?: SearchReport | null;
+  /**
+   * The case with the lowest FS / required FS, whose methods, surface and search the fields
+   * above are (the verdict is the station's, over every case); absent from an API before
+   * design cases.
+   */
+  governingCase?: string | null;
+  /** Every design case, in the order the section lists them. */
+  cases?: CaseView[];
 }
 
 /**

@@ -1,4 +1,4 @@
-import { HttpClient, HttpErrorResponse } from '@angular/common/http';
+import { HttpClient, HttpErrorResponse, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { catchError, throwError, type Observable } from 'rxjs';
 import type { Batch } from '../batches/batch-types';
@@ -36,10 +36,14 @@ export class SectionsApi {
     return this.http.get<Batch>(`${BASE}/batches/${id}`);
   }
 
-  /** The drawing of the current run as SVG text (the server's drawing of the solver's result). */
-  plotSvg(id: number): Observable<string> {
+  /**
+   * The drawing of the current run as SVG text (the server's drawing of the solver's result):
+   * of one design case when named (the section as that case sees it, with its result).
+   */
+  plotSvg(id: number, caseName: string | null = null): Observable<string> {
+    const params = caseName === null ? undefined : new HttpParams().set('case', caseName);
     return this.http
-      .get(`${BASE}/sections/${id}/plot.svg`, { responseType: 'text' })
+      .get(`${BASE}/sections/${id}/plot.svg`, { responseType: 'text', params })
       .pipe(catchError((err: unknown) => throwError(() => withJsonBody(err))));
   }
 

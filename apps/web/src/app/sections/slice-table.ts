@@ -3,7 +3,8 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatSelectModule } from '@angular/material/select';
 import { fixed, surfaceText, unitOf } from './format';
 import { methodName } from '../shared/method-names';
-import type { MethodId, MethodReport, UnitSystem } from './section-types';
+import { DRAWDOWN_STAGE_WORDS } from './drawdown-report';
+import type { DrawdownReport, MethodId, MethodReport, UnitSystem } from './section-types';
 
 /**
  * The slices of one method (the governing one unless another is picked): every quantity the
@@ -84,6 +85,12 @@ import type { MethodId, MethodReport, UnitSystem } from './section-types';
                 line of thrust y<span class="u">{{ u().length }}</span>
               </th>
               <th scope="col">base material</th>
+              @if (stages(); as st) {
+                <th scope="col" class="sl-num">
+                  strength<span class="u">{{ u().pressure }}</span>
+                </th>
+                <th scope="col">set by (rapid drawdown)</th>
+              }
             </tr>
           </thead>
           <tbody>
@@ -106,11 +113,21 @@ import type { MethodId, MethodReport, UnitSystem } from './section-types';
                 </td>
                 <td class="sl-num">{{ f(s.interslice.thrust) }}</td>
                 <td>{{ s.material }}</td>
+                @if (stages(); as st) {
+                  <td class="sl-num">{{ f(st[$index].strength) }}</td>
+                  <td [attr.data-stage]="st[$index].stage">{{ stageWords[st[$index].stage] }}</td>
+                }
               </tr>
             }
           </tbody>
         </table>
       </div>
+      @if (drawdown() !== null && stages() === null && r.method === governing()) {
+        <p class="note" data-testid="drawdown-unmatched">
+          The rapid drawdown's strengths were reported for
+          {{ drawdown()!.length }} slices, not these {{ r.slices.length }}: they are not shown here.
+        </p>
+      }
       @if (intersliceNote(); as note) {
         <p class="note" data-testid="interslice-note">{{ note }}</p>
       }
@@ -196,7 +213,13 @@ export class SliceTable {
   /** The governing method: shown first. */
   readonly governing = input<MethodId | null>(null);
   readonly units = input<UnitSystem>('si');
+  /**
+   * A rapid-drawdown case's strength of each slice of the governing surface and the stage
+   * that set it (DrawdownReport.slices); null for any other case.
+   */
+  readonly drawdown = input<DrawdownReport['slices'] | null>(null);
 
+  protected readonly stageWords = DRAWDOWN_STAGE_WORDS;
   protected readonly withSlices = computed(() => this.methods().filter((m) => m.slices.length));
   /** The method picked; the governing one (or the first with slices) until the user picks. */
   protected readonly picked = linkedSignal<MethodId | null>(() => {
@@ -212,6 +235,13 @@ export class SliceTable {
   protected readonly shown = computed(
     () => this.withSlices().find((m) => m.method === this.picked()) ?? null,
   );
+  /** The drawdown's strengths, slice by slice, while the governing method's slices are shown. */
+  protected readonly stages = computed(() => {
+    const d = this.drawdown();
+    const r = this.shown();
+    if (d === null || r === null || r.method !== this.governing()) return null;
+    return d.length === r.slices.length ? d : null;
+  });
   protected readonly surface = computed(() =>
     surfaceText(this.shown()?.surface ?? null, this.units()),
   );

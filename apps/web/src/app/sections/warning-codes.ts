@@ -21,6 +21,13 @@ export const WARNING_EXPLANATIONS: Readonly<Record<string, WarningExplanation>> 
     check:
       'Check the search grid, the radii or tangent elevations and the ground ranges against the geometry; widen them or give a surface.',
   },
+  'no-significant-slope': {
+    title: 'No significant slope',
+    meaning:
+      'The ground hardly rises across the section, or the least factor of safety of the search is so large that no slip surface matters, so no factor of safety is reported as the verdict.',
+    check:
+      'If a slope was expected here, check the ground profile (its elevations and units) and the search; otherwise nothing needs checking for stability at this station.',
+  },
   'minimum-on-edge': {
     title: 'Lowest FS on the edge of the search grid',
     meaning:
