@@ -122,10 +122,10 @@ export { analyzeSection, searchSection, bishop, parseSections, CAUTION };
     'apps/api/src/services/boundary-probe.ts',
     `import { CAUTION } from '../../../../packages/core/src/caution'; // ✗
 import { drawSection } from '@scarpline/core/dist/draw'; // ✗
-import { exportRecord } from '@scarpline/core/export';
+import { stationRecords } from '@scarpline/core/export';
 import { analyzeSection } from '@scarpline/core';
 import { sequelize } from '../db';
-export { CAUTION, drawSection, exportRecord, analyzeSection, sequelize };
+export { CAUTION, drawSection, stationRecords, analyzeSection, sequelize };
 `,
   ],
 ];

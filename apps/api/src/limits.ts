@@ -15,6 +15,8 @@ export const API_LIMITS = Object.freeze({
   /** Characters of a password: at least, at most (a longer one is refused, never cut). */
   passwordMin: 8,
   passwordMax: 256,
+  /** Characters of a design case's name in a query (the section schema's bound). */
+  caseName: 100,
   /** The highest page of a paged list, and the most items on one page. */
   page: 100_000,
   pageSize: 500,

@@ -8,6 +8,7 @@ import * as fourth from './migrations/0004-verdicts-feature-properties';
 import * as fifth from './migrations/0005-accounts-and-editors';
 import * as sixth from './migrations/0006-worker-heartbeats';
 import * as seventh from './migrations/0007-phi-zero-circle-interslice';
+import * as eighth from './migrations/0008-case-results';
 
 export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
   return new Umzug({
@@ -19,6 +20,7 @@ export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
       { name: '0005-accounts-and-editors', up: fifth.up, down: fifth.down },
       { name: '0006-worker-heartbeats', up: sixth.up, down: sixth.down },
       { name: '0007-phi-zero-circle-interslice', up: seventh.up, down: seventh.down },
+      { name: '0008-case-results', up: eighth.up, down: eighth.down },
     ],
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),

@@ -6,7 +6,8 @@
  * when it does not stop by itself.
  *
  * The section may come as its JSON text (as the database gives it) and the result goes back
- * as the few fields the worker looks at plus the JSON text of the columns it writes: turning
+ * as the few fields the worker looks at plus the JSON text of the columns it writes (the
+ * station's summary and a row per design case): turning
  * objects into text and back is done here, beside the analysis, and not on the worker's main
  * thread, which only passes the text on to the database.
  */
@@ -15,12 +16,12 @@ import { parentPort } from 'node:worker_threads';
 import {
   AnalysisStopped,
   analyzeSection,
-  caseView,
-  unsolvedReason,
+  caseOf,
+  stationUnsolvedReason,
   type Section,
 } from '@scarpline/core';
-import type { SectionResult } from '@scarpline/core/result';
-import type { SolvedSection, ThreadAnswer, ThreadJob } from './solver';
+import type { CaseResult, StationResult } from '@scarpline/core/result';
+import type { SolvedCase, SolvedSection, ThreadAnswer, ThreadJob } from './solver';
 
 const port = parentPort;
 if (!port) throw new Error('solve-thread.js runs as a worker thread (see solver.ts)');
@@ -30,24 +31,49 @@ function inputHash(input: unknown): string {
   return crypto.createHash('sha256').update(JSON.stringify(input)).digest('hex');
 }
 
-/** What the worker writes of a result: the fields it reads, and the JSON columns as text. */
-function solved(result: SectionResult, input: unknown): SolvedSection {
-  const governing = result.results.find((m) => m.method === result.governing?.method);
-  const surface = governing?.surface ?? null;
+const text = (v: unknown) => (v === null || v === undefined ? null : JSON.stringify(v));
+
+/** What the worker writes of a case: the columns the filters read, its reports as JSON text. */
+function solvedCase(c: CaseResult): SolvedCase {
+  const governing = c.results.find((m) => m.method === c.governing?.method);
+  return {
+    name: c.name,
+    kind: c.kind,
+    verdict: c.verdict,
+    governing: c.governing,
+    requiredFs: c.requiredFs,
+    ratio: c.ratio,
+    json: {
+      governs: JSON.stringify(c.governs),
+      methods: JSON.stringify(c.results),
+      criticalSurface: text(governing?.surface),
+      warnings: JSON.stringify(c.warnings),
+      search: text(c.search),
+      drawdown: text(c.drawdown),
+      seismic: text(c.seismic),
+    },
+  };
+}
+
+/**
+ * What the worker writes of a station's result: its summary (the station's verdict, its
+ * governing case — the first when none governs — with that case's method, FS, requirement and
+ * ratio), its own warnings, and every case.
+ */
+function solved(result: StationResult, input: unknown): SolvedSection {
+  const shown = caseOf(result);
   return {
     verdict: result.verdict,
-    governing: result.governing,
-    requiredFs: result.requiredFs,
-    reason: result.verdict === 'no-fs' ? unsolvedReason(result.results) : null,
+    governingCase: result.governing?.case ?? null,
+    governing: shown.governing,
+    requiredFs: shown.requiredFs,
+    ratio: shown.ratio,
+    reason: result.verdict === 'no-fs' ? stationUnsolvedReason(result.cases) : null,
     solverVersion: result.solverVersion,
     caution: result.caution,
     inputHash: inputHash(input),
-    json: {
-      methods: JSON.stringify(result.results),
-      criticalSurface: surface === null ? null : JSON.stringify(surface),
-      warnings: JSON.stringify(result.warnings),
-      search: result.search === null ? null : JSON.stringify(result.search),
-    },
+    json: { warnings: JSON.stringify(result.warnings) },
+    cases: result.cases.map(solvedCase),
   };
 }
 
@@ -56,11 +82,7 @@ port.on('message', ({ section, deadline }: ThreadJob) => {
   try {
     const input: unknown = typeof section === 'string' ? JSON.parse(section) : section;
     const result = analyzeSection(input as Section, { shouldStop: () => Date.now() > deadline });
-    // the governing case, with the station's verdict over every case
-    answer = {
-      kind: 'result',
-      result: solved({ ...caseView(result), verdict: result.verdict }, input),
-    };
+    answer = { kind: 'result', result: solved(result, input) };
   } catch (e) {
     answer =
       e instanceof AnalysisStopped

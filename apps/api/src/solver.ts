@@ -8,7 +8,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
-import type { SectionResult } from '@scarpline/core/result';
+import type { CaseKind, StationResult } from '@scarpline/core/result';
 
 /** What the worker sends its thread. */
 export interface ThreadJob {
@@ -20,24 +20,46 @@ export interface ThreadJob {
 
 /**
  * A finished analysis as the thread hands it back (solve-thread.ts): the fields the worker
- * reads, and the JSON text of the columns it writes as they are.
+ * reads, and the JSON text of the columns it writes as they are. The station's summary: its
+ * verdict over every case, its governing case's method, FS, requirement and ratio (the first
+ * case's when none governs), and a row per case.
  */
 export interface SolvedSection {
-  verdict: SectionResult['verdict'];
-  governing: SectionResult['governing'];
+  verdict: StationResult['verdict'];
+  /** The governing case by name; null when none governs. */
+  governingCase: string | null;
+  governing: { method: string; fs: number } | null;
   requiredFs: number | null;
-  /** Why no method converged (verdict no-fs), else null. */
+  ratio: number | null;
+  /** Why there is no factor of safety to compare (verdict no-fs), else null. */
   reason: string | null;
   solverVersion: string;
   caution: string;
   /** sha256 of the input's JSON, stored with the result. */
   inputHash: string;
-  /** The per-method reports, the governing method's critical surface, the warnings, the search. */
+  /** The station's own warnings. */
+  json: { warnings: string };
+  /** Every case, in the order the section lists them. */
+  cases: SolvedCase[];
+}
+
+/** One case of a finished analysis: what the filters read, and its reports as JSON text. */
+export interface SolvedCase {
+  name: string;
+  kind: CaseKind;
+  verdict: StationResult['verdict'];
+  governing: { method: string; fs: number } | null;
+  requiredFs: number | null;
+  ratio: number | null;
+  /** The governing methods, the per-method reports, the governing method's critical surface, the warnings, the search, the drawdown and seismic reports. */
   json: {
+    governs: string;
     methods: string;
     criticalSurface: string | null;
     warnings: string;
     search: string | null;
+    drawdown: string | null;
+    seismic: string | null;
   };
 }
 

@@ -59,41 +59,50 @@ test('a 300-section corridor end to end: posted, solved, every result stored onc
   expect(sections).toHaveLength(300);
   expect(await ResultRow.count({ where: { sectionId: sections.map((s) => s.id) } })).toBe(300);
 
-  // the CSV export: a row per station, in agreement with the stored results
+  // the CSV export: per station a row per case then the station's, in agreement with the stored results
   const csv = await request(app)
     .get(`/api/v1/batches/${post.body.id}/results.csv`)
     .auth(engineer, { type: 'bearer' });
   expect(csv.status).toBe(200);
   const lines = csv.text.trim().split(/\r?\n/);
-  expect(lines).toHaveLength(301);
   const header = lines[0].split(',');
-  const fsCol = header.indexOf('fs');
-  const stationCol = header.indexOf('station');
-  expect(fsCol).toBeGreaterThanOrEqual(0);
+  const [fsCol, stationCol, rowCol, caseCol] = ['fs', 'station', 'row', 'case'].map((c) =>
+    header.indexOf(c),
+  );
+  expect(Math.min(fsCol, stationCol, rowCol, caseCol)).toBeGreaterThanOrEqual(0);
   const list = await request(app)
     .get(`/api/v1/batches/${post.body.id}/sections?sort=station&order=asc&pageSize=300`)
     .auth(engineer, { type: 'bearer' });
-  const byStation = new Map<number, number>(
-    list.body.items.map((i: { station: number; result: { governingFs: number } }) => [
-      i.station,
-      i.result.governingFs,
-    ]),
+  type Item = {
+    station: number;
+    result: { governingFs: number; cases: { name: string; governingFs: number }[] };
+  };
+  const byStation = new Map<number, Item['result']>(
+    list.body.items.map((i: Item) => [i.station, i.result]),
   );
-  for (const line of lines.slice(1)) {
-    const cells = line.split(',');
-    // the CSV gives FS to three decimals
-    expect(Number(cells[fsCol])).toBeCloseTo(byStation.get(Number(cells[stationCol]))!, 3);
+  const cases = list.body.items.reduce((n: number, i: Item) => n + i.result.cases.length, 0);
+  expect(lines).toHaveLength(1 + cases + 300);
+  const rows = lines.slice(1).map((line) => line.split(','));
+  expect(rows.filter((r) => r[rowCol] === 'station')).toHaveLength(300);
+  for (const cells of rows) {
+    const r = byStation.get(Number(cells[stationCol]))!;
+    // the CSV gives FS to three decimals: the station's, or its case's
+    const fs =
+      cells[rowCol] === 'station'
+        ? r.governingFs
+        : r.cases.find((c) => c.name === cells[caseCol])!.governingFs;
+    expect(Number(cells[fsCol])).toBeCloseTo(fs, 3);
   }
   expect(csv.text).toContain(CAUTION);
 
-  // the GeoJSON export: one feature per station with its FS
+  // the GeoJSON export: a feature per row of the CSV, each with its FS
   const geo = await request(app)
     .get(`/api/v1/batches/${post.body.id}/results.geojson`)
     .auth(engineer, { type: 'bearer' });
   expect(geo.status).toBe(200);
   const doc = JSON.parse(geo.text);
   expect(doc.type).toBe('FeatureCollection');
-  expect(doc.features).toHaveLength(300);
+  expect(doc.features).toHaveLength(rows.length);
   for (const f of doc.features) expect(f.properties.fs).toBeGreaterThan(0);
 
   // the completion mail at the local fake

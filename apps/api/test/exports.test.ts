@@ -35,6 +35,25 @@ function geoCorridor(n: number) {
   };
 }
 
+interface CaseBody {
+  name: string;
+  kind: string;
+  requiredFs: number | null;
+  governing: { method: string; fs: number } | null;
+  ratio: number | null;
+  verdict: string;
+}
+interface SectionBody {
+  key: string;
+  station: number;
+  stationLabel: string;
+  result: { verdict: string; governingCase: string | null; cases: CaseBody[] };
+}
+
+/** The case a station's row speaks for: its governing case, the first when none governs. */
+const shownCase = (s: SectionBody) =>
+  s.result.cases.find((c) => c.name === s.result.governingCase) ?? s.result.cases[0];
+
 /** Splits CSV text into rows of cells (quoted cells may hold commas and quotes). */
 function parseCsv(text: string): string[][] {
   return text
@@ -80,7 +99,7 @@ afterAll(async () => {
   await sequelize.close();
 });
 
-test('CSV: the core’s results table, a row per station, then review state and job state', async () => {
+test('CSV: the core’s results table, per station a row per case then the station’s, then review state and job state', async () => {
   await request(app)
     .post(`/api/v1/sections/${jsonBatch.sections[1].id}/reviews`)
     .auth(reviewer, bearer)
@@ -97,10 +116,13 @@ test('CSV: the core’s results table, a row per station, then review state and 
     'station',
     'chainage',
     'section_id',
+    'row',
     'case',
+    'kind',
     'governing_method',
     'fs',
     'required_fs',
+    'ratio',
     'verdict',
     'warnings',
     'note',
@@ -108,31 +130,41 @@ test('CSV: the core’s results table, a row per station, then review state and 
     'review_state',
     'job_state',
   ]);
-  expect(body).toHaveLength(3);
   const sections = await Promise.all(
     jsonBatch.sections.map((s) =>
       request(app).get(`/api/v1/sections/${s.id}`).auth(viewer, bearer),
     ),
   );
-  body.forEach((row, i) => {
-    const s = sections[i].body;
-    expect(row).toEqual([
+  // per station a row per case, then the station's row (its governing case, its verdict)
+  const expected = sections.flatMap((res, i) => {
+    const s = res.body as SectionBody;
+    const row = (c: CaseBody, which: string, verdict: string) => [
       String(s.station),
       s.stationLabel,
       s.key,
-      s.input.analysis.case,
-      s.result.governing.method,
-      s.result.governing.fs.toFixed(3),
-      '1.5',
-      s.result.verdict,
+      which,
+      c.name,
+      c.kind,
+      c.governing!.method,
+      c.governing!.fs.toFixed(3),
+      String(c.requiredFs),
+      c.ratio === null ? '' : c.ratio.toFixed(3),
+      verdict,
       expect.stringMatching(/^\d+$/),
       '',
       CAUTION,
       i === 1 ? 'returned' : 'pending',
       'done',
-    ]);
+    ];
+    return [
+      ...s.result.cases.map((c) => row(c, 'case', c.verdict)),
+      row(shownCase(s), 'station', s.result.verdict),
+    ];
   });
-  expect(body.map((r) => Number(r[0]))).toEqual([1000, 1020, 1040]);
+  expect(body).toEqual(expected);
+  expect([...new Set(body.map((r) => Number(r[0])))]).toEqual([1000, 1020, 1040]);
+  // every station is analysed in its cases (the corridor's own: long-term at least)
+  for (const s of sections) expect(s.body.result.cases.length).toBeGreaterThan(0);
 });
 
 test('GeoJSON from JSON input: features with null geometry and the results table’s properties', async () => {
@@ -147,34 +179,55 @@ test('GeoJSON from JSON input: features with null geometry and the results table
   const fc = JSON.parse(res.text);
   expect(fc.type).toBe('FeatureCollection');
   expect(fc.name).toBe('wcb-export');
-  expect(fc.features).toHaveLength(3);
-  const one = await request(app)
-    .get(`/api/v1/sections/${jsonBatch.sections[0].id}`)
-    .auth(viewer, bearer);
-  expect(fc.features[0]).toEqual({
-    type: 'Feature',
-    id: one.body.key,
-    geometry: null,
-    properties: {
-      station: 1000,
-      chainage: '1+000',
-      section_id: one.body.key,
-      case: one.body.input.analysis.case,
-      governing_method: one.body.result.governing.method,
-      fs: Number(one.body.result.governing.fs.toFixed(3)),
-      required_fs: 1.5,
-      verdict: one.body.result.verdict,
-      warnings: expect.any(Number),
-      note: null,
-      caution: CAUTION,
-      review_state: 'pending',
-      job_state: 'done',
-    },
+  const one = (
+    await request(app).get(`/api/v1/sections/${jsonBatch.sections[0].id}`).auth(viewer, bearer)
+  ).body as SectionBody;
+  const cases = one.result.cases;
+  const properties = (c: CaseBody) => ({
+    station: 1000,
+    chainage: '1+000',
+    section_id: one.key,
+    row: 'case',
+    case: c.name,
+    kind: c.kind,
+    governing_method: c.governing!.method,
+    fs: Number(c.governing!.fs.toFixed(3)),
+    required_fs: c.requiredFs,
+    ratio: c.ratio === null ? null : Number(c.ratio.toFixed(3)),
+    verdict: c.verdict,
+    warnings: expect.any(Number),
+    note: null,
+    caution: CAUTION,
+    review_state: 'pending',
+    job_state: 'done',
   });
+  // the first station's features: one per case, then the station's
+  expect(fc.features.slice(0, cases.length + 1)).toEqual([
+    ...cases.map((c) => ({
+      type: 'Feature',
+      id: `${one.key}#${c.name}`,
+      geometry: null,
+      properties: properties(c),
+    })),
+    {
+      type: 'Feature',
+      id: one.key,
+      geometry: null,
+      properties: { ...properties(shownCase(one)), row: 'station', verdict: one.result.verdict },
+    },
+  ]);
   expect(schemaErrors('ResultsGeoJson', fc)).toEqual([]);
   expect(
     fc.features.map((f: { properties: { chainage: string } }) => f.properties.chainage),
-  ).toEqual(['1+000', '1+020', '1+040']);
+  ).toEqual(
+    fc.features.map(
+      (f: { properties: { station: number } }) =>
+        ({ 1000: '1+000', 1020: '1+020', 1040: '1+040' })[f.properties.station],
+    ),
+  );
+  expect(
+    fc.features.filter((f: { properties: { row: string } }) => f.properties.row === 'station'),
+  ).toHaveLength(3);
 });
 
 test('GeoJSON from a GeoJSON corridor keeps each section line as its geometry', async () => {
@@ -189,14 +242,26 @@ test('GeoJSON from a GeoJSON corridor keeps each section line as its geometry', 
   const res = await request(app)
     .get(`/api/v1/batches/${up.body.id}/results.geojson`)
     .auth(viewer, bearer);
-  const fc = JSON.parse(res.text);
-  expect(fc.features.map((f: { geometry: unknown }) => f.geometry)).toEqual(
-    geo.features.map((f: { geometry: unknown }) => f.geometry),
-  );
-  for (const f of fc.features) {
+  const all = JSON.parse(res.text);
+  for (const f of all.features) {
     expect(f.properties.fs).toBeGreaterThan(0);
     expect(f.properties.caution).toBe(CAUTION);
   }
+  // a feature per case, then the station's, each with the station's line
+  const lineOf = new Map(
+    geo.features.map((f: { properties: { station: number }; geometry: unknown }) => [
+      `wcb-geo@${f.properties.station}`,
+      f.geometry,
+    ]),
+  );
+  for (const f of all.features) expect(f.geometry).toEqual(lineOf.get(f.properties.section_id));
+  expect(all.features.length).toBeGreaterThan(geo.features.length);
+  const fc = {
+    ...all,
+    features: all.features.filter(
+      (f: { properties: { row: string } }) => f.properties.row === 'station',
+    ),
+  };
   // The feature's own attributes come back first, as the command line gives them.
   expect(Object.keys(fc.features[1].properties).slice(0, 3)).toEqual([
     'station',
@@ -295,6 +360,9 @@ test('sections without a result: no verdict while queued, no-fs with the reason 
     '0',
     '0+000',
     'unfinished@0',
+    'station',
+    '',
+    '',
     '',
     '',
     '',
@@ -306,7 +374,7 @@ test('sections without a result: no verdict while queued, no-fs with the reason 
     'pending',
     'queued',
   ]);
-  expect(failed.slice(7, 10)).toEqual(['no-fs', '', 'the job ran out of time or retries']);
+  expect(failed.slice(10, 13)).toEqual(['no-fs', '', 'the job ran out of time or retries']);
   expect(failed.slice(-1)).toEqual(['failed']);
   const geo = await request(app)
     .get(`/api/v1/batches/${b.id}/results.geojson`)

@@ -318,10 +318,11 @@ function query(r: Rand): string {
   const params = [
     ['page', pick(r, ['1', '2', '1e20', '0', '-1', '2.5', '100001', '', 'x', '١'])],
     ['pageSize', pick(r, ['10', '500', '501', '1e9', '0'])],
-    ['sort', pick(r, ['station', 'fs', 'position', 'x', ''])],
+    ['sort', pick(r, ['station', 'fs', 'ratio', 'position', 'x', ''])],
     ['order', pick(r, ['asc', 'desc', 'up'])],
     ['status', pick(r, ['queued', 'done', 'failed', 'nope', '%00'])],
     ['verdict', pick(r, ['meets', 'below', 'fail', ''])],
+    ['case', pick(r, ['long-term', "a'b", 'as given', 'x'.repeat(101), '%00', ''])],
     ['access_token', tokens[pick(r, Object.keys(tokens))]],
     ['page[a]', '1'],
     ['%zz', '%zz'],
@@ -369,6 +370,14 @@ function validBody(r: Rand, method: string, route: string): unknown {
     'POST /sections/:id/runs': () => ({
       requiredFs: pick(r, [1.3, 1.5, 0, -1, 'x']),
       title: word(),
+      cases: pick(r, [
+        undefined,
+        { 'long-term': { requiredFs: 1.4 } },
+        { [word()]: null },
+        { [word()]: { kind: 'other' } },
+        [],
+        5,
+      ]),
     }),
     'POST /projects/:id/batches': () => ({
       ...corridor,
@@ -845,7 +854,7 @@ test(`${REQUESTS} malformed and pathological requests (seed ${SEED}): no 5xx, no
   // the outage was seen (the check above could fail)
   expect(during503).toBeGreaterThan(0);
 
-  // No half-written rows: every row written during the run has its audit entry.
+  // No half-written rows: every row written during the run has its audit entry, every result its cases.
   const orphans = await m.sequelize.query<{ what: string; id: number }>(
     `SELECT 'project' AS what, p.id FROM projects p WHERE p.created_at >= $1
         AND NOT EXISTS (SELECT 1 FROM audit_log a WHERE a.entity = 'project' AND a.action = 'create' AND a.entity_id = p.id)
@@ -864,7 +873,10 @@ test(`${REQUESTS} malformed and pathological requests (seed ${SEED}): no 5xx, no
         AND NOT EXISTS (SELECT 1 FROM audit_log a WHERE a.action = 'review' AND (a.details->>'reviewId')::int = v.id)
      UNION ALL
      SELECT 'rerun', s.id FROM sections s WHERE s.updated_at >= $1 AND s.run > 1
-        AND NOT EXISTS (SELECT 1 FROM audit_log a WHERE a.action = 'rerun' AND a.entity_id = s.id AND (a.details->>'run')::int = s.run)`,
+        AND NOT EXISTS (SELECT 1 FROM audit_log a WHERE a.action = 'rerun' AND a.entity_id = s.id AND (a.details->>'run')::int = s.run)
+     UNION ALL
+     SELECT 'result', r.id FROM results r WHERE r.created_at >= $1
+        AND NOT EXISTS (SELECT 1 FROM case_results c WHERE c.result_id = r.id)`,
     { bind: [startedAt], type: QueryTypes.SELECT },
   );
   expect(orphans).toEqual([]);

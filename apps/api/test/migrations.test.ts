@@ -206,3 +206,136 @@ test('0007: swedish-circle → phi-zero-circle, former interslice shapes → poi
   expect(down.search).toEqual({ type: 'auto', lowest: lowest.slice(0, 2) });
   expect(down.sectionInput.analysis.methods[0]).toBe('swedish-circle');
 });
+
+test('0008: every stored result becomes its single case (named by its case or `as given`, of the kind its name says or other); the result row keeps the summary; and back', async () => {
+  const m = migrator(db);
+  await m.up({ to: '0007-phi-zero-circle-interslice' });
+  const now = new Date().toISOString();
+  const surface = { type: 'circle', center: [10, 20], radius: 12 };
+  const search = { type: 'auto', trials: 40 };
+  const old = [
+    {
+      key: 'c@long',
+      input: { id: 'long', analysis: { case: 'long-term', requiredFs: 1.5 } },
+      inResult: true,
+      verdict: 'below',
+      method: 'bishop',
+      fs: 1.2,
+      required: 1.5,
+      methods: [
+        { method: 'bishop', fs: 1.2, warnings: [] },
+        { method: 'spencer', fs: 1.25, warnings: [] },
+      ],
+      warnings: [{ code: 'm-alpha-small', message: 'small' }],
+    },
+    {
+      // no case named, and the result kept no input of its own: the section's is read
+      key: 'c@plain',
+      input: { id: 'plain', analysis: { requiredFs: 1.3 } },
+      inResult: false,
+      verdict: 'no-fs',
+      method: null,
+      fs: null,
+      required: 1.3,
+      methods: [{ method: 'bishop', fs: null, reason: 'no convergence', warnings: [] }],
+      warnings: [],
+    },
+    {
+      key: 'c@flood',
+      input: { id: 'flood', analysis: { case: 'design flood' } },
+      inResult: true,
+      verdict: 'no-requirement',
+      method: 'spencer',
+      fs: 1.8,
+      required: null,
+      methods: [{ method: 'spencer', fs: 1.8, warnings: [] }],
+      warnings: [],
+    },
+  ];
+  const ids: number[] = [];
+  for (const [i, o] of old.entries()) {
+    const [[{ id: sectionId }]] = (await db.query(
+      `INSERT INTO sections (batch_id, key, position, input, status, created_at, updated_at)
+       VALUES (1, $2, $3, $4::jsonb, 'done', $1, $1) RETURNING id`,
+      { bind: [now, o.key, 20 + i, JSON.stringify(o.input)] },
+    )) as [{ id: number }[], unknown];
+    const [[{ id }]] = (await db.query(
+      `INSERT INTO results (section_id, run, verdict, governing_method, governing_fs, required_fs,
+         methods, critical_surface, warnings, search, input, solver_version, input_hash,
+         started_at, finished_at, duration_ms, attempt, created_at, updated_at)
+       VALUES ($2, 1, $3, $4, $5, $6, $7::jsonb, $8::jsonb, $9::jsonb, $10::jsonb, $11::jsonb,
+         '0', 'h', $1, $1, 1, 1, $1, $1) RETURNING id`,
+      {
+        bind: [
+          now,
+          sectionId,
+          o.verdict,
+          o.method,
+          o.fs,
+          o.required,
+          JSON.stringify(o.methods),
+          o.fs === null ? null : JSON.stringify(surface),
+          JSON.stringify(o.warnings),
+          JSON.stringify(search),
+          o.inResult ? JSON.stringify(o.input) : null,
+        ],
+      },
+    )) as [{ id: number }[], unknown];
+    ids.push(id);
+  }
+  const results = async (added = '') =>
+    db.query<Record<string, unknown>>(
+      `SELECT id, verdict, governing_method, governing_fs, required_fs, methods,
+              critical_surface, warnings, search ${added}
+         FROM results WHERE id = ANY($1::int[]) ORDER BY id`,
+      { bind: [ids], type: QueryTypes.SELECT },
+    );
+  const before = await results();
+
+  await m.up({ to: '0008-case-results' });
+  const cases = await db.query<Record<string, unknown>>(
+    `SELECT result_id, position, name, kind, verdict, governing_method, governing_fs, required_fs,
+            ratio, governs, methods, critical_surface, search, warnings, drawdown, seismic
+       FROM case_results WHERE result_id = ANY($1::int[]) ORDER BY result_id`,
+    { bind: [ids], type: QueryTypes.SELECT },
+  );
+  expect(cases.map((c) => [c.result_id, c.position, c.name, c.kind, c.verdict])).toEqual([
+    [ids[0], 0, 'long-term', 'long-term', 'below'],
+    [ids[1], 0, 'as given', 'other', 'no-fs'],
+    [ids[2], 0, 'design flood', 'other', 'no-requirement'],
+  ]);
+  expect(cases[0]).toMatchObject({
+    governing_method: 'bishop',
+    governing_fs: 1.2,
+    required_fs: 1.5,
+    governs: ['bishop', 'spencer'],
+    methods: old[0].methods,
+    critical_surface: surface,
+    search,
+    warnings: old[0].warnings,
+    drawdown: null,
+    seismic: null,
+  });
+  expect(cases[0].ratio).toBeCloseTo(1.2 / 1.5, 12);
+  expect([cases[1].ratio, cases[2].ratio]).toEqual([null, null]);
+  // the result row: the station's summary, the case's reports moved to its case
+  const after = await results(', governing_case, ratio');
+  expect(after.map((r) => [r.governing_case, r.ratio, r.methods, r.search])).toEqual([
+    ['long-term', cases[0].ratio, null, null],
+    [null, null, null, null],
+    ['design flood', null, null, null],
+  ]);
+  expect((await results()).map((r) => r.warnings)).toEqual([[], [], []]);
+
+  await m.down({ to: '0008-case-results' });
+  expect(await results()).toEqual(
+    before
+      .map((r) => ({ ...r, governing_case: undefined, ratio: undefined }))
+      .map((r) => {
+        const { governing_case: _c, ratio: _r, ...rest } = r;
+        return rest;
+      }),
+  );
+  const tables = await db.getQueryInterface().showAllTables();
+  expect(tables).not.toContain('case_results');
+});

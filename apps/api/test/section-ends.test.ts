@@ -131,11 +131,14 @@ test('taken together, analysed, written together: each section ends once with it
     same_input: boolean;
     results: string;
     attempt: number;
-    methods: unknown;
+    cases: { name: string; methods: unknown }[];
     updated_at: Date;
   }>(
-    `SELECT s.id, s.status, r.input = s.input AS same_input, r.attempt, r.methods, r.updated_at,
-            (SELECT count(*) FROM results x WHERE x.section_id = s.id) AS results
+    `SELECT s.id, s.status, r.input = s.input AS same_input, r.attempt, r.updated_at,
+            (SELECT count(*) FROM results x WHERE x.section_id = s.id) AS results,
+            (SELECT json_agg(json_build_object('name', c.name, 'methods', c.methods)
+                      ORDER BY c.position)
+               FROM case_results c WHERE c.result_id = r.id) AS cases
        FROM sections s JOIN results r ON r.section_id = s.id AND r.run = s.run
       WHERE s.batch_id = $1 ORDER BY s.id`,
     { bind: [batchId], type: QueryTypes.SELECT },
@@ -148,7 +151,11 @@ test('taken together, analysed, written together: each section ends once with it
     expect(r.attempt).toBe(1);
     const end = ends.find((e) => e.job.sectionId === r.id)!;
     if (end.kind !== 'result') throw new Error('a result');
-    expect(r.methods).toEqual(JSON.parse(end.result.json.methods));
+    // a row per case, each with its reports, once
+    expect(r.cases.map((c) => c.name)).toEqual(end.result.cases.map((c) => c.name));
+    r.cases.forEach((c, i) =>
+      expect(c.methods).toEqual(JSON.parse(end.result.cases[i].json.methods)),
+    );
   }
   // The last end closed the batch.
   const [batch] = await sequelize.query<{ status: string }>(

@@ -6,6 +6,7 @@ import {
   VERDICT_WORDS,
   type MethodReport,
   type CaseResult,
+  type DrawdownReport,
   type SeismicReport,
   type UnitSystem,
   type StationResult,
@@ -52,6 +53,22 @@ export function seismicWords(s: SeismicReport, units: UnitSystem): string[] {
   return lines;
 }
 
+/**
+ * A rapid-drawdown case in words: the F of each stage by the governing method, the drained
+ * drawdown beside them, and how many slices each stage's strength was taken on.
+ */
+export function drawdownWords(d: DrawdownReport): string[] {
+  const f = (v: number | null) => (v === null ? '—' : fsText(v));
+  const [s1, s2, s3] = d.stages.map((s) => f(s.fs));
+  const count = (stage: DrawdownReport['slices'][number]['stage']) =>
+    d.slices.filter((s) => s.stage === stage).length;
+  return [
+    `rapid drawdown in three stages (Duncan, Wright & Wong 1990): before drawdown F ${s1}, undrained after it F ${s2}, drained where weaker F ${s3}`,
+    `fully drained drawdown on the same surface: F ${f(d.drainedFs)}`,
+    `slice bases: ${count('undrained')} undrained, ${count('drained-lower')} drained where weaker than undrained, ${count('drained')} drained (free-draining)`,
+  ];
+}
+
 /** The lines of one case: a row per method, the governing FS against the requirement, how the search found it, the warnings. */
 function caseLines(c: CaseResult, units: UnitSystem, indent: string): string[] {
   const length = UNIT_LABELS[units].length;
@@ -72,6 +89,7 @@ function caseLines(c: CaseResult, units: UnitSystem, indent: string): string[] {
   } else lines.push(`${indent}governing: no method converged: ${words}`);
   if (comparing.length > 0) lines.push(`${indent}for comparison only: ${comparing.join(', ')}`);
   if (c.seismic) for (const w of seismicWords(c.seismic, units)) lines.push(`${indent}${w}`);
+  if (c.drawdown) for (const w of drawdownWords(c.drawdown)) lines.push(`${indent}${w}`);
   if (c.search?.howFound)
     for (const w of howFoundWords(c.search.howFound)) lines.push(`${indent}${w}`);
   for (const w of distinctWarnings({ results: c.results, warnings: c.warnings })) {

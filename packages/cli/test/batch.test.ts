@@ -77,7 +77,7 @@ describe('scarpline batch', () => {
     expect(doc.complete).toBe(true);
   });
 
-  test('results.csv: the core’s results table, a row per station with its verdict', () => {
+  test('results.csv: the core’s results table, per station a row per case then the station’s', () => {
     const rows = parse<Record<string, string>>(readFileSync(join(out, 'results.csv'), 'utf8'), {
       columns: true,
     });
@@ -85,38 +85,65 @@ describe('scarpline batch', () => {
       'station',
       'chainage',
       'section_id',
+      'row',
       'case',
+      'kind',
       'governing_method',
       'fs',
       'required_fs',
+      'ratio',
       'verdict',
       'warnings',
       'note',
       'caution',
     ]);
-    expect(rows.map((x) => [x.station, x.verdict])).toEqual([
-      ['1200', 'meets'],
-      ['1220', 'meets'],
-      ['1240', 'input-error'],
-      ['1260', 'below'],
+    // each section is its one case (analysis.case: long-term); one that did not read has its station row only
+    expect(rows.map((x) => [x.station, x.row, x.case, x.kind, x.verdict])).toEqual([
+      ['1200', 'case', 'long-term', 'long-term', 'meets'],
+      ['1200', 'station', 'long-term', 'long-term', 'meets'],
+      ['1220', 'case', 'long-term', 'long-term', 'meets'],
+      ['1220', 'station', 'long-term', 'long-term', 'meets'],
+      ['1240', 'station', '', '', 'input-error'],
+      ['1260', 'case', 'long-term', 'long-term', 'below'],
+      ['1260', 'station', 'long-term', 'long-term', 'below'],
     ]);
-    for (const x of rows.filter((x) => x.fs)) expect(x.fs).toMatch(/^\d+\.\d{3}$/);
-    expect(rows[2].note).toMatch(/^sections\[2\]\.ground\[2\]: x = 15 does not increase/);
-    expect(Number(rows[3].fs)).toBeLessThan(Number(rows[3].required_fs));
+    for (const x of rows.filter((x) => x.fs)) {
+      expect(x.fs).toMatch(/^\d+\.\d{3}$/);
+      expect(x.ratio).toMatch(/^\d+\.\d{3}$/);
+      expect(Number(x.ratio)).toBeCloseTo(Number(x.fs) / Number(x.required_fs), 2);
+    }
+    expect(rows[4].note).toMatch(/^sections\[2\]\.ground\[2\]: x = 15 does not increase/);
+    expect(rows[4].ratio).toBe('');
+    expect(Number(rows[6].fs)).toBeLessThan(Number(rows[6].required_fs));
+    expect(Number(rows[6].ratio)).toBeLessThan(1);
+    // a station of one case: its station row is its case row but for the row
+    for (const i of [0, 2, 5]) expect({ ...rows[i], row: 'station' }).toEqual(rows[i + 1]);
     for (const x of rows) expect(x.caution).toMatch(/licensed practice/);
   });
 
-  test('results.geojson from a YAML batch: unlocated features (geometry null) keyed by station', () => {
+  test('results.geojson from a YAML batch: unlocated features (geometry null) keyed by station and case', () => {
     const doc = JSON.parse(readFileSync(join(out, 'results.geojson'), 'utf8'));
     expectFeatureCollection(doc);
-    expect(doc.features).toHaveLength(4);
+    expect(doc.features.map((f: { id: string }) => f.id)).toEqual([
+      'wcb-test@1200#long-term',
+      'wcb-test@1200',
+      'wcb-test@1220#long-term',
+      'wcb-test@1220',
+      'wcb-test@1240',
+      'wcb-test@1260#long-term',
+      'wcb-test@1260',
+    ]);
     expect(doc.features.every((f: { geometry: unknown }) => f.geometry === null)).toBe(true);
     expect(doc.features[0].properties).toMatchObject({
       station: 1200,
       section_id: 'wcb-test@1200',
+      row: 'case',
+      case: 'long-term',
+      kind: 'long-term',
       governing_method: 'bishop',
       verdict: 'meets',
     });
+    expect(doc.features[1].properties).toMatchObject({ row: 'station', verdict: 'meets' });
     expect(doc.features[0].properties.caution).toMatch(/qualified/);
   });
 
@@ -142,18 +169,24 @@ describe('scarpline batch', () => {
     const input = JSON.parse(readFileSync(join(FIXTURES, 'corridor.geojson'), 'utf8'));
     const doc = JSON.parse(readFileSync(join(dir, 'results.geojson'), 'utf8'));
     expectFeatureCollection(doc);
-    expect(doc.features.map((f: { geometry: unknown }) => f.geometry)).toEqual(
+    // the station's features (each station is its one case here, and its case's feature the same line)
+    const stations = doc.features.filter(
+      (f: { properties: { row: string } }) => f.properties.row === 'station',
+    );
+    expect(doc.features).toHaveLength(2 * stations.length - 1);
+    expect(stations.map((f: { geometry: unknown }) => f.geometry)).toEqual(
       input.features.map((f: { geometry: unknown }) => f.geometry),
     );
-    expect(doc.features[0].properties).toMatchObject({
+    expect(doc.features[0].geometry).toEqual(stations[0].geometry);
+    expect(stations[0].properties).toMatchObject({
       station: 1200,
       name: 'XS-1200',
       section_id: 'wcb-gis@1200',
       verdict: 'meets',
     });
-    expect(doc.features[1].properties).toMatchObject({ required_fs: 1.6, verdict: 'below' });
-    expect(doc.features[1].properties.analysis).toBeUndefined(); // settings are not attributes
-    expect(doc.features[2].properties.verdict).toBe('input-error');
+    expect(stations[1].properties).toMatchObject({ required_fs: 1.6, verdict: 'below' });
+    expect(stations[1].properties.analysis).toBeUndefined(); // settings are not attributes
+    expect(stations[2].properties.verdict).toBe('input-error');
     expect(readdirSync(dir)).not.toContain('sections');
   });
 
@@ -215,7 +248,12 @@ describe('scarpline batch', () => {
     expect(doc.complete).toBe(false);
     expect(doc.sections.length).toBeGreaterThanOrEqual(3);
     expect(doc.sections.length).toBeLessThan(120);
-    const csv = parse(readFileSync(join(dir, 'out', 'results.csv'), 'utf8'), { columns: true });
-    expect(csv).toHaveLength(doc.written);
+    const csv = parse<Record<string, string>>(
+      readFileSync(join(dir, 'out', 'results.csv'), 'utf8'),
+      {
+        columns: true,
+      },
+    );
+    expect(csv.filter((x) => x.row === 'station')).toHaveLength(doc.written);
   }, 20000);
 });

@@ -7,7 +7,8 @@ import { caseSection, designCases } from './model/design-cases';
 import { type CaseAnalysis, governingOf, stationResult } from './station-result';
 import { seismicReport } from './seismic/seismic-report';
 import type { MethodReport, SectionResult, StationResult, Warning } from './result';
-import { resultInUnits, seismicInUnits } from './result-units';
+import { drawdownInUnits, resultInUnits, seismicInUnits } from './result-units';
+import { analyzeDrawdown } from './drawdown/analyze-drawdown';
 import { refineCircle } from './search/refine-circle';
 import { searchReport } from './search/search-report';
 import { type SearchOutcome, searchSection } from './search/search-section';
@@ -188,6 +189,7 @@ export function analyzeSection(section: Section, options: AnalyzeOptions = {}): 
   const cases = designCases(section).map((c): CaseAnalysis => {
     // a file without cases is analysed exactly as it always was
     const cs = listed ? caseSection(section, c) : section;
+    if (c.kind === 'rapid-drawdown' && c.drawdown) return drawdownCaseOf(cs, c, meter);
     const result = analyzeCase(cs, meter);
     if (c.kind !== 'seismic') return { spec: c, result };
     return { spec: c, result, ...earthquakeOf(cs, c, meter) };
@@ -214,5 +216,39 @@ function earthquakeOf(
     return { fs: g?.fs ?? null, surface: m?.surface ?? null };
   };
   const out = seismicReport(fsAt, c.earthquake);
-  return { seismic: seismicInUnits(out.seismic, cs.units), warnings: out.warnings };
+  return { seismic: seismicInUnits(out.seismic, 'built', cs.units), warnings: out.warnings };
+}
+
+/**
+ * A rapid-drawdown case (drawdown/analyze-drawdown.ts): the search and every method by the
+ * three stages of Duncan, Wright & Wong (1990) with the case's water before and its drawdown's
+ * water after, the drained drawdown beside them; in the section's units.
+ */
+function drawdownCaseOf(cs: Section, c: DesignCase, meter: WorkMeter): CaseAnalysis {
+  const dd = analyzeDrawdown(cs, c.drawdown!, meter, c.governs);
+  let governing: SectionResult['governing'] = null;
+  for (const r of dd.results) {
+    if (r.converged && r.fs !== null && (governing === null || r.fs < governing.fs))
+      governing = { method: r.method, fs: r.fs };
+  }
+  const inSi: SectionResult = {
+    id: cs.id,
+    title: cs.title,
+    station: cs.station,
+    units: 'si',
+    case: c.name,
+    requiredFs: c.requiredFs,
+    results: dd.results,
+    governing,
+    verdict: verdictOf(governing?.fs ?? null, c.requiredFs),
+    warnings: dd.warnings,
+    search: dd.search ? searchReport(dd.search) : null,
+    solverVersion: SOLVER_VERSION,
+    caution: CAUTION,
+  };
+  return {
+    spec: c,
+    result: { ...resultInUnits(inSi, cs.units), station: cs.station },
+    drawdown: drawdownInUnits(dd.drawdown, 'si', cs.units),
+  };
 }

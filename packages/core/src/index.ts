@@ -42,6 +42,8 @@ export {
   type CohesionlessSlope,
 } from './search/search-section';
 export { bishopCircleEvaluator } from './search/circle-evaluator';
+export { bishopSearchEvaluation, type SearchEvaluation } from './search/search-evaluation';
+export { searchWarnings } from './search/search-warnings';
 export { boundaries, touchRadius, type Boundary } from './search/boundaries';
 export {
   searchSettings,
@@ -97,6 +99,21 @@ export type { SliceMethodResult, MethodWarning } from './methods/types';
 export { analyzeSection, SOLVER_VERSION } from './analyze';
 export { howFoundWords } from './search-words';
 export * from './caution';
+// --- rapid drawdown (Duncan, Wright & Wong 1990)
+export { analyzeDrawdown, type DrawdownAnalysis } from './drawdown/analyze-drawdown';
+export { drawdownSections, type DrawdownSections } from './drawdown/drawdown-sections';
+export { resolveDrainage, type Drainage, type MaterialDrainage } from './drawdown/drainage';
+export {
+  undrainedStrength,
+  consolidationRatio,
+  failureRatio,
+  drawdownEnvelopes,
+  type DrawdownEnvelopes,
+} from './drawdown/undrained-strength';
+export { threeStages, type ThreeStages } from './drawdown/three-stages';
+export { drawdownCircleEvaluator } from './drawdown/drawdown-evaluator';
+export { drawdownSearchEvaluation } from './drawdown/drawdown-evaluation';
+export { withBaseStrengths, baseStrengths, type BaseStrengths } from './slices/base-strengths';
 export { AnalysisStopped, WORK_LIMIT, WorkMeter, type AnalyzeOptions } from './work-limit';
 export { METHODS, methodsFor, type MethodEntry } from './methods/registry';
 export type {

@@ -3,6 +3,7 @@ import { defaultPivot } from './methods/pivot';
 import type { SliceMethodResult } from './methods/types';
 import type { CircleSurface, MethodId, Point, PolylineSurface } from './model/types';
 import type { MethodReport, ReportedSurface, SliceReport, Warning } from './result';
+import type { BaseStrengths } from './slices/base-strengths';
 import type { PreparedSection } from './slices/prepare-section';
 import type { SliceOutcome, SliceSet } from './slices/slice-surface';
 
@@ -73,6 +74,21 @@ function cohesionlessWarning(prepared: PreparedSection, s: SliceSet): Warning | 
   };
 }
 
+/** A `no-convergence` warning for each method that applies but found no solution. */
+export function convergenceWarnings(results: readonly MethodReport[]): Warning[] {
+  const warnings: Warning[] = [];
+  for (const r of results) {
+    const applies = !r.warnings.some((w) => w.code === 'not-applicable');
+    if (!r.converged && applies) {
+      warnings.push({
+        code: 'no-convergence',
+        message: `${r.method}: ${r.reason ?? 'no solution'}`,
+      });
+    }
+  }
+  return warnings;
+}
+
 /** A method that did not run, and why (in its report and as a not-applicable warning). */
 export function notRun(
   method: MethodId,
@@ -98,43 +114,78 @@ export function runOnPlane(method: MethodId, prepared: PreparedSection): MethodR
   return { method, iterations: 0, slices: [], ...entry.runPlane(prepared.section) };
 }
 
+/** The point a method takes moments about (sliding orientation): a circle's centre, or one above a polyline (defaultPivot). */
+export function pivotOf(surface: CircleSurface | PolylineSurface, s: SliceSet): Point {
+  return surface.type === 'circle'
+    ? [(s.mirrored ? -1 : 1) * surface.center[0], surface.center[1]]
+    : defaultPivot(s);
+}
+
+/** One method on one slip surface: its report, and (for a method that ran) its solution and the slices it solved. */
+export interface SurfaceRun {
+  report: MethodReport;
+  /** The method's solution in the sliding orientation of `slices`; null where it did not run. */
+  result: SliceMethodResult | null;
+  slices: SliceSet | null;
+}
+
 /**
  * One method on one slip surface, reported in SI (section coordinates): the method from the
  * registry, refused with its reason where it does not take the surface, with the slices, the
- * surface actually used, its ends, the crack and the warnings.
+ * surface actually used, its ends, the crack and the warnings. With `strengths`, each slice
+ * base takes the strength given for it instead of its material's (slices/base-strengths.ts;
+ * the methods that are not methods of slices refuse them).
  */
 export function runOnSurface(
   method: MethodId,
   prepared: PreparedSection,
   surface: CircleSurface | PolylineSurface,
   cut: SliceOutcome,
+  strengths?: BaseStrengths,
 ): MethodReport {
+  return solveOnSurface(method, prepared, surface, cut, strengths).report;
+}
+
+/** runOnSurface, with the method's solution and the slices it solved beside the report. */
+export function solveOnSurface(
+  method: MethodId,
+  prepared: PreparedSection,
+  surface: CircleSurface | PolylineSurface,
+  cut: SliceOutcome,
+  strengths?: BaseStrengths,
+): SurfaceRun {
   const entry = METHODS[method];
   const reported = surfaceReport(surface);
-  if (!('run' in entry)) return notRun(method, `${method}: not a method of a slip surface`);
+  const refused = (report: MethodReport): SurfaceRun => ({ report, result: null, slices: null });
+  if (!('run' in entry))
+    return refused(notRun(method, `${method}: not a method of a slip surface`));
   if (!entry.surfaces.includes(surface.type)) {
     const ids = methodsFor(surface.type);
     const others =
       ids.length > 1 ? `${ids.slice(0, -1).join(', ')} or ${ids[ids.length - 1]}` : ids[0];
-    return notRun(
-      method,
-      `${method}: applies to ${entry.surfaces.map((k) => (k === 'circle' ? 'circular' : 'polyline')).join(' and ')} surfaces; use ${others} on a ${surface.type}`,
-      reported,
+    return refused(
+      notRun(
+        method,
+        `${method}: applies to ${entry.surfaces.map((k) => (k === 'circle' ? 'circular' : 'polyline')).join(' and ')} surfaces; use ${others} on a ${surface.type}`,
+        reported,
+      ),
     );
   }
-  if (!cut.ok) return notRun(method, `the slip surface was rejected: ${cut.reason}`, reported);
+  if (!cut.ok)
+    return refused(notRun(method, `the slip surface was rejected: ${cut.reason}`, reported));
   const s = cut.slices;
-  const pivot: Point =
-    surface.type === 'circle'
-      ? [(s.mirrored ? -1 : 1) * surface.center[0], surface.center[1]]
-      : defaultPivot(s);
-  const { result: r, extra = {}, slices = s } = entry.run({ prepared, surface, cut, pivot });
+  const pivot = pivotOf(surface, s);
+  const {
+    result: r,
+    extra = {},
+    slices = s,
+  } = entry.run({ prepared, surface, cut, pivot, strengths });
   const warnings: Warning[] = [...r.warnings];
   if (surface.type === 'circle' && entry.slices) {
-    const w = cohesionlessWarning(prepared, s);
+    const w = cohesionlessWarning(prepared, slices);
     if (w) warnings.push(w);
   }
-  return {
+  const report: MethodReport = {
     method,
     fs: r.converged ? r.fs : null,
     converged: r.converged,
@@ -148,4 +199,5 @@ export function runOnSurface(
     warnings,
     ...extra,
   };
+  return { report, result: r, slices };
 }

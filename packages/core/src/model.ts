@@ -4,6 +4,7 @@
  */
 export * from './model/types';
 export type * from './model/raw-section';
+export { caseKindOf, caseSection, designCases, sectionOfCase } from './model/design-cases';
 export {
   RENAMED_METHODS,
   FORMER_INTERSLICE_SHAPES,

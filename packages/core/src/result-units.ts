@@ -2,6 +2,7 @@ import type { Point, UnitSystem } from './model/types';
 import { type QuantityKind, fromSi, toSi } from './model/units';
 import { caseView } from './case-view';
 import type {
+  DrawdownReport,
   GridReport,
   MethodReport,
   ReportedSurface,
@@ -120,7 +121,13 @@ export function stationInUnits(r: StationResult, to: UnitSystem): StationResult 
   if (r.units === to) return r;
   const cases = r.cases.map((c) => {
     const v = resultInUnits({ ...caseView(r, c.name) }, to);
-    return { ...c, results: v.results, search: v.search };
+    return {
+      ...c,
+      results: v.results,
+      search: v.search,
+      ...(c.drawdown ? { drawdown: drawdownInUnits(c.drawdown, r.units, to) } : {}),
+      ...(c.seismic ? { seismic: seismicInUnits(c.seismic, r.units, to) } : {}),
+    };
   });
   const station = resultInUnits({ ...caseView(r), results: [], search: null }, to).station;
   return { ...r, units: to, station, cases };
@@ -140,20 +147,49 @@ export function displacementOut(m: number, units: UnitSystem): number {
 }
 
 /**
- * The earthquake report of a seismic case, built in SI, in the section's units: the ky
- * surface's coordinates as lengths, displacements in mm or in (displacementOut).
+ * The earthquake report of a seismic case in another unit system (`from` 'si' for the one
+ * the analysis builds, whose displacements are in m): the ky surface's coordinates as lengths,
+ * displacements in mm or in (displacementOut).
  */
-export function seismicInUnits(s: SeismicReport, to: UnitSystem): SeismicReport {
-  const d = (m: number) => displacementOut(m, to);
-  const surface = s.kySurface ? surfaceInUnits(s.kySurface, 'si', to) : null;
+export function seismicInUnits(
+  s: SeismicReport,
+  from: UnitSystem | 'built',
+  to: UnitSystem,
+): SeismicReport {
+  if (from === to) return s;
+  // as built by the analysis: SI lengths, displacements in m
+  const m = (v: number) => (from === 'built' ? v : from === 'us' ? v * INCH_IN_M : v / 1000);
+  const d = (v: number) => displacementOut(m(v), to);
+  const lengths = from === 'built' ? 'si' : from;
   return {
     ...s,
-    kySurface: surface,
+    kySurface: s.kySurface ? surfaceInUnits(s.kySurface, lengths, to) : null,
     displacements: s.displacements.map((e) => ({
       ...e,
       median: d(e.median),
       plusOneSd: d(e.plusOneSd),
     })),
     allowable: s.allowable === null ? null : d(s.allowable),
+  };
+}
+
+/**
+ * The drawdown report of a rapid-drawdown case in another unit system: each slice's x as a
+ * length and its strength as a pressure.
+ */
+export function drawdownInUnits(
+  d: DrawdownReport,
+  from: UnitSystem,
+  to: UnitSystem,
+): DrawdownReport {
+  if (from === to) return d;
+  const c = (v: number, kind: QuantityKind) => fromSi(toSi(v, kind, from), kind, to);
+  return {
+    ...d,
+    slices: d.slices.map((s) => ({
+      ...s,
+      x: c(s.x, 'length'),
+      strength: c(s.strength, 'pressure'),
+    })),
   };
 }

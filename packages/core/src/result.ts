@@ -198,7 +198,11 @@ export type DrawdownStage = 'drained' | 'undrained' | 'drained-lower';
 export interface DrawdownReport {
   /** Stage 1 (before drawdown, effective stresses), stage 2 (undrained), stage 3 (drained where lower): F of each, by the governing method. */
   stages: { stage: 1 | 2 | 3; fs: number | null }[];
-  /** F with post-drawdown pore pressures and drained strengths everywhere (the lower-bound comparison). */
+  /**
+   * F with post-drawdown pore pressures and drained strengths everywhere, on the same surface:
+   * the comparison the three-stage F is normally at or below (stage 3 keeps the lower of the
+   * two strengths on each base).
+   */
   drainedFs: number | null;
   /** Per slice of the governing surface: the strength used and the stage that set it. */
   slices: { x: number; material: string; strength: number; stage: DrawdownStage }[];

@@ -8,25 +8,27 @@ import Ajv2020 from 'ajv/dist/2020';
 import { exportTableSchema, resultSchema } from '@scarpline/schemas';
 import {
   analyzeSection,
-  caseView,
   CAUTION,
+  designCases,
   EXPORT_COLUMNS,
   exportCollection,
   exportCsvHeader,
   exportCsvRow,
   exportFeature,
-  exportRecord,
   FS_DECIMALS,
   fsText,
   JOB_STATE_WORDS,
   JOB_STATES,
   parseSections,
+  stationRecord,
+  stationRecords,
   unanalysedRecord,
   VERDICT_SHORT,
   VERDICT_WORDS,
   verdictOf,
   VERDICTS,
-  type SectionResult,
+  type Section,
+  type StationResult,
 } from '@scarpline/core';
 
 const ajv = new Ajv2020({ strict: false, allErrors: true });
@@ -42,12 +44,40 @@ const schema = exportTableSchema as unknown as {
 const verdictEnum = (resultSchema as unknown as { $defs: { verdict: { enum: string[] } } }).$defs
   .verdict.enum;
 
-/** The sections of the demo corridor's first stations, analysed. */
-function corridorResults(n: number): SectionResult[] {
+/** The sections of the demo corridor's first stations. */
+function corridorSections(n: number): Section[] {
   const text = readFileSync(join(__dirname, '../../../examples/corridor/corridor.json'), 'utf8');
   const corridor = JSON.parse(text) as { sections: unknown[] };
   const small = JSON.stringify({ ...corridor, sections: corridor.sections.slice(0, n) });
-  return parseSections(small, 'corridor.json').sections.map((s) => caseView(analyzeSection(s)));
+  return parseSections(small, 'corridor.json').sections;
+}
+
+/** The demo corridor's first stations analysed in one case: each station's own settings (its cases left out). */
+function corridorResults(n: number): StationResult[] {
+  return corridorSections(n).map((s) => analyzeSection({ ...s, cases: [] }));
+}
+
+/**
+ * A station of the corridor in two design cases, made on the normalised section: the section's
+ * own settings as a long-term case (required 1.5), and the same with a pseudo-static kh of 0.15
+ * as a seismic case (required 1.1), so that each case has its own FS.
+ */
+function twoCaseStation(): StationResult {
+  const s = corridorSections(1)[0];
+  const [own] = designCases(s);
+  return analyzeSection({
+    ...s,
+    cases: [
+      { ...own, name: 'long term', kind: 'long-term', requiredFs: 1.5 },
+      {
+        ...own,
+        name: 'earthquake',
+        kind: 'seismic',
+        requiredFs: 1.1,
+        seismic: { kh: 0.15, kv: 0 },
+      },
+    ],
+  });
 }
 
 describe('the vocabulary', () => {
@@ -94,34 +124,83 @@ describe('the results table', () => {
     );
   });
 
-  test('a row of an analysed section: its id, chainage, FS, verdict; valid against the schema', () => {
+  test('a station of one case: its case row, then its station row, the same but for row; valid against the schema', () => {
     for (const r of results) {
-      const row = exportRecord(r);
-      expect(row).toEqual({
+      const rows = stationRecords(r);
+      expect(rows).toHaveLength(2);
+      const [c] = r.cases;
+      expect(rows[0]).toEqual({
         station: r.station,
         chainage: expect.stringMatching(/^1\+0[024]0$/),
         section_id: r.id,
-        case: r.case,
-        governing_method: r.governing!.method,
-        fs: r.governing!.fs,
-        required_fs: r.requiredFs,
-        verdict: r.verdict,
+        row: 'case',
+        case: c.name,
+        kind: c.kind,
+        governing_method: c.governing!.method,
+        fs: c.governing!.fs,
+        required_fs: c.requiredFs,
+        ratio: c.ratio,
+        verdict: c.verdict,
         warnings: expect.any(Number),
         note: null,
         caution: CAUTION,
       });
-      expect(validateRow(row)).toBe(true);
-      expect(Object.keys(row)).toEqual([...EXPORT_COLUMNS]);
+      // a station's own settings without a case name: the one case 'as given', of kind other
+      expect(rows[0]).toMatchObject({ case: 'as given', kind: 'other', required_fs: 1.5 });
+      // FS / required FS, or none where the slope is not significant (FS above the cap)
+      if (c.verdict === 'no-slope') expect(rows[0].ratio).toBeNull();
+      else expect(rows[0].ratio).toBeCloseTo(c.governing!.fs / 1.5, 12);
+      expect(rows[1]).toEqual({ ...rows[0], row: 'station', verdict: r.verdict });
+      for (const row of rows) {
+        expect(validateRow(row)).toBe(true);
+        expect(Object.keys(row)).toEqual([...EXPORT_COLUMNS]);
+      }
     }
   });
 
-  test('CSV: FS with three decimals, empty cells for null, quoted cells, CRLF', () => {
+  test('a station of several cases: a row per case in their order, then the station’s with its governing case and verdict', () => {
+    const r = twoCaseStation();
+    const rows = stationRecords(r);
+    expect(rows.map((x) => [x.row, x.case, x.kind])).toEqual([
+      ['case', 'long term', 'long-term'],
+      ['case', 'earthquake', 'seismic'],
+      ['station', r.governing!.case, r.cases.find((c) => c.name === r.governing!.case)!.kind],
+    ]);
+    const [long, quake, station] = rows;
+    // kh lowers the FS: each case its own FS and requirement
+    expect(quake.fs!).toBeLessThan(long.fs!);
+    expect([long.required_fs, quake.required_fs]).toEqual([1.5, 1.1]);
+    expect(long.ratio).toBeCloseTo(long.fs! / 1.5, 12);
+    expect(quake.ratio).toBeCloseTo(quake.fs! / 1.1, 12);
+    // the governing case: the least FS / required FS; the station's verdict: the worst case's
+    const least = long.ratio! <= quake.ratio! ? long : quake;
+    expect(station).toMatchObject({
+      case: least.case,
+      governing_method: least.governing_method,
+      fs: least.fs,
+      required_fs: least.required_fs,
+      ratio: least.ratio,
+    });
+    const worst = [long.verdict, quake.verdict].includes('below') ? 'below' : 'meets';
+    expect(station.verdict).toBe(worst);
+    for (const row of rows) expect(validateRow(row)).toBe(true);
+    // GeoJSON: a case's feature is keyed by the section and the case, the station's by the section
+    expect(rows.map((x) => exportFeature(x).id)).toEqual([
+      `${r.id}#long term`,
+      `${r.id}#earthquake`,
+      r.id,
+    ]);
+  });
+
+  test('CSV: FS and ratio with three decimals, empty cells for null, quoted cells, CRLF', () => {
     const r = results[0];
-    const row = exportRecord(r);
+    const row = stationRecord(r);
     const line = exportCsvRow(row, ['pending', 'done']);
     expect(line.endsWith('\r\n')).toBe(true);
     const cells = line.slice(0, -2).split(',');
     expect(cells[EXPORT_COLUMNS.indexOf('fs')]).toBe(r.governing!.fs.toFixed(3));
+    expect(cells[EXPORT_COLUMNS.indexOf('ratio')]).toBe(r.governing!.ratio!.toFixed(3));
+    expect(cells[EXPORT_COLUMNS.indexOf('row')]).toBe('station');
     expect(cells[EXPORT_COLUMNS.indexOf('note')]).toBe('');
     expect(cells.slice(-2)).toEqual(['pending', 'done']);
     const bad = unanalysedRecord({
@@ -133,13 +212,13 @@ describe('the results table', () => {
     });
     expect(validateRow(bad)).toBe(true);
     expect(exportCsvRow(bad)).toBe(
-      `,,wcb@sections[2],,,,,input-error,,"ground[2]: x = 15 does not increase, ""from"" the point before",${CAUTION}\r\n`,
+      `,,wcb@sections[2],station,,,,,,,input-error,,"ground[2]: x = 15 does not increase, ""from"" the point before",${CAUTION}\r\n`,
     );
   });
 
   test('GeoJSON: the input’s flat attributes, then the columns (FS rounded), then the writer’s', () => {
     const r = results[1];
-    const f = exportFeature(exportRecord(r), {
+    const f = exportFeature(stationRecord(r), {
       geometry: {
         type: 'LineString',
         coordinates: [
@@ -169,17 +248,44 @@ describe('the results table', () => {
     });
   });
 
-  test('a section without a factor of safety says why in the note', () => {
-    const r = { ...results[0], governing: null, verdict: 'no-fs' as const };
-    const row = exportRecord({
-      ...r,
+  test('a case without a factor of safety says why in the note; the station’s row too, by case when it has several', () => {
+    const noFs = (name: string) => ({
+      name,
+      kind: 'other' as const,
+      requiredFs: 1.3,
+      governing: null,
+      ratio: null,
+      verdict: 'no-fs' as const,
+      warnings: [],
       results: [
-        { method: 'bishop', reason: 'no convergence', warnings: [] },
-        { method: 'spencer', warnings: [] },
+        { method: 'bishop' as const, reason: 'no convergence', warnings: [] },
+        { method: 'spencer' as const, warnings: [] },
       ],
     });
-    expect(row).toMatchObject({ fs: null, governing_method: null, verdict: 'no-fs' });
-    expect(row.note).toBe('bishop: no convergence; spencer: no solution');
-    expect(validateRow(row)).toBe(true);
+    const one = {
+      ...results[0],
+      cases: [noFs('as given')],
+      governing: null,
+      verdict: 'no-fs' as const,
+    };
+    const [c, st] = stationRecords(one);
+    for (const row of [c, st]) {
+      expect(row).toMatchObject({
+        fs: null,
+        governing_method: null,
+        ratio: null,
+        verdict: 'no-fs',
+      });
+      expect(row.note).toBe('bishop: no convergence; spencer: no solution');
+      expect(validateRow(row)).toBe(true);
+    }
+    // two cases, one with a factor of safety: the station has none to give for the other
+    const [fine] = results[0].cases;
+    const two = { ...one, cases: [fine, noFs('end of construction')] };
+    const station = stationRecord({ ...two, governing: { case: fine.name } });
+    expect(station).toMatchObject({ case: fine.name, fs: fine.governing!.fs, verdict: 'no-fs' });
+    expect(station.note).toBe('end of construction: bishop: no convergence; spencer: no solution');
+    // no case governs: the row speaks for the first case
+    expect(stationRecord({ ...two, governing: null }).case).toBe(fine.name);
   });
 });

@@ -3,7 +3,9 @@
  * governing case, the station's verdict, the methods that govern, no significant slope, and a
  * seismic case's yield coefficient through the whole analysis.
  */
-import { analyzeSection, designCases, stationVerdict } from '../src';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { analyzeSection, designCases, parseSections, stationInUnits, stationVerdict } from '../src';
 import type { DesignCase, Section } from '../src/model/types';
 import { makeSection, mc } from './helpers/make-section';
 
@@ -136,5 +138,40 @@ describe('a seismic case: the yield coefficient through the whole analysis', () 
     const largest = Math.max(...seismic.displacements.map((d) => d.median));
     expect(seismic.within).toBe(largest <= 100);
     if (seismic.within === false) expect(r.cases[0].verdict).toBe('below');
+  });
+});
+
+describe('a rapid-drawdown case through the whole analysis', () => {
+  // the levee example (our own invented Wendle flood bank): its drawdown case is analysed by
+  // the three stages, and the case's FS is the last stage's
+  const text = readFileSync(
+    join(__dirname, '..', '..', '..', 'examples', 'levee-drawdown-seismic.yaml'),
+    'utf8',
+  );
+  const [levee] = parseSections(text, 'levee-drawdown-seismic.yaml').sections;
+
+  test('the case reports its stages, and its governing FS is stage 3 of the governing method', () => {
+    const r = analyzeSection(levee);
+    const dd = r.cases.find((c) => c.kind === 'rapid-drawdown')!;
+    expect(dd.drawdown).toBeDefined();
+    expect(dd.drawdown!.stages.map((s) => s.stage)).toEqual([1, 2, 3]);
+    expect(dd.governing!.fs).toBeCloseTo(dd.drawdown!.stages[2].fs!, 9);
+    // stage 3 keeps the weaker of the undrained and drained strength on each base
+    expect(dd.drawdown!.stages[2].fs!).toBeLessThanOrEqual(dd.drawdown!.stages[1].fs! + 1e-9);
+    expect(dd.drawdown!.slices.length).toBeGreaterThan(0);
+    // the other cases have no drawdown
+    expect(r.cases.filter((c) => c.drawdown)).toHaveLength(1);
+  });
+
+  test('in us units the slices of the drawdown report are in ft and psf', () => {
+    const si = analyzeSection(levee).cases.find((c) => c.drawdown)!.drawdown!;
+    // an si result converted, as scarpline analyze --units us writes it
+    const converted = stationInUnits(analyzeSection(levee), 'us').cases.find((c) => c.drawdown)!;
+    for (const us of [converted.drawdown!]) {
+      // 1 ft = 0.3048 m, 1 psf = 0.04788025898 kPa (NIST SP 811, B.8)
+      expect(us.slices[0].x).toBeCloseTo(si.slices[0].x / 0.3048, 9);
+      expect(us.slices[0].strength).toBeCloseTo(si.slices[0].strength / 0.04788025898, 6);
+      expect(us.stages).toEqual(si.stages);
+    }
   });
 });

@@ -4,6 +4,7 @@
  */
 import { ApiToken } from './api-token';
 import { Batch } from './batch';
+import { CaseResultRow } from './case-result';
 import { PasswordReset } from './password-reset';
 import { Project } from './project';
 import { ResultRow } from './result';
@@ -21,6 +22,8 @@ Batch.hasMany(SectionRow, { foreignKey: 'batchId' });
 SectionRow.belongsTo(Batch, { foreignKey: 'batchId' });
 SectionRow.hasMany(ResultRow, { foreignKey: 'sectionId' });
 ResultRow.belongsTo(SectionRow, { foreignKey: 'sectionId' });
+ResultRow.hasMany(CaseResultRow, { foreignKey: 'resultId', as: 'cases' });
+CaseResultRow.belongsTo(ResultRow, { foreignKey: 'resultId' });
 Review.belongsTo(User, { foreignKey: 'reviewerId', as: 'reviewer' });
 Review.belongsTo(Batch, { foreignKey: 'batchId' });
 Review.belongsTo(SectionRow, { foreignKey: 'sectionId' });
@@ -30,6 +33,7 @@ PasswordReset.belongsTo(User, { foreignKey: 'userId' });
 export { ApiToken } from './api-token';
 export { AuditEntry } from './audit-entry';
 export { Batch, type BatchStatus } from './batch';
+export { CaseResultRow } from './case-result';
 export { PasswordReset } from './password-reset';
 export { Project } from './project';
 export { ResultRow } from './result';

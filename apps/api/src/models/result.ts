@@ -1,4 +1,8 @@
-/** Results: one row per run of a section, as the solver reported it. */
+/**
+ * Results: one row per run of a section, the station's summary (its verdict over every design
+ * case, its governing case's FS, method, requirement and ratio, its own warnings); each case's
+ * reports are in case_results (models/case-result.ts).
+ */
 import {
   DataTypes,
   Model,
@@ -17,16 +21,21 @@ export class ResultRow extends Model<
   declare id: CreationOptional<number>;
   declare sectionId: ForeignKey<number>;
   declare run: number;
-  /** The verdict of the run (the core's codes, verdict.ts): never `input-error` here. */
+  /** The station's verdict over every case (the core's codes, verdict.ts): never `input-error` here. */
   declare verdict: Verdict;
+  /** The governing case (the lowest FS / required FS); null when none governs. */
+  declare governingCase: string | null;
+  /** The governing case's (or, when none governs, the first case's) method, FS and requirement. */
   declare governingMethod: string | null;
   declare governingFs: number | null;
   declare requiredFs: number | null;
-  /** Per-method reports as analyzeSection returns them. */
-  declare methods: object;
+  /** The governing case's FS / required FS. */
+  declare ratio: number | null;
+  /** Results written before the cases (0008 moved them to case_results): null. */
+  declare methods: object | null;
   declare criticalSurface: object | null;
+  /** The station's own warnings (not a case's). */
   declare warnings: object;
-  /** The search report (FS map, moves), kept for plots. */
   declare search: object | null;
   declare reason: string | null;
   declare solverVersion: string;
@@ -45,10 +54,12 @@ ResultRow.init(
     id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
     run: { type: DataTypes.INTEGER, allowNull: false },
     verdict: { type: DataTypes.STRING, allowNull: false },
+    governingCase: { type: DataTypes.TEXT, allowNull: true },
     governingMethod: { type: DataTypes.STRING, allowNull: true },
     governingFs: { type: DataTypes.DOUBLE, allowNull: true },
     requiredFs: { type: DataTypes.DOUBLE, allowNull: true },
-    methods: { type: DataTypes.JSONB, allowNull: false },
+    ratio: { type: DataTypes.DOUBLE, allowNull: true },
+    methods: { type: DataTypes.JSONB, allowNull: true },
     criticalSurface: { type: DataTypes.JSONB, allowNull: true },
     warnings: { type: DataTypes.JSONB, allowNull: false },
     search: { type: DataTypes.JSONB, allowNull: true },

@@ -2,7 +2,8 @@ import { Router } from 'express';
 import { ALL, allow, principal } from '../middleware/auth';
 import { loadBatch } from '../services/batches';
 import { batchCsv, batchGeoJson, fileName, sectionSvg } from '../services/exports';
-import { idParam } from './params';
+import { API_LIMITS } from '../limits';
+import { idParam, queryName } from './params';
 
 export const exportRoutes = Router();
 const attachment = (name: string) => `attachment; filename="${name}"`;
@@ -24,6 +25,11 @@ exportRoutes.get('/batches/:id/results.geojson', allow(...ALL), async (req, res)
 });
 
 exportRoutes.get('/sections/:id/plot.svg', allow(...ALL), async (req, res) => {
-  const { svg, fileName: name } = await sectionSvg(principal(req), idParam(req.params.id));
+  const caseName = queryName(req.query.case, 'case', API_LIMITS.caseName);
+  const { svg, fileName: name } = await sectionSvg(
+    principal(req),
+    idParam(req.params.id),
+    caseName,
+  );
   res.type('image/svg+xml').set('Content-Disposition', `inline; filename="${name}"`).send(svg);
 });

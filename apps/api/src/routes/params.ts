@@ -86,3 +86,17 @@ export function queryText(value: unknown, name: string): string | undefined {
   if (typeof value !== 'string') throw badRequest(`${name} is given once, as a plain value.`);
   return value;
 }
+
+/**
+ * A name from a query (`?case=long term`), or undefined: at most `max` characters, none that no
+ * stored text may hold; 400 otherwise, or when the parameter is repeated or nested.
+ */
+export function queryName(value: unknown, name: string, max: number): string | undefined {
+  const v = queryText(value, name);
+  if (v === undefined) return undefined;
+  if (v.length > max)
+    throw badRequest(`${name} has ${v.length} characters; at most ${max} are taken.`);
+  const bad = badCharacter(v);
+  if (bad) throw badRequest(`${name} holds ${bad}: remove it.`);
+  return v;
+}

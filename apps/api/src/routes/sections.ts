@@ -3,7 +3,7 @@ import { ALL, allow, principal } from '../middleware/auth';
 import { loadBatch } from '../services/batches';
 import { listSections, sectionView } from '../services/sections';
 import { API_LIMITS } from '../limits';
-import { idParam, queryInt, queryText } from './params';
+import { idParam, queryInt, queryName, queryText } from './params';
 
 export const sectionRoutes = Router();
 
@@ -14,6 +14,7 @@ sectionRoutes.get('/batches/:id/sections', allow(...ALL), async (req, res) => {
     await listSections(b, {
       status: queryText(q.status, 'status'),
       verdict: queryText(q.verdict, 'verdict'),
+      case: queryName(q.case, 'case', API_LIMITS.caseName),
       sort: queryText(q.sort, 'sort'),
       order: queryText(q.order, 'order'),
       page: queryInt(q.page, 'page', 1, API_LIMITS.page),

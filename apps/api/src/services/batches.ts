@@ -101,6 +101,75 @@ export async function verdictCounts(batchId: number): Promise<Record<Verdict, nu
   return counts;
 }
 
+/**
+ * The design case names of a batch's sections (their current input), in the order first seen:
+ * by section, then as each lists them. A section that lists no cases is its own one case,
+ * named by analysis.case or `as given` (designCases in the core).
+ */
+export async function batchCases(batchId: number): Promise<string[]> {
+  const rows = await sequelize.query<{ name: string }>(
+    `WITH s AS (
+       SELECT position, input -> 'analysis' ->> 'case' AS own,
+              CASE WHEN jsonb_typeof(input -> 'cases') = 'array' THEN input -> 'cases'
+                   ELSE '[]'::jsonb END AS cases
+         FROM sections WHERE batch_id = $1
+     )
+     SELECT n.name FROM s CROSS JOIN LATERAL (
+         SELECT e.value ->> 'name' AS name, e.ord::int AS ord
+           FROM jsonb_array_elements(s.cases) WITH ORDINALITY AS e(value, ord)
+         UNION ALL
+         SELECT coalesce(s.own, 'as given'), 0 WHERE jsonb_array_length(s.cases) = 0
+       ) n
+      WHERE n.name IS NOT NULL
+      GROUP BY n.name ORDER BY min(ARRAY[s.position, n.ord])`,
+    { bind: [batchId], type: QueryTypes.SELECT },
+  );
+  return rows.map((r) => r.name);
+}
+
+/**
+ * For each case of a batch (batchCases' order), how many sections have each verdict in it, by
+ * their current result.
+ */
+export async function caseCounts(
+  batchId: number,
+  cases: string[],
+): Promise<Record<string, Record<Verdict, number>>> {
+  const rows = await sequelize.query<{ name: string; verdict: Verdict; n: string }>(
+    `SELECT c.name, c.verdict, count(*) AS n FROM case_results c
+       JOIN results r ON r.id = c.result_id
+       JOIN sections s ON s.id = r.section_id AND r.run = s.run
+      WHERE s.batch_id = $1 GROUP BY c.name, c.verdict`,
+    { bind: [batchId], type: QueryTypes.SELECT },
+  );
+  const zero = () => Object.fromEntries(VERDICTS.map((v) => [v, 0])) as Record<Verdict, number>;
+  const counts: Record<string, Record<Verdict, number>> = {};
+  for (const name of cases) counts[name] = zero();
+  for (const r of rows) (counts[r.name] ??= zero())[r.verdict] = Number(r.n);
+  return counts;
+}
+
+/** A station below its requirement in a case: its id, the case, its FS and required FS. */
+export interface StationBelow {
+  key: string;
+  name: string;
+  fs: number | null;
+  requiredFs: number | null;
+}
+
+/** The cases below their requirement in a batch's current results, in station order (at most `limit`). */
+export async function stationsBelow(batchId: number, limit: number): Promise<StationBelow[]> {
+  return sequelize.query<StationBelow>(
+    `SELECT s.key, c.name, c.governing_fs AS fs, c.required_fs AS "requiredFs"
+       FROM case_results c
+       JOIN results r ON r.id = c.result_id
+       JOIN sections s ON s.id = r.section_id AND r.run = s.run
+      WHERE s.batch_id = $1 AND c.verdict = 'below'
+      ORDER BY s.station ASC NULLS LAST, s.position, c.position LIMIT $2`,
+    { bind: [batchId, limit], type: QueryTypes.SELECT },
+  );
+}
+
 export async function loadBatch(p: Principal, batchId: number): Promise<Batch> {
   const b = await Batch.findByPk(batchId);
   if (!b) throw notFound('batch');
@@ -111,6 +180,7 @@ export async function loadBatch(p: Principal, batchId: number): Promise<Batch> {
 export async function batchView(batchId: number) {
   const b = await Batch.findByPk(batchId);
   if (!b) throw notFound('batch');
+  const cases = await batchCases(b.id);
   return {
     id: b.id,
     projectId: b.projectId,
@@ -123,6 +193,8 @@ export async function batchView(batchId: number) {
     createdAt: b.createdAt,
     finishedAt: b.finishedAt,
     progress: await progress(b.id),
+    cases,
+    caseCounts: await caseCounts(b.id, cases),
     review: await batchReview(b.id),
     caution: CAUTION,
   };

@@ -21,6 +21,7 @@ export const EDITABLE = [
   'crack',
   'analysis',
   'requiredFs',
+  'cases',
 ] as const;
 
 type Json = null | boolean | number | string | Json[] | { [key: string]: Json };
@@ -37,6 +38,58 @@ export function mergePatch(target: Json, patch: Json): Json {
     else out[k] = mergePatch(out[k] ?? null, v);
   }
   return out;
+}
+
+/** A 422 whose one error is located at `path` in the changes. */
+function editError(path: string, code: string, message: string): Problem {
+  return invalid(`${path}: ${message}.`, {
+    errors: [{ severity: 'error', path, code, message, text: `${path}: ${message}` }],
+  });
+}
+
+/**
+ * The design cases after an edit of `cases`: a list replaces them all (RFC 7396), null removes
+ * them; an object edits them by name: each member a merge patch of the case of that name as the
+ * section document writes it, null removes that case, and a name the section does not list
+ * adds a case of that name. The result is read again by the core's checks like the rest.
+ *
+ * @example casesPatch([{ name: 'long term', kind: 'long-term' }], { 'long term': { requiredFs: 1.4 } })
+ */
+export function casesPatch(current: unknown, edits: unknown): Json {
+  if (edits === null || Array.isArray(edits)) return edits as Json;
+  if (!isObject(edits)) {
+    throw editError(
+      'cases',
+      'cases-edit',
+      'give the cases as a list (it replaces them all) or as an object of edits by case name',
+    );
+  }
+  const list: Json[] = Array.isArray(current) ? [...(current as Json[])] : [];
+  const named = (name: string) => list.findIndex((c) => isObject(c) && c.name === name);
+  for (const [name, patch] of Object.entries(edits)) {
+    const at = named(name);
+    if (patch === null) {
+      if (at < 0) {
+        const names = list
+          .map((c) => (isObject(c) && typeof c.name === 'string' ? c.name : ''))
+          .filter(Boolean);
+        throw editError(
+          `cases.${name}`,
+          'no-such-case',
+          `the section has no case named "${name}" to remove${names.length ? ` (its cases: ${names.join(', ')})` : ''}`,
+        );
+      }
+      list.splice(at, 1);
+    } else if (!isObject(patch)) {
+      throw editError(
+        `cases.${name}`,
+        'cases-edit',
+        'an edit of a case is an object (a merge patch of the case) or null',
+      );
+    } else if (at < 0) list.push(mergePatch({ name }, patch));
+    else list[at] = mergePatch(list[at], patch);
+  }
+  return list;
 }
 
 /**
@@ -77,12 +130,19 @@ export function checkEdits(
       })),
     });
   }
-  const { requiredFs, ...rest } = changes;
+  const { requiredFs, cases, ...rest } = changes;
   const patch: Record<string, Json> = { ...rest };
   if (requiredFs !== undefined) {
     patch.analysis = mergePatch(patch.analysis ?? {}, { requiredFs });
   }
-  const doc = mergePatch(sectionDocument(stored) as unknown as Json, patch);
+  const written = sectionDocument(stored) as unknown as Record<string, Json>;
+  const doc = mergePatch(written, patch) as Record<string, Json>;
+  // a list replaces the cases (RFC 7396); an object edits them by name
+  if (cases !== undefined) {
+    const next = casesPatch(written.cases, cases);
+    if (next === null) delete doc.cases;
+    else doc.cases = next;
+  }
   return readEditedSection(doc, stored.units);
 }
 

@@ -10,7 +10,7 @@ import { fsText, JOB_STATE_WORDS, VERDICT_WORDS, VERDICTS } from '@scarpline/cor
 import { config } from '../config';
 import { log } from '../log';
 import { Batch, SectionRow, User } from '../models';
-import { progress, verdictCounts } from './batches';
+import { batchCases, progress, stationsBelow, verdictCounts } from './batches';
 
 export interface FakeMessage {
   from: string;
@@ -125,6 +125,45 @@ async function summary(batchId: number): Promise<string[]> {
   ];
 }
 
+/** A case below its requirement: its name, its governing FS and its required FS. */
+export interface CaseBelow {
+  name: string;
+  fs: number | null;
+  requiredFs: number | null;
+}
+
+const belowText = (c: CaseBelow) =>
+  `${c.name}: FS ${c.fs === null ? '—' : fsText(c.fs)} against required ${c.requiredFs ?? '—'}`;
+
+/** How many lines of stations below their requirement a batch's mail lists at most. */
+const MAIL_STATIONS = 200;
+
+/**
+ * The stations of a batch below their requirement, by case: a line per case (in the order the
+ * batches' cases were first seen) with the stations below in it, in station order, each with
+ * its FS against the requirement.
+ */
+async function belowByCase(batchId: number): Promise<string[]> {
+  const rows = await stationsBelow(batchId, MAIL_STATIONS + 1);
+  if (rows.length === 0) return [];
+  const order = await batchCases(batchId);
+  const byCase = new Map<string, string[]>();
+  for (const r of rows.slice(0, MAIL_STATIONS)) {
+    byCase.set(r.name, [...(byCase.get(r.name) ?? []), belowText({ ...r, name: r.key })]);
+  }
+  const out = ['', `Stations ${VERDICT_WORDS.below}, by case:`];
+  const rank = (name: string) => order.indexOf(name) + 1 || order.length + 1;
+  for (const [name, lines] of [...byCase].sort((a, b) => rank(a[0]) - rank(b[0]))) {
+    out.push(`- ${name} (${lines.length}):`, ...lines.map((l) => `    ${l}`));
+  }
+  if (rows.length > MAIL_STATIONS) {
+    out.push(
+      `(the first ${MAIL_STATIONS} only: the batch's results list them all, ?verdict=below)`,
+    );
+  }
+  return out;
+}
+
 export async function batchFinished(batchId: number): Promise<void> {
   const batch = await Batch.findByPk(batchId);
   if (!batch) return;
@@ -132,21 +171,25 @@ export async function batchFinished(batchId: number): Promise<void> {
   await send(
     await recipients(batch),
     `Scarpline batch ${batch.name} finished: ${p.belowRequiredFs} of ${p.total} ${VERDICT_WORDS.below}`,
-    [`Batch ${batch.id} (${batch.name}) has finished.`, ...(await summary(batchId))].join('\n'),
+    [
+      `Batch ${batch.id} (${batch.name}) has finished.`,
+      ...(await summary(batchId)),
+      ...(await belowByCase(batchId)),
+    ].join('\n'),
   );
 }
 
-export async function sectionBelowFs(
-  section: SectionRow,
-  fs: number | null,
-  required: number | null,
-): Promise<void> {
+/** Tells that a station is below its requirement, with each case it is below in. */
+export async function sectionBelowFs(section: SectionRow, cases: CaseBelow[]): Promise<void> {
   const batch = await Batch.findByPk(section.batchId);
   if (!batch) return;
   await send(
     await recipients(batch),
     `Scarpline: section ${section.key} is ${VERDICT_WORDS.below}`,
-    `Section ${section.key} (batch ${batch.name}): FS ${fs === null ? '—' : fsText(fs)} against required ${required}: ${VERDICT_WORDS.below}.`,
+    [
+      `Section ${section.key} (batch ${batch.name}): ${VERDICT_WORDS.below} in ${cases.length === 1 ? 'one case' : `${cases.length} cases`}:`,
+      ...cases.map((c) => `- ${belowText(c)}`),
+    ].join('\n'),
   );
 }
 

@@ -12,7 +12,7 @@ import { AuditEntry, Batch, ResultRow } from '../models';
 import { enqueueSections } from '../queue';
 import { audit } from './audit';
 import type { Principal } from './auth';
-import { loadSection, resultView, sectionView } from './sections';
+import { casesOf, loadSection, resultView, sectionView } from './sections';
 import { sectionMessage } from './validate';
 import { userRefs } from './views';
 
@@ -59,6 +59,7 @@ export async function sectionRuns(p: Principal, sectionId: number) {
     where: { sectionId: section.id },
     order: [['run', 'DESC']],
   });
+  const cases = await casesOf(results);
   const edits = await AuditEntry.findAll({
     where: { action: 'rerun', entity: 'section', entityId: section.id },
   });
@@ -78,7 +79,7 @@ export async function sectionRuns(p: Principal, sectionId: number) {
       /** Who started this run with edits (null for the submitted run). */
       editor: editedBy === null ? null : (editors.get(editedBy) ?? null),
       input: r?.input ?? (run === section.run ? section.input : null),
-      result: r ? resultView(r) : null,
+      result: r ? resultView(r, cases.get(r.id) ?? []) : null,
     });
   }
   return { sectionId: section.id, key: section.key, run: section.run, runs, caution: CAUTION };

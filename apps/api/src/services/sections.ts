@@ -8,29 +8,108 @@ import type { Section } from '@scarpline/core/model';
 import { JOB_STATES, VERDICTS } from '@scarpline/core/verdict';
 import { sequelize } from '../db';
 import { badRequest, notFound } from '../errors';
-import { Batch, ResultRow, SectionRow } from '../models';
+import { Batch, CaseResultRow, ResultRow, SectionRow } from '../models';
 import { assertProject, type Principal } from './auth';
 import { loadBatch } from './batches';
 import { sectionReview, sectionReviewStates } from './reviews';
 import { messageView } from './validate';
 import { stationLabel, userRef } from './views';
 
-/** A run's result; with `search`, also the search report (FS map, trials) the drawing uses. */
-export function resultView(r: ResultRow, options: { search?: boolean } = {}) {
+/** What a list of sections reads of each case: its summary and its warnings, no reports. */
+const BRIEF: (keyof CaseResultRow)[] = [
+  'resultId',
+  'position',
+  'name',
+  'kind',
+  'verdict',
+  'governingMethod',
+  'governingFs',
+  'requiredFs',
+  'ratio',
+  'warnings',
+];
+
+/**
+ * The case rows of these results, in each result's order of cases: with `search`, their
+ * search reports too; `brief`, only their summaries and warnings.
+ */
+export async function casesOf(
+  results: readonly ResultRow[],
+  options: { search?: boolean; brief?: boolean } = {},
+): Promise<Map<number, CaseResultRow[]>> {
+  const attributes = options.brief ? BRIEF : options.search ? undefined : { exclude: ['search'] };
+  const rows = results.length
+    ? await CaseResultRow.findAll({
+        where: { resultId: results.map((r) => r.id) },
+        attributes,
+        order: [
+          ['resultId', 'ASC'],
+          ['position', 'ASC'],
+        ],
+      })
+    : [];
+  const out = new Map<number, CaseResultRow[]>(results.map((r) => [r.id, []]));
+  for (const c of rows) out.get(c.resultId)?.push(c);
+  return out;
+}
+
+/** One case of a run's result (CaseView); its search report only when asked (and loaded). */
+function caseView(c: CaseResultRow, search: boolean) {
+  return {
+    name: c.name,
+    kind: c.kind,
+    requiredFs: c.requiredFs,
+    governs: c.governs,
+    governing:
+      c.governingMethod !== null && c.governingFs !== null
+        ? { method: c.governingMethod, fs: c.governingFs }
+        : null,
+    ratio: c.ratio,
+    verdict: c.verdict,
+    warnings: c.warnings,
+    methods: c.methods,
+    criticalSurface: c.criticalSurface,
+    search: search ? (c.search ?? null) : null,
+    ...(c.drawdown ? { drawdown: c.drawdown } : {}),
+    ...(c.seismic ? { seismic: c.seismic } : {}),
+  };
+}
+
+/** The warnings of a run's result: its governing case's (the first case's when none governs), then the station's own. */
+function warningsOf(r: ResultRow, cases: readonly CaseResultRow[]): object[] {
+  const shown = cases.find((c) => c.name === r.governingCase) ?? cases[0];
+  return [...(shown?.warnings ?? []), ...(r.warnings as object[])];
+}
+
+/**
+ * A run's result: the station's verdict over every case, its governing case, and that case's
+ * method, FS, requirement, reports and warnings (the first case's when none governs; the
+ * station's own warnings after them), then every case; with `search`, the search reports (the
+ * FS map, the trials) the drawing uses.
+ */
+export function resultView(
+  r: ResultRow,
+  cases: readonly CaseResultRow[],
+  options: { search?: boolean } = {},
+) {
+  const shown = cases.find((c) => c.name === r.governingCase) ?? cases[0];
+  const search = options.search ?? false;
   return {
     run: r.run,
     verdict: r.verdict,
+    governingCase: r.governingCase,
     governing: r.governingMethod ? { method: r.governingMethod, fs: r.governingFs } : null,
     requiredFs: r.requiredFs,
     reason: r.reason,
-    criticalSurface: r.criticalSurface,
-    methods: r.methods,
-    warnings: r.warnings,
+    criticalSurface: shown?.criticalSurface ?? null,
+    methods: shown?.methods ?? [],
+    warnings: warningsOf(r, cases),
     solverVersion: r.solverVersion,
     inputHash: r.inputHash,
     timings: { startedAt: r.startedAt, finishedAt: r.finishedAt, durationMs: r.durationMs },
     attempt: r.attempt,
-    ...(options.search ? { search: r.search } : {}),
+    ...(search ? { search: shown?.search ?? null } : {}),
+    cases: cases.map((c) => caseView(c, search)),
     caution: CAUTION,
   };
 }
@@ -50,6 +129,9 @@ export async function sectionView(p: Principal, id: number) {
   const batch = await loadBatch(p, s.batchId);
   const results = await ResultRow.findAll({ where: { sectionId: s.id }, order: [['run', 'DESC']] });
   const current = results.find((r) => r.run === s.run);
+  const previous = results.filter((r) => r !== current);
+  const currentCases = await casesOf(current ? [current] : [], { search: true });
+  const previousCases = await casesOf(previous);
   return {
     id: s.id,
     batchId: s.batchId,
@@ -68,8 +150,10 @@ export async function sectionView(p: Principal, id: number) {
     /** The warnings of the input checks about this section's current input. */
     inputWarnings: s.inputWarnings.map(messageView),
     geometry: s.geometry ?? null,
-    result: current ? resultView(current, { search: true }) : null,
-    previous: results.filter((r) => r.run !== s.run).map((r) => resultView(r)),
+    result: current
+      ? resultView(current, currentCases.get(current.id) ?? [], { search: true })
+      : null,
+    previous: previous.map((r) => resultView(r, previousCases.get(r.id) ?? [])),
     review: await sectionReview(s),
     caution: CAUTION,
   };
@@ -78,6 +162,8 @@ export async function sectionView(p: Principal, id: number) {
 export interface SectionQuery {
   status?: string;
   verdict?: string;
+  /** A design case by name: the verdict filter then applies to that case. */
+  case?: string;
   sort?: string;
   order?: string;
   page: number;
@@ -95,10 +181,20 @@ export async function listSections(batch: Batch, q: SectionQuery) {
     Object.assign(where, { status: q.status });
   }
   const resultWhere: WhereOptions = { run: { [Op.eq]: sequelize.col('SectionRow.run') } };
-  if (q.verdict !== undefined) {
-    if (!(VERDICTS as readonly string[]).includes(q.verdict)) {
-      throw badRequest(`verdict is one of ${VERDICTS.join(', ')}.`);
-    }
+  if (q.verdict !== undefined && !(VERDICTS as readonly string[]).includes(q.verdict)) {
+    throw badRequest(`verdict is one of ${VERDICTS.join(', ')}.`);
+  }
+  if (q.case !== undefined) {
+    // the sections whose current result has a case of that name (with that verdict)
+    const verdict = q.verdict === undefined ? '' : `AND c.verdict = ${sequelize.escape(q.verdict)}`;
+    Object.assign(where, {
+      [Op.and]: sequelize.literal(
+        `EXISTS (SELECT 1 FROM case_results c JOIN results r ON r.id = c.result_id
+           WHERE r.section_id = "SectionRow"."id" AND r.run = "SectionRow"."run"
+             AND c.name = ${sequelize.escape(q.case)} ${verdict})`,
+      ),
+    });
+  } else if (q.verdict !== undefined) {
     Object.assign(resultWhere, { verdict: q.verdict });
   }
   if (q.order !== undefined && q.order !== 'asc' && q.order !== 'desc') {
@@ -106,26 +202,40 @@ export async function listSections(batch: Batch, q: SectionQuery) {
   }
   const dir = q.order === 'desc' ? 'DESC' : 'ASC';
   const sort = q.sort ?? 'station';
-  if (!['station', 'fs', 'position'].includes(sort)) throw badRequest('sort is station or fs.');
-  const order: OrderItem[] =
-    sort === 'fs'
-      ? [[{ model: ResultRow, as: 'ResultRows' }, 'governingFs', `${dir} NULLS LAST`]]
-      : [[sort, `${dir} NULLS LAST`]];
+  if (!['station', 'fs', 'ratio', 'position'].includes(sort)) {
+    throw badRequest('sort is station, fs, ratio or position.');
+  }
+  const byResult = { fs: 'governingFs', ratio: 'ratio' } as Record<string, string>;
+  const order: OrderItem[] = byResult[sort]
+    ? [[{ model: ResultRow, as: 'ResultRows' }, byResult[sort], `${dir} NULLS LAST`]]
+    : [[sort, `${dir} NULLS LAST`]];
   const { rows, count } = await SectionRow.findAndCountAll({
     where,
-    include: [{ model: ResultRow, where: resultWhere, required: q.verdict !== undefined }],
+    include: [
+      {
+        model: ResultRow,
+        where: resultWhere,
+        required: q.verdict !== undefined && q.case === undefined,
+      },
+    ],
     order: [...order, ['id', 'ASC']],
     limit: pageSize,
     offset: (page - 1) * pageSize,
     distinct: true,
   });
   const reviews = await sectionReviewStates(batch.id);
+  const resultOf = (s: SectionRow) =>
+    (s as SectionRow & { ResultRows?: ResultRow[] }).ResultRows?.[0];
+  const cases = await casesOf(
+    rows.map(resultOf).filter((r): r is ResultRow => r !== undefined),
+    { brief: true },
+  );
   return {
     page,
     pageSize,
     total: count,
     items: rows.map((s) => {
-      const r = (s as SectionRow & { ResultRows?: ResultRow[] }).ResultRows?.[0];
+      const r = resultOf(s);
       return {
         id: s.id,
         key: s.key,
@@ -142,10 +252,21 @@ export async function listSections(batch: Batch, q: SectionQuery) {
         result: r
           ? {
               verdict: r.verdict,
+              governingCase: r.governingCase,
               governingMethod: r.governingMethod,
               governingFs: r.governingFs,
               requiredFs: r.requiredFs,
-              warnings: r.warnings,
+              ratio: r.ratio,
+              warnings: warningsOf(r, cases.get(r.id) ?? []),
+              cases: (cases.get(r.id) ?? []).map((c) => ({
+                name: c.name,
+                kind: c.kind,
+                verdict: c.verdict,
+                governingMethod: c.governingMethod,
+                governingFs: c.governingFs,
+                requiredFs: c.requiredFs,
+                ratio: c.ratio,
+              })),
             }
           : null,
       };

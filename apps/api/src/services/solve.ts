@@ -109,24 +109,37 @@ export type SectionEnd = {
   | { kind: 'stopped'; reason: string; startedAt: Date; finishedAt: Date }
 );
 
-const RESULT_COLUMNS = `section_id, run, verdict, governing_method, governing_fs, required_fs,
-  methods, critical_surface, warnings, search, reason, solver_version, input_hash, started_at,
-  finished_at, duration_ms, attempt`;
+const RESULT_COLUMNS = `section_id, run, verdict, governing_case, governing_method, governing_fs,
+  required_fs, ratio, warnings, reason, solver_version, input_hash, started_at, finished_at,
+  duration_ms, attempt`;
+
+const CASE_COLUMNS = `position, name, kind, verdict, governing_method, governing_fs, required_fs,
+  ratio, governs, methods, critical_surface, search, warnings, drawdown, seismic`;
+
+const CASE_VALUES = CASE_COLUMNS.replace(/(\w+)/g, 'c.$1');
 
 /**
  * Writes results and ends their sections in one statement (atomic as a transaction): only the
  * sections that still wait for the result's run end, and only those get a result row (the
- * section's input copied into it, in the database). Returns the ids of the sections it ended.
- * One end per section and run (the caller's).
+ * section's input copied into it, in the database) and a row per design case. Returns the ids
+ * of the sections it ended. One end per section and run (the caller's).
  */
 async function writeResults(ends: (SectionEnd & { kind: 'result' })[]): Promise<Set<number>> {
   const col = <T>(f: (e: SectionEnd & { kind: 'result' }) => T) => ends.map(f);
+  // the cases of every end, flat, each with its section and run
+  const cases = ends.flatMap((e) => e.result.cases.map((c, position) => ({ e, c, position })));
+  const caseCol = <T>(f: (x: (typeof cases)[number]) => T) => cases.map(f);
   const rows = await sequelize.query<{ id: number }>(
     `WITH r AS (
-       SELECT * FROM unnest($1::int[], $2::int[], $3::text[], $4::text[], $5::float8[],
-         $6::float8[], $7::jsonb[], $8::jsonb[], $9::jsonb[], $10::jsonb[], $11::text[],
-         $12::text[], $13::text[], $14::timestamptz[], $15::timestamptz[], $16::int[], $17::int[])
+       SELECT * FROM unnest($1::int[], $2::int[], $3::text[], $4::text[], $5::text[], $6::float8[],
+         $7::float8[], $8::float8[], $9::jsonb[], $10::text[], $11::text[], $12::text[],
+         $13::timestamptz[], $14::timestamptz[], $15::int[], $16::int[])
          AS r(${RESULT_COLUMNS})
+     ), c AS (
+       SELECT * FROM unnest($17::int[], $18::int[], $19::int[], $20::text[], $21::text[],
+         $22::text[], $23::text[], $24::float8[], $25::float8[], $26::float8[], $27::jsonb[],
+         $28::jsonb[], $29::jsonb[], $30::jsonb[], $31::jsonb[], $32::jsonb[], $33::jsonb[])
+         AS c(section_id, run, ${CASE_COLUMNS})
      ), ended AS (
        UPDATE sections s
           SET status = CASE WHEN r.verdict = 'no-fs' THEN 'failed' ELSE 'done' END,
@@ -138,14 +151,27 @@ async function writeResults(ends: (SectionEnd & { kind: 'result' })[]): Promise<
        INSERT INTO results (${RESULT_COLUMNS}, input, created_at, updated_at)
        SELECT r.*, ended.input, now(), now() FROM r JOIN ended ON ended.id = r.section_id
        ON CONFLICT (section_id, run) DO UPDATE SET
-         verdict = EXCLUDED.verdict, governing_method = EXCLUDED.governing_method,
-         governing_fs = EXCLUDED.governing_fs, required_fs = EXCLUDED.required_fs,
-         methods = EXCLUDED.methods, critical_surface = EXCLUDED.critical_surface,
-         warnings = EXCLUDED.warnings, search = EXCLUDED.search, reason = EXCLUDED.reason,
+         verdict = EXCLUDED.verdict, governing_case = EXCLUDED.governing_case,
+         governing_method = EXCLUDED.governing_method, governing_fs = EXCLUDED.governing_fs,
+         required_fs = EXCLUDED.required_fs, ratio = EXCLUDED.ratio,
+         methods = NULL, critical_surface = NULL, search = NULL,
+         warnings = EXCLUDED.warnings, reason = EXCLUDED.reason,
          solver_version = EXCLUDED.solver_version, input_hash = EXCLUDED.input_hash,
          started_at = EXCLUDED.started_at, finished_at = EXCLUDED.finished_at,
          duration_ms = EXCLUDED.duration_ms, attempt = EXCLUDED.attempt,
          input = EXCLUDED.input, updated_at = EXCLUDED.updated_at
+       RETURNING id, section_id, run
+     ), cased AS (
+       INSERT INTO case_results (result_id, ${CASE_COLUMNS}, created_at, updated_at)
+       SELECT written.id, ${CASE_VALUES}, now(), now()
+         FROM c JOIN written ON written.section_id = c.section_id AND written.run = c.run
+       ON CONFLICT (result_id, name) DO UPDATE SET
+         position = EXCLUDED.position, kind = EXCLUDED.kind, verdict = EXCLUDED.verdict,
+         governing_method = EXCLUDED.governing_method, governing_fs = EXCLUDED.governing_fs,
+         required_fs = EXCLUDED.required_fs, ratio = EXCLUDED.ratio, governs = EXCLUDED.governs,
+         methods = EXCLUDED.methods, critical_surface = EXCLUDED.critical_surface,
+         search = EXCLUDED.search, warnings = EXCLUDED.warnings, drawdown = EXCLUDED.drawdown,
+         seismic = EXCLUDED.seismic, updated_at = EXCLUDED.updated_at
      )
      SELECT id FROM ended`,
     {
@@ -153,13 +179,12 @@ async function writeResults(ends: (SectionEnd & { kind: 'result' })[]): Promise<
         col((e) => e.job.sectionId),
         col((e) => e.job.run),
         col((e) => e.result.verdict),
+        col((e) => e.result.governingCase),
         col((e) => e.result.governing?.method ?? null),
         col((e) => e.result.governing?.fs ?? null),
         col((e) => e.result.requiredFs),
-        col((e) => e.result.json.methods),
-        col((e) => e.result.json.criticalSurface),
+        col((e) => e.result.ratio),
         col((e) => e.result.json.warnings),
-        col((e) => e.result.json.search),
         col((e) => e.result.reason?.slice(0, 2000) ?? null),
         col((e) => e.result.solverVersion),
         col((e) => e.result.inputHash),
@@ -167,6 +192,23 @@ async function writeResults(ends: (SectionEnd & { kind: 'result' })[]): Promise<
         col((e) => e.finishedAt),
         col((e) => e.finishedAt.getTime() - e.startedAt.getTime()),
         col((e) => e.attempt + 1),
+        caseCol((x) => x.e.job.sectionId),
+        caseCol((x) => x.e.job.run),
+        caseCol((x) => x.position),
+        caseCol((x) => x.c.name),
+        caseCol((x) => x.c.kind),
+        caseCol((x) => x.c.verdict),
+        caseCol((x) => x.c.governing?.method ?? null),
+        caseCol((x) => x.c.governing?.fs ?? null),
+        caseCol((x) => x.c.requiredFs),
+        caseCol((x) => x.c.ratio),
+        caseCol((x) => x.c.json.governs),
+        caseCol((x) => x.c.json.methods),
+        caseCol((x) => x.c.json.criticalSurface),
+        caseCol((x) => x.c.json.search),
+        caseCol((x) => x.c.json.warnings),
+        caseCol((x) => x.c.json.drawdown),
+        caseCol((x) => x.c.json.seismic),
       ],
       type: QueryTypes.SELECT,
     },
@@ -246,7 +288,10 @@ export async function endSections(ends: SectionEnd[], signal?: AbortSignal): Pro
       signal,
     );
     if (row) {
-      await step('mail', () => sectionBelowFs(row, r.governing?.fs ?? null, r.requiredFs), signal);
+      const below = r.cases
+        .filter((c) => c.verdict === 'below')
+        .map((c) => ({ name: c.name, fs: c.governing?.fs ?? null, requiredFs: c.requiredFs }));
+      await step('mail', () => sectionBelowFs(row, below), signal);
     }
   }
   await closeBatches(

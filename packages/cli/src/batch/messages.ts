@@ -10,9 +10,10 @@ export interface Task {
 }
 
 /**
- * A worker's answer: the result as JSON text (for results.json) and the section's row of the
- * results table (small, so that a long corridor stays small in memory), or why it failed.
+ * A worker's answer: the result as JSON text (for results.json) and the station's rows of the
+ * results table, one per case and then the station's (small, so that a long corridor stays
+ * small in memory), or why it failed.
  */
 export type Reply =
-  | { index: number; ok: true; json: string; record: ExportRecord }
+  | { index: number; ok: true; json: string; records: ExportRecord[] }
   | { index: number; ok: false; error: string };

@@ -9,13 +9,11 @@ import {
   exportCsvRow,
   formatMessage,
   fromSi,
-  fsText,
   isGeoJsonCorridor,
   parseGeoJsonCorridor,
   parseSections,
   toSi,
   unanalysedRecord,
-  VERDICT_SHORT,
   VERDICT_WORDS,
   VERDICTS,
   type CorridorFeature,
@@ -28,7 +26,7 @@ import {
 import { applyOverrides, type Overrides } from '../overrides';
 import { readInput, UserError } from '../read-input';
 import type { Reply, Task } from './messages';
-import { Output, resultsGeoJson } from './outputs';
+import { Output, resultsGeoJson, stationLine as line, stationRow } from './outputs';
 import { WorkerPool } from './pool';
 
 export interface BatchOptions extends Overrides {
@@ -41,7 +39,10 @@ export interface BatchOptions extends Overrides {
   tty?: boolean;
 }
 
-/** One station of the batch: its section until it is analysed, then its row of the results table. */
+/**
+ * One station of the batch: its section until it is analysed, then its rows of the results
+ * table (a row per case, then the station's, last; the station's row alone without a result).
+ */
 interface Entry {
   label: string;
   station: number | null;
@@ -50,7 +51,7 @@ interface Entry {
   /** Why the section did not read (its errors), when it did not. */
   inputError: string | null;
   feature: CorridorFeature | null;
-  record: ExportRecord | null;
+  records: ExportRecord[] | null;
   /** Its result is in results.json. */
   analysed: boolean;
 }
@@ -94,7 +95,7 @@ function entriesOf(
     section: e.section,
     inputError: inputErrorOf(e),
     feature: 'feature' in e ? (e.feature as CorridorFeature) : null,
-    record: null,
+    records: null,
     analysed: false,
   }));
   return {
@@ -123,15 +124,6 @@ function unanalysed(
     verdict,
     note,
   });
-}
-
-/** A station's line of the table printed at the end. */
-function line(r: ExportRecord): string {
-  const st = r.station === null ? '—' : String(r.station);
-  const fs = r.fs === null ? '—' : fsText(r.fs);
-  const v = r.verdict ?? 'no-fs';
-  const note = r.note && v !== 'meets' && v !== 'below' ? `  (${r.note})` : '';
-  return `  ${st.padStart(9)}  ${r.section_id.padEnd(22)} ${(r.governing_method ?? '—').padEnd(18)} ${fs.padStart(6)}  ${(r.required_fs ?? '—').toString().padStart(5)}  ${VERDICT_SHORT[v]}${note}`;
 }
 
 /**
@@ -234,17 +226,18 @@ export async function runBatch(
         if (!reply) break;
         replies.delete(next);
         if (reply.ok) {
-          e.record = reply.record;
+          e.records = reply.records;
           e.analysed = true;
           await json?.write(`${written > 0 ? ',\n' : ''}${reply.json}`);
           written++;
-        } else e.record = unanalysed(e, shownUnits, 'no-fs', `the solver failed: ${reply.error}`);
-      } else e.record = unanalysed(e, shownUnits, 'input-error', e.inputError ?? '');
+        } else
+          e.records = [unanalysed(e, shownUnits, 'no-fs', `the solver failed: ${reply.error}`)];
+      } else e.records = [unanalysed(e, shownUnits, 'input-error', e.inputError ?? '')];
       e.section = null; // done with it: let it go
-      await csv?.write(exportCsvRow(e.record));
+      await csv?.write(e.records.map((r) => exportCsvRow(r)).join(''));
       next++;
       if (bar) bar.update(next, { last: e.label });
-      else err(`[${next}/${total}] ${line(e.record).trim()}`);
+      else err(`[${next}/${total}] ${line(e.records).trim()}`);
       dispatch();
     }
     draining = false;
@@ -267,9 +260,10 @@ export async function runBatch(
   await pool.terminate();
   bar?.stop();
 
-  const done = entries
-    .slice(0, next)
-    .map((e) => ({ record: e.record as ExportRecord, feature: e.feature, analysed: e.analysed }));
+  const done = entries.slice(0, next).map((e) => {
+    const records = e.records as ExportRecord[];
+    return { records, record: stationRow(records), feature: e.feature, analysed: e.analysed };
+  });
   const failures = done
     .filter((e) => !e.analysed)
     .map(({ record: r }) => ({
@@ -285,6 +279,7 @@ export async function runBatch(
   await csv?.close();
   if (outDir) {
     writeFileSync(join(outDir, 'results.geojson'), resultsGeoJson(id, done));
+    // the station's governing FS against its requirement (its governing case's)
     const points = done
       .map(({ record: r }) => ({
         station: r.station ?? Number.NaN,
@@ -299,7 +294,7 @@ export async function runBatch(
   }
 
   out('  station    id                     method                 FS  req.   verdict');
-  for (const e of done) out(line(e.record));
+  for (const e of done) out(line(e.records));
   const count = (v: Verdict) => done.filter((e) => e.record.verdict === v).length;
   out('');
   out(

@@ -1,7 +1,8 @@
 /**
  * A batch worker thread: analyses the sections it is sent with the built core and answers
- * with the result as JSON text (written to results.json by the main thread) and its row of the
- * results table, writing the section's drawing itself when asked.
+ * with the result as JSON text (written to results.json by the main thread) and its rows of
+ * the results table (a row per case, then the station's), writing the section's drawing itself
+ * when asked.
  */
 import { writeFileSync } from 'node:fs';
 import { parentPort } from 'node:worker_threads';
@@ -9,9 +10,9 @@ import {
   analyzeSection,
   caseView,
   drawSection,
-  exportRecord,
   sectionOfCase,
   stationInUnits,
+  stationRecords,
 } from '@scarpline/core';
 import type { Reply, Task } from './messages';
 
@@ -31,8 +32,8 @@ parentPort?.on('message', (task: Task) => {
       index: task.index,
       ok: true,
       json: JSON.stringify(shown),
-      // the station's row: its governing case, and the station's verdict over every case
-      record: exportRecord({ ...caseView(shown), verdict: shown.verdict }),
+      // a row per case, then the station's: its governing case, and its verdict over every case
+      records: stationRecords(shown),
     };
   } catch (e) {
     reply = { index: task.index, ok: false, error: e instanceof Error ? e.message : String(e) };

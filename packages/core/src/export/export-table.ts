@@ -1,11 +1,11 @@
 /**
- * The results table of a corridor, a row per station, as every export writes it: results.csv
- * and results.geojson of `scarpline batch`, and the CSV and GeoJSON exports of the API. One
- * module builds the columns and the properties, so the command line and the service write the
- * same names in the same order with the same precision. The contract, column by column, is
- * schemas/export-table.schema.json.
+ * The results table of a corridor, a row per station and design case and then the station's
+ * row, as every export writes it: results.csv and results.geojson of `scarpline batch`, and
+ * the CSV and GeoJSON exports of the API. One module builds the columns and the properties, so
+ * the command line and the service write the same names in the same order with the same
+ * precision. The contract, column by column, is schemas/export-table.schema.json.
  */
-import type { MethodReport, SectionResult, Warning } from '../result';
+import type { CaseKind, CaseResult, MethodReport, StationResult, Warning } from '../result';
 import { CAUTION } from '../caution';
 import { chainageLabel } from '../draw/chainage-label';
 import type { UnitSystem } from '../model/types';
@@ -16,10 +16,13 @@ export const EXPORT_COLUMNS = [
   'station',
   'chainage',
   'section_id',
+  'row',
   'case',
+  'kind',
   'governing_method',
   'fs',
   'required_fs',
+  'ratio',
   'verdict',
   'warnings',
   'note',
@@ -27,7 +30,10 @@ export const EXPORT_COLUMNS = [
 ] as const;
 export type ExportColumn = (typeof EXPORT_COLUMNS)[number];
 
-/** One row of the table, values as computed (the writers round the FS). */
+/** What a row of the table is: one design case of a station, or the station as a whole. */
+export type ExportRow = 'case' | 'station';
+
+/** One row of the table, values as computed (the writers round the FS and the ratio). */
 export interface ExportRecord {
   /** The station (chainage) as a number, as given. */
   station: number | null;
@@ -35,13 +41,18 @@ export interface ExportRecord {
   chainage: string | null;
   /** The section's id: `<batch id>@<station>` in a corridor; never a database key. */
   section_id: string;
+  /** A case's row, or the station's (its governing case, and the station's verdict over every case). */
+  row: ExportRow;
   case: string | null;
+  kind: CaseKind | null;
   governing_method: string | null;
   fs: number | null;
   required_fs: number | null;
+  /** Governing FS / required FS (null without either, or with no significant slope). */
+  ratio: number | null;
   /** null only in the service, while the section's job is queued or running. */
   verdict: Verdict | null;
-  /** How many warnings the section's report lists (distinctWarnings); null without a result. */
+  /** How many warnings the row's case lists (distinctWarnings; the station's row adds the station's own); null without a result. */
   warnings: number | null;
   /** Why there is no factor of safety, or what is wrong with the input. */
   note: string | null;
@@ -51,11 +62,25 @@ export interface ExportRecord {
 /** A value of a cell or property. */
 export type ExportValue = string | number | null;
 
-/** What the table reads of a result: a SectionResult, or the parts of one the service keeps. */
-export type ExportableResult = Pick<
-  SectionResult,
-  'id' | 'station' | 'units' | 'case' | 'requiredFs' | 'governing' | 'verdict' | 'warnings'
+/** What the table reads of one case: a CaseResult, or the parts of one the service keeps. */
+export type ExportableCase = Pick<
+  CaseResult,
+  'name' | 'kind' | 'requiredFs' | 'governing' | 'ratio' | 'verdict' | 'warnings'
 > & { results: readonly Pick<MethodReport, 'method' | 'reason' | 'warnings'>[] };
+
+/** What the table reads of a station: a StationResult, or the parts of one the service keeps. */
+export interface ExportableStation {
+  id: StationResult['id'];
+  station: StationResult['station'];
+  units: StationResult['units'];
+  cases: readonly ExportableCase[];
+  /** The governing case by name; null when none governs. */
+  governing: Pick<NonNullable<StationResult['governing']>, 'case'> | null;
+  /** The station's verdict over all its cases. */
+  verdict: Verdict;
+  /** The station's own warnings (not those of a case). */
+  warnings: readonly Warning[];
+}
 
 /**
  * The warnings a section's report lists, each once: the methods' own warnings (not those
@@ -65,7 +90,7 @@ export type ExportableResult = Pick<
  * @example distinctWarnings(result) // → [{ method: 'bishop', code: 'm-alpha-small', message: '…' }]
  */
 export function distinctWarnings(
-  r: Pick<ExportableResult, 'warnings' | 'results'>,
+  r: Pick<ExportableCase, 'warnings' | 'results'>,
 ): (Warning & { method: string | null })[] {
   const out: (Warning & { method: string | null })[] = [];
   const seen = new Set<string>();
@@ -97,33 +122,104 @@ export function unsolvedReason(
   );
 }
 
+/**
+ * Why a station has no factor of safety to compare: its one case's methods and their reasons,
+ * or, when it has several, each case without one by name.
+ *
+ * @example stationUnsolvedReason(result.cases) // → 'end of construction: bishop: no convergence after 200 iterations'
+ */
+export function stationUnsolvedReason(
+  cases: readonly Pick<ExportableCase, 'name' | 'verdict' | 'results'>[],
+): string {
+  if (cases.length === 1) return unsolvedReason(cases[0].results);
+  return (
+    cases
+      .filter((c) => c.verdict === 'no-fs')
+      .map((c) => `${c.name}: ${unsolvedReason(c.results)}`)
+      .join('; ') || 'no case gave a factor of safety'
+  );
+}
+
 const chainageOf = (station: number | null, units: UnitSystem) =>
   station === null ? null : chainageLabel(station, units);
 
 /**
- * The row of an analysed section.
- *
- * @example exportRecord(result).verdict // → 'below'
+ * The case of a station that its row speaks for: the governing case, or the first when none
+ * governs (every case without a factor of safety, or without a significant slope).
  */
-export function exportRecord(r: ExportableResult): ExportRecord {
+export function stationCase<C extends ExportableCase>(
+  s: Omit<ExportableStation, 'cases'> & { cases: readonly C[] },
+): C | null {
+  return s.cases.find((c) => c.name === s.governing?.case) ?? s.cases[0] ?? null;
+}
+
+/**
+ * The row of one case of an analysed station.
+ *
+ * @example caseRecord(result, result.cases[0]).ratio // → 0.93
+ */
+export function caseRecord(s: ExportableStation, c: ExportableCase): ExportRecord {
   return {
-    station: r.station,
-    chainage: chainageOf(r.station, r.units),
-    section_id: r.id,
-    case: r.case,
-    governing_method: r.governing?.method ?? null,
-    fs: r.governing?.fs ?? null,
-    required_fs: r.requiredFs,
-    verdict: r.verdict,
-    warnings: distinctWarnings(r).length,
-    note: r.verdict === 'no-fs' ? unsolvedReason(r.results) : null,
+    station: s.station,
+    chainage: chainageOf(s.station, s.units),
+    section_id: s.id,
+    row: 'case',
+    case: c.name,
+    kind: c.kind,
+    governing_method: c.governing?.method ?? null,
+    fs: c.governing?.fs ?? null,
+    required_fs: c.requiredFs,
+    ratio: c.ratio,
+    verdict: c.verdict,
+    warnings: distinctWarnings(c).length,
+    note: c.verdict === 'no-fs' ? unsolvedReason(c.results) : null,
     caution: CAUTION,
   };
 }
 
 /**
- * The row of a section without a result: one that did not read (`input-error`), one whose
- * analysis stopped (`no-fs`), or, in the service, one whose job has not finished (null).
+ * The station's row of an analysed station: its governing case (the first when none governs)
+ * with that case's method, FS, requirement and ratio, and the station's verdict over every
+ * case; its warnings are the case's and the station's own; without a factor of safety, the note
+ * says why (by case when the station has several).
+ *
+ * @example stationRecord(result).verdict // → 'below' when any case is below its requirement
+ */
+export function stationRecord(s: ExportableStation): ExportRecord {
+  const c = stationCase(s);
+  const note = s.verdict === 'no-fs' ? stationUnsolvedReason(s.cases) : null;
+  return {
+    station: s.station,
+    chainage: chainageOf(s.station, s.units),
+    section_id: s.id,
+    row: 'station',
+    case: c?.name ?? null,
+    kind: c?.kind ?? null,
+    governing_method: c?.governing?.method ?? null,
+    fs: c?.governing?.fs ?? null,
+    required_fs: c?.requiredFs ?? null,
+    ratio: c?.ratio ?? null,
+    verdict: s.verdict,
+    warnings: (c ? distinctWarnings(c).length : 0) + s.warnings.length,
+    note,
+    caution: CAUTION,
+  };
+}
+
+/**
+ * The rows of an analysed station: one per design case, in the order the section lists them,
+ * then the station's.
+ *
+ * @example stationRecords(analyzeSection(section)).map((r) => r.row) // → ['case', 'case', 'station']
+ */
+export function stationRecords(s: ExportableStation): ExportRecord[] {
+  return [...s.cases.map((c) => caseRecord(s, c)), stationRecord(s)];
+}
+
+/**
+ * The row of a section without a result (its station's row, the only one it has): one that
+ * did not read (`input-error`), one whose analysis stopped (`no-fs`), or, in the service, one
+ * whose job has not finished (null).
  *
  * @example unanalysedRecord({ id: 'wcb@1240', station: 1240, units: 'si', verdict: 'input-error', note: 'ground[2]: …' })
  */
@@ -140,10 +236,13 @@ export function unanalysedRecord(s: {
     station: s.station,
     chainage: chainageOf(s.station, s.units),
     section_id: s.id,
+    row: 'station',
     case: s.case ?? null,
+    kind: null,
     governing_method: null,
     fs: null,
     required_fs: s.requiredFs ?? null,
+    ratio: null,
     verdict: s.verdict,
     warnings: null,
     note: s.note,
@@ -171,14 +270,17 @@ export function exportCsvHeader(extra: readonly string[] = []): string {
   return csvRecord([...EXPORT_COLUMNS, ...extra]);
 }
 
+/** The columns written to FS_DECIMALS decimals: the FS and the FS / required FS. */
+const ROUNDED: readonly ExportColumn[] = ['fs', 'ratio'];
+
 /**
- * A row of the CSV table: the FS to FS_DECIMALS decimals, empty cells for null, then the
- * writer's own values.
+ * A row of the CSV table: the FS and the ratio to FS_DECIMALS decimals, empty cells for null,
+ * then the writer's own values.
  */
 export function exportCsvRow(r: ExportRecord, extra: readonly ExportValue[] = []): string {
   const values = EXPORT_COLUMNS.map((c): ExportValue => {
-    if (c === 'fs') return r.fs === null ? null : fsText(r.fs);
-    return r[c];
+    const v = r[c];
+    return ROUNDED.includes(c) && typeof v === 'number' ? fsText(v) : v;
   });
   return csvRecord([...values, ...extra]);
 }
@@ -192,10 +294,11 @@ export interface ExportFeature {
 }
 
 /**
- * A feature of results.geojson: the section's line as its geometry (null when the input had
- * none: an unlocated feature, RFC 7946 §3.2), the input feature's own flat properties (its
- * attributes; settings for Scarpline, which are objects, left out), then the columns of the
- * table (the FS rounded as in the CSV), then the writer's own.
+ * A feature of results.geojson, one per row: the section's line as its geometry (null when the
+ * input had none: an unlocated feature, RFC 7946 §3.2), the input feature's own flat
+ * properties (its attributes; settings for Scarpline, which are objects, left out), then the
+ * columns of the table (the FS and the ratio rounded as in the CSV), then the writer's own. Its
+ * id: the section's id for the station's row, `<section id>#<case>` for a case's.
  */
 export function exportFeature(
   r: ExportRecord,
@@ -209,11 +312,14 @@ export function exportFeature(
     ([, v]) => v === null || typeof v !== 'object',
   );
   const own = Object.fromEntries(
-    EXPORT_COLUMNS.map((c) => [c, c === 'fs' && r.fs !== null ? fsRounded(r.fs) : r[c]]),
+    EXPORT_COLUMNS.map((c) => {
+      const v = r[c];
+      return [c, ROUNDED.includes(c) && typeof v === 'number' ? fsRounded(v) : v];
+    }),
   );
   return {
     type: 'Feature',
-    id: r.section_id,
+    id: r.row === 'case' ? `${r.section_id}#${r.case}` : r.section_id,
     geometry: options.geometry ?? null,
     properties: { ...Object.fromEntries(input), ...own, ...options.extra },
   };

@@ -7,9 +7,11 @@ import type {
   Section,
 } from '../model/types';
 import type { MethodReport, ReportedSurface } from '../result';
+import { type BaseStrengths, withBaseStrengths } from '../slices/base-strengths';
 import type { PreparedSection } from '../slices/prepare-section';
 import type { SliceSet, SlicedSurface } from '../slices/slice-surface';
 import { bishop } from './bishop';
+import { failed } from './failed';
 import { infiniteSlope } from './infinite-slope';
 import { janbu } from './janbu';
 import { logSpiral } from './log-spiral';
@@ -19,12 +21,18 @@ import { spencer } from './spencer';
 import { phiZeroCircle } from './phi-zero-circle';
 import type { SliceMethodResult } from './types';
 
-/** What a method is given: the section, a surface, its slices and the point moments are taken about (sliding orientation). */
+/**
+ * What a method is given: the section, a surface, its slices and the point moments are taken
+ * about (sliding orientation), and, when given, a strength for each slice base in place of its
+ * material's (a method of slices takes them; the others, which take the strength of the
+ * materials, refuse them).
+ */
 export interface MethodInput {
   prepared: PreparedSection;
   surface: CircleSurface | PolylineSurface;
   cut: SlicedSurface;
   pivot: Point;
+  strengths?: BaseStrengths;
 }
 
 /** What a method of a surface gives back, in SI: its solution and what only it reports. */
@@ -63,6 +71,17 @@ export type MethodEntry = (SurfaceMethod | PlaneMethod) & {
 
 const deg = (r: number) => (r * 180) / Math.PI;
 
+/** The slices a method of slices solves: the cut's, with the given base strengths when there are. */
+const slicesOf = ({ cut, strengths }: MethodInput): SliceSet =>
+  strengths ? withBaseStrengths(cut.slices, strengths) : cut.slices;
+
+/** A method that takes its strength from the materials, given base strengths: not run. */
+function refuseStrengths(method: string, input: MethodInput): MethodOutput | null {
+  if (!input.strengths) return null;
+  const reason = `${method}: takes the strength of the materials, not a strength for each slice base; use a method of slices (ordinary, Bishop, Janbu, Spencer, Morgenstern–Price)`;
+  return { result: failed(input.cut.slices.n, 0, reason, undefined, 'not-applicable') };
+}
+
 /**
  * Every method of the solver: the surfaces it takes, how to run it and its published
  * source. analyzeSection dispatches through this table; adding a method is adding a row
@@ -76,28 +95,34 @@ export const METHODS: Record<MethodId, MethodEntry> = {
     surfaces: ['circle'],
     slices: true,
     interslice: { E: false, X: false },
-    run: ({ cut, prepared, pivot }) => ({
-      result: ordinary(cut.slices, { seismic: prepared.section.seismic, pivot }),
-    }),
+    run: (input) => {
+      const slices = slicesOf(input);
+      const { prepared, pivot } = input;
+      return { result: ordinary(slices, { seismic: prepared.section.seismic, pivot }), slices };
+    },
   },
   bishop: {
     reference: 'Bishop 1955',
     surfaces: ['circle'],
     slices: true,
     interslice: { E: false, X: false },
-    run: ({ cut, prepared, pivot }) => ({
-      result: bishop(cut.slices, { seismic: prepared.section.seismic, pivot }),
-    }),
+    run: (input) => {
+      const slices = slicesOf(input);
+      const { prepared, pivot } = input;
+      return { result: bishop(slices, { seismic: prepared.section.seismic, pivot }), slices };
+    },
   },
   janbu: {
     reference: 'Janbu 1954, 1973',
     surfaces: ['circle', 'polyline'],
     slices: true,
     interslice: { E: true, X: false },
-    run: ({ cut, prepared }) => {
-      const result = janbu(cut.slices, { seismic: prepared.section.seismic });
+    run: (input) => {
+      const slices = slicesOf(input);
+      const result = janbu(slices, { seismic: input.prepared.section.seismic });
       return {
         result,
+        slices,
         extra: result.converged
           ? { fsUncorrected: result.fsUncorrected, correction: result.correction }
           : {},
@@ -109,10 +134,13 @@ export const METHODS: Record<MethodId, MethodEntry> = {
     surfaces: ['circle', 'polyline'],
     slices: true,
     interslice: { E: true, X: true },
-    run: ({ cut, prepared, pivot }) => {
-      const result = spencer(cut.slices, { seismic: prepared.section.seismic, pivot });
+    run: (input) => {
+      const slices = slicesOf(input);
+      const { prepared, pivot } = input;
+      const result = spencer(slices, { seismic: prepared.section.seismic, pivot });
       return {
         result,
+        slices,
         extra:
           result.converged && result.lambda !== undefined
             ? { lambda: result.lambda, theta: deg(Math.atan(result.lambda)) }
@@ -125,12 +153,15 @@ export const METHODS: Record<MethodId, MethodEntry> = {
     surfaces: ['circle', 'polyline'],
     slices: true,
     interslice: { E: true, X: true },
-    run: ({ cut, prepared, pivot }) => {
+    run: (input) => {
+      const slices = slicesOf(input);
+      const { prepared, pivot } = input;
       const section = prepared.section;
       const fn: IntersliceFunction = section.analysis.interslice ?? { shape: 'half-sine' };
-      const result = morgensternPrice(cut.slices, { seismic: section.seismic, pivot, fn });
+      const result = morgensternPrice(slices, { seismic: section.seismic, pivot, fn });
       return {
         result,
+        slices,
         extra: {
           intersliceFunction: intersliceName(fn),
           ...(result.converged && result.lambda !== undefined ? { lambda: result.lambda } : {}),
@@ -143,7 +174,10 @@ export const METHODS: Record<MethodId, MethodEntry> = {
     surfaces: ['circle'],
     slices: false,
     interslice: { E: false, X: false },
-    run: ({ cut, prepared, surface }) => {
+    run: (input) => {
+      const refused = refuseStrengths('φ = 0 circle', input);
+      if (refused) return refused;
+      const { cut, prepared, surface } = input;
       const c = surface as CircleSurface;
       const result = phiZeroCircle(prepared, cut, c.center, c.radius, prepared.section.seismic);
       return {
@@ -157,7 +191,10 @@ export const METHODS: Record<MethodId, MethodEntry> = {
     surfaces: ['circle'],
     slices: false,
     interslice: { E: false, X: false },
-    run: ({ cut, prepared, surface }) => {
+    run: (input) => {
+      const refused = refuseStrengths('log spiral', input);
+      if (refused) return refused;
+      const { cut, prepared, surface } = input;
       const section = prepared.section;
       const c = surface as CircleSurface;
       const result = logSpiral(

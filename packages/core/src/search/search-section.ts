@@ -1,17 +1,14 @@
 import { yAt } from '../geometry/y-at';
-import { bishop } from '../methods/bishop';
-import { defaultPivot } from '../methods/pivot';
-import { spencer } from '../methods/spencer';
 import type { Polyline, SearchSurface } from '../model/types';
 import { linearStrength } from '../strength/registry';
 import type { PreparedSection } from '../slices/prepare-section';
 import { sliceSurface } from '../slices/slice-surface';
 import { type Boundary, boundaries } from './boundaries';
-import { bishopCircleEvaluator } from './circle-evaluator';
 import { type GridOutcome, gridMinima, gridSearch } from './grid-search';
 import { groundRangesSearch } from './ground-ranges-search';
 import { noncircularSearch } from './noncircular-search';
 import { type Polish, refineCircle, refineTouching } from './refine-circle';
+import { type SearchEvaluation, bishopSearchEvaluation } from './search-evaluation';
 import { type SearchSettings, searchSettings } from './search-settings';
 import { type CircleTrial, type TrialStage, Trials } from './trials';
 import { WorkMeter } from '../work-limit';
@@ -98,7 +95,9 @@ export function cohesionlessSlope(prepared: PreparedSection): CohesionlessSlope 
  * the critical circle cut afresh and solved by bishop() in full. Then, when asked, a
  * noncircular polyline started from the best circle and evaluated with Spencer's method. When
  * no soil has cohesion the circles would drift toward an infinite radius: the infinite slope
- * of the steepest ground is reported instead and the grid is not chased.
+ * of the steepest ground is reported instead and the grid is not chased. `evaluation` judges
+ * the trials (search-evaluation.ts): Bishop's method on the section as it is unless another is
+ * given (a rapid drawdown's three stages).
  *
  * @example searchSection(prepareSection(section), { type: 'auto' }).circle
  */
@@ -106,6 +105,7 @@ export function searchSection(
   prepared: PreparedSection,
   spec: SearchSurface,
   meter: WorkMeter = new WorkMeter(),
+  evaluation: SearchEvaluation = bishopSearchEvaluation(prepared, meter),
 ): SearchOutcome {
   const section = prepared.section;
   const slices = section.analysis.slices;
@@ -114,9 +114,9 @@ export function searchSection(
   if (g.rigidTop) for (const p of g.rigidTop) deepest = Math.min(deepest, p[1]);
   else deepest = -Infinity;
   const settings = searchSettings(spec, section.units, section.ground, deepest);
-  const cohesionless = cohesionlessSlope(prepared);
+  const cohesionless = evaluation.cohesionless ? cohesionlessSlope(prepared) : null;
   if (cohesionless && settings.grid) settings.grid.moves = 0;
-  const evaluate = bishopCircleEvaluator(prepared, slices, meter);
+  const evaluate = evaluation.circle;
   const bounds = boundaries(prepared);
   const band = section.analysis.trialBand ?? 0.05;
   const trials = new Trials(band);
@@ -164,18 +164,12 @@ export function searchSection(
   }
   let confirmation: SearchOutcome['confirmation'] = null;
   if (circle) {
-    const cut = sliceSurface(
-      prepared,
-      { type: 'circle', center: circle.center, radius: circle.radius },
-      slices,
-    );
-    const exact = cut.ok
-      ? bishop(cut.slices, {
-          seismic: section.seismic,
-          pivot: [(cut.slices.mirrored ? -1 : 1) * circle.center[0], circle.center[1]],
-        })
-      : null;
-    confirmation = { searched: circle.fs, exact: exact?.converged ? exact.fs : null };
+    const exact = evaluation.exact({
+      type: 'circle',
+      center: circle.center,
+      radius: circle.radius,
+    });
+    confirmation = { searched: circle.fs, exact };
   }
   let polyline: SearchOutcome['polyline'] = null;
   let count = trials.count;
@@ -195,13 +189,7 @@ export function searchSection(
         circle,
         ends,
         settings.noncircular,
-        (points) => {
-          const s = sliceSurface(prepared, { type: 'polyline', points }, slices);
-          meter.charge(s.ok ? s.slices.n : 1);
-          if (!s.ok) return NaN;
-          const r = spencer(s.slices, { seismic: section.seismic, pivot: defaultPivot(s.slices) });
-          return r.converged ? r.fs : NaN;
-        },
+        evaluation.polyline,
       );
       if (found) {
         polyline = { points: found.points, fs: found.fs };

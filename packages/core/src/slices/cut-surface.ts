@@ -272,8 +272,8 @@ export function polylinePieces(surface: PolylineSurface, mirror: boolean): BaseP
 /**
  * Slice edges between xa and xb: `count` slices of equal width, each cut again at every
  * break inside it — the surface's joints, the fixed edges of the geometry (vertices,
- * piezometric crossings, load edges), where the surface crosses a stratum top or the
- * piezometric line. As a surface moves, a break crosses an equal edge through a slice of
+ * piezometric crossings, load edges), where the surface crosses a stratum top, the
+ * piezometric line or a cut line (Geometry.cutLines). As a surface moves, a break crosses an equal edge through a slice of
  * zero width, so the factor of safety changes continuously with the surface.
  */
 function sliceEdges(ws: SliceWorkspace, count: number, tol: number): void {
@@ -300,6 +300,8 @@ function sliceEdges(ws: SliceWorkspace, count: number, tol: number): void {
     if (g.topMax[i] >= bottom) meetsInto(pieces, g.tops[i], xa, xb, e);
   }
   if (g.piezometric) meetsInto(pieces, g.piezometric, xa, xb, e);
+  const lines = g.cutLines;
+  for (let i = 0; i < lines.length; i++) meetsInto(pieces, lines[i], xa, xb, e);
   const target = Math.max(1, Math.floor(count));
   for (let k = 1; k < target; k++) e.push(xa + ((xb - xa) * k) / target);
   e.sortUnique(Math.max(tol, 1e-9 * (xb - xa)));

@@ -22,6 +22,13 @@ export interface Geometry {
   /** Top of the first rigid stratum: slip surfaces may not go below it. */
   rigidTop: Polyline | null;
   piezometric: Polyline | null;
+  /**
+   * Other lines that cut the slices as the piezometric line does (their vertices, their
+   * crossings with the strata tops and with the slip surface are slice edges), so that two
+   * sections that differ only in their water are sliced alike (a rapid drawdown's water before
+   * and after). Empty but for that.
+   */
+  cutLines: Polyline[];
   strips: { from: number; to: number; pressure: number }[];
   lineLoads: PointForce[];
   xMin: number;
@@ -37,8 +44,8 @@ export interface Geometry {
   topMax: Float64Array;
   /**
    * Slice edges that do not depend on the slip surface, sorted: vertices of the ground, the
-   * strata tops and the piezometric line, crossings of the piezometric line with the tops,
-   * and the edges of loads.
+   * strata tops, the piezometric line and the cut lines, crossings of those lines with the
+   * tops, and the edges of loads.
    */
   fixedEdges: Float64Array;
 }
@@ -84,7 +91,7 @@ function mirrorLine(line: Polyline): Polyline {
 function fixedEdges(
   tops: Polyline[],
   soil: number,
-  piezometric: Polyline | null,
+  lines: Polyline[],
   strips: Geometry['strips'],
   lineLoads: PointForce[],
 ): Float64Array {
@@ -94,12 +101,12 @@ function fixedEdges(
   };
   vertices(tops[0]);
   for (let i = 1; i <= Math.min(soil, tops.length - 1); i++) vertices(tops[i]);
-  vertices(piezometric);
-  if (piezometric) {
+  for (const line of lines) {
+    vertices(line);
     const from = tops[0][0][0];
     const to = tops[0][tops[0].length - 1][0];
     for (let i = 0; i < Math.min(soil, tops.length); i++)
-      xs.push(...polylineCrossings(piezometric, tops[i], from, to));
+      xs.push(...polylineCrossings(line, tops[i], from, to));
   }
   for (const s of strips) xs.push(s.from, s.to);
   for (const l of lineLoads) xs.push(l.x);
@@ -110,6 +117,7 @@ function geometryOf(
   section: Section,
   materialIndex: Map<string, number>,
   mirror: boolean,
+  alsoCutAt: Polyline[],
 ): Geometry {
   const m = (line: Polyline) =>
     mirror ? mirrorLine(line) : line.map((p) => [p[0], p[1]] as [number, number]);
@@ -143,6 +151,7 @@ function geometryOf(
   const ground = tops[0];
   const rigidTop = soilStrata < tops.length ? tops[soilStrata] : null;
   const piezometric = section.water.kind === 'piezometric' ? m(section.water.line) : null;
+  const cutLines = alsoCutAt.map(m);
   return {
     ground,
     tops,
@@ -150,6 +159,7 @@ function geometryOf(
     soilStrata,
     rigidTop,
     piezometric,
+    cutLines,
     strips,
     lineLoads,
     xMin: ground[0][0],
@@ -161,7 +171,13 @@ function geometryOf(
       piezometric: piezometric ? lookup(piezometric) : null,
     },
     topMax: Float64Array.from(tops, (t) => Math.max(...t.map((p) => p[1]))),
-    fixedEdges: fixedEdges(tops, soilStrata, piezometric, strips, lineLoads),
+    fixedEdges: fixedEdges(
+      tops,
+      soilStrata,
+      piezometric ? [piezometric, ...cutLines] : cutLines,
+      strips,
+      lineLoads,
+    ),
   };
 }
 
@@ -192,23 +208,25 @@ function stratumProperties(section: Section, materials: Material[], index: numbe
 }
 
 /**
- * Prepare a normalised section for slicing.
+ * Prepare a normalised section for slicing. `alsoCutAt`: lines (section coordinates) that cut
+ * the slices as a piezometric line does, so that a section with other water (the same lines
+ * given the other way round) is sliced into the same slices; none but for that.
  *
  * @example const prepared = prepareSection(section); sliceSurface(prepared, circle, 30)
  */
-export function prepareSection(section: Section): PreparedSection {
+export function prepareSection(section: Section, alsoCutAt: Polyline[] = []): PreparedSection {
   const names = Object.keys(section.materials);
   const materials = names.map((n) => section.materials[n]);
   const materialIndex = new Map(names.map((n, i) => [n, i]));
   const ground = section.ground;
   const width = ground[ground.length - 1][0] - ground[0][0];
-  const normal = geometryOf(section, materialIndex, false);
+  const normal = geometryOf(section, materialIndex, false, alsoCutAt);
   return {
     section,
     materials,
     tol: 1e-9 * Math.max(width, 1),
     normal,
-    mirrored: geometryOf(section, materialIndex, true),
+    mirrored: geometryOf(section, materialIndex, true, alsoCutAt),
     strata: stratumProperties(section, materials, normal.stratumMaterial),
   };
 }

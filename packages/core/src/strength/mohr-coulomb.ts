@@ -19,6 +19,7 @@ export const mohrCoulomb: StrengthModel<MohrCoulombStrength, MohrCoulombStrength
       : [],
   describe: (s, show) =>
     `c′ ${show(s.cohesion, 'pressure', 1)}, φ′ ${Number(s.frictionAngle.toFixed(1))}°`,
+  stress: 'effective',
   linear: (s) => ({ c: s.cohesion, tanPhi: tanDeg(s.frictionAngle), rate: 0, datum: NaN }),
   // granular: no more than a trace of cohesion (c′ ≤ 2 kPa) and φ′ ≥ 28° (common practice)
   tint: (s) => ({

@@ -38,6 +38,8 @@ export const describeStrength = (
 ): string => modelOf(s).describe(s, show);
 /** The strength as the slicer takes it; null for a rigid base. */
 export const linearStrength = (s: Strength): LinearStrength | null => modelOf(s).linear(s);
+/** The stress a strength is written in: effective (c′, φ′), total (Su) or none (a rigid base). */
+export const strengthStress = (s: Strength): 'effective' | 'total' | 'none' => modelOf(s).stress;
 /** The Rankine depth of a tension crack in a material of this strength and unit weight γ. */
 export const crackDepthIn = (s: Strength, gamma: number): number => modelOf(s).crackDepth(s, gamma);
 /** Its kind and representative strength, for the colour of a drawing. */

@@ -13,6 +13,7 @@ export const rigid: StrengthModel<RigidStrength, RigidStrength> = {
   document: () => ({ model: 'rigid' }),
   check: () => [],
   describe: () => 'rigid base: no slip surface enters it',
+  stress: 'none',
   linear: () => null,
   tint: () => ({ kind: 'rigid', strength: Infinity }),
   crackDepth: () => 0,

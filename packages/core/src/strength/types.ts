@@ -44,6 +44,12 @@ export interface StrengthModel<S extends Strength, R extends { model: S['model']
   check(raw: R): StrengthNote[];
   /** A few words for a legend or a table; `show` writes an SI value in the section's units with its label. */
   describe(s: S, show: (value: number, kind: QuantityKind, digits: number) => string): string;
+  /**
+   * The stress it is written in: `effective` (a drained strength, c′ and φ′, with the pore
+   * pressure on the base), `total` (an undrained strength, Su), `none` (a rigid base). A rapid
+   * drawdown draws undrained strengths only from an effective-stress strength.
+   */
+  stress: 'effective' | 'total' | 'none';
   /** Its strength as the slicer takes it, or null for a rigid base (no slip surface enters it). */
   linear(s: S): LinearStrength | null;
   /** Its kind and representative strength, for the colour of a drawing. */

@@ -47,6 +47,7 @@ export const undrained: StrengthModel<UndrainedStrength, RawUndrainedStrength> =
     const datum = s.suDatum === null ? '' : ` below ${show(s.suDatum, 'length', 2)}`;
     return `${su} + ${show(s.suRate, 'pressurePerLength', -3)}${datum}`;
   },
+  stress: 'total',
   linear: (s) => ({
     c: s.su,
     tanPhi: 0,
