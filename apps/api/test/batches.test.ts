@@ -1,3 +1,4 @@
+import fs from 'node:fs';
 import path from 'node:path';
 import request from 'supertest';
 import { CAUTION } from '@scarpline/core';
@@ -8,7 +9,6 @@ import { enqueueSections, stopQueue } from '../src/queue';
 import { fakeInbox, startSmtpFake, stopSmtpFake } from '../src/services/mail';
 import { startWorker } from '../src/worker';
 import { expectProblem, makeUsers, schemaErrors, signIn, waitForBatch } from './helpers';
-import { oneCaseCorridor } from './sections';
 
 const EXAMPLES = path.resolve(__dirname, '../../../examples');
 const app = createApp();
@@ -19,7 +19,9 @@ let users: Awaited<ReturnType<typeof makeUsers>>;
 
 /** The first n stations of the demo corridor. */
 function smallCorridor(n: number) {
-  const corridor = oneCaseCorridor();
+  const corridor = JSON.parse(
+    fs.readFileSync(path.join(EXAMPLES, 'corridor/corridor.json'), 'utf8'),
+  );
   return { ...corridor, id: `wcb-test-${n}`, sections: corridor.sections.slice(0, n) };
 }
 
@@ -89,10 +91,12 @@ test('a 3-section corridor posted as JSON is solved by the worker; results reada
       result: {
         verdict: expect.stringMatching(/^(meets|below|no-slope)$/),
         governingMethod: expect.any(String),
-        requiredFs: 1.5,
+        requiredFs: expect.any(Number),
         warnings: expect.any(Array),
       },
     });
+    // the governing case's requirement: the long term's 1.5 or the earthquake's 1.1
+    expect([1.5, 1.1]).toContain(item.result.requiredFs);
   }
   const fs3 = list.body.items.map((i: { result: { governingFs: number } }) => i.result.governingFs);
   expect(fs3).toEqual([...fs3].sort((a: number, b: number) => a - b));

@@ -16,16 +16,10 @@ import { stopQueue } from '../src/queue';
 import { SERVICE_COLUMNS } from '../src/services/exports';
 import { startWorker } from '../src/worker';
 import { makeUsers, signIn, waitForBatch } from './helpers';
-import { oneCaseCorridor } from './sections';
 
 const ROOT = path.resolve(__dirname, '../../..');
 const CLI = path.join(ROOT, 'packages/cli/dist/main.js');
-// the demo corridor one case a station (sections.ts says why), as a file for the command
-const CORRIDOR = path.join(
-  fs.mkdtempSync(path.join(os.tmpdir(), 'scarpline-corridor-')),
-  'corridor.json',
-);
-fs.writeFileSync(CORRIDOR, JSON.stringify(oneCaseCorridor()));
+const CORRIDOR = path.join(ROOT, 'examples/corridor/corridor.json');
 const app = createApp();
 const bearer = { type: 'bearer' as const };
 let engineer: string;

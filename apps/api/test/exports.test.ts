@@ -1,3 +1,5 @@
+import fs from 'node:fs';
+import path from 'node:path';
 import request from 'supertest';
 import { CAUTION } from '@scarpline/core';
 import { createApp } from '../src/app';
@@ -6,11 +8,11 @@ import { Batch, SectionRow } from '../src/models';
 import { stopQueue } from '../src/queue';
 import { startWorker } from '../src/worker';
 import { expectProblem, makeUsers, schemaErrors, signIn, waitForBatch } from './helpers';
-import { oneCaseCorridor } from './sections';
 
+const EXAMPLES = path.resolve(__dirname, '../../../examples');
 const app = createApp();
 const bearer = { type: 'bearer' as const };
-const corridor = oneCaseCorridor();
+const corridor = JSON.parse(fs.readFileSync(path.join(EXAMPLES, 'corridor/corridor.json'), 'utf8'));
 let users: Awaited<ReturnType<typeof makeUsers>>;
 let engineer: string;
 let reviewer: string;

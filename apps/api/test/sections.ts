@@ -24,11 +24,11 @@ export const HEAVY_ANALYSIS = {
 export const HEAVY_CENTRES = 100;
 
 /**
- * The demo corridor as the service's tests take it: one case a station, its long-term case (the
- * template's own settings, named in analysis.case as the corridor named it before it listed
- * design cases). Its earthquake and end-of-construction cases would make every section several
- * times the work these tests time and limit, and the service's results table gives only the
- * section's analysis.case today.
+ * The demo corridor one case a station, for the tests that time and limit the worker: its
+ * long-term case (the template's own settings, named in analysis.case as the corridor named it
+ * before it listed design cases). Its earthquake case (the yield coefficient's searches) and
+ * end-of-construction case would make every section several times the work these tests are
+ * tuned to, and the heavy section more than the checks of a file accept.
  */
 export function oneCaseCorridor() {
   const c = JSON.parse(fs.readFileSync(CORRIDOR, 'utf8'));
