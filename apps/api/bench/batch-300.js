@@ -24,6 +24,10 @@
  *   BENCH_NODE_ARGS="--cpu-prof --cpu-prof-dir=/tmp/prof"   node options for the API and workers
  *   BENCH_FETCH=n                                           WORKER_FETCH of the workers
  */
+// the corridor as every bench runs it (a bench script, not the API: it may reach into the
+// core's bench folder)
+// eslint-disable-next-line no-restricted-syntax
+const { oneCaseCorridor } = require('../../../packages/core/bench/one-case-corridor');
 const { spawn } = require('node:child_process');
 // The solver bench's own thread runner, so that both benches time the core alone the same way
 // (a bench script, not the API: it may reach into the core's bench folder).
@@ -47,7 +51,8 @@ const childFailure = new Promise((_, reject) => (childFailed = reject));
 childFailure.catch(() => undefined);
 
 function corridor(n) {
-  const c = JSON.parse(fs.readFileSync(path.join(ROOT, 'examples/corridor/corridor.json'), 'utf8'));
+  // each station in one case (its own settings): the workload the figures have always measured
+  const c = oneCaseCorridor();
   const first = c.sections[0].station;
   const sections = Array.from({ length: n }, (_, i) => ({
     ...c.sections[i % c.sections.length],

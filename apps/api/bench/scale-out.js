@@ -14,6 +14,10 @@
  * cluster's, apps/api/scripts/pg.js installs them). Everything it made is removed at the end,
  * also after a failure or Ctrl-C.
  */
+// the corridor as every bench runs it (a bench script, not the API: it may reach into the
+// core's bench folder)
+// eslint-disable-next-line no-restricted-syntax
+const { oneCaseCorridor } = require('../../../packages/core/bench/one-case-corridor');
 const { spawn, spawnSync } = require('node:child_process');
 const fs = require('node:fs');
 const os = require('node:os');
@@ -141,7 +145,8 @@ async function until(what, check, seconds = 60) {
 }
 
 function corridor(n, tag) {
-  const c = JSON.parse(fs.readFileSync(path.join(ROOT, 'examples/corridor/corridor.json'), 'utf8'));
+  // each station in one case (its own settings): the workload the figures have always measured
+  const c = oneCaseCorridor();
   const first = c.sections[0].station;
   const sections = Array.from({ length: n }, (_, i) => ({
     ...c.sections[i % c.sections.length],

@@ -23,28 +23,20 @@ export const HEAVY_ANALYSIS = {
 /** Centres a side of the heavy section's grid once it has been read (see above). */
 export const HEAVY_CENTRES = 100;
 
-/**
- * The demo corridor one case a station, for the tests that time and limit the worker: its
- * long-term case (the template's own settings, named in analysis.case as the corridor named it
- * before it listed design cases). Its earthquake case (the yield coefficient's searches) and
- * end-of-construction case would make every section several times the work these tests are
- * tuned to, and the heavy section more than the checks of a file accept.
- */
-export function oneCaseCorridor() {
+/** The corridor batch with its first `n` sections, `analysis` merged into the template's. */
+export function corridorBatch(
+  id: string,
+  n: number,
+  analysis: object = {},
+  { oneCase = false }: { oneCase?: boolean } = {},
+) {
   const c = JSON.parse(fs.readFileSync(CORRIDOR, 'utf8'));
-  delete c.template.cases;
-  c.template.analysis = { ...c.template.analysis, case: 'long-term' };
-  for (const s of c.sections) delete s.cases;
-  return c;
-}
-
-/** The corridor batch (oneCaseCorridor) with its first `n` sections, `analysis` merged into the template's. */
-export function corridorBatch(id: string, n: number, analysis: object = {}) {
-  const c = oneCaseCorridor();
-  return {
-    ...c,
-    id,
-    template: { ...c.template, analysis: { ...c.template.analysis, ...analysis } },
-    sections: c.sections.slice(0, n),
-  };
+  const template = { ...c.template, analysis: { ...c.template.analysis, ...analysis } };
+  let sections = c.sections.slice(0, n);
+  if (oneCase) {
+    // each station's own settings as its one case: the design cases left out
+    delete template.cases;
+    sections = sections.map(({ cases: _cases, ...rest }: { cases?: unknown }) => rest);
+  }
+  return { ...c, id, template, sections };
 }

@@ -15,15 +15,12 @@ const os = require('node:os');
 const path = require('node:path');
 const { runBatch } = require('../dist/batch/run-batch');
 
+const { oneCaseCorridor } = require('../../core/bench/one-case-corridor');
 const SMOKE = process.env.BENCH_SMOKE === '1';
 const count = process.argv[2] ? Number(process.argv[2]) : SMOKE ? 4 : 300;
 const out = process.argv[3] ?? fs.mkdtempSync(path.join(os.tmpdir(), 'scarpline-300-'));
-const corridor = JSON.parse(
-  fs.readFileSync(
-    path.join(__dirname, '..', '..', '..', 'examples', 'corridor', 'corridor.json'),
-    'utf8',
-  ),
-);
+// each station in one case (its own settings): the workload the figures have always measured
+const corridor = oneCaseCorridor();
 const base = corridor.sections;
 corridor.sections = Array.from({ length: count }, (_, i) => ({
   ...base[i % base.length],

@@ -7,6 +7,7 @@ const { join } = require('node:path');
 const os = require('node:os');
 const core = require('../dist/index.js');
 const { timeOnThreads } = require('./threads');
+const { oneCaseCorridor } = require('./one-case-corridor');
 
 const ROOT = join(__dirname, '..', '..', '..');
 const EXAMPLES = join(ROOT, 'examples');
@@ -180,10 +181,8 @@ for (const file of readdirSync(EXAMPLES).filter((f) => f.endsWith('.yaml'))) {
 }
 
 // --- a 300-section corridor through the core alone, on all cores (worker_threads)
-const corridor = core.parseSections(
-  readFileSync(join(EXAMPLES, 'corridor', 'corridor.json'), 'utf8'),
-  'corridor.json',
-).sections;
+// each station in one case (its own settings): the workload the figures have always measured
+const corridor = core.parseSections(JSON.stringify(oneCaseCorridor()), 'corridor.json').sections;
 const many = Array.from({ length: SMOKE ? 6 : 300 }, (_, i) => ({
   ...corridor[i % corridor.length],
   id: `bench-${i}`,
