@@ -11,7 +11,9 @@ import { Solver } from '../src/solver';
 import { HEAVY_ANALYSIS, HEAVY_CENTRES, corridorBatch } from './sections';
 
 function section(analysis: object = {}): Section {
-  const parsed = parseSections(JSON.stringify(corridorBatch('solver', 1, analysis)), 'solver.json');
+  // one case a station: with the corridor's earthquake case the heavy one asks more than a file may
+  const batch = corridorBatch('solver', 1, analysis, { oneCase: true });
+  const parsed = parseSections(JSON.stringify(batch), 'solver.json');
   const s = parsed.entries[0].section;
   if (!s) throw new Error(JSON.stringify(parsed.entries[0].messages));
   return s;

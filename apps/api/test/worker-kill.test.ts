@@ -8,6 +8,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import request from 'supertest';
 import { QueryTypes } from 'sequelize';
+import { corridorBatch } from './sections';
 
 // The jobs this file submits get a short time limit, so a killed worker's job comes back soon
 // (read when src/config is imported below, in beforeAll; restored in afterAll).
@@ -92,29 +93,25 @@ test('SIGKILL a worker mid-batch: another finishes it, no section lost or solved
     .post('/api/v1/projects')
     .auth(engineer, { type: 'bearer' })
     .send({ name: 'Killed worker (test)' });
-  const corridor = JSON.parse(
-    fs.readFileSync(path.join(ROOT, 'examples/corridor/corridor.json'), 'utf8'),
-  );
-  const n = Math.min(10, corridor.sections.length);
+  const n = 10;
   const post = await request(app)
     .post(`/api/v1/projects/${project.body.id}/batches`)
     .auth(engineer, { type: 'bearer' })
-    .send({
-      ...corridor,
-      id: 'wcb-kill',
-      // Finer slices and a search per method: a few hundred ms a section, so that the worker
-      // is caught in the middle of one when it is killed.
-      template: {
-        ...corridor.template,
-        analysis: {
-          ...corridor.template.analysis,
+    .send(
+      corridorBatch(
+        'wcb-kill',
+        n,
+        // Finer slices and a search per method: a few hundred ms a section, so that the worker
+        // is caught in the middle of one when it is killed (one case a station: the demo
+        // corridor's earthquake case would make each section several times that).
+        {
           methods: ['bishop', 'spencer', 'morgenstern-price'],
           slices: 500,
           searchEachMethod: true,
         },
-      },
-      sections: corridor.sections.slice(0, n),
-    });
+        { oneCase: true },
+      ),
+    );
   expect(post.status).toBe(201);
   const batchId: number = post.body.id;
 
