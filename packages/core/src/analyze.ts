@@ -4,7 +4,7 @@ import type { MethodWarning } from './methods/types';
 import { notRun, runOnPlane, runOnSurface } from './method-report';
 import type { CircleSurface, DesignCase, MethodId, PolylineSurface, Section } from './model/types';
 import { caseSection, designCases } from './model/design-cases';
-import { type CaseAnalysis, governingOf, stationResult } from './station-result';
+import { type CaseAnalysis, governingOf, lowestFs, stationResult } from './station-result';
 import { seismicReport } from './seismic/seismic-report';
 import type { MethodReport, SectionResult, StationResult, Warning } from './result';
 import { drawdownInUnits, resultInUnits, seismicInUnits } from './result-units';
@@ -133,12 +133,7 @@ function analyzeCase(section: Section, meter: WorkMeter): SectionResult {
       warnings: [{ code: 'cohesionless-circle', message }],
     });
   }
-  let governing: SectionResult['governing'] = null;
-  for (const r of results) {
-    if (r.converged && r.fs !== null && (governing === null || r.fs < governing.fs)) {
-      governing = { method: r.method, fs: r.fs };
-    }
-  }
+  let governing = lowestFs(results);
   // without cohesion the infinite slope is the limit the circles tend to: it governs
   if (found?.cohesionless) governing = { method: 'infinite-slope', fs: found.cohesionless.fs };
   for (const r of results) {
@@ -226,11 +221,7 @@ function earthquakeOf(
  */
 function drawdownCaseOf(cs: Section, c: DesignCase, meter: WorkMeter): CaseAnalysis {
   const dd = analyzeDrawdown(cs, c.drawdown!, meter, c.governs);
-  let governing: SectionResult['governing'] = null;
-  for (const r of dd.results) {
-    if (r.converged && r.fs !== null && (governing === null || r.fs < governing.fs))
-      governing = { method: r.method, fs: r.fs };
-  }
+  const governing = lowestFs(dd.results);
   const inSi: SectionResult = {
     id: cs.id,
     title: cs.title,

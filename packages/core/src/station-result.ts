@@ -10,6 +10,7 @@ import type { DesignCase, MethodId, Section } from './model/types';
 import type {
   CaseResult,
   DrawdownReport,
+  MethodReport,
   SectionResult,
   SeismicReport,
   StationResult,
@@ -42,6 +43,24 @@ export const MIN_RELIEF = 0.5;
 export const FS_CAP = 10;
 
 /**
+ * The lowest FS among the methods that converged (of those named, when `among` is given).
+ *
+ * @example lowestFs(result.results, ['spencer']) // → { method: 'spencer', fs: 1.42 }
+ */
+export function lowestFs(
+  results: readonly MethodReport[],
+  among: readonly MethodId[] | null = null,
+): { method: MethodId; fs: number } | null {
+  let best: { method: MethodId; fs: number } | null = null;
+  for (const m of results) {
+    if (among !== null && !among.includes(m.method)) continue;
+    if (!m.converged || m.fs === null) continue;
+    if (best === null || m.fs < best.fs) best = { method: m.method, fs: m.fs };
+  }
+  return best;
+}
+
+/**
  * The governing FS of a case over the methods that govern it (all methods asked when the case
  * does not say); the infinite slope that stands for circles in cohesionless soil always governs.
  */
@@ -54,13 +73,7 @@ export function governingOf(
     r.warnings.some((w) => w.code === 'cohesionless-circle')
   )
     return r.governing;
-  if (governs === null) return r.governing;
-  let best: { method: MethodId; fs: number } | null = null;
-  for (const m of r.results) {
-    if (!governs.includes(m.method) || !m.converged || m.fs === null) continue;
-    if (best === null || m.fs < best.fs) best = { method: m.method, fs: m.fs };
-  }
-  return best;
+  return governs === null ? r.governing : lowestFs(r.results, governs);
 }
 
 /** Verdicts a station can have, from the worst: one failing case makes the station fail. */

@@ -10,33 +10,15 @@ import {
   sliceSurface,
   type CircleSurface,
   type MethodId,
-  type Section,
 } from '@scarpline/core';
 import { runOnSurface } from '../src/method-report';
-import { makeSection } from './helpers/make-section';
+import { makeSection, wetSection } from './helpers/make-section';
 
 const SLICE_METHODS: MethodId[] = ['ordinary', 'bishop', 'janbu', 'spencer', 'morgenstern-price'];
 const circle: CircleSurface = { type: 'circle', center: [22, 32], radius: 20 };
 
-/** The 2:1 cut of makeSection with a water line inside it (no ponded water), weights alike above and below it. */
-function wet(over: Partial<Section> = {}): Section {
-  return makeSection({
-    water: {
-      kind: 'piezometric',
-      line: [
-        [0, 8],
-        [10, 8],
-        [30, 15],
-        [50, 15],
-      ],
-      unitWeight: 9.81,
-    },
-    ...over,
-  });
-}
-
 describe('a strength for each slice base', () => {
-  const section = wet();
+  const section = wetSection();
   const prepared = prepareSection(section);
   const cut = sliceSurface(prepared, circle, 30);
   if (!cut.ok) throw new Error(cut.reason);
@@ -45,7 +27,7 @@ describe('a strength for each slice base', () => {
   test("every method of slices honours it: Su on every base, pore pressure not counted, is the undrained soil's F", () => {
     const su = baseStrengths(n);
     su.cohesion.fill(15);
-    const undrained = wet({
+    const undrained = wetSection({
       materials: {
         soil: {
           name: 'soil',

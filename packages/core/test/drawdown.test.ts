@@ -12,31 +12,13 @@ import {
   sliceSurface,
   type CircleSurface,
   type DrawdownSpec,
-  type Section,
 } from '@scarpline/core';
-import { makeSection, mc } from './helpers/make-section';
+import { makeSection, mc, wetSection } from './helpers/make-section';
 
 const circle: CircleSurface = { type: 'circle', center: [22, 32], radius: 20 };
 
-/** The 2:1 cut of makeSection with a water line inside it (no ponded water). */
-function wet(over: Partial<Section> = {}): Section {
-  return makeSection({
-    water: {
-      kind: 'piezometric',
-      line: [
-        [0, 8],
-        [10, 8],
-        [30, 15],
-        [50, 15],
-      ],
-      unitWeight: 9.81,
-    },
-    ...over,
-  });
-}
-
 describe('the slicings before and after drawdown', () => {
-  const section = wet();
+  const section = wetSection();
   const spec: DrawdownSpec = {
     after: {
       kind: 'piezometric',

@@ -49,3 +49,20 @@ export function makeSection(over: Partial<Section> = {}): Section {
     ...over,
   };
 }
+
+/** The 2:1 cut of makeSection with a water line inside it (no ponded water). */
+export function wetSection(over: Partial<Section> = {}): Section {
+  return makeSection({
+    water: {
+      kind: 'piezometric',
+      line: [
+        [0, 8],
+        [10, 8],
+        [30, 15],
+        [50, 15],
+      ],
+      unitWeight: 9.81,
+    },
+    ...over,
+  });
+}
