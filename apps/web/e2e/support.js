@@ -104,11 +104,29 @@ function slug(text) {
 const AXE_SOURCE = fs.readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8');
 
 /**
+ * Waits until the page's finite CSS transitions and animations have ended (a row that expands, a
+ * label that floats, a message that fades in): axe measures colours as they are drawn, and a
+ * text half-way through a fade has no contrast to speak of. Endless animations (a spinner) are
+ * left running; 2 s at most.
+ */
+async function settled(page) {
+  await page.evaluate(() => {
+    // eslint-disable-next-line no-undef
+    const finite = document
+      .getAnimations()
+      .filter((a) => Number.isFinite(a.effect?.getComputedTiming().endTime ?? Infinity));
+    const done = Promise.all(finite.map((a) => a.finished.catch(() => undefined)));
+    return Promise.race([done, new Promise((r) => setTimeout(r, 2000))]);
+  });
+}
+
+/**
  * axe-core's WCAG 2.x A and AA rules on the page as it is now; fails with each violation's rule,
  * the elements and axe's summary. Run through the DevTools protocol, so the page's own CSP
  * (script-src 'self') stays as it is.
  */
 async function accessible(page, name) {
+  await settled(page);
   await page.evaluate(AXE_SOURCE);
   const violations = await page.evaluate(async () => {
     // eslint-disable-next-line no-undef
