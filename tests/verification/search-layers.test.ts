@@ -310,3 +310,86 @@ describe('the seam of the report: the circle follows the bottom of the seam', ()
     expect(r.results[0].fs!).toBeLessThan(0.75 * 2.3);
   });
 });
+
+/**
+ * A section on `ground` of one soil (γ 20, γsat 20.5 kN/m³, c′ 5 kPa, φ′ 26°) over a rigid
+ * base 6 m below the lowest ground, a piezometric line 2.5 m below the ground and a 10 kPa
+ * strip on the lower ground (or neither when dry), with kh.
+ */
+function groundCase(ground: Point[], kh: number, dry = false): Section {
+  const soil = mc('soil', 20, 5, 26, 20.5);
+  const x0 = ground[0][0];
+  const section = homogeneous(
+    ground,
+    soil,
+    dry
+      ? {}
+      : {
+          water: {
+            kind: 'piezometric',
+            line: ground.map(([x, y]) => [x, y - 2.5]),
+            unitWeight: 9.81,
+          },
+          loads: [{ type: 'strip', from: x0, to: x0 + 7.3, pressure: 10 }],
+        },
+  );
+  section.materials = {
+    soil,
+    base: { name: 'base', unitWeight: 0, saturatedUnitWeight: 0, strength: { model: 'rigid' } },
+  };
+  section.strata = [
+    { material: 'soil', top: ground },
+    {
+      material: 'base',
+      top: ground.map(([x, y]) => [x, y - 6]),
+    },
+  ];
+  section.seismic = { kh, kv: 0 };
+  section.analysis = { ...section.analysis, slices: 30, surface: { type: 'auto' } };
+  return section;
+}
+
+/**
+ * Grounds with more than one slope face (test geometries). The first is the shape where the
+ * search was found unconservative with kh set: a 0.9 m step beside a long gentle rise that
+ * ends in a slight fall, so that the zone the search aimed at ran from the step to the far end;
+ * its grid, seven metres a cell, stepped over the step's shallow circles and reported a deep
+ * circle 39 % above them at kh = 0.1.
+ */
+const lowStep: Point[] = [
+  [-8, 0],
+  [0, 0],
+  [1.76, 0.88],
+  [4, 0.85],
+  [10, 0.81],
+  [16, 1.08],
+  [22, 1.22],
+  [28, 1.29],
+  [34, 1.31],
+  [40, 1.48],
+  [42, 1.3],
+];
+const lowStepLong: Point[] = [[-20, 0], ...lowStep.slice(1)];
+const twoBatters: Point[] = [
+  [-30, 0],
+  [0, 0],
+  [8, 4],
+  [11, 4],
+  [19, 8],
+  [60, 8],
+];
+
+describe('grounds with several slope faces, with and without kh: at most 0.3 % above the dense search', () => {
+  test.each([
+    ['a low step beside a long gentle rise, kh = 0', lowStep, 0, false],
+    ['a low step beside a long gentle rise, kh = 0.1', lowStep, 0.1, false],
+    ['the same, dry and unloaded, with a longer flat below, kh = 0', lowStepLong, 0, true],
+    ['two batters with a berm between, kh = 0.15', twoBatters, 0.15, false],
+  ] as [string, Point[], number, boolean][])('%s', (_name, ground, kh, dry) => {
+    const section = groundCase(ground, kh, dry);
+    const r = caseView(analyzeSection(section));
+    const bishopF = r.results.find((m) => m.method === 'bishop')!.fs!;
+    const reference = denseReference(section);
+    expect(bishopF).toBeLessThanOrEqual(reference * 1.003);
+  });
+});

@@ -1,11 +1,12 @@
 import type { GroundRangeSettings } from './search-settings';
-import type { CircleEvaluator, Trials } from './trials';
+import type { CircleEvaluator, CircleTrial, Trials } from './trials';
 
 /**
  * Circles through a point of the upper ground range (where the slide starts) and a point of
  * the lower range (where it comes out), each pair with `radii` radii from just over half the
  * chord to 2.5 chords (geometric), the centre on the side of the chord away from the soil.
- * `groundAt` gives the ground elevation at x.
+ * `groundAt` gives the ground elevation at x. Returns the lowest of these circles (null when
+ * none was admissible).
  *
  * @example groundRangesSearch(settings.groundRanges, (x) => yAt(ground, x), evaluate, trials)
  */
@@ -14,7 +15,8 @@ export function groundRangesSearch(
   groundAt: (x: number) => number,
   evaluate: CircleEvaluator,
   trials: Trials,
-): void {
+): CircleTrial | null {
+  let best: CircleTrial | null = null;
   const pts = (r: [number, number]) =>
     Array.from(
       { length: settings.points },
@@ -42,8 +44,14 @@ export function groundRangesSearch(
       for (let k = 0; k < settings.radii; k++) {
         const r = 0.5 * chord * 1.02 * Math.pow(5 / 1.02, k / Math.max(1, settings.radii - 1));
         const h = Math.sqrt(Math.max(0, r * r - 0.25 * chord * chord));
-        trials.try(evaluate, mx + nx * h, my + ny * h, r);
+        const xc = mx + nx * h;
+        const yc = my + ny * h;
+        const fs = trials.try(evaluate, xc, yc, r);
+        if (fs > 0 && (!best || fs < best.fs)) {
+          best = { center: [xc, yc], radius: r, fs, stage: trials.stage, boundary: -1 };
+        }
       }
     }
   }
+  return best;
 }

@@ -124,12 +124,19 @@ export function searchSection(
   trials.stage = 'grid';
   if (settings.grid) grid = gridSearch(settings.grid, bounds, evaluate, trials);
   trials.stage = 'ground-ranges';
-  if (settings.groundRanges) {
-    groundRangesSearch(settings.groundRanges, (x) => yAt(section.ground, x), evaluate, trials);
+  const groundAt = (x: number) => yAt(section.ground, x);
+  if (settings.groundRanges) groundRangesSearch(settings.groundRanges, groundAt, evaluate, trials);
+  // each slope face's own lowest circle, polished whatever its FS (a separate valley), after
+  // the whole slope's lowest circle and the grid's valleys near it
+  const slopeBest = trials.best;
+  const faceStarts: CircleTrial[] = [];
+  for (const face of settings.faceRanges) {
+    const best = groundRangesSearch(face, groundAt, evaluate, trials);
+    if (best) faceStarts.push(best);
   }
   trials.stage = 'polish';
   const polishes: Polish[] = [];
-  let circle = trials.best;
+  let circle = slopeBest ?? trials.best;
   if (circle) {
     const c = settings.grid?.centers;
     const step = c
@@ -146,7 +153,14 @@ export function searchSection(
       );
       if (apart && free.length < 3 && m.fs < 1.1 * circle.fs) free.push(m);
     }
+    const apartFrom = (t: CircleTrial, s: CircleTrial) =>
+      Math.hypot(t.center[0] - s.center[0], t.center[1] - s.center[1]) > 0.5 * s.radius;
     for (const start of free) polishes.push(refineCircle(start, step, evaluate, trials));
+    for (const start of faceStarts) {
+      if (!free.every((t) => apartFrom(t, start))) continue;
+      free.push(start);
+      polishes.push(refineCircle(start, Math.min(step, 0.5 * start.radius), evaluate, trials));
+    }
     const freeBest = polishes.reduce((best, p) => (p.to.fs < best.fs ? p.to : best), circle);
     // polishes that keep touching each boundary (from the best circle touching it, unless far
     // above), and the best of them polished freely when it comes near the best free circle
@@ -160,7 +174,8 @@ export function searchSection(
     });
     if (touching && (touching as CircleTrial).fs < 1.02 * freeBest.fs)
       polishes.push(refineCircle(touching, 0.25 * step, evaluate, trials));
-    circle = polishes.reduce((best, p) => (p.to.fs < best.fs ? p.to : best), circle);
+    const lowest = faceStarts.reduce((best, t) => (t.fs < best.fs ? t : best), circle);
+    circle = polishes.reduce((best, p) => (p.to.fs < best.fs ? p.to : best), lowest);
   }
   let confirmation: SearchOutcome['confirmation'] = null;
   if (circle) {

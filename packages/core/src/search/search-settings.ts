@@ -1,6 +1,7 @@
 import { toSi } from '../model/units';
 import type { Polyline, SearchSurface, UnitSystem } from '../model/types';
 import type { GridReport } from '../result';
+import { MIN_RELIEF } from '../station-result';
 
 /** A rectangle of circle centres (the shape the result reports, here in SI). */
 export type CenterGrid = GridReport;
@@ -36,6 +37,13 @@ export interface SearchSettings {
   type: SearchSurface['type'];
   grid: GridSettings | null;
   groundRanges: GroundRangeSettings | null;
+  /**
+   * Ground ranges on each slope face of its own when the ground has more than one (a low step
+   * beside a long gentle rise, a berm between two batters): a face's shallow circles are a
+   * valley of the FS map of their own, narrower than the grid's spacing. Empty when the ranges
+   * were given, or the ground has one face.
+   */
+  faceRanges: GroundRangeSettings[];
   noncircular: NoncircularSettings | null;
 }
 
@@ -48,20 +56,65 @@ const pair = (v: unknown): [number, number] | null =>
 const obj = (v: unknown): Record<string, unknown> =>
   v && typeof v === 'object' ? (v as Record<string, unknown>) : {};
 
-/** The part of the ground where it is not level, its height and which side the crest is on. */
-export function slopeZone(ground: Polyline): {
+/** Grade above which a stretch of ground counts as sloping rather than level (common practice). */
+const SLOPING = 0.05;
+/** At most this many faces, the highest, get ground ranges of their own. */
+const MAX_FACES = 3;
+
+/** A stretch of the ground where it is not level, its height and which side the crest is on. */
+export interface SlopeZone {
   x0: number;
   x1: number;
   yLow: number;
   yHigh: number;
   crestRight: boolean;
-} {
+}
+
+/**
+ * The slope faces of the ground: runs of consecutive segments steeper than 5 %, all rising or
+ * all falling the same way, highest first.
+ *
+ * @example slopeFaces([[0, 0], [10, 0], [20, 5], [30, 5]]) // → [{ x0: 10, x1: 20, yLow: 0, yHigh: 5, crestRight: true }]
+ */
+export function slopeFaces(ground: Polyline): SlopeZone[] {
+  const faces: SlopeZone[] = [];
+  let run: { from: number; to: number; sign: number } | null = null;
+  const close = () => {
+    if (!run) return;
+    const a = ground[run.from];
+    const b = ground[run.to];
+    faces.push({
+      x0: a[0],
+      x1: b[0],
+      yLow: Math.min(a[1], b[1]),
+      yHigh: Math.max(a[1], b[1]),
+      crestRight: b[1] >= a[1],
+    });
+    run = null;
+  };
+  for (let i = 0; i + 1 < ground.length; i++) {
+    const [ax, ay] = ground[i];
+    const [bx, by] = ground[i + 1];
+    const sloping = Math.abs(by - ay) > SLOPING * (bx - ax);
+    const sign = Math.sign(by - ay);
+    if (sloping && run && run.sign === sign) run.to = i + 1;
+    else {
+      close();
+      if (sloping) run = { from: i, to: i + 1, sign };
+    }
+  }
+  close();
+  return faces.sort((p, q) => q.yHigh - q.yLow - (p.yHigh - p.yLow));
+}
+
+/** The part of the ground where it is not level, its height and which side the crest is on. */
+export function slopeZone(ground: Polyline): SlopeZone {
   let x0 = Infinity;
   let x1 = -Infinity;
   for (let i = 0; i + 1 < ground.length; i++) {
     const [ax, ay] = ground[i];
     const [bx, by] = ground[i + 1];
-    if (Math.abs(by - ay) > 0.05 * (bx - ax)) {
+    if (Math.abs(by - ay) > SLOPING * (bx - ax)) {
       x0 = Math.min(x0, ax);
       x1 = Math.max(x1, bx);
     }
@@ -136,19 +189,41 @@ export function searchSettings(
 
   const upper = Lp(pair(spec.upper));
   const lower = Lp(pair(spec.lower));
-  const crest = z.crestRight ? z.x1 : z.x0;
-  const toe = z.crestRight ? z.x0 : z.x1;
-  const side = z.crestRight ? 1 : -1;
-  const range = (a: number, b: number): [number, number] => [
-    clampX(Math.min(a, b)),
-    clampX(Math.max(a, b)),
-  ];
-  const groundRanges: GroundRangeSettings = {
-    upper: upper ?? range(crest - side * 0.3 * span, crest + side * 0.8 * span),
-    lower: lower ?? range(toe - side * 0.6 * H, toe + side * 0.4 * span),
-    points: Math.max(2, Math.round(num(spec.points, 8))),
-    radii: Math.max(1, Math.round(num(spec.radiusCount, 8))),
+  const points = Math.max(2, Math.round(num(spec.points, 8)));
+  const radiusCount = Math.max(1, Math.round(num(spec.radiusCount, 8)));
+  /** Ranges on the crest and at the toe of a stretch of slope of height h and width w. */
+  const rangesOf = (f: SlopeZone, h: number, w: number): GroundRangeSettings => {
+    const crest = f.crestRight ? f.x1 : f.x0;
+    const toe = f.crestRight ? f.x0 : f.x1;
+    const side = f.crestRight ? 1 : -1;
+    const range = (a: number, b: number): [number, number] => [
+      clampX(Math.min(a, b)),
+      clampX(Math.max(a, b)),
+    ];
+    return {
+      upper: range(crest - side * 0.3 * w, crest + side * 0.8 * w),
+      lower: range(toe - side * 0.6 * h, toe + side * 0.4 * w),
+      points,
+      radii: radiusCount,
+    };
   };
+  const zoneRanges = rangesOf(z, H, span);
+  const groundRanges: GroundRangeSettings = {
+    ...zoneRanges,
+    upper: upper ?? zoneRanges.upper,
+    lower: lower ?? zoneRanges.lower,
+  };
+  const faces = slopeFaces(ground)
+    .filter((f) => f.yHigh - f.yLow >= MIN_RELIEF)
+    .slice(0, MAX_FACES);
+  const sameAsZone = (f: SlopeZone) => f.x0 === z.x0 && f.x1 === z.x1;
+  const faceRanges =
+    upper || lower || spec.type === 'grid' || (faces.length === 1 && sameAsZone(faces[0]))
+      ? []
+      : faces.map((f) => {
+          const h = Math.max(f.yHigh - f.yLow, 1);
+          return rangesOf(f, h, Math.max(f.x1 - f.x0, h));
+        });
   const noncircular: NoncircularSettings = {
     vertices: Math.min(12, Math.max(3, Math.round(num(spec.vertices, 6)))),
     restarts: Math.max(0, Math.round(num(spec.restarts, 4))),
@@ -160,6 +235,7 @@ export function searchSettings(
     type: spec.type,
     grid: spec.type === 'ground-ranges' ? null : grid,
     groundRanges: spec.type === 'grid' ? null : groundRanges,
+    faceRanges,
     noncircular: wantsNoncircular ? noncircular : null,
   };
 }
