@@ -156,27 +156,32 @@ for (const file of readdirSync(EXAMPLES).filter((f) => f.endsWith('.yaml'))) {
       methods: ['bishop', 'spencer', 'morgenstern-price'],
       surface: { type: 'auto' },
     });
-    // (a section that lists design cases: each case searched, the governing one reported)
-    const section = {
-      ...s,
-      analysis: auto(s.analysis),
-      ...(s.cases ? { cases: s.cases.map((c) => ({ ...c, analysis: auto(c.analysis) })) } : {}),
-    };
-    let result;
-    const ms = timeMs(
-      () => {
-        result = core.caseView(core.analyzeSection(section));
-      },
-      SMOKE ? 1 : 5,
-    );
-    const c = result.search.howFound?.candidates ?? { grid: 0, groundRanges: 0, polish: 0 };
-    autoRows.push([
-      s.id,
-      ms,
-      result.search.trials,
-      c,
-      result.governing ? result.governing.fs : NaN,
-    ]);
+    // each design case on its own: the section with that one case (a seismic case's
+    // yield-coefficient searches and a drawdown case's stages included in its time)
+    const cases = s.cases && s.cases.length ? s.cases : [null];
+    for (const c of cases) {
+      const section = {
+        ...s,
+        analysis: auto(s.analysis),
+        ...(c ? { cases: [{ ...c, analysis: auto(c.analysis) }] } : {}),
+      };
+      let result;
+      const ms = timeMs(
+        () => {
+          result = core.caseView(core.analyzeSection(section));
+        },
+        SMOKE ? 1 : 5,
+      );
+      const k = result.search.howFound?.candidates ?? { grid: 0, groundRanges: 0, polish: 0 };
+      autoRows.push([
+        cases.length > 1 ? `${s.id} ${c.name}` : s.id,
+        ms,
+        result.search.trials,
+        k,
+        result.governing ? result.governing.fs : NaN,
+        c && (c.kind === 'seismic' || c.kind === 'rapid-drawdown') ? c.kind : '',
+      ]);
+    }
   }
 }
 
@@ -230,11 +235,11 @@ const corridorRun = (threads) => timeOnThreads(many, threads, CHUNK, { warm: tru
   );
   out.push('');
   out.push(
-    'auto search (grid with boundary tangents + ground ranges + polishes) with Bishop, Spencer, Morgenstern–Price on each example (median of 5):',
+    'auto search (grid with boundary tangents + ground ranges + polishes) with Bishop, Spencer, Morgenstern–Price on each design case of each example (median of 5; a seismic case with its yield-coefficient searches, a rapid drawdown with its stages):',
   );
-  for (const [id, ms, trials, c, fs] of autoRows)
+  for (const [id, ms, trials, c, fs, kind] of autoRows)
     out.push(
-      `  ${id.padEnd(16)} ${fmt(ms, 1).padStart(7)} ms  ${fmt(trials).padStart(6)} trials (grid ${c.grid}, ground ranges ${c.groundRanges}, polish ${c.polish})  FS ${fs.toFixed(3)}`,
+      `  ${id.padEnd(32)} ${fmt(ms, 1).padStart(7)} ms  ${fmt(trials).padStart(6)} trials (grid ${c.grid}, ground ranges ${c.groundRanges}, polish ${c.polish})  FS ${fs.toFixed(3)}${kind ? `  (${kind})` : ''}`,
     );
   out.push('');
   out.push(
