@@ -58,7 +58,7 @@ after(() => browser?.close());
 
 test(
   'engineer: a corridor of two design cases, by case on the batch and the section pages',
-  { timeout: 150_000 },
+  { timeout: 210_000 },
   async () => {
     await scenario(browser, 'design cases', async ({ page }) => {
       await signIn(page, 'engineer');
@@ -160,6 +160,27 @@ test(
       );
       await page.getByRole('note', { name: 'Engineering caution' }).waitFor();
       await shot(page, 'section-cases');
+
+      // A checker lowers one case's required FS through the form; the next run's case follows.
+      const row = table.locator(`tr[data-case="${CASES[1]}"]`);
+      const cells = async () => (await row.locator('td').allInnerTexts()).map((t) => t.trim());
+      const [, , fs, required, ratio] = await cells();
+      assert.equal(required, '4');
+      const rerun = page.getByTestId('rerun-case').filter({ hasText: `Case “${CASES[1]}”` });
+      await rerun.getByLabel('Required FS').fill('1.2');
+      await page.getByTestId('rerun-submit').click();
+      await page.getByTestId('rerun-queued').waitFor();
+      await eventually(async () => (await cells())[3] === '1.2', {
+        timeout: 60_000,
+        interval: 500,
+        what: `the next run's ${CASES[1]} case to require 1.2`,
+      });
+      const now = await cells();
+      assert.equal(now[2], fs, 'the same FS: only the requirement changed');
+      assert.notEqual(now[4], ratio);
+      // FS / required from the FS as shown (three decimals): within the rounding of both
+      assert.ok(Math.abs(Number(now[4]) - Number(fs) / 1.2) < 0.002, `${now[4]} is ${fs} / 1.2`);
+      await shot(page, 'section-case-rerun');
     });
   },
 );

@@ -3,6 +3,7 @@ import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { RerunForm } from './rerun-form';
 import type { SectionInput, SectionView } from './section-types';
 import { apiTestProviders, verifyAndReset } from '../testing/api-testing';
+import { sectionWithCases } from '../testing/rerun-case-fixtures';
 
 function input(): SectionInput {
   return {
@@ -114,6 +115,13 @@ describe('RerunForm', () => {
     expect(labels).toContain('c′ (kPa)');
     expect(labels).toContain('φ′ (°)');
     expect(el().textContent).toContain('A rigid base: it has no parameters to edit.');
+  });
+
+  it('has no case part for a section that lists no cases', () => {
+    expect(el().querySelectorAll('[data-testid="rerun-case"]').length).toBe(0);
+    expect(el().textContent).not.toContain('Design cases');
+    expect(el().querySelector('[data-field^="cases"]')).toBeNull();
+    expect(el().querySelector('[data-testid="remove-case"]')).toBeNull();
   });
 
   it('shows the range of an out-of-range φ′ and sends nothing', async () => {
@@ -264,5 +272,142 @@ describe('RerunForm', () => {
     const byField = Array.from(el().querySelectorAll('mat-error')).map((e) => e.textContent);
     expect(byField).toContain('γ is too low for this check');
     expect(field('materials.weathered-mudstone.unitWeight').value).toBe('2');
+  });
+
+  describe('a section with design cases', () => {
+    beforeEach(async () => {
+      const v = view(2);
+      v.input = sectionWithCases();
+      fixture.componentRef.setInput('section', v);
+      await fixture.whenStable();
+    });
+
+    const caseBox = (name: string) =>
+      el().querySelector(`[data-testid="rerun-case"][data-case="${name}"]`) as HTMLElement;
+
+    it("groups each case's own values under its name and kind, with labels", () => {
+      const legends = Array.from(el().querySelectorAll('[data-testid="rerun-case"] > legend')).map(
+        (l) => l.textContent?.replace(/\s+/g, ' ').trim(),
+      );
+      expect(legends).toEqual([
+        'Case “long term” long term',
+        'Case “design flood, steady seepage” steady seepage',
+        'Case “earthquake” seismic',
+      ]);
+      const labels = (name: string) =>
+        Array.from(caseBox(name).querySelectorAll('mat-label')).map((l) => l.textContent);
+      expect(labels('long term')).toEqual(['Required FS']);
+      expect(labels('design flood, steady seepage')).toEqual([
+        'Required FS',
+        'γ (kN/m³)',
+        'γsat (kN/m³)',
+        'c′ (kPa)',
+        'φ′ (°)',
+      ]);
+      expect(labels('earthquake')).toEqual([
+        'Required FS',
+        'kh',
+        'kv',
+        'Design PGA (g)',
+        'Magnitude Mw',
+        'Allowable displacement (mm)',
+      ]);
+      expect(field('cases[2].earthquake.allowableDisplacement').value).toBe('150');
+      expect(caseBox('long term').textContent).toContain('The section’s');
+    });
+
+    it('sends the edit of a case by its name, and nothing else', async () => {
+      await type(field('cases[2].requiredFs'), '1.2');
+      await type(field('cases[2].seismic.kh'), '0.15');
+      await type(field('cases[1].materials.core.strength.frictionAngle'), '22');
+      await submit();
+      const req = backend.expectOne('/api/v1/sections/7/runs');
+      expect(req.request.body).toEqual({
+        cases: {
+          'design flood, steady seepage': {
+            materials: { core: { strength: { frictionAngle: 22 } } },
+          },
+          earthquake: { requiredFs: 1.2, seismic: { kh: 0.15, kv: 0.02 } },
+        },
+      });
+      req.flush(view(3, 'queued'));
+    });
+
+    it('marks a case in range before sending', async () => {
+      await type(field('cases[2].seismic.kv'), '1');
+      await submit();
+      const error = field('cases[2].seismic.kv').closest('mat-form-field')?.textContent;
+      expect(error).toContain('kv must be greater than -1 and less than 1.');
+      backend.expectNone('/api/v1/sections/7/runs');
+    });
+
+    it('removes a case after saying in words that it will be gone; never the last one', async () => {
+      const remove = (name: string) =>
+        caseBox(name).querySelector('[data-testid="remove-case"]') as HTMLButtonElement;
+      remove('earthquake').click();
+      await fixture.whenStable();
+      expect(
+        caseBox('earthquake').querySelector('[data-testid="case-removed"]')?.textContent,
+      ).toContain('The case “earthquake” will be gone from the next run');
+      expect(caseBox('earthquake').querySelector('input')).toBeNull();
+      remove('long term').click();
+      await fixture.whenStable();
+      const last = remove('design flood, steady seepage');
+      expect(last.disabled).toBe(true);
+      expect(caseBox('design flood, steady seepage').textContent).toContain(
+        'The only case left: a section keeps at least one.',
+      );
+      // changed my mind about the long term
+      (
+        Array.from(caseBox('long term').querySelectorAll('button')).find((b) =>
+          b.textContent?.includes('Keep this case'),
+        ) as HTMLButtonElement
+      ).click();
+      await fixture.whenStable();
+      expect(remove('design flood, steady seepage').disabled).toBe(false);
+      await submit();
+      const req = backend.expectOne('/api/v1/sections/7/runs');
+      expect(req.request.body).toEqual({ cases: { earthquake: null } });
+      req.flush(view(3, 'queued'));
+    });
+
+    it("puts the API's error about a case on that case's field and in the list", async () => {
+      (
+        caseBox('long term').querySelector('[data-testid="remove-case"]') as HTMLButtonElement
+      ).click();
+      await fixture.whenStable();
+      await type(field('cases[2].requiredFs'), '0.5');
+      await submit();
+      backend.expectOne('/api/v1/sections/7/runs').flush(
+        {
+          title: 'Invalid input',
+          status: 422,
+          detail: '1 error in the input.',
+          errors: [
+            {
+              severity: 'error',
+              file: 'edited-section.json',
+              line: 241,
+              column: 21,
+              // the earthquake is the second case once the long term is removed
+              path: 'cases[1].requiredFs',
+              code: 'requirement-low',
+              message: 'a required FS below 1 is not a requirement',
+            },
+          ],
+        },
+        { status: 422, statusText: 'Unprocessable Entity' },
+      );
+      await fixture.whenStable();
+      expect(field('cases[2].requiredFs').closest('mat-form-field')?.textContent).toContain(
+        'a required FS below 1 is not a requirement',
+      );
+      expect(
+        field('cases[1].requiredFs').closest('mat-form-field')?.querySelector('mat-error'),
+      ).toBeNull();
+      expect(el().querySelector('[data-testid="rerun-errors"]')?.textContent).toContain(
+        'cases[1].requiredFs',
+      );
+    });
   });
 });

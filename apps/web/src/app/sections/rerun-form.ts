@@ -7,6 +7,7 @@ import {
   output,
   signal,
 } from '@angular/core';
+import { NgTemplateOutlet } from '@angular/common';
 import { ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -14,15 +15,20 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { LocatedError, Problem } from '../core/models';
-import { fromSi } from '@scarpline/core/units';
+import { fromSi, toSi } from '@scarpline/core/units';
+import { caseKindWords } from '../shared/case-kinds';
 import { plain, unitOf } from './format';
 import { toProblem } from '../core/problem';
 import {
   buildModel,
   buildPatch,
   errorText,
+  keepCase,
+  mayRemove,
   newPoint,
   placeErrors,
+  removeCase,
+  type CaseEdit,
   type Field,
   type RerunModel,
 } from './rerun-model';
@@ -31,12 +37,15 @@ import { SectionsApi } from './sections-api';
 
 /**
  * Re-run a section with edited parameters: each material's unit weights and strength, the
- * water, the required FS. Values are SI, as the API takes edits; only what changed is sent,
- * as a JSON merge patch. The API's located errors are shown by their fields and in a list.
+ * water, the required FS, and for a section with design cases each case's own values (its
+ * required FS, kh and kv, its earthquake, the materials it sets its own properties for); a
+ * case can be removed. Values are SI, as the API takes edits; only what changed is sent, as a
+ * JSON merge patch. The API's located errors are shown by their fields and in a list.
  */
 @Component({
   selector: 'sl-rerun-form',
   imports: [
+    NgTemplateOutlet,
     ReactiveFormsModule,
     MatButtonModule,
     MatFormFieldModule,
@@ -77,12 +86,27 @@ export class RerunForm {
   });
 
   protected readonly errorText = errorText;
+  protected readonly kindWords = caseKindWords;
 
   /** For a file in US units: the value of a field in the file's own units. */
   protected inFileUnits(f: Field): string {
     const v = f.control.value;
     if (this.section().input.units !== 'us' || !f.quantity || typeof v !== 'number') return '';
-    return `= ${plain(fromSi(v, f.quantity, 'us'), 3)} ${unitOf('us', f.quantity)}`;
+    const si = f.inFileUnit ? toSi(v, f.quantity, 'si') : v;
+    return `= ${plain(fromSi(si, f.quantity, 'us'), 3)} ${unitOf('us', f.quantity)}`;
+  }
+
+  /** A case may be removed while another case stays. */
+  protected mayRemove(c: CaseEdit): boolean {
+    return mayRemove(this.model(), c);
+  }
+
+  protected removeCase(c: CaseEdit): void {
+    removeCase(this.model(), c);
+  }
+
+  protected keepCase(c: CaseEdit): void {
+    keepCase(c);
   }
 
   protected fieldId(scope: string, f: Field): string {
@@ -113,6 +137,10 @@ export class RerunForm {
     m.water.unitWeight.control.reset(m.water.unitWeight.shown);
     m.water.ru?.control.reset(m.water.ru.shown);
     m.requiredFs.control.reset(m.requiredFs.shown);
+    for (const c of m.cases) {
+      keepCase(c);
+      for (const f of c.fields) f.control.reset(f.shown);
+    }
     const line = m.water.line;
     if (line && m.water.originalLine) {
       line.clear();

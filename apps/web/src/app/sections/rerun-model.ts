@@ -3,6 +3,7 @@
  * the API takes edits), validators with the ranges of schemas/section.schema.json, the JSON
  * merge patch of what changed, and where the API's located errors belong.
  */
+import { signal, type WritableSignal } from '@angular/core';
 import {
   FormArray,
   FormControl,
@@ -12,8 +13,15 @@ import {
   type ValidatorFn,
 } from '@angular/forms';
 import type { LocatedError } from '../core/models';
-import type { QuantityKind } from '@scarpline/core/units';
-import type { Point, SectionInput, SectionPatch, Strength } from './section-types';
+import { fromSi, type QuantityKind } from '@scarpline/core/units';
+import type {
+  DesignCase,
+  Material,
+  Point,
+  SectionInput,
+  SectionPatch,
+  Strength,
+} from './section-types';
 
 /** A stored value as a field shows it: six significant digits. */
 export function shownValue(v: number | null): number | null {
@@ -48,7 +56,9 @@ export function numberIn(label: string, unit: string, r: Range, required = true)
   return (c: AbstractControl): ValidationErrors | null => {
     const v: unknown = c.value;
     if (v === null || v === undefined || v === '') {
-      return required ? { required: `Give ${label}.` } : null;
+      // "The required FS" begins a sentence of its own, not this one
+      const named = label.startsWith('The ') ? `the ${label.slice(4)}` : label;
+      return required ? { required: `Give ${named}.` } : null;
     }
     if (typeof v !== 'number' || !Number.isFinite(v)) return { number: `${label} is a number.` };
     const low = r.min === undefined || (r.minExclusive ? v > r.min : v >= r.min);
@@ -83,6 +93,11 @@ export interface Field {
   control: NumCtl;
   /** Where in the patch it goes, relative to its material: ['strength', 'su'] … */
   at: string[];
+  /**
+   * The value is in the unit an SI file writes (mm for a displacement), not in the SI the
+   * section holds (m): `quantity` converts from the latter.
+   */
+  inFileUnit?: boolean;
 }
 
 export interface MaterialEdit {
@@ -104,6 +119,32 @@ export interface RerunModel {
     originalLine: Point[] | null;
   };
   requiredFs: Field;
+  /** The design cases the section lists, in order; empty for a section that lists none. */
+  cases: CaseEdit[];
+}
+
+/**
+ * One design case's own values: its required FS, kh and kv (a seismic case), its earthquake
+ * (when it has one), and the materials it sets its own properties for. Its fields' paths are
+ * those of the stored list (`cases[2].requiredFs`); a case can be removed from the next run.
+ */
+export interface CaseEdit {
+  name: string;
+  kind: DesignCase['kind'];
+  /** Its place in the stored list. */
+  index: number;
+  requiredFs: Field;
+  /** Its required FS is the section's as stored (it may give none of its own). */
+  sectionsRequirement: boolean;
+  seismic: { kh: Field; kv: Field } | null;
+  /** pga, magnitude and the allowable displacement (mm), when the case has an earthquake. */
+  earthquake: Field[] | null;
+  materials: MaterialEdit[];
+  /** Every field of the case. */
+  fields: Field[];
+  group: FormGroup;
+  /** Marked to be removed from the next run. */
+  removed: WritableSignal<boolean>;
 }
 
 /** A key of a path as the core writes it: `a.b`, or `a["odd key"]`. */
@@ -177,93 +218,97 @@ export function newPoint(after: Point | null): PointGroup {
   return pointGroup(after);
 }
 
+/** The fields of a material; `at` is its path (`materials.clay`, `cases[1].materials.clay`). */
+function materialEdit(name: string, m: Material, at: string): MaterialEdit {
+  const s = m.strength;
+  const fields: Field[] = [];
+  if (s.model !== 'rigid') {
+    fields.push(
+      field(
+        'unitWeight',
+        'γ',
+        'kN/m³',
+        'unitWeight',
+        `${at}.unitWeight`,
+        m.unitWeight,
+        weight('γ'),
+      ),
+      field(
+        'saturatedUnitWeight',
+        'γsat',
+        'kN/m³',
+        'unitWeight',
+        `${at}.saturatedUnitWeight`,
+        m.saturatedUnitWeight,
+        weight('γsat'),
+      ),
+    );
+  }
+  if (s.model === 'mohr-coulomb') {
+    fields.push(
+      field(
+        'cohesion',
+        'c′',
+        'kPa',
+        'pressure',
+        `${at}.strength.cohesion`,
+        s.cohesion,
+        numberIn('c′', 'kPa', { min: 0 }),
+        ['strength', 'cohesion'],
+      ),
+      field(
+        'frictionAngle',
+        'φ′',
+        '°',
+        null,
+        `${at}.strength.frictionAngle`,
+        s.frictionAngle,
+        numberIn('φ′', '°', { min: 0, max: 90, maxExclusive: true }),
+        ['strength', 'frictionAngle'],
+      ),
+    );
+  } else if (s.model === 'undrained') {
+    fields.push(
+      field(
+        'su',
+        'Su',
+        'kPa',
+        'pressure',
+        `${at}.strength.su`,
+        s.su,
+        numberIn('Su', 'kPa', { min: 0 }),
+        ['strength', 'su'],
+      ),
+      field(
+        'suRate',
+        'Su increase with depth',
+        'kPa/m',
+        'pressurePerLength',
+        `${at}.strength.suRate`,
+        s.suRate,
+        numberIn('The increase of Su', 'kPa/m', { min: 0 }),
+        ['strength', 'suRate'],
+      ),
+      field(
+        'suDatum',
+        'Su datum elevation y',
+        'm',
+        'length',
+        `${at}.strength.suDatum`,
+        s.suDatum,
+        datumValidator,
+        ['strength', 'suDatum'],
+      ),
+    );
+  }
+  return { name, model: s.model, fields };
+}
+
 /** The controls for a stored section (its values are SI). */
 export function buildModel(input: SectionInput): RerunModel {
-  const materials: MaterialEdit[] = Object.entries(input.materials).map(([name, m]) => {
-    const at = `materials${step(name)}`;
-    const s = m.strength;
-    const fields: Field[] = [];
-    if (s.model !== 'rigid') {
-      fields.push(
-        field(
-          'unitWeight',
-          'γ',
-          'kN/m³',
-          'unitWeight',
-          `${at}.unitWeight`,
-          m.unitWeight,
-          weight('γ'),
-        ),
-        field(
-          'saturatedUnitWeight',
-          'γsat',
-          'kN/m³',
-          'unitWeight',
-          `${at}.saturatedUnitWeight`,
-          m.saturatedUnitWeight,
-          weight('γsat'),
-        ),
-      );
-    }
-    if (s.model === 'mohr-coulomb') {
-      fields.push(
-        field(
-          'cohesion',
-          'c′',
-          'kPa',
-          'pressure',
-          `${at}.strength.cohesion`,
-          s.cohesion,
-          numberIn('c′', 'kPa', { min: 0 }),
-          ['strength', 'cohesion'],
-        ),
-        field(
-          'frictionAngle',
-          'φ′',
-          '°',
-          null,
-          `${at}.strength.frictionAngle`,
-          s.frictionAngle,
-          numberIn('φ′', '°', { min: 0, max: 90, maxExclusive: true }),
-          ['strength', 'frictionAngle'],
-        ),
-      );
-    } else if (s.model === 'undrained') {
-      fields.push(
-        field(
-          'su',
-          'Su',
-          'kPa',
-          'pressure',
-          `${at}.strength.su`,
-          s.su,
-          numberIn('Su', 'kPa', { min: 0 }),
-          ['strength', 'su'],
-        ),
-        field(
-          'suRate',
-          'Su increase with depth',
-          'kPa/m',
-          'pressurePerLength',
-          `${at}.strength.suRate`,
-          s.suRate,
-          numberIn('The increase of Su', 'kPa/m', { min: 0 }),
-          ['strength', 'suRate'],
-        ),
-        field(
-          'suDatum',
-          'Su datum elevation y',
-          'm',
-          'length',
-          `${at}.strength.suDatum`,
-          s.suDatum,
-          datumValidator,
-          ['strength', 'suDatum'],
-        ),
-      );
-    }
-    return { name, model: s.model, fields };
-  });
+  const materials: MaterialEdit[] = Object.entries(input.materials).map(([name, m]) =>
+    materialEdit(name, m, `materials${step(name)}`),
+  );
 
   const w = input.water;
   const water: RerunModel['water'] = {
@@ -311,19 +356,177 @@ export function buildModel(input: SectionInput): RerunModel {
   );
 
   const controls: Record<string, AbstractControl> = { requiredFs: requiredFs.control };
-  materials.forEach((m, i) => {
-    const group = new FormGroup<Record<string, NumCtl>>(
-      Object.fromEntries(m.fields.map((f) => [f.key, f.control])),
-    );
-    const rate = group.controls['suRate'];
-    const datum = group.controls['suDatum'];
-    if (rate && datum) rate.valueChanges.subscribe(() => datum.updateValueAndValidity());
-    controls[`material${i}`] = group;
-  });
+  materials.forEach((m, i) => (controls[`material${i}`] = materialGroup(m)));
   controls['waterUnitWeight'] = water.unitWeight.control;
   if (water.ru) controls['ru'] = water.ru.control;
   if (water.line) controls['line'] = water.line;
-  return { form: new FormGroup(controls), materials, water, requiredFs };
+  const cases = (input.cases ?? []).map((c, i) => caseEdit(input, c, i));
+  cases.forEach((c, i) => (controls[`case${i}`] = c.group));
+  return { form: new FormGroup(controls), materials, water, requiredFs, cases };
+}
+
+/** A material's controls as a group (the datum checked again when the rate changes). */
+function materialGroup(m: MaterialEdit): FormGroup {
+  const group = new FormGroup<Record<string, NumCtl>>(
+    Object.fromEntries(m.fields.map((f) => [f.key, f.control])),
+  );
+  const rate = group.controls['suRate'];
+  const datum = group.controls['suDatum'];
+  if (rate && datum) rate.valueChanges.subscribe(() => datum.updateValueAndValidity());
+  return group;
+}
+
+/** A value with its object members in one order, to compare two materials. */
+function canonical(v: unknown): unknown {
+  if (Array.isArray(v)) return v.map(canonical);
+  if (typeof v !== 'object' || v === null) return v;
+  const o = v as Record<string, unknown>;
+  return Object.fromEntries(
+    Object.keys(o)
+      .filter((k) => k !== 'name' && k !== 'description' && o[k] !== undefined)
+      .sort()
+      .map((k) => [k, canonical(o[k])]),
+  );
+}
+
+const sameMaterial = (a: Material, b: Material | undefined): boolean =>
+  b !== undefined && JSON.stringify(canonical(a)) === JSON.stringify(canonical(b));
+
+/**
+ * A case's own values. Its materials are those it sets its own properties for (differing from
+ * the section's): the section document writes such a material whole in the case, so an edit
+ * of one of its properties merges into it. A material the case leaves as the section's is not
+ * offered (an edit would give the case a partial strength, which the API refuses).
+ */
+function caseEdit(input: SectionInput, c: DesignCase, index: number): CaseEdit {
+  const at = `cases[${index}]`;
+  const sectionRequired = input.analysis.requiredFs;
+  const requiredFs = field(
+    'requiredFs',
+    'Required FS',
+    '',
+    null,
+    `${at}.requiredFs`,
+    c.requiredFs,
+    numberIn('The required FS', '', { min: 0, minExclusive: true }, c.requiredFs !== null),
+  );
+  const seismic =
+    c.kind === 'seismic'
+      ? {
+          kh: field(
+            'kh',
+            'kh',
+            '',
+            null,
+            `${at}.seismic.kh`,
+            c.seismic.kh,
+            numberIn('kh', '', { min: 0, max: 1, maxExclusive: true }),
+            ['seismic', 'kh'],
+          ),
+          kv: field(
+            'kv',
+            'kv',
+            '',
+            null,
+            `${at}.seismic.kv`,
+            c.seismic.kv,
+            numberIn('kv', '', { min: -1, max: 1, minExclusive: true, maxExclusive: true }),
+            ['seismic', 'kv'],
+          ),
+        }
+      : null;
+  const e = c.kind === 'seismic' ? c.earthquake : null;
+  const allowable = e?.allowableDisplacement ?? null;
+  const earthquake = e
+    ? [
+        field(
+          'pga',
+          'Design PGA',
+          'g',
+          null,
+          `${at}.earthquake.pga`,
+          e.pga,
+          numberIn('The design PGA', 'g', { min: 0, max: 3, minExclusive: true }, false),
+          ['earthquake', 'pga'],
+        ),
+        field(
+          'magnitude',
+          'Magnitude Mw',
+          '',
+          null,
+          `${at}.earthquake.magnitude`,
+          e.magnitude,
+          numberIn('The magnitude', '', { min: 0, max: 10, minExclusive: true }, false),
+          ['earthquake', 'magnitude'],
+        ),
+        {
+          ...field(
+            'allowableDisplacement',
+            'Allowable displacement',
+            'mm',
+            'displacement',
+            `${at}.earthquake.allowableDisplacement`,
+            // held in m, written in mm as an SI file writes it
+            allowable === null ? null : fromSi(allowable, 'displacement', 'si'),
+            numberIn('The allowable displacement', 'mm', { min: 0, minExclusive: true }, false),
+            ['earthquake', 'allowableDisplacement'],
+          ),
+          inFileUnit: true,
+        },
+      ]
+    : null;
+  const materials = Object.entries(c.materials)
+    .filter(([name, m]) => m.strength.model !== 'rigid' && !sameMaterial(m, input.materials[name]))
+    .map(([name, m]) => materialEdit(name, m, `${at}.materials${step(name)}`));
+  const fields = [
+    requiredFs,
+    ...(seismic ? [seismic.kh, seismic.kv] : []),
+    ...(earthquake ?? []),
+    ...materials.flatMap((m) => m.fields),
+  ];
+  const controls: Record<string, AbstractControl> = { requiredFs: requiredFs.control };
+  if (seismic) {
+    controls['kh'] = seismic.kh.control;
+    controls['kv'] = seismic.kv.control;
+  }
+  for (const f of earthquake ?? []) controls[f.key] = f.control;
+  materials.forEach((m, i) => (controls[`material${i}`] = materialGroup(m)));
+  return {
+    name: c.name,
+    kind: c.kind,
+    index,
+    requiredFs,
+    sectionsRequirement: c.requiredFs === sectionRequired,
+    seismic,
+    earthquake,
+    materials,
+    fields,
+    group: new FormGroup(controls),
+    removed: signal(false),
+  };
+}
+
+/** The cases not marked to be removed. */
+export function keptCases(model: RerunModel): CaseEdit[] {
+  return model.cases.filter((c) => !c.removed());
+}
+
+/** A case may be removed while another stays: a section keeps at least one. */
+export function mayRemove(model: RerunModel, c: CaseEdit): boolean {
+  return !c.removed() && keptCases(model).length > 1;
+}
+
+/** Marks the case to be removed from the next run (its fields no longer checked or sent). */
+export function removeCase(model: RerunModel, c: CaseEdit): void {
+  if (!mayRemove(model, c)) return;
+  c.removed.set(true);
+  c.group.disable();
+}
+
+/** Keeps a case marked to be removed, with its values as they were edited. */
+export function keepCase(c: CaseEdit): void {
+  c.removed.set(false);
+  c.group.enable();
 }
 
 const changed = (f: Field) => f.control.value !== f.shown;
@@ -378,7 +581,38 @@ export function buildPatch(model: RerunModel): SectionPatch {
   if (line) water['piezometric'] = line;
   if (Object.keys(water).length) patch['water'] = water;
   if (changed(model.requiredFs)) patch['requiredFs'] = model.requiredFs.control.value;
+  const cases: Record<string, unknown> = {};
+  for (const c of model.cases) {
+    const cp = c.removed() ? null : casePatch(c);
+    if (cp === null || Object.keys(cp).length) cases[c.name] = cp;
+  }
+  if (Object.keys(cases).length) patch['cases'] = cases;
   return patch;
+}
+
+/** The value to send: as edited, or the exact stored value when the field is as shown. */
+const valueOf = (f: Field) => (changed(f) ? f.control.value : f.original);
+
+/**
+ * The merge patch of one case (what the API merges into the case as the section document
+ * writes it). kh and kv go together: a case's seismic replaces the section's whole, and one
+ * that was the section's is not written in the case, so kh alone would leave kv at 0.
+ */
+function casePatch(c: CaseEdit): Record<string, unknown> {
+  const cp: Record<string, unknown> = {};
+  if (changed(c.requiredFs)) cp['requiredFs'] = c.requiredFs.control.value;
+  if (c.seismic && (changed(c.seismic.kh) || changed(c.seismic.kv))) {
+    cp['seismic'] = { kh: valueOf(c.seismic.kh), kv: valueOf(c.seismic.kv) };
+  }
+  for (const f of c.earthquake ?? []) if (changed(f)) put(cp, f.at, f.control.value);
+  const materials: Record<string, unknown> = {};
+  for (const m of c.materials) {
+    const mp: Record<string, unknown> = {};
+    for (const f of m.fields) if (changed(f)) put(mp, f.at, f.control.value);
+    if (Object.keys(mp).length) materials[m.name] = mp;
+  }
+  if (Object.keys(materials).length) cp['materials'] = materials;
+  return cp;
 }
 
 /** Every control of the model with the path the API's errors use for it. */
@@ -398,6 +632,13 @@ function targets(model: RerunModel): { path: string; control: AbstractControl }[
   }
   // requiredFs is sent at the top but checked as part of the analysis
   out.push({ path: 'requiredFs', control: model.requiredFs.control });
+  // the API locates a case's errors in the list as edited: without the cases removed
+  keptCases(model).forEach((c, k) => {
+    const from = `cases[${c.index}]`;
+    for (const f of c.fields) {
+      out.push({ path: `cases[${k}]${f.path.slice(from.length)}`, control: f.control });
+    }
+  });
   return out;
 }
 

@@ -21,7 +21,15 @@ import type { SectionStatus } from '../batches/batch-types';
 import type { UserRef } from '../core/models';
 import type { ReviewSummary } from '../reviews/review-types';
 
-export type { Load, Material, MethodId, Point, Strength, UnitSystem } from '@scarpline/core/model';
+export type {
+  DesignCase,
+  Load,
+  Material,
+  MethodId,
+  Point,
+  Strength,
+  UnitSystem,
+} from '@scarpline/core/model';
 export type {
   CaseKind,
   DisplacementEstimate,
