@@ -67,3 +67,36 @@ describe('sectionDocument and readSectionDocument', () => {
     expect(back.text.split('\n')[error.line - 1]).toContain('"unitWeight": -1');
   });
 });
+
+describe("a design case's materials in the document", () => {
+  const text = `
+format: scarpline/1
+id: case-materials
+units: si
+ground: [[0, 0], [10, 0], [20, 5], [30, 5]]
+materials:
+  clay: { unitWeight: 19, strength: { model: mohr-coulomb, cohesion: 8, frictionAngle: 26 } }
+strata: [{ material: clay }]
+cases:
+  - name: long term
+    kind: long-term
+  - name: end of construction
+    kind: end-of-construction
+    materials:
+      clay: { strength: { model: undrained, su: 30 } }
+`;
+  const section = parseSections(text, 'case-materials.yaml').sections[0];
+
+  test('a case writes only the properties it changes, so an edit of the section reaches the rest', () => {
+    const doc = sectionDocument(section);
+    expect(doc.cases![1].materials).toEqual({ clay: { strength: { model: 'undrained', su: 30 } } });
+    doc.materials.clay.unitWeight = 21;
+    doc.materials.clay.saturatedUnitWeight = 21;
+    const back = readSectionDocument(doc, 'edited-section.json', 'si').section!;
+    const eoc = back.cases!.find((c) => c.name === 'end of construction')!;
+    expect(eoc.materials.clay).toMatchObject({
+      unitWeight: 21,
+      strength: { model: 'undrained', su: 30 },
+    });
+  });
+});

@@ -1,5 +1,12 @@
 import { SECTION_FORMAT } from '../formats';
-import type { RawAnalysis, RawCase, RawMaterial, RawSection, RawWater } from '../model/raw-section';
+import type {
+  RawAnalysis,
+  RawCase,
+  RawMaterial,
+  RawMaterialOverride,
+  RawSection,
+  RawWater,
+} from '../model/raw-section';
 import type { Analysis, DesignCase, Material, Section, UnitSystem, Water } from '../model/types';
 import { fromSi } from '../model/units';
 import { isRigid, strengthDocument } from '../strength/registry';
@@ -102,10 +109,17 @@ function caseDocument(c: DesignCase, s: Section): RawCase {
   if (c.governs) doc.governs = c.governs;
   const water = waterDocument(c.water);
   if (!same(water, waterDocument(s.water))) doc.water = water;
-  const materials: Record<string, RawMaterial> = {};
+  // a case's material writes only the properties it changes, so that an edit of the section's
+  // material (a re-run) still reaches the properties the case takes from it
+  const materials: Record<string, RawMaterialOverride> = {};
   for (const [name, m] of Object.entries(c.materials)) {
     const written = materialDocument(m);
-    if (!same(written, materialDocument(s.materials[name]))) materials[name] = written;
+    const own = materialDocument(s.materials[name]);
+    const changed: RawMaterialOverride = {};
+    for (const key of Object.keys(written) as (keyof RawMaterial)[]) {
+      if (!same(written[key], own[key])) Object.assign(changed, { [key]: written[key] });
+    }
+    if (Object.keys(changed).length > 0) materials[name] = changed;
   }
   if (Object.keys(materials).length > 0) doc.materials = materials;
   if (!same(c.loads, s.loads)) doc.loads = c.loads;
