@@ -148,7 +148,8 @@ async function accessible(page, name) {
  */
 async function shot(page, name) {
   fs.mkdirSync(SHOTS, { recursive: true });
-  await page.screenshot({ path: path.join(SHOTS, `${name}.png`), fullPage: true });
+  // a long page on a busy machine can take longer than an action's 15 s
+  await page.screenshot({ path: path.join(SHOTS, `${name}.png`), fullPage: true, timeout: 60_000 });
   await accessible(page, name);
 }
 
