@@ -28,17 +28,20 @@ test('solver bench (packages/core/bench/run.js)', () => {
   expect(out).toMatch(
     new RegExp(`^grid search of ${number} trial surfaces .*: ${number} ms$`, 'm'),
   );
-  expect(out).toMatch(/^auto search .* on each example/m);
-  // a row for every section of every example: a moved or renamed example shows here
-  const ids = readdirSync(EXAMPLES)
+  expect(out).toMatch(/^auto search .* on each design case of each example/m);
+  // a row for every design case of every section of every example (the section's id alone
+  // when it lists no cases): a moved or renamed example shows here
+  const rows = readdirSync(EXAMPLES)
     .filter((f) => f.endsWith('.yaml'))
     .flatMap((f) => parseSections(readFileSync(join(EXAMPLES, f), 'utf8'), f).sections)
-    .map((s) => s.id);
-  expect(ids.length).toBeGreaterThan(5);
-  for (const id of ids) {
+    .flatMap((s) =>
+      s.cases && s.cases.length > 1 ? s.cases.map((c) => `${s.id} ${c.name}`) : [s.id],
+    );
+  expect(rows.length).toBeGreaterThan(5);
+  for (const row of rows) {
     expect(out).toMatch(
       new RegExp(
-        `^  ${id.replace(/[.+]/g, '\\$&')} +${number} ms +${number} trials \\(grid ${number}, ground ranges ${number}, polish ${number}\\) +FS \\d+\\.\\d{3}$`,
+        `^  ${row.replace(/[.+()]/g, '\\$&')} +${number} ms +${number} trials \\(grid ${number}, ground ranges ${number}, polish ${number}\\) +FS \\d+\\.\\d{3}( +\\((seismic|rapid-drawdown)\\))?$`,
         'm',
       ),
     );
@@ -55,6 +58,12 @@ test('solver bench (packages/core/bench/run.js)', () => {
   expect(out).toMatch(
     new RegExp(
       `^  the same threads again, compiled: one thread ${number} ms, \\d+ threads ${number} ms \\(medians\\); speed-up ${number} `,
+      'm',
+    ),
+  );
+  expect(out).toMatch(
+    new RegExp(
+      `^  the demo corridor as it ships \\(\\d+ stations, each with its design cases\\), fresh threads, \\d+ pairs: one thread ${number} ms, \\d+ threads ${number} ms \\(medians\\); speed-up ${number} \\(range ${number}–${number}\\)$`,
       'm',
     ),
   );
