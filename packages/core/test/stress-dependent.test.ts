@@ -1,0 +1,140 @@
+/**
+ * The one mechanism for strengths that vary with the stress on each slice base
+ * (slices/stress-dependent.ts): Mohr–Coulomb sections untouched, the iteration settled where
+ * each base's strength is the tangent at its own normal stress, methods that take one strength
+ * a material refused with their reason, a rapid drawdown refused.
+ */
+import {
+  WorkMeter,
+  analyzeDrawdown,
+  analyzeSection,
+  caseView,
+  hoekBrownEnvelope,
+  type DrawdownSpec,
+  type HoekBrownStrength,
+  type Material,
+  type Point,
+  type Section,
+} from '@scarpline/core';
+
+const ground: Point[] = [
+  [0, 20],
+  [20, 20],
+  [30, 40],
+  [70, 40],
+];
+const rock: HoekBrownStrength = {
+  model: 'hoek-brown',
+  intactStrength: 8000,
+  gsi: 30,
+  mi: 8,
+  disturbance: 0.5,
+};
+const material = (strength: Material['strength']): Material => ({
+  name: 'ground',
+  unitWeight: 23,
+  saturatedUnitWeight: 23,
+  strength,
+});
+
+function section(strength: Material['strength'], over: Partial<Section['analysis']> = {}): Section {
+  return {
+    format: 'scarpline/1',
+    id: 'mechanism',
+    title: 'mechanism',
+    station: null,
+    offset: null,
+    units: 'si',
+    ground,
+    materials: { ground: material(strength) },
+    strata: [{ material: 'ground', top: ground }],
+    water: {
+      kind: 'piezometric',
+      line: [
+        [0, 19],
+        [70, 30],
+      ],
+      unitWeight: 9.81,
+    },
+    loads: [],
+    seismic: { kh: 0, kv: 0 },
+    crack: null,
+    analysis: {
+      methods: ['ordinary', 'bishop', 'janbu', 'spencer', 'morgenstern-price', 'phi-zero-circle'],
+      slices: 40,
+      surface: { type: 'circle', center: [18, 50], radius: 32 },
+      infiniteSlope: null,
+      case: null,
+      requiredFs: null,
+      ...over,
+    },
+  };
+}
+
+describe('strengths that vary with stress, on every method of slices', () => {
+  const r = caseView(analyzeSection(section(rock)));
+
+  test.each(['ordinary', 'bishop', 'janbu', 'spencer', 'morgenstern-price'])(
+    '%s: settled, each base at the tangent of its own normal stress',
+    (method) => {
+      const m = r.results.find((x) => x.method === method)!;
+      expect(m.converged).toBe(true);
+      expect(m.strengthIterations).toBeGreaterThan(1);
+      expect(m.warnings.map((w) => w.code)).not.toContain('stress-iteration');
+      const env = hoekBrownEnvelope(rock);
+      const out = new Float64Array(2);
+      for (const s of m.slices) {
+        // the normal stress it was taken at is the method's own N′/l …
+        const sigma = Math.max(env.floor, s.normal / s.baseLength);
+        expect(Math.abs(s.stressAt! - sigma)).toBeLessThan(1e-3 * Math.max(1, Math.abs(sigma)));
+        // … and c, φ are the envelope's tangent there
+        env.tangent(s.stressAt!, out);
+        expect(s.cohesion).toBeCloseTo(out[0], 9);
+        expect(Math.tan((s.frictionAngle! * Math.PI) / 180)).toBeCloseTo(out[1], 9);
+      }
+    },
+  );
+
+  test('the φ = 0 circle, which takes one strength a material, is not run, with its reason', () => {
+    const m = r.results.find((x) => x.method === 'phi-zero-circle')!;
+    expect(m.fs).toBeNull();
+    expect(m.warnings[0].code).toBe('not-applicable');
+    expect(m.reason).toMatch(/"ground" \(Hoek–Brown\) varies from slice base to slice base/);
+  });
+});
+
+describe('Mohr–Coulomb sections are solved as before', () => {
+  test('no iteration, each slice reports its c′ and φ′ and no stress', () => {
+    const r = caseView(
+      analyzeSection(section({ model: 'mohr-coulomb', cohesion: 8, frictionAngle: 30 })),
+    );
+    for (const m of r.results.filter((x) => x.method !== 'phi-zero-circle')) {
+      expect(m.converged).toBe(true);
+      expect(m.strengthIterations).toBeUndefined();
+      for (const s of m.slices) {
+        expect(s.cohesion).toBe(8);
+        expect(s.frictionAngle).toBeCloseTo(30, 12);
+        expect(s.stressAt).toBeNull();
+      }
+    }
+  });
+});
+
+describe('a rapid drawdown', () => {
+  test('is not run where a strength varies with stress, with its reason', () => {
+    const spec: DrawdownSpec = {
+      after: {
+        kind: 'piezometric',
+        line: [
+          [0, 19],
+          [70, 25],
+        ],
+        unitWeight: 9.81,
+      },
+      materials: {},
+    };
+    const d = analyzeDrawdown(section(rock, { methods: ['bishop'] }), spec, new WorkMeter());
+    expect(d.results[0].fs).toBeNull();
+    expect(d.results[0].reason).toMatch(/rapid drawdown: not available .* "ground" \(Hoek–Brown\)/);
+  });
+});
