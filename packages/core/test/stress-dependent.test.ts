@@ -10,6 +10,8 @@ import {
   analyzeSection,
   caseView,
   hoekBrownEnvelope,
+  parseSections,
+  undrainedRatioSu,
   type DrawdownSpec,
   type HoekBrownStrength,
   type Material,
@@ -136,5 +138,66 @@ describe('a rapid drawdown', () => {
     const d = analyzeDrawdown(section(rock, { methods: ['bishop'] }), spec, new WorkMeter());
     expect(d.results[0].fs).toBeNull();
     expect(d.results[0].reason).toMatch(/rapid drawdown: not available .* "ground" \(Hoek–Brown\)/);
+  });
+});
+
+describe('the settings of the new strengths as a file writes them', () => {
+  const file = (units: 'si' | 'us', strength: string) => `format: scarpline/1
+id: s
+units: ${units}
+ground: [[0, 0], [20, 0], [40, 10], [80, 10]]
+materials:
+  m: { unitWeight: ${units === 'si' ? 20 : 125}, strength: ${strength} }
+strata: [{ material: m }]
+analysis: { methods: [bishop], surface: { type: circle, center: [30, 30], radius: 32 } }
+`;
+  const strengthOf = (text: string) => {
+    const r = parseSections(text, 's.yaml');
+    expect(r.messages.filter((m) => m.severity === 'error')).toEqual([]);
+    return r.sections[0].materials.m.strength;
+  };
+  const PSF = 0.3048 ** -2 * 4.4482216152605e-3; // kPa in one psf
+
+  test('the points of a shear–normal function in psf are converted, both σn and τ', () => {
+    const s = strengthOf(file('us', '{ model: shear-normal, points: [[0, 0], [2000, 1500]] }'));
+    expect(s.model === 'shear-normal' && s.points[1][0]).toBeCloseTo(2000 * PSF, 9);
+    expect(s.model === 'shear-normal' && s.points[1][1]).toBeCloseTo(1500 * PSF, 9);
+  });
+
+  test('σci with its unit, and the defaults of D and of Su from σ′v', () => {
+    const h = strengthOf(
+      file('si', '{ model: hoek-brown, intactStrength: 25 MPa, gsi: 40, mi: 9 }'),
+    );
+    expect(h).toEqual({
+      model: 'hoek-brown',
+      intactStrength: 25000,
+      gsi: 40,
+      mi: 9,
+      disturbance: 0,
+    });
+    const u = strengthOf(file('si', '{ model: undrained-ratio, ratio: 0.22 }'));
+    expect(u).toEqual({
+      model: 'undrained-ratio',
+      ratio: 0.22,
+      minimum: 0,
+      exponent: 0.8,
+      ocr: 1,
+      pop: null,
+    });
+  });
+
+  test('Su from σ′v with a pre-overburden pressure: σ′v S ((σ′v + POP)/σ′v)ᵐ (Ladd & Foott 1974)', () => {
+    const s = {
+      model: 'undrained-ratio' as const,
+      ratio: 0.22,
+      minimum: 5,
+      exponent: 0.8,
+      ocr: 1,
+      pop: 40,
+    };
+    // 60 kPa: OCR = 100/60
+    expect(undrainedRatioSu(s, 60)).toBeCloseTo(60 * 0.22 * (100 / 60) ** 0.8, 12);
+    // at the surface the least Su holds
+    expect(undrainedRatioSu(s, 0)).toBe(5);
   });
 });
