@@ -192,7 +192,7 @@ describe('an infinite slope in Hoek–Brown rock against the criterion on the pl
         ).results[0];
         expect(r.converged).toBe(true);
         // every base in rock took its strength at its own normal stress
-        expect(r.slices.every((s) => s.stressAt !== null)).toBe(true);
+        expect(r.slices.every((s) => s.strengthAt?.kind === 'normal')).toBe(true);
         return r.fs!;
       });
       const extrapolated = (fs[1] * lengths[1] - fs[0] * lengths[0]) / (lengths[1] - lengths[0]);

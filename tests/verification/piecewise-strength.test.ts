@@ -51,7 +51,7 @@ function fsBy(strength: Material['strength']): Map<MethodId, { fs: number; stres
   return new Map(
     r.results.map((m) => {
       expect(m.converged).toBe(true);
-      return [m.method, { fs: m.fs!, stress: m.slices.map((s) => s.stressAt ?? NaN) }];
+      return [m.method, { fs: m.fs!, stress: m.slices.map((s) => s.strengthAt?.stress ?? NaN) }];
     }),
   );
 }

@@ -109,7 +109,11 @@ describe('Su from σ′v (SHANSEP) on a φ = 0 circle against the exact φ = 0 c
       // each base reports the σ′v its Su was taken at, and Su = σ′v S OCRᵐ there
       for (const s of r.slices) {
         expect(s.frictionAngle).toBe(0);
-        expect(s.cohesion).toBeCloseTo(Math.max(minimum, s.stressAt! * S * Math.pow(OCR, m)), 9);
+        expect(s.strengthAt!.kind).toBe('vertical');
+        expect(s.cohesion).toBeCloseTo(
+          Math.max(minimum, s.strengthAt!.stress * S * Math.pow(OCR, m)),
+          9,
+        );
       }
     }
     // the φ = 0 circle takes Su by depth from a datum, not from σ′v: not run, with its reason

@@ -44,7 +44,13 @@ function reportSlices(
       material: prepared.materials[s.material[i]].name,
       cohesion: s.cohesion[i],
       frictionAngle: deg(Math.atan(s.tanPhi[i])),
-      stressAt: stressAt && Number.isFinite(stressAt[i]) ? stressAt[i] : null,
+      strengthAt:
+        stressAt && Number.isFinite(stressAt[i])
+          ? {
+              stress: stressAt[i],
+              kind: prepared.rules?.envelope[s.material[i]] ? 'normal' : 'vertical',
+            }
+          : null,
     });
   }
   if (s.mirrored) out.reverse();

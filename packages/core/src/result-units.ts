@@ -75,8 +75,8 @@ export function resultInUnits<T extends SectionResult>(r: T, to: UnitSystem): T 
       weight: F(s.weight),
       porePressure: c(s.porePressure, 'pressure'),
       ...(s.cohesion !== undefined ? { cohesion: c(s.cohesion, 'pressure') } : {}),
-      ...(s.stressAt !== undefined
-        ? { stressAt: s.stressAt === null ? null : c(s.stressAt, 'pressure') }
+      ...(s.strengthAt
+        ? { strengthAt: { ...s.strengthAt, stress: c(s.strengthAt.stress, 'pressure') } }
         : {}),
       normal: F(s.normal),
       shear: F(s.shear),

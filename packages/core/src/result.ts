@@ -31,13 +31,13 @@ export interface SliceReport {
   /**
    * The strength the base took: c (c′ or Su, kPa) and φ (degrees; 0 for Su), and for a
    * strength that varies with stress the stress it was taken at (kPa): the effective normal
-   * stress σ′n on the base (Hoek–Brown, shear–normal points, bilinear) or the vertical
-   * effective stress σ′v (Su from σ′v); null for a fixed strength. Absent in results of
-   * earlier versions.
+   * stress σ′n on the base (`normal`: Hoek–Brown, shear–normal points, bilinear) or the
+   * vertical effective stress σ′v (`vertical`: Su from σ′v); null for a fixed strength.
+   * Absent in results of earlier versions.
    */
   cohesion?: number;
   frictionAngle?: number;
-  stressAt?: number | null;
+  strengthAt?: { kind: 'normal' | 'vertical'; stress: number } | null;
 }
 
 export type ReportedSurface =

@@ -88,9 +88,11 @@ describe('strengths that vary with stress, on every method of slices', () => {
       for (const s of m.slices) {
         // the normal stress it was taken at is the method's own N′/l …
         const sigma = Math.max(env.floor, s.normal / s.baseLength);
-        expect(Math.abs(s.stressAt! - sigma)).toBeLessThan(1e-3 * Math.max(1, Math.abs(sigma)));
+        expect(Math.abs(s.strengthAt!.stress - sigma)).toBeLessThan(
+          1e-3 * Math.max(1, Math.abs(sigma)),
+        );
         // … and c, φ are the envelope's tangent there
-        env.tangent(s.stressAt!, out);
+        env.tangent(s.strengthAt!.stress, out);
         expect(s.cohesion).toBeCloseTo(out[0], 9);
         expect(Math.tan((s.frictionAngle! * Math.PI) / 180)).toBeCloseTo(out[1], 9);
       }
@@ -116,7 +118,7 @@ describe('Mohr–Coulomb sections are solved as before', () => {
       for (const s of m.slices) {
         expect(s.cohesion).toBe(8);
         expect(s.frictionAngle).toBeCloseTo(30, 12);
-        expect(s.stressAt).toBeNull();
+        expect(s.strengthAt).toBeNull();
       }
     }
   });
