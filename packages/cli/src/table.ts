@@ -106,7 +106,8 @@ export function strengthWords(m: MethodReport, units: UnitSystem): string | null
     );
     return `${name}: c ${c} ${p}, φ ${phi}° at σ′n ${stress} ${p}`;
   });
-  const settled = m.strengthIterations ? ` (settled in ${m.strengthIterations} solutions)` : '';
+  const k = m.strengthIterations;
+  const settled = k ? ` (settled in ${k} solution${k > 1 ? 's' : ''})` : '';
   return `strengths taken at each slice base's stress, ${m.method}${settled}: ${parts.join('; ')}`;
 }
 
