@@ -5,7 +5,7 @@ import { withBaseStrengths } from '../slices/base-strengths';
 import type { PreparedSection } from '../slices/prepare-section';
 import { cutCircle, sliceWorkspace } from '../slices/cut-surface';
 import type { SliceSet } from '../slices/slice-set';
-import { solveWithStresses, touchesRules } from '../slices/stress-dependent';
+import { solveWithStresses, stressScratch, touchesRules } from '../slices/stress-dependent';
 import { WorkMeter } from '../work-limit';
 import type { CircleEvaluator } from './trials';
 
@@ -35,6 +35,7 @@ export function bishopCircleEvaluator(
   let view: SliceSet | undefined;
   let total = new Float64Array(64);
   let normal = new Float64Array(64);
+  const scratch = stressScratch(64);
   let guess = 1;
   return (xc, yc, r) => {
     if (cutCircle(ws, xc, yc, r, slices) !== null) {
@@ -56,14 +57,20 @@ export function bishopCircleEvaluator(
       normal = new Float64Array(2 * s.n);
     }
     let solutions = 0;
-    const solved = solveWithStresses(s, rules!, gw, (b) => {
-      if (solutions++ > 0) meter.charge(s.n);
-      view = withBaseStrengths(s, b, view);
-      st = statics(view, seismic, pivot, st);
-      const f = bishopIteration(st, guess, 1e-7);
-      if (f > 0) bishopNormals(st, f, total, normal);
-      return { fs: f, converged: f > 0, normal };
-    });
+    const solved = solveWithStresses(
+      s,
+      rules!,
+      gw,
+      (b) => {
+        if (solutions++ > 0) meter.charge(s.n);
+        view = withBaseStrengths(s, b, view);
+        st = statics(view, seismic, pivot, st);
+        const f = bishopIteration(st, guess, 1e-7);
+        if (f > 0) bishopNormals(st, f, total, normal);
+        return { fs: f, converged: f > 0, normal };
+      },
+      scratch,
+    );
     const f = solved.result.fs;
     if (f > 0) guess = f;
     return solved.result.converged ? f : NaN;

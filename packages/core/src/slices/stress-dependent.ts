@@ -70,6 +70,31 @@ export interface StressSolution<T extends NormalForces> {
   warnings: StressWarning[];
 }
 
+/** The arrays of one solution, for surfaces of up to their length in slices. */
+export interface StressScratch {
+  strengths: BaseStrengths;
+  stressAt: Float64Array;
+  next: Float64Array;
+  len: Float64Array;
+  out: Float64Array;
+}
+
+/**
+ * Arrays for solveWithStresses on surfaces of up to `n` slices. The search's evaluator keeps
+ * one and passes it to every trial (the solution's strengths and stresses then live only until
+ * the next trial); without one, each solution has arrays of its own.
+ */
+export function stressScratch(n: number): StressScratch {
+  const m = Math.max(n, 1);
+  return {
+    strengths: baseStrengths(m),
+    stressAt: new Float64Array(m),
+    next: new Float64Array(m),
+    len: new Float64Array(m),
+    out: new Float64Array(2),
+  };
+}
+
 /** At most this many solutions of the method; from the tenth the normal stresses are under-relaxed by half. */
 export const STRESS_ITERATIONS = 40;
 const RELAX_AFTER = 10;
@@ -100,13 +125,13 @@ export function solveWithStresses<T extends NormalForces>(
   rules: StrengthRules,
   waterUnitWeight: number,
   solve: (b: BaseStrengths) => T,
+  scratch?: StressScratch,
 ): StressSolution<T> {
   const n = s.n;
-  const b = baseStrengths(Math.max(n, 1));
-  const stressAt = new Float64Array(Math.max(n, 1)).fill(NaN);
-  const next = new Float64Array(Math.max(n, 1));
-  const len = new Float64Array(Math.max(n, 1));
-  const out = new Float64Array(2);
+  const own = scratch ?? stressScratch(n);
+  if (own.len.length < n) Object.assign(own, stressScratch(n));
+  const { strengths: b, stressAt, next, len, out } = own;
+  stressAt.fill(NaN, 0, n);
   let any = false;
   for (let i = 0; i < n; i++) {
     const m = s.material[i];

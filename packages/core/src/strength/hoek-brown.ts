@@ -78,24 +78,37 @@ export function hoekBrownEnvelope(h: HoekBrownStrength): NormalStressEnvelope {
   const lowC = pt[2];
   const lowT = pt[3];
   const tol = 1e-12 * sci;
+  // the last root and the slope dσn/dσ3 there: the next base (a neighbour, of a like σn) starts from it
+  let lastSigma = NaN;
+  let lastS3 = NaN;
+  let lastDg = NaN;
   /** The σ3 whose point has σn = sigma (> floor): Newton's method kept inside a shrinking bracket. */
   const sigma3At = (sigma: number): number => {
     let lo = low;
     let hi = sigma;
-    let x = Math.max(low, sigma - 0.5 * sci * Math.pow(k.s, k.a));
-    if (!(x < hi)) x = 0.5 * (lo + hi);
+    let x =
+      lastDg > 0 ? lastS3 + (sigma - lastSigma) / lastDg : sigma - 0.5 * sci * Math.pow(k.s, k.a);
+    if (!(x > lo && x < hi)) x = 0.5 * (lo + hi);
     for (let it = 0; it < 100; it++) {
       const q = Math.max(1e-300, (k.mb * x) / sci + k.s);
-      const d = sci * Math.pow(q, k.a);
-      const slope = 1 + k.a * k.mb * Math.pow(q, k.a - 1);
-      const dSlope = (k.a * (k.a - 1) * k.mb * k.mb * Math.pow(q, k.a - 2)) / sci;
+      const qa = Math.pow(q, k.a);
+      const d = sci * qa;
+      const slope = 1 + (k.a * k.mb * qa) / q;
+      const dSlope = (k.a * (k.a - 1) * k.mb * k.mb * qa) / (q * q * sci);
       const g = x + d / (slope + 1) - sigma;
       if (g > 0) hi = x;
       else lo = x;
       const dg = 1 + (slope - 1) / (slope + 1) - (d * dSlope) / ((slope + 1) * (slope + 1));
-      let next = x - g / dg;
-      if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-      if (Math.abs(next - x) <= tol || hi - lo <= tol) return next;
+      const step = g / dg;
+      let next = x - step;
+      const settled = Math.abs(step) <= tol;
+      if (!settled && !(next > lo && next < hi)) next = 0.5 * (lo + hi);
+      if (settled || hi - lo <= tol) {
+        lastSigma = sigma;
+        lastS3 = next;
+        lastDg = dg;
+        return next;
+      }
       x = next;
     }
     return x;
