@@ -10,6 +10,7 @@ import {
   analyzeSection,
   caseView,
   hoekBrownEnvelope,
+  infiniteSlope,
   parseSections,
   undrainedRatioSu,
   type DrawdownSpec,
@@ -201,5 +202,99 @@ analysis: { methods: [bishop], surface: { type: circle, center: [30, 30], radius
     expect(undrainedRatioSu(s, 60)).toBeCloseTo(60 * 0.22 * (100 / 60) ** 0.8, 12);
     // at the surface the least Su holds
     expect(undrainedRatioSu(s, 0)).toBe(5);
+  });
+});
+
+describe('the infinite slope with a strength that varies with stress (closed form: σ′n and σ′v on the plane do not depend on F)', () => {
+  const plane = (strength: Material['strength'], waterRatio = 0) =>
+    infiniteSlope({
+      angle: 30,
+      depth: 4,
+      waterRatio,
+      material: { name: 'm', unitWeight: 20, saturatedUnitWeight: 20, strength },
+      waterUnitWeight: 9.81,
+      kh: 0,
+    });
+  const b = Math.PI / 6;
+  const drive = 20 * 4 * Math.sin(b) * Math.cos(b);
+
+  test('shear–normal points: F = τ(σ′n)/τ_driving, σ′n = γz cos²β − u', () => {
+    const u = 9.81 * 0.5 * 4 * Math.cos(b) ** 2;
+    const sn = 20 * 4 * Math.cos(b) ** 2 - u;
+    // σ′n ≈ 40.6 kPa lies on the segment (20, 25)–(100, 70)
+    const tau = 25 + ((sn - 20) * 45) / 80;
+    const r = plane(
+      {
+        model: 'shear-normal',
+        points: [
+          [0, 5],
+          [20, 25],
+          [100, 70],
+        ],
+        beyond: 'extend',
+      },
+      0.5,
+    );
+    expect(r.fs).toBeCloseTo(tau / drive, 12);
+  });
+
+  test('bilinear beyond its break: F = [c′ + σ′b tan φ′ + (σ′n − σ′b) tan φ′₂]/τ_driving', () => {
+    const sn = 20 * 4 * Math.cos(b) ** 2;
+    const tan = (d: number) => Math.tan((d * Math.PI) / 180);
+    const tau = 3 + 30 * tan(38) + (sn - 30) * tan(30);
+    const r = plane({
+      model: 'bilinear',
+      cohesion: 3,
+      frictionAngle: 38,
+      breakStress: 30,
+      frictionAngleBeyond: 30,
+    });
+    expect(r.fs).toBeCloseTo(tau / drive, 12);
+  });
+
+  test('Su from σ′v: F = S·OCRᵐ·(γz − u)/τ_driving', () => {
+    const u = 9.81 * 1 * 4 * Math.cos(b) ** 2;
+    const su = 0.25 * 2 ** 0.8 * (20 * 4 - u);
+    const r = plane(
+      { model: 'undrained-ratio', ratio: 0.25, minimum: 0, exponent: 0.8, ocr: 2, pop: null },
+      1,
+    );
+    expect(r.fs).toBeCloseTo(su / drive, 12);
+  });
+});
+
+describe('the located warning for bases outside an envelope’s range', () => {
+  test('bases beyond the last point of a shear–normal function are named, numbered from the left', () => {
+    const r = caseView(
+      analyzeSection(
+        section(
+          {
+            model: 'shear-normal',
+            points: [
+              [0, 5],
+              [40, 35],
+            ],
+            beyond: 'hold',
+          },
+          { methods: ['bishop'] },
+        ),
+      ),
+    );
+    const m = r.results[0];
+    const beyond = m.slices
+      .map((s, i) => [i + 1, s.strengthAt!.stress] as const)
+      .filter(([, sn]) => sn > 40)
+      .map(([i]) => i);
+    expect(beyond.length).toBeGreaterThan(0);
+    const w = m.warnings.find((x) => x.code === 'stress-range')!;
+    expect(w.message).toMatch(/beyond the last point of the shear–normal function \(τ held/);
+    // the first and last such slice are in the list
+    expect(w.message).toContain(`${beyond[0]}`);
+    expect(w.message).toContain(`${beyond[beyond.length - 1]}`);
+    // held beyond the last point: φ = 0 there, τ = 35
+    for (const s of m.slices.filter((x) => x.strengthAt!.stress > 40)) {
+      expect(s.cohesion).toBe(35);
+      expect(s.frictionAngle).toBe(0);
+    }
   });
 });
