@@ -12,6 +12,8 @@ import {
   hoekBrownEnvelope,
   infiniteSlope,
   parseSections,
+  readSectionDocument,
+  sectionDocument,
   undrainedRatioSu,
   type DrawdownSpec,
   type HoekBrownStrength,
@@ -296,5 +298,41 @@ describe('the located warning for bases outside an envelope’s range', () => {
       expect(s.cohesion).toBe(35);
       expect(s.frictionAngle).toBe(0);
     }
+  });
+});
+
+describe('a section document (SI, as the service’s re-run edits it) reads back as the same section', () => {
+  test.each([
+    [
+      'shear–normal, held',
+      {
+        model: 'shear-normal',
+        points: [
+          [10, 12],
+          [80, 60],
+        ],
+        beyond: 'hold',
+      },
+    ],
+    [
+      'bilinear',
+      {
+        model: 'bilinear',
+        cohesion: 2,
+        frictionAngle: 40,
+        breakStress: 150,
+        frictionAngleBeyond: 33,
+      },
+    ],
+    ['Hoek–Brown, disturbed', { ...rock }],
+    [
+      'Su from σ′v, constant OCR',
+      { model: 'undrained-ratio', ratio: 0.3, minimum: 6, exponent: 0.75, ocr: 1.8, pop: null },
+    ],
+  ] as [string, Material['strength']][])('%s', (_name, strength) => {
+    const s = section(strength);
+    const back = readSectionDocument(sectionDocument(s), 'edited-section.json', 'si');
+    expect(back.messages.filter((m) => m.severity === 'error')).toEqual([]);
+    expect(back.section!.materials).toEqual(s.materials);
   });
 });
