@@ -82,8 +82,11 @@ export function hoekBrownEnvelope(h: HoekBrownStrength): NormalStressEnvelope {
   let lastSigma = NaN;
   let lastS3 = NaN;
   let lastDg = NaN;
-  /** The σ3 whose point has σn = sigma (> floor): Newton's method kept inside a shrinking bracket. */
-  const sigma3At = (sigma: number): number => {
+  /**
+   * The tangent at σn = sigma (> floor) into out: the σ3 of that point by Newton's method kept
+   * inside a shrinking bracket, and the tangent at the last iterate (within 10⁻¹² σci of it).
+   */
+  const tangentAt = (sigma: number, out: Float64Array): void => {
     let lo = low;
     let hi = sigma;
     let x =
@@ -107,11 +110,18 @@ export function hoekBrownEnvelope(h: HoekBrownStrength): NormalStressEnvelope {
         lastSigma = sigma;
         lastS3 = next;
         lastDg = dg;
-        return next;
+        // Balmer's tangent at x, as hoekBrownPoint gives it, from the numbers at hand
+        const root = Math.sqrt(slope);
+        const tanPhi = (slope - 1) / (2 * root);
+        out[0] = (d * root) / (slope + 1) - (x + d / (slope + 1)) * tanPhi;
+        out[1] = tanPhi;
+        return;
       }
       x = next;
     }
-    return x;
+    hoekBrownPoint(sci, k, x, pt);
+    out[0] = pt[2];
+    out[1] = pt[3];
   };
   return {
     floor,
@@ -123,9 +133,7 @@ export function hoekBrownEnvelope(h: HoekBrownStrength): NormalStressEnvelope {
         out[1] = lowT;
         return;
       }
-      hoekBrownPoint(sci, k, sigma3At(sigma), pt);
-      out[0] = pt[2];
-      out[1] = pt[3];
+      tangentAt(sigma, out);
     },
   };
 }
