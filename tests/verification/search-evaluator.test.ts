@@ -2,7 +2,8 @@
  * The search's circle evaluator against the exact path, circle by circle. The search cuts
  * thousands of circles into one reused workspace and solves each by Bishop's fixed point,
  * warm-started from the circle before; the exact path cuts each circle afresh
- * (sliceSurface) and solves it by bishop() to 1 part in 10¹⁰. On every example and on
+ * (sliceSurface) and solves it by bishop() to 1 part in 10¹⁰ (with the strengths that vary with
+ * stress, solveSlices, where a section has them). On every example and on
  * seeded layered sections with water, loads, kh and a tension crack, circles are taken in
  * a shuffled order (admissible and not, toward either side, reaching a rigid base or not), so
  * that anything one circle leaves behind in the workspace would show in the next.
@@ -22,6 +23,7 @@ import {
   prepareSection,
   seededRandom,
   sliceSurface,
+  solveSlices,
   statics,
   type Point,
   type Section,
@@ -91,7 +93,10 @@ function measure(section: Section): Measured {
       continue;
     }
     const pivot: Point = [(cut.slices.mirrored ? -1 : 1) * xc, yc];
-    const exact = bishop(cut.slices, { seismic: section.seismic, pivot });
+    // where a base's strength varies with stress, the exact path solves it as every method does
+    const exact = solveSlices(cut.slices, prepared.rules, section.water.unitWeight, (s) =>
+      bishop(s, { seismic: section.seismic, pivot }),
+    );
     // the search takes only what the fixed point reaches; bishop() may go on by bracketing
     const fixedPoint = bishopIteration(statics(cut.slices, section.seismic, pivot), 1, 1e-10);
     if (!(fixedPoint > 0)) continue;

@@ -69,6 +69,48 @@ export function drawdownWords(d: DrawdownReport): string[] {
   ];
 }
 
+/**
+ * Where a base's strength varied with stress on a method's surface: for each such material,
+ * the range of c and φ its bases took and of the stress they were taken at (σ′n on the base
+ * or σ′v above it).
+ */
+export function strengthWords(m: MethodReport, units: UnitSystem): string | null {
+  const p = UNIT_LABELS[units].pressure;
+  const by = new Map<string, MethodReport['slices']>();
+  for (const s of m.slices) {
+    if (!s.strengthAt) continue;
+    const list = by.get(s.material) ?? [];
+    list.push(s);
+    by.set(s.material, list);
+  }
+  if (by.size === 0) return null;
+  const range = (v: number[], digits: number) => {
+    const lo = Math.min(...v).toFixed(digits);
+    const hi = Math.max(...v).toFixed(digits);
+    return lo === hi ? lo : `${lo}–${hi}`;
+  };
+  const parts = [...by].map(([name, list]) => {
+    const at = list[0].strengthAt!;
+    const stress = range(
+      list.map((s) => s.strengthAt!.stress),
+      0,
+    );
+    const c = range(
+      list.map((s) => s.cohesion ?? 0),
+      1,
+    );
+    if (at.kind === 'vertical') return `${name}: Su ${c} ${p} at σ′v ${stress} ${p}`;
+    const phi = range(
+      list.map((s) => s.frictionAngle ?? 0),
+      1,
+    );
+    return `${name}: c ${c} ${p}, φ ${phi}° at σ′n ${stress} ${p}`;
+  });
+  const k = m.strengthIterations;
+  const settled = k ? ` (settled in ${k} solution${k > 1 ? 's' : ''})` : '';
+  return `strengths taken at each slice base's stress, ${m.method}${settled}: ${parts.join('; ')}`;
+}
+
 /** The lines of one case: a row per method, the governing FS against the requirement, how the search found it, the warnings. */
 function caseLines(c: CaseResult, units: UnitSystem, indent: string): string[] {
   const length = UNIT_LABELS[units].length;
@@ -90,6 +132,9 @@ function caseLines(c: CaseResult, units: UnitSystem, indent: string): string[] {
   if (comparing.length > 0) lines.push(`${indent}for comparison only: ${comparing.join(', ')}`);
   if (c.seismic) for (const w of seismicWords(c.seismic, units)) lines.push(`${indent}${w}`);
   if (c.drawdown) for (const w of drawdownWords(c.drawdown)) lines.push(`${indent}${w}`);
+  const governing = c.results.find((m) => m.method === c.governing?.method);
+  const strengths = governing ? strengthWords(governing, units) : null;
+  if (strengths) lines.push(`${indent}${strengths}`);
   if (c.search?.howFound)
     for (const w of howFoundWords(c.search.howFound)) lines.push(`${indent}${w}`);
   for (const w of distinctWarnings({ results: c.results, warnings: c.warnings })) {

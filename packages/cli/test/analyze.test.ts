@@ -28,6 +28,19 @@ describe('scarpline analyze', () => {
     expect(code).toBe(2); // the levee section is below its required FS
   });
 
+  test('a rock cut in Hoek–Brown rock: the strengths its bases took, in the table and the JSON', () => {
+    const table = run(['analyze', 'examples/cut-rock-hoek-brown.yaml']).out;
+    expect(table).toMatch(
+      /strengths taken at each slice base's stress, \w+ \(settled in \d+ solutions\): mudstone: c [\d.]+–[\d.]+ kPa, φ [\d.]+–[\d.]+° at σ′n -?\d+–\d+ kPa/,
+    );
+    const doc = JSON.parse(run(['analyze', 'examples/cut-rock-hoek-brown.yaml', '--json']).out) as {
+      sections: { cases: { results: { slices: { strengthAt: unknown }[] }[] }[] }[];
+    };
+    expect(validate(doc.sections[0])).toBe(true);
+    const slices = doc.sections[0].cases[0].results[1].slices;
+    expect(slices.some((s) => s.strengthAt !== null)).toBe(true);
+  });
+
   test('exit 0 when every section passes, with a readable table and the caution', () => {
     const { code, out } = run(['analyze', 'examples/cut-surcharge-seismic.yaml']);
     expect(code).toBe(0);

@@ -114,6 +114,22 @@ export { threeStages, type ThreeStages } from './drawdown/three-stages';
 export { drawdownCircleEvaluator } from './drawdown/drawdown-evaluator';
 export { drawdownSearchEvaluation } from './drawdown/drawdown-evaluation';
 export { withBaseStrengths, baseStrengths, type BaseStrengths } from './slices/base-strengths';
+// --- strengths that vary with the stress on each slice base
+export {
+  solveWithStresses,
+  solveSlices,
+  strengthRules,
+  touchesRules,
+  STRESS_ITERATIONS,
+  type StrengthRules,
+  type StressSolution,
+} from './slices/stress-dependent';
+export { hoekBrownConstants, hoekBrownEnvelope, hoekBrownPoint } from './strength/hoek-brown';
+export { undrainedRatioSu } from './strength/undrained-ratio';
+export { shearNormalEnvelope } from './strength/shear-normal';
+export { bilinearEnvelope } from './strength/bilinear';
+export { strengthEnvelope, verticalStressStrength } from './strength/registry';
+export type { NormalStressEnvelope } from './strength/types';
 export { AnalysisStopped, WORK_LIMIT, WorkMeter, type AnalyzeOptions } from './work-limit';
 export { METHODS, methodsFor, type MethodEntry } from './methods/registry';
 export type {

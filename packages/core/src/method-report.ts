@@ -1,4 +1,4 @@
-import { METHODS, methodsFor } from './methods/registry';
+import { METHODS, type MethodOutput, methodsFor } from './methods/registry';
 import { defaultPivot } from './methods/pivot';
 import type { SliceMethodResult } from './methods/types';
 import type { CircleSurface, MethodId, Point, PolylineSurface } from './model/types';
@@ -6,6 +6,7 @@ import type { MethodReport, ReportedSurface, SliceReport, Warning } from './resu
 import type { BaseStrengths } from './slices/base-strengths';
 import type { PreparedSection } from './slices/prepare-section';
 import type { SliceOutcome, SliceSet } from './slices/slice-surface';
+import { solveWithStresses, touchesRules } from './slices/stress-dependent';
 
 const deg = (r: number) => (r * 180) / Math.PI;
 
@@ -18,6 +19,7 @@ function reportSlices(
   s: SliceSet,
   r: SliceMethodResult | null,
   computes: { E: boolean; X: boolean },
+  stressAt: Float64Array | null,
 ): SliceReport[] {
   const out: SliceReport[] = [];
   for (let i = 0; i < s.n; i++) {
@@ -40,6 +42,15 @@ function reportSlices(
       shear: r ? finite(r.shear[i]) : 0,
       interslice: { E, X, thrust },
       material: prepared.materials[s.material[i]].name,
+      cohesion: s.cohesion[i],
+      frictionAngle: deg(Math.atan(s.tanPhi[i])),
+      strengthAt:
+        stressAt && Number.isFinite(stressAt[i])
+          ? {
+              stress: stressAt[i],
+              kind: prepared.rules?.envelope[s.material[i]] ? 'normal' : 'vertical',
+            }
+          : null,
     });
   }
   if (s.mirrored) out.reverse();
@@ -72,6 +83,18 @@ function cohesionlessWarning(prepared: PreparedSection, s: SliceSet): Warning | 
     code: 'cohesionless-circle',
     message: `c′ = 0 along this surface: the critical circle tends to a shallow slide parallel to the steepest ground (β = ${deg(beta).toFixed(1)}°), whose infinite-slope factor of safety is ${fInf.toFixed(3)}${ru > 0 ? ` with ru = ${ru}` : ' (no pore pressure)'}; that value governs`,
   };
+}
+
+/** Why a method that takes one strength for each material does not run where a base's strength varies with stress. */
+function takesMaterialStrength(method: MethodId, prepared: PreparedSection, s: SliceSet): string {
+  const rules = prepared.rules!;
+  const seen = new Set<number>();
+  for (let i = 0; i < s.n; i++) {
+    const m = s.material[i];
+    if (rules.envelope[m] || rules.vertical[m]) seen.add(m);
+  }
+  const which = [...seen].map((m) => `"${rules.names[m]}" (${rules.words[m]})`).join(', ');
+  return `${method}: takes one strength for each material, but the strength of ${which} varies from slice base to slice base with the stress on it; use a method of slices (ordinary, Bishop, Janbu, Spencer, Morgenstern–Price)`;
 }
 
 /** A `no-convergence` warning for each method that applies but found no solution. */
@@ -175,12 +198,23 @@ export function solveOnSurface(
     return refused(notRun(method, `the slip surface was rejected: ${cut.reason}`, reported));
   const s = cut.slices;
   const pivot = pivotOf(surface, s);
-  const {
-    result: r,
-    extra = {},
-    slices = s,
-  } = entry.run({ prepared, surface, cut, pivot, strengths });
-  const warnings: Warning[] = [...r.warnings];
+  const varies = !strengths && touchesRules(s, prepared.rules);
+  if (varies && !entry.slices)
+    return refused(notRun(method, takesMaterialStrength(method, prepared, s), reported));
+  let output: MethodOutput | undefined;
+  const stress = varies
+    ? solveWithStresses(s, prepared.rules!, prepared.section.water.unitWeight, (b) => {
+        output = entry.run({ prepared, surface, cut, pivot, strengths: b });
+        return output.result;
+      })
+    : null;
+  if (!output) output = entry.run({ prepared, surface, cut, pivot, strengths });
+  const { result: r, slices = s } = output;
+  const extra = {
+    ...(output.extra ?? {}),
+    ...(stress ? { strengthIterations: stress.iterations } : {}),
+  };
+  const warnings: Warning[] = [...r.warnings, ...(stress?.warnings ?? [])];
   if (surface.type === 'circle' && entry.slices) {
     const w = cohesionlessWarning(prepared, slices);
     if (w) warnings.push(w);
@@ -195,7 +229,13 @@ export function solveOnSurface(
     base: cut.base.map((p): Point => [p[0], p[1]]),
     ends: { upper: cut.upperEnd, lower: cut.lowerEnd },
     crack: cut.crack ? { ...cut.crack } : null,
-    slices: reportSlices(prepared, slices, r.converged ? r : null, entry.interslice),
+    slices: reportSlices(
+      prepared,
+      slices,
+      r.converged ? r : null,
+      entry.interslice,
+      stress ? stress.stressAt : null,
+    ),
     warnings,
     ...extra,
   };

@@ -74,6 +74,10 @@ export function resultInUnits<T extends SectionResult>(r: T, to: UnitSystem): T 
       baseLength: L(s.baseLength),
       weight: F(s.weight),
       porePressure: c(s.porePressure, 'pressure'),
+      ...(s.cohesion !== undefined ? { cohesion: c(s.cohesion, 'pressure') } : {}),
+      ...(s.strengthAt
+        ? { strengthAt: { ...s.strengthAt, stress: c(s.strengthAt.stress, 'pressure') } }
+        : {}),
       normal: F(s.normal),
       shear: F(s.shear),
       interslice: {

@@ -28,6 +28,16 @@ export interface SliceReport {
    */
   interslice: { E: number | null; X: number | null; thrust: number | null };
   material: string;
+  /**
+   * The strength the base took: c (c′ or Su, kPa) and φ (degrees; 0 for Su), and for a
+   * strength that varies with stress the stress it was taken at (kPa): the effective normal
+   * stress σ′n on the base (`normal`: Hoek–Brown, shear–normal points, bilinear) or the
+   * vertical effective stress σ′v (`vertical`: Su from σ′v); null for a fixed strength.
+   * Absent in results of earlier versions.
+   */
+  cohesion?: number;
+  frictionAngle?: number;
+  strengthAt?: { kind: 'normal' | 'vertical'; stress: number } | null;
 }
 
 export type ReportedSurface =
@@ -64,6 +74,8 @@ export interface MethodReport {
   /** φ = 0 circle: weight of the mass and its lever arm about the centre. */
   massWeight?: number;
   leverArm?: number;
+  /** Where some base's strength depends on its normal stress: the method's solutions until it settled. */
+  strengthIterations?: number;
 }
 
 export interface SectionResult {

@@ -161,6 +161,8 @@ describe('the schemas', () => {
     ...['restarts', 'seed'],
     // a drawdown's ψR (an angle), an earthquake's pga (a fraction of g) and magnitude
     ...['psiR', 'pga', 'magnitude'],
+    // Hoek–Brown's GSI, mi and D; a ratio Su/σ′v, its exponent and OCR; a second friction angle
+    ...['gsi', 'mi', 'disturbance', 'ratio', 'exponent', 'ocr', 'frictionAngleBeyond'],
   ]);
   test.each([
     ['section', sectionSchema],

@@ -13,6 +13,7 @@ import { type SearchOutcome, searchSection } from '../search/search-section';
 import { searchWarnings } from '../search/search-warnings';
 import { Trials } from '../search/trials';
 import { sliceSurface } from '../slices/slice-surface';
+import { STRENGTH_WORDS, variesWithStress } from '../strength/registry';
 import type { WorkMeter } from '../work-limit';
 import { type MaterialDrainage, resolveDrainage } from './drainage';
 import { drawdownSearchEvaluation } from './drawdown-evaluation';
@@ -94,6 +95,19 @@ export function analyzeDrawdown(
   meter: WorkMeter,
   governs: readonly MethodId[] | null = null,
 ): DrawdownAnalysis {
+  const varying = Object.values(section.materials).filter((m) => variesWithStress(m.strength));
+  if (varying.length > 0) {
+    // the stages take each base's drained strength as one line c′, φ′: not written for these yet
+    const names = varying.map((m) => `"${m.name}" (${STRENGTH_WORDS[m.strength.model]})`);
+    const reason = `rapid drawdown: not available where a strength varies from base to base with the stress on it, as that of ${names.join(', ')} does`;
+    return {
+      results: section.analysis.methods.map((method) => notRun(method, reason)),
+      search: null,
+      warnings: [{ code: 'not-applicable', message: reason }],
+      drawdown: reportOf(null),
+      byMethod: {},
+    };
+  }
   const sections = drawdownSections(section, spec);
   const { byMaterial: drainage, warnings: drainageWarnings } = resolveDrainage(
     sections.before.materials,

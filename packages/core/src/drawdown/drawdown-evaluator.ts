@@ -1,4 +1,4 @@
-import { bishopIteration } from '../methods/bishop';
+import { bishopIteration, bishopNormals } from '../methods/bishop';
 import { type Statics, statics } from '../methods/statics';
 import type { Point } from '../model/types';
 import type { CircleEvaluator } from '../search/trials';
@@ -27,16 +27,10 @@ function bishopForces(
   out: Float64Array,
   effective?: { normal: Float64Array; shear: Float64Array },
 ): void {
-  const { n, sin, cos, C, t, Hy, U } = st;
-  const iF = 1 / F;
-  for (let i = 0; i < n; i++) {
-    const N = (-Hy[i] - C[i] * iF * sin[i]) / (t[i] * iF * sin[i] + cos[i]);
-    out[i] = N;
-    if (effective) {
-      effective.normal[i] = N - U[i];
-      effective.shear[i] = (C[i] + N * t[i]) * iF;
-    }
-  }
+  bishopNormals(st, F, out, effective?.normal);
+  if (!effective) return;
+  const { n, C, t } = st;
+  for (let i = 0; i < n; i++) effective.shear[i] = (C[i] + out[i] * t[i]) / F;
 }
 
 /**

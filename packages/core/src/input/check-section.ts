@@ -121,7 +121,11 @@ function checkSettings(data: Record<string, unknown>): Issue[] {
     const s = m.strength;
     if (isRecord(s) && typeof s.model === 'string' && s.model in STRENGTH_MODELS) {
       for (const note of checkStrength(s as unknown as RawStrength))
-        warn([...at, 'strength'], note.code, note.message);
+        (note.severity === 'error' ? err : warn)(
+          [...at, 'strength', ...(note.path ?? [])],
+          note.code,
+          note.message,
+        );
     }
   }
 

@@ -79,6 +79,11 @@ const FIELD_KINDS: Record<string, QuantityKind | 'angle'> = {
   dR: 'pressure',
   psiR: 'angle',
   allowableDisplacement: 'displacement',
+  intactStrength: 'pressure',
+  minimum: 'pressure',
+  pop: 'pressure',
+  breakStress: 'pressure',
+  frictionAngleBeyond: 'angle',
 };
 
 /**

@@ -53,6 +53,26 @@ export function bishopIteration(
 }
 
 /**
+ * Bishop's base normal forces at F on prepared statics, from the vertical equilibrium of each
+ * slice as in bishopIteration: the total N into `total` and, when given, the effective
+ * N′ = N − u·l into `effective`.
+ */
+export function bishopNormals(
+  st: Statics,
+  F: number,
+  total: Float64Array,
+  effective?: Float64Array,
+): void {
+  const { n, sin, cos, C, t, Hy, U } = st;
+  const iF = 1 / F;
+  for (let i = 0; i < n; i++) {
+    const N = (-Hy[i] - C[i] * iF * sin[i]) / (t[i] * iF * sin[i] + cos[i]);
+    total[i] = N;
+    if (effective) effective[i] = N - U[i];
+  }
+}
+
+/**
  * Bishop's simplified method (Bishop 1955, Géotechnique 5(1), eq. for F with interslice
  * shear neglected): vertical equilibrium of each slice gives
  *   N = [W(1 + kv) − Qy − (c′l − u·l·tan φ′) sin α / F] / mα,  mα = cos α + sin α tan φ′ / F,

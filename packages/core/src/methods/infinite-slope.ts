@@ -1,4 +1,4 @@
-import { linearStrength } from '../strength/registry';
+import { linearStrength, strengthEnvelope, verticalStressStrength } from '../strength/registry';
 import type { Material } from '../model/types';
 
 export interface InfiniteSlopeInput {
@@ -29,7 +29,10 @@ export interface InfiniteSlopeResult {
  *   F = [c′ + (W cos β − kh·W sin β − u) tan φ′] / (W sin β + kh·W cos β),  u = γw·m·z·cos²β.
  * Without water and kh: F = [c′ + γ z cos²β tan φ′] / (γ z sin β cos β); with c′ = 0 and no
  * water F = tan φ′ / tan β. Undrained soil: F = Su / (W sin β + kh·W cos β), with Su the
- * material's reference value su (no datum on an infinite plane).
+ * material's reference value su (no datum on an infinite plane). A strength that depends on
+ * the normal stress (Hoek–Brown, shear–normal points, bilinear) is taken from its envelope at
+ * the plane's σ′n = W cos β − kh·W sin β − u, which on an infinite slope does not depend on F:
+ * F = τ(σ′n)/τ_driving; Su from σ′v at σ′v = γ̄z − u.
  *
  * @example infiniteSlope({ angle: 30, depth: 3, waterRatio: 0, material, waterUnitWeight: 9.81, kh: 0 }).fs
  */
@@ -53,7 +56,18 @@ export function infiniteSlope(input: InfiniteSlopeInput): InfiniteSlopeResult {
       ...out,
     };
   // (an undrained strength has tan φ′ = 0 and its Su at the datum on the plane)
-  const resist = st.c + (sigma - u) * st.tanPhi;
+  let resist = st.c + (sigma - u) * st.tanPhi;
+  const envelope = strengthEnvelope(material.strength);
+  const fromSv = verticalStressStrength(material.strength);
+  if (envelope) {
+    // the envelope at the plane's own σ′n, which does not depend on F here
+    const ct = new Float64Array(2);
+    const sn = Math.max(envelope.floor, sigma - u);
+    envelope.tangent(sn, ct);
+    resist = ct[0] + sn * ct[1];
+  } else if (fromSv) {
+    resist = fromSv(gamma * z - u);
+  }
   const fs = Math.max(0, resist) / tau;
   return { fs, converged: true, ...out };
 }

@@ -8,7 +8,9 @@ export interface MethodWarning {
     | 'thrust-outside'
     | 'no-convergence'
     | 'cohesionless-circle'
-    | 'not-applicable';
+    | 'not-applicable'
+    | 'stress-iteration'
+    | 'stress-range';
   message: string;
 }
 

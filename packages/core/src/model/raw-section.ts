@@ -8,6 +8,7 @@ import type {
   InfiniteSlopeSpec,
   IntersliceFunction,
   MethodId,
+  BilinearStrength,
   MohrCoulombStrength,
   Point,
   RigidStrength,
@@ -22,7 +23,18 @@ export type RawBoundary = number | Point[];
 export type RawStrength =
   | MohrCoulombStrength
   | { model: 'undrained'; su: number; suRate?: number; suDatum?: number }
-  | RigidStrength;
+  | RigidStrength
+  | { model: 'hoek-brown'; intactStrength: number; gsi: number; mi: number; disturbance?: number }
+  | {
+      model: 'undrained-ratio';
+      ratio: number;
+      minimum?: number;
+      exponent?: number;
+      ocr?: number;
+      pop?: number;
+    }
+  | { model: 'shear-normal'; points: Point[]; beyond?: 'extend' | 'hold' }
+  | BilinearStrength;
 
 export interface RawMaterial {
   description?: string;

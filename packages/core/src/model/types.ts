@@ -41,7 +41,61 @@ export interface RigidStrength {
   model: 'rigid';
 }
 
-export type Strength = MohrCoulombStrength | UndrainedStrength | RigidStrength;
+/**
+ * The generalised Hoek–Brown criterion of a rock mass (Hoek, Carranza-Torres & Corkum 2002):
+ * σci, the uniaxial compressive strength of the intact rock (kPa), the Geological Strength
+ * Index GSI, the intact-rock constant mi and the disturbance factor D (0 undisturbed … 1).
+ */
+export interface HoekBrownStrength {
+  model: 'hoek-brown';
+  intactStrength: number;
+  gsi: number;
+  mi: number;
+  disturbance: number;
+}
+
+/**
+ * Undrained (total stress, φ = 0) with Su from the vertical effective stress σ′v on the base:
+ * Su = max(minimum, σ′v · ratio · OCRᵐ) (Ladd & Foott 1974), OCR constant (`ocr`) or from a
+ * pre-overburden pressure (`pop`, kPa: OCR = (σ′v + pop)/σ′v). With OCR = 1 it is the plain
+ * ratio Su/σ′v.
+ */
+export interface UndrainedRatioStrength {
+  model: 'undrained-ratio';
+  ratio: number;
+  minimum: number;
+  exponent: number;
+  ocr: number;
+  pop: number | null;
+}
+
+/**
+ * A shear strength given as points (σ′n, τ) in kPa, σ′n increasing, joined by straight lines;
+ * beyond the last point the last segment is extended (`beyond: 'extend'`) or τ held.
+ */
+export interface ShearNormalStrength {
+  model: 'shear-normal';
+  points: Point[];
+  beyond: 'extend' | 'hold';
+}
+
+/** A bilinear Mohr–Coulomb envelope: c′ and φ′ up to the break stress σ′b (kPa), φ′ beyond (degrees). */
+export interface BilinearStrength {
+  model: 'bilinear';
+  cohesion: number;
+  frictionAngle: number;
+  breakStress: number;
+  frictionAngleBeyond: number;
+}
+
+export type Strength =
+  | MohrCoulombStrength
+  | UndrainedStrength
+  | RigidStrength
+  | HoekBrownStrength
+  | UndrainedRatioStrength
+  | ShearNormalStrength
+  | BilinearStrength;
 
 export interface Material {
   name: string;

@@ -157,9 +157,13 @@ function materialsToSi(materials: Record<string, RawMaterialOverride>, f: Factor
     if (m.unitWeight !== undefined) m.unitWeight *= f('unitWeight');
     if (m.saturatedUnitWeight !== undefined) m.saturatedUnitWeight *= f('unitWeight');
     if (!m.strength) continue;
-    const s = m.strength as unknown as Record<string, number>;
-    for (const [key, kind] of Object.entries(strengthQuantities(m.strength)))
-      if (kind && s[key] !== undefined) s[key] *= f(kind);
+    const s = m.strength as unknown as Record<string, number | number[][]>;
+    for (const [key, kind] of Object.entries(strengthQuantities(m.strength))) {
+      const v = s[key];
+      if (!kind || v === undefined) continue;
+      // a list of points (σn, τ): every number in it is of the kind
+      s[key] = Array.isArray(v) ? v.map((p) => p.map((x) => x * f(kind))) : v * f(kind);
+    }
   }
 }
 

@@ -4,6 +4,7 @@ import { spencer } from '../methods/spencer';
 import type { CircleSurface, Polyline } from '../model/types';
 import type { PreparedSection } from '../slices/prepare-section';
 import { sliceSurface } from '../slices/slice-surface';
+import { solveSlices } from '../slices/stress-dependent';
 import { WorkMeter } from '../work-limit';
 import { bishopCircleEvaluator } from './circle-evaluator';
 import type { CircleEvaluator } from './trials';
@@ -30,7 +31,8 @@ export interface SearchEvaluation {
 /**
  * The search's own evaluation: Bishop's method on each trial circle (bishopCircleEvaluator),
  * bishop() in full on the critical circle, Spencer's method on noncircular trials, each trial
- * charged to `meter`.
+ * charged to `meter`; each with the strengths of the bases that vary with stress where there
+ * are (slices/stress-dependent.ts).
  *
  * @example searchSection(prepared, spec, meter, bishopSearchEvaluation(prepared, meter))
  */
@@ -40,15 +42,18 @@ export function bishopSearchEvaluation(
 ): SearchEvaluation {
   const section = prepared.section;
   const slices = section.analysis.slices;
+  const gw = section.water.unitWeight;
   return {
     circle: bishopCircleEvaluator(prepared, slices, meter),
     exact: (circle) => {
       const cut = sliceSurface(prepared, circle, slices);
       const exact = cut.ok
-        ? bishop(cut.slices, {
-            seismic: section.seismic,
-            pivot: [(cut.slices.mirrored ? -1 : 1) * circle.center[0], circle.center[1]],
-          })
+        ? solveSlices(cut.slices, prepared.rules, gw, (s) =>
+            bishop(s, {
+              seismic: section.seismic,
+              pivot: [(cut.slices.mirrored ? -1 : 1) * circle.center[0], circle.center[1]],
+            }),
+          )
         : null;
       return exact?.converged ? exact.fs : null;
     },
@@ -56,7 +61,10 @@ export function bishopSearchEvaluation(
       const s = sliceSurface(prepared, { type: 'polyline', points }, slices);
       meter.charge(s.ok ? s.slices.n : 1);
       if (!s.ok) return NaN;
-      const r = spencer(s.slices, { seismic: section.seismic, pivot: defaultPivot(s.slices) });
+      const pivot = defaultPivot(s.slices);
+      const r = solveSlices(s.slices, prepared.rules, gw, (sl) =>
+        spencer(sl, { seismic: section.seismic, pivot }),
+      );
       return r.converged ? r.fs : NaN;
     },
     cohesionless: true,

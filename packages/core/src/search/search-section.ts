@@ -1,6 +1,6 @@
 import { yAt } from '../geometry/y-at';
 import type { Polyline, SearchSurface } from '../model/types';
-import { linearStrength } from '../strength/registry';
+import { linearStrength, variesWithStress } from '../strength/registry';
 import type { PreparedSection } from '../slices/prepare-section';
 import { sliceSurface } from '../slices/slice-surface';
 import { type Boundary, boundaries } from './boundaries';
@@ -49,7 +49,9 @@ export function cohesionlessSlope(prepared: PreparedSection): CohesionlessSlope 
   const g = prepared.normal;
   let tanPhiMin = Infinity;
   for (let k = 0; k < g.soilStrata; k++) {
-    const l = linearStrength(prepared.materials[g.stratumMaterial[k]].strength);
+    const strength = prepared.materials[g.stratumMaterial[k]].strength;
+    if (variesWithStress(strength)) return null;
+    const l = linearStrength(strength);
     if (!l || l.c > 0 || l.rate > 0 || !(l.tanPhi > 0)) return null;
     tanPhiMin = Math.min(tanPhiMin, l.tanPhi);
   }

@@ -2,6 +2,7 @@ import { type Lookup, lookup } from '../geometry/lookup';
 import { polylineCrossings } from '../geometry/polyline-crossings';
 import type { Material, Polyline, Section } from '../model/types';
 import { isRigid, linearStrength } from '../strength/registry';
+import { type StrengthRules, strengthRules } from './stress-dependent';
 
 /** A line load resolved into components (kN/m; x right, y up). */
 export interface PointForce {
@@ -78,6 +79,8 @@ export interface PreparedSection {
   tol: number;
   normal: Geometry;
   mirrored: Geometry;
+  /** The strengths that vary with the stresses on each base (slices/stress-dependent.ts); null when none does. */
+  rules: StrengthRules | null;
   /** By stratum (the same in both orientations). */
   strata: StratumProperties;
 }
@@ -227,6 +230,7 @@ export function prepareSection(section: Section, alsoCutAt: Polyline[] = []): Pr
     tol: 1e-9 * Math.max(width, 1),
     normal,
     mirrored: geometryOf(section, materialIndex, true, alsoCutAt),
+    rules: strengthRules(materials),
     strata: stratumProperties(section, materials, normal.stratumMaterial),
   };
 }

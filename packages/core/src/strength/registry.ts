@@ -1,10 +1,20 @@
 import type { RawStrength } from '../model/raw-section';
 import type { Strength } from '../model/types';
 import type { QuantityKind } from '../model/units';
+import { bilinear } from './bilinear';
+import { hoekBrown } from './hoek-brown';
 import { mohrCoulomb } from './mohr-coulomb';
 import { rigid } from './rigid';
-import type { LinearStrength, MaterialTint, StrengthModel, StrengthNote } from './types';
+import { shearNormal } from './shear-normal';
+import type {
+  LinearStrength,
+  MaterialTint,
+  NormalStressEnvelope,
+  StrengthModel,
+  StrengthNote,
+} from './types';
 import { undrained } from './undrained';
+import { undrainedRatio } from './undrained-ratio';
 
 /**
  * Every strength model, by the name a file gives it (`strength.model`). The rest of the
@@ -16,6 +26,10 @@ export const STRENGTH_MODELS = {
   'mohr-coulomb': mohrCoulomb,
   undrained,
   rigid,
+  'hoek-brown': hoekBrown,
+  'undrained-ratio': undrainedRatio,
+  'shear-normal': shearNormal,
+  bilinear,
 } as const satisfies Record<Strength['model'], unknown>;
 
 type AnyModel = StrengthModel<Strength, RawStrength>;
@@ -46,3 +60,25 @@ export const crackDepthIn = (s: Strength, gamma: number): number => modelOf(s).c
 export const strengthTint = (s: Strength): MaterialTint => modelOf(s).tint(s);
 /** A rigid base: no slip surface enters it. */
 export const isRigid = (s: Strength): boolean => linearStrength(s) === null;
+/**
+ * A strength that depends on the effective normal stress on the base: its τ–σ′n envelope
+ * (the tangent at σ′n); null for a strength that does not.
+ */
+export const strengthEnvelope = (s: Strength): NormalStressEnvelope | null =>
+  modelOf(s).envelope?.(s) ?? null;
+/** An undrained strength drawn from the vertical effective stress at the base: Su at σ′v; null for others. */
+export const verticalStressStrength = (s: Strength): ((sigmaV: number) => number) | null =>
+  modelOf(s).fromVerticalStress?.(s) ?? null;
+/** Whether a strength varies from base to base with the stresses on it (set by slices/stress-dependent.ts). */
+export const variesWithStress = (s: Strength): boolean =>
+  !!(modelOf(s).envelope || modelOf(s).fromVerticalStress);
+/** The model's name in a sentence ("Hoek–Brown", "Su from σ′v" …). */
+export const STRENGTH_WORDS: Record<Strength['model'], string> = {
+  'mohr-coulomb': 'Mohr–Coulomb',
+  undrained: 'undrained (Su)',
+  rigid: 'rigid',
+  'hoek-brown': 'Hoek–Brown',
+  'undrained-ratio': 'Su from σ′v',
+  'shear-normal': 'shear–normal function',
+  bilinear: 'bilinear Mohr–Coulomb',
+};

@@ -22,10 +22,31 @@ export interface MaterialTint {
   strength: number;
 }
 
+/**
+ * A strength that depends on the effective normal stress σ′n on the slice base (a curved or
+ * broken τ–σ′n envelope): each base takes the tangent of the envelope at its own σ′n, a linear
+ * strength c + σ′n tan φ that equals the envelope there (slices/stress-dependent.ts iterates
+ * σ′n with the method).
+ */
+export interface NormalStressEnvelope {
+  /** The least σ′n the envelope is taken at (kPa): a base with less is taken at this. */
+  floor: number;
+  /** The σ′n (kPa) it is meant for, [lowest, highest]: bases outside it are named in a warning. */
+  range: [number, number];
+  /** Why a σ′n outside the range is doubtful, for the warning ("beyond the last point" …). */
+  rangeWords: string;
+  /** The tangent at σ′n (not below floor): out[0] = c (kPa), out[1] = tan φ. */
+  tangent(sigma: number, out: Float64Array): void;
+}
+
 /** A warning about a material's strength that the schema cannot express. */
 export interface StrengthNote {
   code: string;
   message: string;
+  /** An error (the file is refused) rather than a warning. */
+  severity?: 'error';
+  /** Where in the strength, below it (e.g. ['points', 2]). */
+  path?: (string | number)[];
 }
 
 /**
@@ -54,6 +75,16 @@ export interface StrengthModel<S extends Strength, R extends { model: S['model']
   linear(s: S): LinearStrength | null;
   /** Its kind and representative strength, for the colour of a drawing. */
   tint(s: S): MaterialTint;
+  /**
+   * A strength that depends on the effective normal stress on the base: its envelope. Its
+   * `linear` is then only where the iteration starts.
+   */
+  envelope?(s: S): NormalStressEnvelope;
+  /**
+   * An undrained strength drawn from the vertical effective stress σ′v (kPa) at the base: Su
+   * there. Its `linear` is then only its least value.
+   */
+  fromVerticalStress?(s: S): (sigmaV: number) => number;
   /** The Rankine depth of a tension crack in it under its unit weight γ (0 where none forms). */
   crackDepth(s: S, gamma: number): number;
 }

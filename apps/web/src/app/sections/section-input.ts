@@ -273,6 +273,14 @@ export class SectionInputView {
       }
       case 'rigid':
         return 'rigid base: no slip surface enters it';
+      case 'hoek-brown':
+        return `Hoek–Brown σci ${this.v(s.intactStrength, 'pressure')}, GSI ${plain(s.gsi, 2)}, mi ${plain(s.mi, 2)}, D ${plain(s.disturbance, 2)}`;
+      case 'undrained-ratio':
+        return `Su = ${plain(s.ratio, 3)} σ′v · ${s.pop !== null ? `OCR^${plain(s.exponent, 2)}, POP ${this.v(s.pop, 'pressure')}` : `${plain(s.ocr, 2)}^${plain(s.exponent, 2)}`}, at least ${this.v(s.minimum, 'pressure')}`;
+      case 'shear-normal':
+        return `τ at σ′n: ${s.points.map((p) => `(${this.n(p[0], 'pressure')}, ${this.n(p[1], 'pressure')})`).join(' ')} ${this.u('pressure')}`;
+      case 'bilinear':
+        return `c′ ${this.v(s.cohesion, 'pressure')}, φ′ ${plain(s.frictionAngle, 2)}° up to σ′n ${this.v(s.breakStress, 'pressure')}, ${plain(s.frictionAngleBeyond, 2)}° beyond`;
     }
   }
 
