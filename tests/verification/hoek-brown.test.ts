@@ -23,7 +23,7 @@ import {
   type Point,
   type Section,
 } from '@scarpline/core';
-import { GAMMA_W, homogeneous, relErr } from './support';
+import { GAMMA_W, compass, homogeneous, relErr } from './support';
 
 /** The criterion as the paper writes it. */
 function criterion(h: HoekBrownStrength) {
@@ -216,30 +216,6 @@ function exactBishop(section: Section): (c: Circle) => number {
     );
     return res.converged ? res.fs : Infinity;
   };
-}
-
-/** Compass search (pattern search with step halving) from x0. */
-function compass(f: (x: number[]) => number, x0: number[], step: number): number {
-  let x = [...x0];
-  let fx = f(x);
-  let h = step;
-  while (h > 1e-3) {
-    let moved = false;
-    for (let i = 0; i < x.length; i++) {
-      for (const s of [1, -1]) {
-        const y = [...x];
-        y[i] += s * h;
-        const fy = f(y);
-        if (fy < fx) {
-          x = y;
-          fx = fy;
-          moved = true;
-        }
-      }
-    }
-    if (!moved) h /= 2;
-  }
-  return fx;
 }
 
 /**

@@ -21,7 +21,7 @@ import {
   type Point,
   type Section,
 } from '@scarpline/core';
-import { homogeneous, layeredSection } from './support';
+import { compass, homogeneous, layeredSection } from './support';
 
 type Circle = [number, number, number];
 
@@ -71,30 +71,6 @@ function tangentsTo(line: Point[], x: number, y: number): number[] {
   const d = distanceBelow(line, x, y);
   if (d < Infinity) out.push(d);
   return out;
-}
-
-/** Compass search (pattern search with step halving) from x0; f may be Infinity. */
-function compass(f: (x: number[]) => number, x0: number[], step: number): number {
-  let x = [...x0];
-  let fx = f(x);
-  let h = step;
-  while (h > 1e-3) {
-    let moved = false;
-    for (let i = 0; i < x.length; i++) {
-      for (const s of [1, -1]) {
-        const y = [...x];
-        y[i] += s * h;
-        const fy = f(y);
-        if (fy < fx) {
-          x = y;
-          fx = fy;
-          moved = true;
-        }
-      }
-    }
-    if (!moved) h /= 2;
-  }
-  return fx;
 }
 
 /** The least Bishop F over a dense set of circles, refined. */

@@ -221,3 +221,30 @@ export function layeredSection(seed: number, options: LayeredOptions = {}): Sect
     throw new Error(`layered test geometry ${seed}: ${errors.join('; ')}`);
   return parsed.sections[0];
 }
+
+/**
+ * Compass search (pattern search with step halving to 1 mm) from x0; f may be Infinity. The
+ * least f found (Hooke & Jeeves 1961 pattern moves), for the dense references of the search checks.
+ */
+export function compass(f: (x: number[]) => number, x0: number[], step: number): number {
+  let x = [...x0];
+  let fx = f(x);
+  let h = step;
+  while (h > 1e-3) {
+    let moved = false;
+    for (let i = 0; i < x.length; i++) {
+      for (const s of [1, -1]) {
+        const y = [...x];
+        y[i] += s * h;
+        const fy = f(y);
+        if (fy < fx) {
+          x = y;
+          fx = fy;
+          moved = true;
+        }
+      }
+    }
+    if (!moved) h /= 2;
+  }
+  return fx;
+}

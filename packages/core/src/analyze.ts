@@ -9,10 +9,9 @@ import { seismicReport } from './seismic/seismic-report';
 import type { MethodReport, SectionResult, StationResult, Warning } from './result';
 import { drawdownInUnits, resultInUnits, seismicInUnits } from './result-units';
 import { analyzeDrawdown } from './drawdown/analyze-drawdown';
-import { refineCircle } from './search/refine-circle';
+import { polishFrom } from './search/refine-circle';
 import { searchReport } from './search/search-report';
 import { type SearchOutcome, searchSection } from './search/search-section';
-import { Trials } from './search/trials';
 import { type PreparedSection, prepareSection } from './slices/prepare-section';
 import { type SliceOutcome, sliceSurface } from './slices/slice-surface';
 import { verdictOf } from './verdict';
@@ -37,15 +36,7 @@ function ownCircle(
     const rep = runOnSurface(method, prepared, c, cut);
     return rep.converged && rep.fs !== null ? rep.fs : NaN;
   };
-  const f0 = evaluate(start.center[0], start.center[1], start.radius);
-  if (!(f0 > 0)) return start;
-  const best = refineCircle(
-    { center: start.center, radius: start.radius, fs: f0, stage: 'polish', boundary: -1 },
-    start.radius / 20,
-    evaluate,
-    new Trials(),
-  ).to;
-  return { type: 'circle', center: best.center, radius: best.radius };
+  return polishFrom(start, evaluate);
 }
 
 /**

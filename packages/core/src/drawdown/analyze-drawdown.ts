@@ -8,10 +8,9 @@ import type {
   Section,
 } from '../model/types';
 import type { DrawdownReport, MethodReport, Warning } from '../result';
-import { refineCircle } from '../search/refine-circle';
+import { polishFrom } from '../search/refine-circle';
 import { type SearchOutcome, searchSection } from '../search/search-section';
 import { searchWarnings } from '../search/search-warnings';
-import { Trials } from '../search/trials';
 import { sliceSurface } from '../slices/slice-surface';
 import { STRENGTH_WORDS, variesWithStress } from '../strength/registry';
 import type { WorkMeter } from '../work-limit';
@@ -60,15 +59,7 @@ function ownCircle(
     meter.charge(Math.max(1, t.sliced));
     return t.fs ?? NaN;
   };
-  const f0 = evaluate(start.center[0], start.center[1], start.radius);
-  if (!(f0 > 0)) return start;
-  const best = refineCircle(
-    { center: start.center, radius: start.radius, fs: f0, stage: 'polish', boundary: -1 },
-    start.radius / 20,
-    evaluate,
-    new Trials(),
-  ).to;
-  return { type: 'circle', center: best.center, radius: best.radius };
+  return polishFrom(start, evaluate);
 }
 
 /**

@@ -1,6 +1,7 @@
 import { nelderMead } from '../numeric/nelder-mead';
+import type { CircleSurface } from '../model/types';
 import { type Boundary, touchRadius } from './boundaries';
-import type { CircleEvaluator, CircleTrial, Trials } from './trials';
+import { type CircleEvaluator, type CircleTrial, Trials } from './trials';
 
 /** One polish: where it started, where it ended, and how many circles it tried. */
 export interface Polish {
@@ -72,4 +73,22 @@ export function refineTouching(
       ? { center: [r.x[0], r.x[1]], radius: rad, fs: r.fx, stage: 'polish', boundary: index }
       : start;
   return { from: start, to, boundary: index, evaluations: trials.count - before };
+}
+
+/**
+ * A circle polished by `evaluate` alone (a method's own F): a simplex a twentieth of its radius
+ * wide from `start`, which comes back as it was when `evaluate` gives it no F.
+ *
+ * @example polishFrom(searchedCircle, (xc, yc, r) => spencerF(xc, yc, r))
+ */
+export function polishFrom(start: CircleSurface, evaluate: CircleEvaluator): CircleSurface {
+  const f0 = evaluate(start.center[0], start.center[1], start.radius);
+  if (!(f0 > 0)) return start;
+  const best = refineCircle(
+    { center: start.center, radius: start.radius, fs: f0, stage: 'polish', boundary: -1 },
+    start.radius / 20,
+    evaluate,
+    new Trials(),
+  ).to;
+  return { type: 'circle', center: best.center, radius: best.radius };
 }
