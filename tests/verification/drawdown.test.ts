@@ -125,6 +125,7 @@ function embankment(
       unitWeight: GAMMA_W,
     },
     loads: [],
+    reinforcement: [],
     seismic: { kh: 0, kv: 0 },
     crack: null,
     analysis: {

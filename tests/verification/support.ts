@@ -62,6 +62,7 @@ export function homogeneous(
     strata: [{ material: 'soil', top: ground }],
     water: { kind: 'none', unitWeight: GAMMA_W },
     loads: [],
+    reinforcement: [],
     seismic: { kh: 0, kv: 0 },
     crack: null,
     analysis: {

@@ -7,6 +7,7 @@ import type { BaseStrengths } from './slices/base-strengths';
 import type { PreparedSection } from './slices/prepare-section';
 import type { SliceOutcome, SliceSet } from './slices/slice-surface';
 import { solveWithStresses, touchesRules } from './slices/stress-dependent';
+import { reinforcementReport } from './reinforcement/reinforcement-report';
 
 const deg = (r: number) => (r * 180) / Math.PI;
 
@@ -20,6 +21,7 @@ function reportSlices(
   r: SliceMethodResult | null,
   computes: { E: boolean; X: boolean },
   stressAt: Float64Array | null,
+  reinforcement: Float64Array | null,
 ): SliceReport[] {
   const out: SliceReport[] = [];
   for (let i = 0; i < s.n; i++) {
@@ -51,6 +53,7 @@ function reportSlices(
               kind: prepared.rules?.envelope[s.material[i]] ? 'normal' : 'vertical',
             }
           : null,
+      ...(reinforcement ? { reinforcement: reinforcement[i] } : {}),
     });
   }
   if (s.mirrored) out.reverse();
@@ -215,6 +218,18 @@ export function solveOnSurface(
     ...(stress ? { strengthIterations: stress.iterations } : {}),
   };
   const warnings: Warning[] = [...r.warnings, ...(stress?.warnings ?? [])];
+  const elements = prepared.section.reinforcement;
+  const reinforced =
+    elements.length > 0
+      ? reinforcementReport(
+          elements,
+          output.crossings ?? cut.crossings,
+          slices.mirrored,
+          slices.n,
+          r.converged ? (r.fsUncorrected ?? r.fs) : null,
+        )
+      : null;
+  if (reinforced && r.converged) warnings.push(...reinforced.warnings);
   if (surface.type === 'circle' && entry.slices) {
     const w = cohesionlessWarning(prepared, slices);
     if (w) warnings.push(w);
@@ -235,8 +250,10 @@ export function solveOnSurface(
       r.converged ? r : null,
       entry.interslice,
       stress ? stress.stressAt : null,
+      reinforced && r.converged ? reinforced.perSlice : null,
     ),
     warnings,
+    ...(reinforced ? { reinforcement: reinforced.elements } : {}),
     ...extra,
   };
   return { report, result: r, slices };

@@ -78,6 +78,7 @@ export function resultInUnits<T extends SectionResult>(r: T, to: UnitSystem): T 
       ...(s.strengthAt
         ? { strengthAt: { ...s.strengthAt, stress: c(s.strengthAt.stress, 'pressure') } }
         : {}),
+      ...(s.reinforcement !== undefined ? { reinforcement: F(s.reinforcement) } : {}),
       normal: F(s.normal),
       shear: F(s.shear),
       interslice: {
@@ -86,6 +87,25 @@ export function resultInUnits<T extends SectionResult>(r: T, to: UnitSystem): T 
         thrust: s.interslice.thrust === null ? null : L(s.interslice.thrust),
       },
     })),
+    ...(m.reinforcement
+      ? {
+          reinforcement: m.reinforcement.map((e) => ({
+            ...e,
+            force: F(e.force),
+            crossings: e.crossings.map((x) => ({
+              ...x,
+              at: pt(x.at),
+              available: F(x.available),
+              force: F(x.force),
+              capacities: {
+                strength: F(x.capacities.strength),
+                behind: x.capacities.behind === null ? null : F(x.capacities.behind),
+                front: x.capacities.front === null ? null : F(x.capacities.front),
+              },
+            })),
+          })),
+        }
+      : {}),
     ...(m.massWeight !== undefined ? { massWeight: F(m.massWeight) } : {}),
     ...(m.leverArm !== undefined ? { leverArm: L(m.leverArm) } : {}),
   });

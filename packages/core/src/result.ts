@@ -5,6 +5,9 @@
  */
 import type { MethodId, Point, SearchSurface, UnitSystem } from './model/types';
 import type { Verdict } from './verdict';
+import type { ReinforcementReport } from './reinforcement/types';
+
+export type { CrossingReport, ReinforcementReport } from './reinforcement/types';
 
 export { howFoundWords } from './search-words';
 export { caseOf, caseView } from './case-view';
@@ -38,6 +41,8 @@ export interface SliceReport {
   cohesion?: number;
   frictionAngle?: number;
   strengthAt?: { kind: 'normal' | 'vertical'; stress: number } | null;
+  /** The reinforcement force on the slice in the equilibrium (kN per m run); absent without reinforcement. */
+  reinforcement?: number;
 }
 
 export type ReportedSurface =
@@ -76,6 +81,8 @@ export interface MethodReport {
   leverArm?: number;
   /** Where some base's strength depends on its normal stress: the method's solutions until it settled. */
   strengthIterations?: number;
+  /** Each reinforcing element of the section: its crossings with this surface and their forces. */
+  reinforcement?: ReinforcementReport[];
 }
 
 export interface SectionResult {

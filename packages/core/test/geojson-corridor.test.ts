@@ -85,7 +85,7 @@ describe('parseGeoJsonCorridor', () => {
     const lines = t.split('\n');
     const row = lines.findIndex((l) => l.includes('"colour"'));
     expect(messages.map(formatMessage)).toEqual([
-      `corridor.geojson:${row + 1}:${lines[row].indexOf('"red"') + 1} features[1].properties.cases[1].colour: unknown setting in design case; the settings here are name, kind, requiredFs, governs, water, materials, loads, seismic, crack, analysis, drawdown and earthquake`,
+      `corridor.geojson:${row + 1}:${lines[row].indexOf('"red"') + 1} features[1].properties.cases[1].colour: unknown setting in design case; the settings here are name, kind, requiredFs, governs, water, materials, loads, reinforcement, seismic, crack, analysis, drawdown and earthquake`,
     ]);
     expect(sections.map((s) => s.id)).toEqual(['wcb-gis@1200']);
     const fixed = parseGeoJsonCorridor(

@@ -114,6 +114,7 @@ describe('normalisation', () => {
       ],
       water: { kind: 'none', unitWeight: 9.81 },
       loads: [],
+      reinforcement: [],
       seismic: { kh: 0, kv: 0 },
       crack: null,
       analysis: {

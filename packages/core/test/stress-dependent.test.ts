@@ -62,6 +62,7 @@ function section(strength: Material['strength'], over: Partial<Section['analysis
       unitWeight: 9.81,
     },
     loads: [],
+    reinforcement: [],
     seismic: { kh: 0, kv: 0 },
     crack: null,
     analysis: {

@@ -163,6 +163,7 @@ describe('the schemas', () => {
     ...['psiR', 'pga', 'magnitude'],
     // Hoek–Brown's GSI, mi and D; a ratio Su/σ′v, its exponent and OCR; a second friction angle
     ...['gsi', 'mi', 'disturbance', 'ratio', 'exponent', 'ocr', 'frictionAngleBeyond'],
+    ...['interaction', 'coverage', 'inclination', 'maxLayers'],
   ]);
   test.each([
     ['section', sectionSchema],

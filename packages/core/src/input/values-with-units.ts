@@ -15,6 +15,7 @@ const QUANTITY_DEFS: Record<string, QuantityKind> = {
   length: 'length',
   pressure: 'pressure',
   unitWeight: 'unitWeight',
+  force: 'force',
   forcePerLength: 'forcePerLength',
   pressurePerLength: 'pressurePerLength',
   displacement: 'displacement',

@@ -24,10 +24,12 @@ export function bishopIteration(
   tol: number,
   passes?: { count: number },
 ): number {
-  const { n, sin, cos, C, t, Hy, aN, aS, M0 } = st;
+  const { n, sin, cos, C, t, Hy, aN, aS, M0, Ry, Rm } = st;
   let F = guess > 0 ? guess : 1;
   for (let it = 1; it <= 60; it++) {
     const iF = 1 / F;
+    // reinforcement divided by F: Hy + Ry/F and M0 + Rm/F (statics.ts)
+    const rf = st.factored ? iF : 0;
     let resist = 0;
     let drive = 0;
     for (let i = 0; i < n; i++) {
@@ -36,9 +38,10 @@ export function bishopIteration(
         if (passes) passes.count = it;
         return NaN;
       }
-      const N = (-Hy[i] - C[i] * iF * sin[i]) / den;
+      const hy = rf === 0 ? Hy[i] : Hy[i] + Ry[i] * rf;
+      const N = (-hy - C[i] * iF * sin[i]) / den;
       resist += (C[i] + N * t[i]) * aS[i];
-      drive -= N * aN[i] + M0[i];
+      drive -= N * aN[i] + (rf === 0 ? M0[i] : M0[i] + Rm[i] * rf);
     }
     const next = resist / drive;
     const done = Math.abs(next - F) <= tol * next;
@@ -63,10 +66,12 @@ export function bishopNormals(
   total: Float64Array,
   effective?: Float64Array,
 ): void {
-  const { n, sin, cos, C, t, Hy, U } = st;
+  const { n, sin, cos, C, t, Hy, U, Ry } = st;
   const iF = 1 / F;
+  const rf = st.factored ? iF : 0;
   for (let i = 0; i < n; i++) {
-    const N = (-Hy[i] - C[i] * iF * sin[i]) / (t[i] * iF * sin[i] + cos[i]);
+    const hy = Hy[i] + Ry[i] * rf;
+    const N = (-hy - C[i] * iF * sin[i]) / (t[i] * iF * sin[i] + cos[i]);
     total[i] = N;
     if (effective) effective[i] = N - U[i];
   }

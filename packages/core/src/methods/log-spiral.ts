@@ -1,3 +1,4 @@
+import type { Crossing } from '../reinforcement/types';
 import type { Point, Polyline, Seismic } from '../model/types';
 import { findRoot } from '../numeric/find-root';
 import type { PreparedSection } from '../slices/prepare-section';
@@ -24,6 +25,8 @@ export interface LogSpiralResult extends SliceMethodResult {
   spiral: SpiralGeometry | null;
   /** The slices of the spiral's sliding mass (for reporting). */
   spiralSlices: SliceSet | null;
+  /** The spiral's crossings with the reinforcement (sliding orientation). */
+  spiralCrossings?: Crossing[];
 }
 
 /**
@@ -116,7 +119,9 @@ export function logSpiral(
     if (!cut.ok || cut.slices.mirrored !== s.mirrored) return null;
     const st = statics(cut.slices, seismic, sp.pole);
     let M = sp.cohesionMoment;
-    for (let i = 0; i < st.n; i++) M += st.M0[i] + st.U[i] * st.aN[i];
+    // reinforcement divided by F (statics.ts): its moment at this F
+    const rf = st.factored ? 1 / F : 0;
+    for (let i = 0; i < st.n; i++) M += st.M0[i] + st.Rm[i] * rf + st.U[i] * st.aN[i];
     return { sp, cut, st, M };
   };
   const root = findRoot((F) => solve(F)?.M ?? NaN, FS_GRID, 1, 1e-10);
@@ -159,5 +164,6 @@ export function logSpiral(
       points: toSection(final.sp.pts),
     },
     spiralSlices: final.cut.slices,
+    spiralCrossings: final.cut.crossings,
   };
 }

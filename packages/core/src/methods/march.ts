@@ -30,8 +30,10 @@ export function march(
   E: Float64Array,
 ): MarchResult {
   const n = st.n;
-  const { sin, cos, C, t, Hx, Hy, aN, aS, M0 } = st;
+  const { sin, cos, C, t, Hx, Hy, aN, aS, M0, Rx, Ry, Rm } = st;
   const iF = 1 / F;
+  // reinforcement divided by F (statics.ts)
+  const rf = st.factored ? iF : 0;
   let Eprev = 0;
   let M = 0;
   let fPrev = f ? f[0] : 1;
@@ -45,11 +47,13 @@ export function march(
     const lf = lambda * fi;
     const den = ti * si + ci - lf * k;
     if (!(den > 1e-9)) return { En: NaN, M: NaN };
-    const Ni = (lf * (Eprev + Ci * ci + Hx[i]) - lambda * fPrev * Eprev - Ci * si - Hy[i]) / den;
-    const Ei = Eprev + Ci * ci + Hx[i] + Ni * k;
+    const hx = rf === 0 ? Hx[i] : Hx[i] + Rx[i] * rf;
+    const hy = rf === 0 ? Hy[i] : Hy[i] + Ry[i] * rf;
+    const Ni = (lf * (Eprev + Ci * ci + hx) - lambda * fPrev * Eprev - Ci * si - hy) / den;
+    const Ei = Eprev + Ci * ci + hx + Ni * k;
     N[i] = Ni;
     E[i] = Ei;
-    M += Ni * aN[i] + (Ci + Ni * ti) * aS[i] + M0[i];
+    M += Ni * aN[i] + (Ci + Ni * ti) * aS[i] + (rf === 0 ? M0[i] : M0[i] + Rm[i] * rf);
     Eprev = Ei;
     fPrev = fi;
   }

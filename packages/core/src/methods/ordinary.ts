@@ -1,7 +1,7 @@
 import type { Point, Seismic } from '../model/types';
 import type { SliceSet } from '../slices/slice-surface';
 import { failed } from './failed';
-import { statics } from './statics';
+import { forcesAt, statics } from './statics';
 import type { MethodWarning, SliceMethodResult } from './types';
 
 /**
@@ -18,20 +18,29 @@ export function ordinary(
   s: SliceSet,
   options: { seismic: Seismic; pivot: Point },
 ): SliceMethodResult {
-  const st = statics(s, options.seismic, options.pivot);
+  const st0 = statics(s, options.seismic, options.pivot);
   const n = s.n;
-  let resist = 0;
-  let drive = 0;
-  const N = new Float64Array(n);
+  // with reinforcement divided by F, N = N0 + N1/F: resist = R0 + R1/F, drive = D0 + D1/F, and
+  // F·drive = resist is the quadratic D0·F² + (D1 − R0)·F − R1 = 0 (its positive root)
+  let [R0, R1, D0, D1] = [0, 0, 0, 0];
   for (let i = 0; i < n; i++) {
-    N[i] = st.Hx[i] * st.sin[i] - st.Hy[i] * st.cos[i];
-    resist += (st.C[i] + N[i] * st.t[i]) * st.aS[i];
-    drive -= N[i] * st.aN[i] + st.M0[i];
+    const N0 = st0.Hx[i] * st0.sin[i] - st0.Hy[i] * st0.cos[i];
+    const N1 = st0.factored ? st0.Rx[i] * st0.sin[i] - st0.Ry[i] * st0.cos[i] : 0;
+    R0 += (st0.C[i] + N0 * st0.t[i]) * st0.aS[i];
+    R1 += N1 * st0.t[i] * st0.aS[i];
+    D0 -= N0 * st0.aN[i] + st0.M0[i];
+    D1 -= st0.factored ? N1 * st0.aN[i] + st0.Rm[i] : 0;
   }
-  const F = resist / drive;
+  const F =
+    R1 === 0 && D1 === 0
+      ? R0 / D0
+      : (R0 - D1 + Math.sqrt((D1 - R0) * (D1 - R0) + 4 * D0 * R1)) / (2 * D0);
   if (!(F > 0) || !Number.isFinite(F)) {
     return failed(n, 1, 'ordinary method: the slip surface has no driving moment', options.pivot);
   }
+  const st = forcesAt(st0, F);
+  const N = new Float64Array(n);
+  for (let i = 0; i < n; i++) N[i] = st.Hx[i] * st.sin[i] - st.Hy[i] * st.cos[i];
   const normal = new Float64Array(n);
   const shear = new Float64Array(n);
   let negative = 0;

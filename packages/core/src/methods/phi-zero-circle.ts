@@ -191,9 +191,14 @@ export function phiZeroCircle(
 
   // driving: weight with seismic forces, plus the exact resultants of surface and crack water and loads
   let Mq = 0;
-  for (let i = 0; i < n; i++) Mq += s.qm[i] - xc * s.qy[i] + yc * s.qx[i];
+  let Mr = 0;
+  for (let i = 0; i < n; i++) {
+    Mq += s.qm[i] - xc * s.qy[i] + yc * s.qx[i];
+    Mr += s.rm[i] - xc * s.ry[i] + yc * s.rx[i];
+  }
   const driving = kv1 * MWx - seismic.kh * MWy - Mq;
-  const F = resisting / driving;
+  // reinforcement divided by F: F·(driving − Mr/F) = resisting
+  const F = (resisting + Mr) / driving;
   if (!(F > 0) || !Number.isFinite(F)) {
     return {
       ...failed(n, 1, 'φ = 0 circle: the sliding mass has no driving moment about the centre'),

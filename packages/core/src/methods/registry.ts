@@ -19,6 +19,7 @@ import { intersliceName, morgensternPrice } from './morgenstern-price';
 import { ordinary } from './ordinary';
 import { spencer } from './spencer';
 import { phiZeroCircle } from './phi-zero-circle';
+import type { Crossing } from '../reinforcement/types';
 import type { SliceMethodResult } from './types';
 
 /**
@@ -42,6 +43,8 @@ export interface MethodOutput {
   extra?: Partial<MethodReport>;
   /** The slices to report when they are not those of the surface (the log spiral's own). */
   slices?: SliceSet;
+  /** Their crossings with the reinforcement, when the slices are the method's own. */
+  crossings?: Crossing[];
 }
 
 /** A method that works on a slip surface. */
@@ -213,7 +216,12 @@ export const METHODS: Record<MethodId, MethodEntry> = {
         r1: sp.r1,
         points: sp.points,
       };
-      return { result, extra: { surface: spiral }, slices: result.spiralSlices };
+      return {
+        result,
+        extra: { surface: spiral },
+        slices: result.spiralSlices,
+        crossings: result.spiralCrossings ?? [],
+      };
     },
   },
   'infinite-slope': {
@@ -243,7 +251,18 @@ export const METHODS: Record<MethodId, MethodEntry> = {
         converged: r.converged,
         ...(r.reason ? { reason: r.reason } : {}),
         surface: { type: 'plane', angle: spec.angle, depth: spec.depth },
-        warnings: r.reason ? [{ code: 'no-convergence', message: r.reason }] : [],
+        warnings: [
+          ...(r.reason ? [{ code: 'no-convergence', message: r.reason }] : []),
+          ...(section.reinforcement.length > 0
+            ? [
+                {
+                  code: 'reinforcement-ignored',
+                  message:
+                    'infinite slope: the reinforcement is not taken on the infinite plane; the methods of slices take it',
+                },
+              ]
+            : []),
+        ],
       };
     },
   },

@@ -1,6 +1,6 @@
 import type { SliceSet } from '../slices/slice-surface';
 import { march } from './march';
-import type { Statics } from './statics';
+import { type Statics, forcesAt } from './statics';
 import type { MethodWarning, SliceMethodResult } from './types';
 
 /**
@@ -14,7 +14,7 @@ import type { MethodWarning, SliceMethodResult } from './types';
  */
 export function sliceForces(
   s: SliceSet,
-  st: Statics,
+  factored: Statics,
   F: number,
   lambda: number,
   f: Float64Array | null,
@@ -26,6 +26,8 @@ export function sliceForces(
     buffer.subarray(k * n, (k + 1) * n),
   );
   thrust.fill(NaN);
+  // the reinforcement divided by F, at this F, for the moments below (march takes it itself)
+  const st = forcesAt(factored, F);
   march(st, F, lambda, f, N, E);
   let negative = 0;
   for (let i = 0; i < n; i++) {

@@ -7,6 +7,8 @@ import type { SliceSet } from '../slices/slice-surface';
  *   x: E₍ᵢ₋₁₎ − Eᵢ + S cos α − N sin α + Hx = 0
  *   y: X₍ᵢ₋₁₎ − Xᵢ + S sin α + N cos α + Hy = 0
  * where Hx = Qx − kh·W and Hy = Qy − (1 + kv)·W collect weight, seismic and surface loads.
+ * Reinforcement forces divided by F (SliceSet rx, ry, rm) are kept apart in Rx, Ry and Rm:
+ * at a trial F every method takes Hx + Rx/F, Hy + Ry/F and M0 + Rm/F (forcesAt).
  */
 export interface Statics {
   n: number;
@@ -25,13 +27,18 @@ export interface Statics {
   aN: Float64Array;
   aS: Float64Array;
   M0: Float64Array;
+  /** Reinforcement forces divided by F, and their moment about the pivot (all zero when `factored` is false). */
+  Rx: Float64Array;
+  Ry: Float64Array;
+  Rm: Float64Array;
+  factored: boolean;
   pivot: Point;
 }
 
 /** Statics with room for `capacity` slices (arrays may be longer than n: only n are used). */
 function staticsBuffer(capacity: number, pivot: Point): Statics {
-  // one backing buffer for all eleven arrays: typed-array allocation is costly, views are cheap
-  const buffer = new Float64Array(11 * capacity);
+  // one backing buffer for all fourteen arrays: typed-array allocation is costly, views are cheap
+  const buffer = new Float64Array(14 * capacity);
   const view = (k: number) => buffer.subarray(k * capacity, (k + 1) * capacity);
   return {
     n: 0,
@@ -46,6 +53,10 @@ function staticsBuffer(capacity: number, pivot: Point): Statics {
     aN: view(8),
     aS: view(9),
     M0: view(10),
+    Rx: view(11),
+    Ry: view(12),
+    Rm: view(13),
+    factored: false,
     pivot,
   };
 }
@@ -93,5 +104,56 @@ export function statics(s: SliceSet, seismic: Seismic, pivot: Point, into?: Stat
     aS[i] = xm * sn - ym * cs;
     M0[i] = -(cx[i] - xo) * kv1 * W + (cy[i] - yo) * kh * W + (qm[i] - xo * Qy + yo * Qx);
   }
+  factoredForces(s, st, xo, yo);
   return st;
+}
+
+/** The reinforcement forces divided by F into the statics (Rx, Ry and their moment about the pivot). */
+function factoredForces(s: SliceSet, st: Statics, xo: number, yo: number): void {
+  const n = s.n;
+  const { rx, ry, rm } = s;
+  let any = false;
+  for (let i = 0; i < n; i++) {
+    if (rx[i] !== 0 || ry[i] !== 0) {
+      any = true;
+      break;
+    }
+  }
+  st.factored = any;
+  if (!any) return;
+  const { Rx, Ry, Rm } = st;
+  for (let i = 0; i < n; i++) {
+    Rx[i] = rx[i];
+    Ry[i] = ry[i];
+    Rm[i] = rm[i] - xo * ry[i] + yo * rx[i];
+  }
+}
+
+/**
+ * The statics at a trial F: a copy of `st` (into `into` when given) whose Hx, Hy and M0 hold
+ * the reinforcement forces divided by F; `st` itself when it has none. For the methods that
+ * take the slice forces at their solution (slice-forces.ts) and those solved in closed form.
+ */
+export function forcesAt(st: Statics, F: number, into?: Statics): Statics {
+  if (!st.factored) return st;
+  const n = st.n;
+  const out = into && into.sin.length >= n ? into : staticsBuffer(n, st.pivot);
+  out.n = n;
+  out.pivot = st.pivot;
+  out.factored = false;
+  const iF = 1 / F;
+  for (let i = 0; i < n; i++) {
+    out.sin[i] = st.sin[i];
+    out.cos[i] = st.cos[i];
+    out.len[i] = st.len[i];
+    out.C[i] = st.C[i];
+    out.t[i] = st.t[i];
+    out.U[i] = st.U[i];
+    out.aN[i] = st.aN[i];
+    out.aS[i] = st.aS[i];
+    out.Hx[i] = st.Hx[i] + st.Rx[i] * iF;
+    out.Hy[i] = st.Hy[i] + st.Ry[i] * iF;
+    out.M0[i] = st.M0[i] + st.Rm[i] * iF;
+  }
+  return out;
 }

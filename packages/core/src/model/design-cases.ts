@@ -33,6 +33,7 @@ export function designCases(section: Section): DesignCase[] {
       water: section.water,
       materials: section.materials,
       loads: section.loads,
+      reinforcement: section.reinforcement,
       seismic: section.seismic,
       crack: section.crack,
       analysis,
@@ -43,7 +44,7 @@ export function designCases(section: Section): DesignCase[] {
 }
 
 /**
- * The section as one of its cases sees it: the case's water, materials, loads, seismic, crack
+ * The section as one of its cases sees it: the case's water, materials, loads, reinforcement, seismic, crack
  * and analysis (its name and requirement in analysis.case and requiredFs), without the list of cases.
  */
 export function caseSection(section: Section, c: DesignCase): Section {
@@ -52,6 +53,7 @@ export function caseSection(section: Section, c: DesignCase): Section {
     water: c.water,
     materials: c.materials,
     loads: c.loads,
+    reinforcement: c.reinforcement,
     seismic: c.seismic,
     crack: c.crack,
     analysis: { ...c.analysis, case: c.name, requiredFs: c.requiredFs },

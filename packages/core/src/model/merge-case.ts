@@ -1,6 +1,6 @@
 /**
  * How a design case's overrides merge into the settings of its section, at the level of the
- * file (before normalisation, in the file's shape): water, loads, seismic and crack given in a
+ * file (before normalisation, in the file's shape): water, loads, reinforcement, seismic and crack given in a
  * case replace the section's; materials merge by name (the properties a case gives replace the
  * section's, so a strength replaces the whole strength); analysis merges setting by setting.
  * The case's name and requirement become analysis.case and analysis.requiredFs (the section's
@@ -18,7 +18,7 @@ const has = (o: Data, key: string | number): boolean =>
   Object.prototype.hasOwnProperty.call(o, key);
 
 /** The settings a case replaces whole when it gives them. */
-export const CASE_REPLACES = ['water', 'loads', 'seismic', 'crack'] as const;
+export const CASE_REPLACES = ['water', 'loads', 'reinforcement', 'seismic', 'crack'] as const;
 
 /**
  * The settings of a section as one case sees them, from data that may not have passed the

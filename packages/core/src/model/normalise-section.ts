@@ -2,6 +2,7 @@ import { normaliseStrength } from '../strength/registry';
 import { boundaryOverGround } from './boundary-over-ground';
 import { lowerEnvelope } from '../geometry/lower-envelope';
 import { mergeCase } from './merge-case';
+import { normaliseReinforcement, normaliseRequiredReinforcement } from './normalise-reinforcement';
 import type {
   RawAnalysis,
   RawCase,
@@ -40,7 +41,7 @@ function defaultWaterUnitWeight(units: UnitSystem): number {
  * A checked section, already in SI (see rawSectionToSi), with every default filled in: the
  * first stratum's top is the ground, every other top a polyline over the ground's x-range
  * clipped under the ground and under the stratum above; water none/piezometric/ru; loads [];
- * seismic 0; no crack; methods [bishop], 30 slices, surface auto (none when only the infinite
+ * reinforcement []; seismic 0; no crack; methods [bishop], 30 slices, surface auto (none when only the infinite
  * slope is asked for). A section that lists cases gets each as a DesignCase: the section's
  * settings with the case's overrides merged (mergeCase), normalised by the same functions.
  * Assumes the section passed the schema and checkSection without errors.
@@ -61,9 +62,10 @@ export function normaliseSection(raw: RawSection): Section {
     strata: normaliseStrata(raw.strata, ground),
     water: normaliseWater(raw.water, ground, raw.units),
     loads: normaliseLoads(raw.loads),
+    reinforcement: normaliseReinforcement(raw.reinforcement, ground),
     seismic: normaliseSeismic(raw.seismic),
     crack: normaliseCrack(raw.crack),
-    analysis: normaliseAnalysis(raw.analysis),
+    analysis: normaliseAnalysis(raw.analysis, ground),
   };
   if (raw.cases && raw.cases.length > 0)
     section.cases = raw.cases.map((c) => normaliseCase(raw, c, ground));
@@ -130,7 +132,7 @@ function normaliseCrack(raw: RawCrack | undefined): Crack | null {
 }
 
 /** The analysis settings: methods [bishop], 30 slices, surface auto (none when only the infinite slope is asked for). */
-function normaliseAnalysis(raw: RawAnalysis | undefined): Analysis {
+function normaliseAnalysis(raw: RawAnalysis | undefined, ground: Polyline): Analysis {
   const a = raw ?? {};
   const methods = a.methods ? [...a.methods] : ['bishop' as const];
   const onlyInfinite = methods.every((m) => m === 'infinite-slope');
@@ -155,6 +157,9 @@ function normaliseAnalysis(raw: RawAnalysis | undefined): Analysis {
       : {}),
     ...(a.trialBand !== undefined ? { trialBand: a.trialBand } : {}),
     ...(a.searchEachMethod ? { searchEachMethod: true } : {}),
+    ...(a.requiredReinforcement
+      ? { requiredReinforcement: normaliseRequiredReinforcement(a.requiredReinforcement, ground) }
+      : {}),
     case: a.case ?? null,
     requiredFs: a.requiredFs ?? null,
   };
@@ -171,7 +176,7 @@ function normaliseAnalysis(raw: RawAnalysis | undefined): Analysis {
 function normaliseCase(raw: RawSection, c: RawCase, ground: Polyline): DesignCase {
   const merged = mergeCase(raw, c);
   const water = normaliseWater(merged.water, ground, raw.units);
-  const analysis = normaliseAnalysis(merged.analysis);
+  const analysis = normaliseAnalysis(merged.analysis, ground);
   return {
     name: c.name,
     kind: c.kind,
@@ -180,6 +185,7 @@ function normaliseCase(raw: RawSection, c: RawCase, ground: Polyline): DesignCas
     water,
     materials: normaliseMaterials(merged.materials),
     loads: normaliseLoads(merged.loads),
+    reinforcement: normaliseReinforcement(merged.reinforcement, ground),
     seismic: normaliseSeismic(merged.seismic),
     crack: normaliseCrack(merged.crack),
     analysis,

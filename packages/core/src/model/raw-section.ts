@@ -56,6 +56,68 @@ export interface RawWater {
 
 export type RawLoad = StripLoad | { type: 'line'; x: number; force: number; angle?: number };
 
+/** Reinforcement as written (defaults filled in by normaliseSection). */
+export type RawReinforcement =
+  | {
+      type: 'geosynthetic';
+      name: string;
+      elevation?: number;
+      from?: number;
+      to?: number;
+      points?: Point[];
+      strength: number;
+      interaction: number;
+      coverage?: number;
+      dividedByF?: boolean;
+    }
+  | {
+      type: 'nail';
+      name: string;
+      head: Point;
+      inclination: number;
+      toward?: 'left' | 'right';
+      length: number;
+      spacing: number;
+      tensileCapacity: number;
+      bond: number;
+      facingCapacity?: number;
+      dividedByF?: boolean;
+    }
+  | {
+      type: 'anchor';
+      name: string;
+      head: Point;
+      inclination: number;
+      toward?: 'left' | 'right';
+      freeLength: number;
+      bondLength: number;
+      spacing: number;
+      capacity: number;
+      bond?: number;
+      acts?: 'load' | 'mobilised';
+      dividedByF?: boolean;
+    }
+  | {
+      type: 'pile';
+      name: string;
+      x: number;
+      top?: number;
+      bottom: number;
+      shear: number;
+      dividedByF?: boolean;
+    };
+
+/** The extra reinforcement to find, as written: a force at a level, or layers of a product. */
+export interface RawRequiredReinforcement {
+  level: number;
+  from?: number;
+  to?: number;
+  dividedByF?: boolean;
+  product?: { strength: number; interaction: number; coverage?: number };
+  spacing?: number;
+  maxLayers?: number;
+}
+
 export interface RawAnalysis {
   methods?: MethodId[];
   slices?: number;
@@ -64,6 +126,7 @@ export interface RawAnalysis {
   interslice?: IntersliceFunction;
   trialBand?: number;
   searchEachMethod?: boolean;
+  requiredReinforcement?: RawRequiredReinforcement;
   case?: string;
   requiredFs?: number;
 }
@@ -107,6 +170,7 @@ export interface RawCase {
   water?: RawWater;
   materials?: Record<string, RawMaterialOverride>;
   loads?: RawLoad[];
+  reinforcement?: RawReinforcement[];
   seismic?: RawSeismic;
   crack?: RawCrack;
   /** Settings of the section's analysis to change (not its case or requiredFs: the case's own). */
@@ -128,6 +192,7 @@ export interface RawSection {
   strata: RawStratum[];
   water?: RawWater;
   loads?: RawLoad[];
+  reinforcement?: RawReinforcement[];
   seismic?: RawSeismic;
   crack?: RawCrack;
   analysis?: RawAnalysis;

@@ -143,6 +143,85 @@ export interface LineLoad {
 export type Load = StripLoad | LineLoad;
 
 /**
+ * How a reinforcement force enters the equilibrium of the slice whose base it crosses:
+ * `dividedByF` true: it is a resistance like the soil's and is divided by the factor of
+ * safety with it (T/F in every equation: "adds to the resisting side"); false: it is applied
+ * at its full value, as a known force that reduces what drives the slide. Practice is divided
+ * for passive elements; a prestressed anchor applied as a load is the usual undivided case.
+ */
+interface ReinforcementCommon {
+  name: string;
+  dividedByF: boolean;
+}
+
+/**
+ * A geosynthetic layer (geogrid, geotextile): its line in the section (x increasing), its
+ * long-term design tensile strength after reduction factors (kN per m run), and its pullout
+ * resistance per m of length, 2·Ci·Rc·τ(σ′v) on both faces: Ci the interaction coefficient, Rc
+ * the coverage ratio, τ(σ′v) the strength of the soil it lies in at the vertical effective
+ * stress of the overburden there.
+ */
+export interface GeosyntheticLayer extends ReinforcementCommon {
+  type: 'geosynthetic';
+  line: Polyline;
+  strength: number;
+  interaction: number;
+  coverage: number;
+}
+
+/**
+ * A soil nail: its head (on the face), inclination below the horizontal (degrees), the side it
+ * runs toward, length, horizontal spacing; bar tensile capacity and facing capacity (kN per
+ * nail), bond strength per m of nail (kN/m). Forces per m run are these over the spacing.
+ */
+export interface SoilNail extends ReinforcementCommon {
+  type: 'nail';
+  head: Point;
+  inclination: number;
+  toward: 'left' | 'right';
+  length: number;
+  spacing: number;
+  tensileCapacity: number;
+  bond: number;
+  facingCapacity: number;
+}
+
+/**
+ * A ground anchor: head, inclination below the horizontal (degrees), the side it runs toward,
+ * free and bond lengths, horizontal spacing, capacity (kN per anchor) and the bond strength
+ * per m of the bond length (kN/m; capacity/bondLength when not given). `acts`: `load`, a
+ * prestressed anchor whose force is applied (the part of it anchored behind the slip surface);
+ * `mobilised`, a passive one whose force is the least of its capacity and its bond behind.
+ */
+export interface GroundAnchor extends ReinforcementCommon {
+  type: 'anchor';
+  head: Point;
+  inclination: number;
+  toward: 'left' | 'right';
+  freeLength: number;
+  bondLength: number;
+  spacing: number;
+  capacity: number;
+  bond: number;
+  acts: 'load' | 'mobilised';
+}
+
+/**
+ * A pile or shear key at x, from its top (null: the ground) down to its bottom elevation: where
+ * the slip surface crosses it, a force of `shear` (kN per m run) along the surface against the
+ * movement.
+ */
+export interface PileRow extends ReinforcementCommon {
+  type: 'pile';
+  x: number;
+  top: number | null;
+  bottom: number;
+  shear: number;
+}
+
+export type Reinforcement = GeosyntheticLayer | SoilNail | GroundAnchor | PileRow;
+
+/**
  * Pseudo-static seismic coefficients. kh acts horizontally in the direction of sliding;
  * kv > 0 adds kv·W downward, kv < 0 acts upward.
  */
@@ -235,7 +314,29 @@ export interface Analysis {
   requiredFs: number | null;
   /** With a searched surface: polish the critical circle separately for each method. */
   searchEachMethod?: boolean;
+  /** For a case below its required FS: the extra reinforcement at which it meets it (null: not asked). */
+  requiredReinforcement?: RequiredReinforcementSpec | null;
 }
+
+/**
+ * The extra reinforcement to find for a case below its requirement, each step a full search:
+ * `force`, one uniform horizontal force per m run (no pullout limit) along the line at the
+ * given level, wherever the slip surface crosses it; `layers`, the number of layers of a
+ * geosynthetic product, the lowest at the given level and the rest above it at the spacing.
+ * `line`: the extent, at the lowest level.
+ */
+export type RequiredReinforcementSpec =
+  | { kind: 'force'; line: Polyline; dividedByF: boolean }
+  | {
+      kind: 'layers';
+      line: Polyline;
+      spacing: number;
+      strength: number;
+      interaction: number;
+      coverage: number;
+      dividedByF: boolean;
+      maxLayers: number;
+    };
 
 /** A validated, normalised section in SI units. */
 export interface Section {
@@ -252,6 +353,8 @@ export interface Section {
   strata: Stratum[];
   water: Water;
   loads: Load[];
+  /** Reinforcing elements, [] when none. */
+  reinforcement: Reinforcement[];
   seismic: Seismic;
   crack: Crack | null;
   analysis: Analysis;
@@ -311,6 +414,7 @@ export interface DesignCase {
   water: Water;
   materials: Record<string, Material>;
   loads: Load[];
+  reinforcement: Reinforcement[];
   seismic: Seismic;
   crack: Crack | null;
   analysis: Analysis;

@@ -11,6 +11,7 @@ import type {
   RawCrack,
   RawLoad,
   RawMaterialOverride,
+  RawReinforcement,
   RawSection,
   RawWater,
 } from './raw-section';
@@ -187,14 +188,60 @@ function loadsToSi(loads: RawLoad[] | undefined, f: Factor): void {
   }
 }
 
+function reinforcementToSi(list: RawReinforcement[] | undefined, f: Factor): void {
+  const L = f('length');
+  for (const r of list ?? []) {
+    switch (r.type) {
+      case 'geosynthetic':
+        if (r.elevation !== undefined) r.elevation *= L;
+        if (r.from !== undefined) r.from *= L;
+        if (r.to !== undefined) r.to *= L;
+        if (r.points) r.points = r.points.map((p) => pointToSi(p, L));
+        r.strength *= f('forcePerLength');
+        break;
+      case 'nail':
+        r.head = pointToSi(r.head, L);
+        r.length *= L;
+        r.spacing *= L;
+        r.tensileCapacity *= f('force');
+        r.bond *= f('forcePerLength');
+        if (r.facingCapacity !== undefined) r.facingCapacity *= f('force');
+        break;
+      case 'anchor':
+        r.head = pointToSi(r.head, L);
+        r.freeLength *= L;
+        r.bondLength *= L;
+        r.spacing *= L;
+        r.capacity *= f('force');
+        if (r.bond !== undefined) r.bond *= f('forcePerLength');
+        break;
+      case 'pile':
+        r.x *= L;
+        if (r.top !== undefined) r.top *= L;
+        r.bottom *= L;
+        r.shear *= f('forcePerLength');
+        break;
+    }
+  }
+}
+
 function crackToSi(crack: RawCrack | undefined, L: number): void {
   if (!crack) return;
   if (typeof crack.depth === 'number') crack.depth *= L;
   if (crack.waterDepth !== undefined) crack.waterDepth *= L;
 }
 
-function analysisToSi(a: RawCase['analysis'], L: number): void {
+function analysisToSi(a: RawCase['analysis'], f: Factor): void {
   if (!a) return;
+  const L = f('length');
+  const req = a.requiredReinforcement;
+  if (req) {
+    req.level *= L;
+    if (req.from !== undefined) req.from *= L;
+    if (req.to !== undefined) req.to *= L;
+    if (req.spacing !== undefined) req.spacing *= L;
+    if (req.product) req.product.strength *= f('forcePerLength');
+  }
   if (a.surface) a.surface = surfaceToSi(a.surface, L);
   if (a.infiniteSlope) a.infiniteSlope.depth *= L;
 }
@@ -205,8 +252,9 @@ function caseToSi(c: RawCase, f: Factor): void {
   if (c.materials) materialsToSi(c.materials, f);
   waterToSi(c.water, f);
   loadsToSi(c.loads, f);
+  reinforcementToSi(c.reinforcement, f);
   crackToSi(c.crack, L);
-  analysisToSi(c.analysis, L);
+  analysisToSi(c.analysis, f);
   if (c.drawdown) {
     c.drawdown.after.piezometric = boundaryToSi(c.drawdown.after.piezometric, L);
     for (const d of Object.values(c.drawdown.materials ?? {}))
@@ -235,8 +283,9 @@ export function rawSectionToSi(raw: RawSection): RawSection {
   for (const st of copy.strata) if (st.top !== undefined) st.top = boundaryToSi(st.top, L);
   waterToSi(copy.water, f);
   loadsToSi(copy.loads, f);
+  reinforcementToSi(copy.reinforcement, f);
   crackToSi(copy.crack, L);
-  analysisToSi(copy.analysis, L);
+  analysisToSi(copy.analysis, f);
   for (const c of copy.cases ?? []) caseToSi(c, f);
   return copy;
 }

@@ -13,6 +13,8 @@ import {
   meetsInto,
   pieceY,
 } from './base-curve';
+import { reinforceSlices } from '../reinforcement/crossings';
+import type { Crossing } from '../reinforcement/types';
 import type { Geometry, PreparedSection } from './prepare-section';
 import { type SliceSet, sliceSet } from './slice-set';
 import { crackDepth, crackX } from './tension-crack';
@@ -46,6 +48,8 @@ export interface SliceWorkspace {
   /** The crack at the upper end: its depth and the depth of water in it (0 when none). */
   crackDepth: number;
   crackWater: number;
+  /** Where the surface crosses the reinforcement, and the forces there (reinforcement/crossings.ts). */
+  crossings: Crossing[];
   /** Numbers for the words of a rejection (x values in the section's coordinates, a side). */
   detail: {
     a: number;
@@ -98,6 +102,7 @@ export function sliceWorkspace(prepared: PreparedSection, capacity = 64): SliceW
     pieces: [],
     crackDepth: 0,
     crackWater: 0,
+    crossings: [],
     detail: { a: 0, b: 0, side: 'left', atEdge: false, depth: 0, outside: false },
     arc: arc(),
     arcMirrored: arc(),
@@ -584,7 +589,7 @@ function loadSlices(ws: SliceWorkspace, n: number): void {
 /**
  * Cut the mass above the surface into slices, given the ends and pieces in `ws`: every
  * per-slice quantity — weight by stratum, base strength, pore pressure, surface loads, crack
- * water — is computed here (in the passes above) and only here. Returns false when there is
+ * water, reinforcement forces — is computed here (in the passes above) and only here. Returns false when there is
  * no soil above it.
  */
 function fillSlices(ws: SliceWorkspace): boolean {
@@ -609,6 +614,7 @@ function fillSlices(ws: SliceWorkspace): boolean {
   baseSlices(ws, n);
   const total = weighSlices(ws, n, nt);
   loadSlices(ws, n);
+  if (g.reinforcement.length > 0) reinforceSlices(g.reinforcement, ws.pieces, S, ws.crossings);
   if (ws.crackWater > 0) {
     // pushes the mass toward −x, acting hw/3 above the bottom of the crack
     const gw = ws.prepared.section.water.unitWeight;

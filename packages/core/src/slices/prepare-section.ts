@@ -2,6 +2,7 @@ import { type Lookup, lookup } from '../geometry/lookup';
 import { polylineCrossings } from '../geometry/polyline-crossings';
 import type { Material, Polyline, Section } from '../model/types';
 import { isRigid, linearStrength } from '../strength/registry';
+import { type PreparedElement, prepareReinforcement } from '../reinforcement/prepare-reinforcement';
 import { type StrengthRules, strengthRules } from './stress-dependent';
 
 /** A line load resolved into components (kN/m; x right, y up). */
@@ -32,6 +33,8 @@ export interface Geometry {
   cutLines: Polyline[];
   strips: { from: number; to: number; pressure: number }[];
   lineLoads: PointForce[];
+  /** The reinforcing elements in this orientation (reinforcement/prepare-reinforcement.ts). */
+  reinforcement: PreparedElement[];
   xMin: number;
   xMax: number;
   /** The same polylines as constant-time lookups: ground, tops (tops[0] the ground), rigid top, piezometric line. */
@@ -165,6 +168,7 @@ function geometryOf(
     cutLines,
     strips,
     lineLoads,
+    reinforcement: [],
     xMin: ground[0][0],
     xMax: ground[ground.length - 1][0],
     at: {
@@ -224,13 +228,19 @@ export function prepareSection(section: Section, alsoCutAt: Polyline[] = []): Pr
   const ground = section.ground;
   const width = ground[ground.length - 1][0] - ground[0][0];
   const normal = geometryOf(section, materialIndex, false, alsoCutAt);
+  const mirrored = geometryOf(section, materialIndex, true, alsoCutAt);
+  const strata = stratumProperties(section, materials, normal.stratumMaterial);
+  if (section.reinforcement.length > 0) {
+    normal.reinforcement = prepareReinforcement(section, normal, strata, materials, false);
+    mirrored.reinforcement = prepareReinforcement(section, mirrored, strata, materials, true);
+  }
   return {
     section,
     materials,
     tol: 1e-9 * Math.max(width, 1),
     normal,
-    mirrored: geometryOf(section, materialIndex, true, alsoCutAt),
+    mirrored,
     rules: strengthRules(materials),
-    strata: stratumProperties(section, materials, normal.stratumMaterial),
+    strata,
   };
 }

@@ -40,6 +40,14 @@ export interface SliceSet {
   qx: Float64Array;
   qy: Float64Array;
   qm: Float64Array;
+  /**
+   * The reinforcement forces on the slice that are divided by the factor of safety (each
+   * method takes rx/F, ry/F and rm/F beside the loads; methods/statics.ts), and their moment
+   * about the origin as qm. Those applied at full value are in qx, qy, qm.
+   */
+  rx: Float64Array;
+  ry: Float64Array;
+  rm: Float64Array;
 }
 
 const FLOAT_KEYS = [
@@ -59,6 +67,9 @@ const FLOAT_KEYS = [
   'qx',
   'qy',
   'qm',
+  'rx',
+  'ry',
+  'rm',
 ] as const;
 
 /** An empty slice set with room for `capacity` slices. */

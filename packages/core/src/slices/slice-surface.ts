@@ -1,5 +1,6 @@
 import type { CircleSurface, Point, Polyline, PolylineSurface } from '../model/types';
 import { lookupY } from '../geometry/lookup';
+import type { Crossing } from '../reinforcement/types';
 import type { BasePiece } from './base-curve';
 import { type RejectCode, type SliceWorkspace, cutSurface, sliceWorkspace } from './cut-surface';
 import type { PreparedSection } from './prepare-section';
@@ -27,6 +28,8 @@ export interface SlicedSurface {
   base: Polyline;
   /** The surface in sliding orientation, for exact integrals. */
   pieces: BasePiece[];
+  /** Its crossings with the reinforcement, in sliding orientation (empty without reinforcement). */
+  crossings: Crossing[];
 }
 
 export interface RejectedSurface {
@@ -89,6 +92,7 @@ export function slicedSurface(ws: SliceWorkspace): SlicedSurface {
         : null,
     base,
     pieces: ws.pieces.map((p) => ({ ...p })),
+    crossings: ws.crossings.map((c) => ({ ...c, capacities: { ...c.capacities } })),
   };
 }
 

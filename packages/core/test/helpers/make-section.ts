@@ -36,6 +36,7 @@ export function makeSection(over: Partial<Section> = {}): Section {
     strata: over.strata ?? [{ material: 'soil', top: ground }],
     water: over.water ?? { kind: 'none', unitWeight: 9.81 },
     loads: over.loads ?? [],
+    reinforcement: over.reinforcement ?? [],
     seismic: over.seismic ?? { kh: 0, kv: 0 },
     crack: over.crack ?? null,
     analysis: over.analysis ?? {

@@ -45,6 +45,7 @@ function input(): SectionInput {
       unitWeight: 9.81,
     },
     loads: [],
+    reinforcement: [],
     seismic: { kh: 0, kv: 0 },
     crack: null,
     analysis: {

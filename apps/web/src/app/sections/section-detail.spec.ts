@@ -30,6 +30,7 @@ const INPUT: SectionInput = {
   strata: [{ material: 'clay', top: [] }],
   water: { kind: 'none', unitWeight: 9.81 },
   loads: [],
+  reinforcement: [],
   seismic: { kh: 0, kv: 0 },
   crack: null,
   analysis: {
