@@ -289,3 +289,48 @@ describe('the reinforced-slope moment form in a φ = 0 soil (FS_R = FS_U + T·D/
     }
   });
 });
+
+describe('the required force (the moment form solved for T_S = (FS_R − FS_U)·M_D/D)', () => {
+  const g: Point[] = [
+    [0, 0],
+    [20, 0],
+    [32, 6],
+    [80, 6],
+  ];
+  const circle = { type: 'circle' as const, center: [24, 14] as Point, radius: 14.5 };
+  const section = homogeneous(g, undrained(18, 25));
+  const analysis = {
+    ...section.analysis,
+    methods: ['phi-zero-circle' as MethodId],
+    slices: 60,
+    surface: circle,
+  };
+  const bare = caseView(analyzeSection({ ...section, analysis }));
+  const m = bare.results[0];
+  const MD = m.massWeight! * m.leverArm!;
+  const required = Math.ceil(m.fs! * 10) / 10 + 0.2;
+  const level = 1;
+  const exact = ((required - m.fs!) * MD) / (circle.center[1] - level);
+  test('is found within 0.5 % above the closed form, and meets the requirement', () => {
+    const r = analyzeSection({
+      ...section,
+      analysis: {
+        ...analysis,
+        requiredFs: required,
+        requiredReinforcement: {
+          kind: 'force',
+          line: [
+            [0, level],
+            [80, level],
+          ],
+          dividedByF: true,
+        },
+      },
+    });
+    const req = r.cases[0].requiredReinforcement!;
+    expect(req.reached).toBe(true);
+    expect(req.value!).toBeGreaterThanOrEqual(exact * (1 - 1e-9));
+    expect(req.value!).toBeLessThanOrEqual(exact * 1.006);
+    expect(req.fs!).toBeGreaterThanOrEqual(required);
+  });
+});

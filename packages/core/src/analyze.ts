@@ -7,7 +7,9 @@ import { caseSection, designCases } from './model/design-cases';
 import { type CaseAnalysis, governingOf, lowestFs, stationResult } from './station-result';
 import { seismicReport } from './seismic/seismic-report';
 import type { MethodReport, SectionResult, StationResult, Warning } from './result';
-import { drawdownInUnits, resultInUnits, seismicInUnits } from './result-units';
+import { drawdownInUnits, requiredInUnits, resultInUnits, seismicInUnits } from './result-units';
+import { requiredReinforcement } from './reinforcement/required-reinforcement';
+import type { RequiredReinforcementReport } from './reinforcement/types';
 import { analyzeDrawdown } from './drawdown/analyze-drawdown';
 import { polishFrom } from './search/refine-circle';
 import { searchReport } from './search/search-report';
@@ -177,10 +179,37 @@ export function analyzeSection(section: Section, options: AnalyzeOptions = {}): 
     const cs = listed ? caseSection(section, c) : section;
     if (c.kind === 'rapid-drawdown' && c.drawdown) return drawdownCaseOf(cs, c, meter);
     const result = analyzeCase(cs, meter);
-    if (c.kind !== 'seismic') return { spec: c, result };
-    return { spec: c, result, ...earthquakeOf(cs, c, meter) };
+    const required = requiredOf(cs, c, result, meter);
+    const own = required ? { requiredReinforcement: required } : {};
+    if (c.kind !== 'seismic') return { spec: c, result, ...own };
+    return { spec: c, result, ...own, ...earthquakeOf(cs, c, meter) };
   });
   return stationResult(section, cases, SOLVER_VERSION);
+}
+
+/**
+ * The extra reinforcement a case needs (reinforcement/required-reinforcement.ts), where its
+ * analysis asks for it and its governing FS is below its requirement: each trial a full
+ * analysis of the case in SI, the least FS over the methods that govern it; in the section's
+ * units. Null where not asked or not needed.
+ */
+function requiredOf(
+  cs: Section,
+  c: DesignCase,
+  result: SectionResult,
+  meter: WorkMeter,
+): RequiredReinforcementReport | null {
+  const spec = cs.analysis.requiredReinforcement;
+  const required = c.requiredFs;
+  const g = governingOf(result, c.governs);
+  if (!spec || required === null || !g || g.fs >= required) return null;
+  const report = requiredReinforcement({ ...cs, units: 'si' }, spec, required, (s) => {
+    const r = analyzeCase(s, meter);
+    const best = governingOf(r, c.governs);
+    const m = best ? r.results.find((x) => x.method === best.method) : undefined;
+    return { fs: best?.fs ?? null, method: best?.method ?? null, surface: m?.surface ?? null };
+  });
+  return requiredInUnits(report, 'si', cs.units);
 }
 
 /**

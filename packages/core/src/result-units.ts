@@ -6,6 +6,7 @@ import type {
   GridReport,
   MethodReport,
   ReportedSurface,
+  RequiredReinforcementReport,
   SectionResult,
   SeismicReport,
   StationResult,
@@ -151,10 +152,36 @@ export function stationInUnits(r: StationResult, to: UnitSystem): StationResult 
       search: v.search,
       ...(c.drawdown ? { drawdown: drawdownInUnits(c.drawdown, r.units, to) } : {}),
       ...(c.seismic ? { seismic: seismicInUnits(c.seismic, r.units, to) } : {}),
+      ...(c.requiredReinforcement
+        ? { requiredReinforcement: requiredInUnits(c.requiredReinforcement, r.units, to) }
+        : {}),
     };
   });
   const station = resultInUnits({ ...caseView(r), results: [], search: null }, to).station;
   return { ...r, units: to, station, cases };
+}
+
+/**
+ * The required reinforcement of a case in another unit system: level, extent and spacing as
+ * lengths, a force per run (not a number of layers), the surface.
+ */
+export function requiredInUnits(
+  r: RequiredReinforcementReport,
+  from: UnitSystem,
+  to: UnitSystem,
+): RequiredReinforcementReport {
+  if (from === to) return r;
+  const c = (v: number, kind: QuantityKind) => fromSi(toSi(v, kind, from), kind, to);
+  const L = (v: number) => c(v, 'length');
+  return {
+    ...r,
+    level: L(r.level),
+    from: L(r.from),
+    to: L(r.to),
+    ...(r.spacing !== undefined ? { spacing: L(r.spacing) } : {}),
+    value: r.value !== null && r.kind === 'force' ? c(r.value, 'forcePerLength') : r.value,
+    surface: r.surface ? surfaceInUnits(r.surface, from, to) : null,
+  };
 }
 
 /** 1 inch in m, exactly (NIST SP 811, B.8). */

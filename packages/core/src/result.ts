@@ -5,9 +5,13 @@
  */
 import type { MethodId, Point, SearchSurface, UnitSystem } from './model/types';
 import type { Verdict } from './verdict';
-import type { ReinforcementReport } from './reinforcement/types';
+import type { ReinforcementReport, RequiredReinforcementReport } from './reinforcement/types';
 
-export type { CrossingReport, ReinforcementReport } from './reinforcement/types';
+export type {
+  CrossingReport,
+  ReinforcementReport,
+  RequiredReinforcementReport,
+} from './reinforcement/types';
 
 export { howFoundWords } from './search-words';
 export { caseOf, caseView } from './case-view';
@@ -246,6 +250,8 @@ export interface CaseResult {
   search: SearchReport | null;
   drawdown?: DrawdownReport;
   seismic?: SeismicReport;
+  /** Where the section asks for it and the case is below its requirement: the extra reinforcement that meets it. */
+  requiredReinforcement?: RequiredReinforcementReport;
 }
 
 /**

@@ -1,3 +1,4 @@
+import type { RequiredReinforcementReport } from './reinforcement/types';
 /**
  * A station's result from the results of its design cases: each case's governing FS over the
  * methods that govern it, its ratio to the required FS and its verdict; the governing case
@@ -25,6 +26,8 @@ export interface CaseAnalysis {
   drawdown?: DrawdownReport;
   /** Warnings of the kind's own analysis (the yield coefficient's, the drawdown's). */
   warnings?: Warning[];
+  /** The extra reinforcement at which the case meets its requirement, where asked and below it. */
+  requiredReinforcement?: RequiredReinforcementReport;
 }
 import { type Verdict, verdictOf } from './verdict';
 
@@ -132,6 +135,7 @@ function caseResultOf(a: CaseAnalysis, flat: boolean, strong: boolean): CaseResu
     search: r.search,
     ...(a.drawdown ? { drawdown: a.drawdown } : {}),
     ...(a.seismic ? { seismic: a.seismic } : {}),
+    ...(a.requiredReinforcement ? { requiredReinforcement: a.requiredReinforcement } : {}),
   };
 }
 

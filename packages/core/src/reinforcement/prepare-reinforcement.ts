@@ -152,7 +152,12 @@ export function prepareReinforcement(
     let R: Float64Array;
     let strength: number;
     let facing = 0;
-    if (r.type === 'geosynthetic') {
+    if (r.type === 'geosynthetic' && !Number.isFinite(r.interaction)) {
+      // a force whose pullout never limits it (the required force's)
+      sR = Float64Array.of(0, total);
+      R = Float64Array.of(0, 1e15 * Math.max(total, 1));
+      strength = r.strength;
+    } else if (r.type === 'geosynthetic') {
       const count = Math.min(MAX_SAMPLES, Math.max(2, Math.ceil(total / STEP) + 1));
       sR = new Float64Array(count);
       R = new Float64Array(count);

@@ -2,7 +2,8 @@
  * The shapes of reinforcement at a slip surface: a crossing as the slicer finds it, and as a
  * result reports it. Types only (the result contract imports them; no solver code here).
  */
-import type { Point, Reinforcement } from '../model/types';
+import type { MethodId, Point, Reinforcement } from '../model/types';
+import type { ReportedSurface } from '../result';
 
 /** What limits a reinforcement force where the slip surface crosses the element. */
 export type ReinforcementMode =
@@ -63,4 +64,28 @@ export interface ReinforcementReport {
   /** The sum of the forces of its crossings in the equilibrium (kN per m run). */
   force: number;
   crossings: CrossingReport[];
+}
+
+/**
+ * The extra reinforcement a case below its requirement needs (section units): a uniform force
+ * per run along a level line, or a number of layers of a product from that level up at a
+ * spacing; the critical FS with it, the method and surface, and the full analyses it took.
+ */
+export interface RequiredReinforcementReport {
+  kind: 'force' | 'layers';
+  level: number;
+  from: number;
+  to: number;
+  spacing?: number;
+  dividedByF: boolean;
+  requiredFs: number;
+  /** Whether a value in range meets the requirement (else `reason` says why not). */
+  reached: boolean;
+  /** The force per run (kN/m or lbf/ft), or the number of layers; null when not reached. */
+  value: number | null;
+  fs: number | null;
+  method: MethodId | null;
+  surface: ReportedSurface | null;
+  analyses: number;
+  reason?: string;
 }
