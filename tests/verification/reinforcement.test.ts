@@ -28,7 +28,7 @@ import {
   type Section,
   polygonArea,
 } from '@scarpline/core';
-import { homogeneous, mohrCoulomb, relErr, undrained } from './support';
+import { denseReference, homogeneous, mohrCoulomb, relErr, undrained } from './support';
 
 const deg = Math.PI / 180;
 
@@ -333,4 +333,62 @@ describe('the required force (the moment form solved for T_S = (FS_R − FS_U)·
     expect(req.value!).toBeLessThanOrEqual(exact * 1.006);
     expect(req.fs!).toBeGreaterThanOrEqual(required);
   });
+});
+
+/**
+ * The search sees the reinforcement: on reinforced slopes (test geometries, not real sites) the
+ * auto search's least Bishop F is within 0.5 % of the dense exhaustive search's (support.ts:
+ * denseReference, every circle cut and solved by bishop() in full with its reinforcement), and
+ * the critical circle is another than the unreinforced slope's.
+ */
+describe('the search on reinforced slopes against a dense exhaustive search', () => {
+  const fill: Point[] = [
+    [-20, 0],
+    [0, 0],
+    [8, 10],
+    [40, 10],
+  ];
+  const grids: Reinforcement[] = [2, 4, 6, 8].map((y) => ({
+    type: 'geosynthetic',
+    name: `grid at ${y} m`,
+    line: [
+      [y * 0.8 + 0.3, y],
+      [y * 0.8 + 7, y],
+    ],
+    strength: 20,
+    interaction: 0.8,
+    coverage: 1,
+    dividedByF: true,
+  }));
+  const nails: Reinforcement[] = [2.5, 5, 7.5].map((y) => ({
+    type: 'nail',
+    name: `nail at ${y} m`,
+    head: [y * 0.8, y],
+    inclination: 15,
+    toward: 'right',
+    length: 7,
+    spacing: 1.5,
+    tensileCapacity: 100,
+    bond: 35,
+    facingCapacity: 20,
+    dividedByF: true,
+  }));
+  for (const [label, reinforcement] of [
+    ['a steepened fill with four geogrids', grids],
+    ['a cut with three rows of nails', nails],
+  ] as const) {
+    test(label, () => {
+      const base = homogeneous(fill, mohrCoulomb(19, 4, 32), { reinforcement });
+      const section: Section = {
+        ...base,
+        analysis: { ...base.analysis, slices: 30, surface: { type: 'auto' } },
+      };
+      const searched = caseView(analyzeSection(section)).results[0];
+      const reference = denseReference(section);
+      expect(searched.fs!).toBeLessThanOrEqual(reference * 1.005);
+      const bare = caseView(analyzeSection({ ...section, reinforcement: [] })).results[0];
+      expect(searched.fs!).toBeGreaterThan(bare.fs! * 1.05);
+      expect(searched.surface).not.toEqual(bare.surface);
+    });
+  }
 });

@@ -3,6 +3,7 @@
  * method options every check needs.
  */
 import {
+  bishop,
   type Material,
   type Point,
   type Section,
@@ -248,4 +249,118 @@ export function compass(f: (x: number[]) => number, x0: number[], step: number):
     if (!moved) h /= 2;
   }
   return fx;
+}
+
+export type Circle = [number, number, number];
+
+export function exactBishop(section: Section): (c: Circle) => number {
+  const prepared = prepareSection(section);
+  return ([xc, yc, r]) => {
+    if (!(r > 0)) return Infinity;
+    const cut = sliceSurface(
+      prepared,
+      { type: 'circle', center: [xc, yc], radius: r },
+      section.analysis.slices,
+    );
+    if (!cut.ok) return Infinity;
+    const pivot: Point = [(cut.slices.mirrored ? -1 : 1) * xc, yc];
+    const res = bishop(cut.slices, { seismic: section.seismic, pivot });
+    return res.converged ? res.fs : Infinity;
+  };
+}
+
+/** Distance from (x, y) to the nearest point of a polyline below y (Infinity when none). */
+function distanceBelow(line: Point[], x: number, y: number): number {
+  let best = Infinity;
+  for (let i = 0; i + 1 < line.length; i++) {
+    const [ax, ay] = line[i];
+    const [bx, by] = line[i + 1];
+    const dx = bx - ax;
+    const dy = by - ay;
+    const t = Math.max(0, Math.min(1, ((x - ax) * dx + (y - ay) * dy) / (dx * dx + dy * dy)));
+    const px = ax + t * dx;
+    const py = ay + t * dy;
+    if (py < y) best = Math.min(best, Math.hypot(px - x, py - y));
+  }
+  return best;
+}
+
+/** Radii at (x, y) tangent to each segment of a polyline (the foot inside the segment, below the centre). */
+function tangentsTo(line: Point[], x: number, y: number): number[] {
+  const out: number[] = [];
+  for (let i = 0; i + 1 < line.length; i++) {
+    const [ax, ay] = line[i];
+    const [bx, by] = line[i + 1];
+    const dx = bx - ax;
+    const dy = by - ay;
+    const t = ((x - ax) * dx + (y - ay) * dy) / (dx * dx + dy * dy);
+    if (t >= 0 && t <= 1 && ay + t * dy < y) out.push(Math.hypot(ax + t * dx - x, ay + t * dy - y));
+  }
+  const d = distanceBelow(line, x, y);
+  if (d < Infinity) out.push(d);
+  return out;
+}
+
+/** The least Bishop F over a dense set of circles, refined. */
+export function denseReference(section: Section): number {
+  const F = exactBishop(section);
+  const g = section.ground;
+  const ys = g.map((p) => p[1]);
+  const yTop = Math.max(...ys);
+  const yLow = Math.min(...ys);
+  const H = yTop - yLow;
+  // the sloping part of the ground, and a window a slope height beyond it either side
+  const steep = g.filter(
+    (p, i) => i > 0 && Math.abs(p[1] - g[i - 1][1]) > 0.05 * (p[0] - g[i - 1][0]),
+  );
+  const xs = [...steep.map((p) => p[0]), ...steep.map((p) => g[g.indexOf(p) - 1][0])];
+  const wx0 = Math.min(...xs) - H;
+  const wx1 = Math.max(...xs) + H;
+  const boundaries = section.strata.slice(1).map((s) => s.top);
+  const deepest = yLow - 1.5 * H;
+  const found: { fs: number; c: Circle; line: Point[] | null }[] = [];
+  // centres from the toe's level (small circles on the face) to two and a half heights above the crest
+  const N = 22;
+  const M = 28;
+  for (let i = 0; i < N; i++) {
+    for (let j = 0; j < M; j++) {
+      const xc = wx0 + ((wx1 - wx0) * i) / (N - 1);
+      const yc = yLow + 0.3 * H + (3.2 * H * j) / (M - 1);
+      const tryCircle = (r: number, line: Point[] | null) => {
+        const fs = F([xc, yc, r]);
+        if (fs < Infinity) found.push({ fs, c: [xc, yc, r], line });
+      };
+      for (let k = 0; k < 20; k++) {
+        const r = yc - (yTop - ((yTop - deepest) * (k + 0.5)) / 20);
+        if (r > 0) tryCircle(r, null);
+      }
+      for (const line of boundaries) for (const r of tangentsTo(line, xc, yc)) tryCircle(r, line);
+    }
+  }
+  found.sort((a, b) => a.fs - b.fs);
+  // refine the best few that lie apart, freely and (for those made on a boundary) touching it
+  const starts: typeof found = [];
+  for (const t of found) {
+    if (starts.length >= 4) break;
+    if (starts.every((s) => Math.hypot(s.c[0] - t.c[0], s.c[1] - t.c[1]) > 0.1 * H)) starts.push(t);
+  }
+  for (const line of boundaries) {
+    const t = found.find((f) => f.line === line);
+    if (t) starts.push(t);
+  }
+  let best = found[0]?.fs ?? Infinity;
+  for (const s of starts) {
+    best = Math.min(
+      best,
+      compass((c) => F(c as Circle), s.c, 0.1 * H),
+    );
+    if (s.line) {
+      const line = s.line;
+      best = Math.min(
+        best,
+        compass(([x, y]) => F([x, y, distanceBelow(line, x, y)]), [s.c[0], s.c[1]], 0.1 * H),
+      );
+    }
+  }
+  return best;
 }
