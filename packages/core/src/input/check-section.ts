@@ -1,7 +1,8 @@
 import { WORK_LIMIT } from '../work-limit';
-import { caseWorkWords, estimateCaseWork, estimateWork } from './estimate-work';
+import { caseWorkWords, estimateCaseWork, estimateWork, requiredSearches } from './estimate-work';
 import { caseOrigin, mergeCaseData } from '../model/merge-case';
 import { checkCases } from './check-cases';
+import { checkReinforcement } from './check-reinforcement';
 import { betweenWords, checkBoundary } from './check-boundary';
 import type { RawStrength } from '../model/raw-section';
 import { STRENGTH_MODELS, checkStrength } from '../strength/registry';
@@ -295,6 +296,9 @@ function checkSettings(data: Record<string, unknown>): Issue[] {
     });
   }
 
+  // --- reinforcement
+  checkReinforcement(data, ground, L, err, warn);
+
   // --- crack
   const crack = data.crack;
   if (isRecord(crack) && isNumber(crack.depth) && isNumber(crack.waterDepth)) {
@@ -412,7 +416,7 @@ function checkWork(data: Record<string, unknown>): Issue[] {
   const strata = Array.isArray(data.strata) ? data.strata.length : 1;
   const cases = Array.isArray(data.cases) ? data.cases.filter(isRecord) : [];
   if (cases.length === 0) {
-    const work = estimateWork(data.analysis, strata);
+    const work = estimateWork(data.analysis, strata) * (1 + requiredSearches(data.analysis));
     if (work <= WORK_LIMIT) return [];
     const a = data.analysis;
     return [

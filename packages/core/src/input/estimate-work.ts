@@ -63,7 +63,19 @@ export const CASE_SEARCHES: Readonly<Partial<Record<DesignCaseKind, number>>> = 
  */
 export function estimateCaseWork(analysis: unknown, strata: number, kind: unknown): number {
   const searches = typeof kind === 'string' ? (CASE_SEARCHES[kind as DesignCaseKind] ?? 1) : 1;
-  return estimateWork(analysis, strata) * searches;
+  return estimateWork(analysis, strata) * searches * (1 + requiredSearches(analysis));
+}
+
+/**
+ * The further analyses of a required reinforcement, where asked (each a full one, counted as
+ * one search): a force is doubled then bisected to 0.5 % (about 16 analyses for most slopes),
+ * a number of layers bisected (log₂ of the most layers, plus one). An allowance, as above.
+ */
+export function requiredSearches(analysis: unknown): number {
+  const req = isRecord(analysis) ? analysis.requiredReinforcement : undefined;
+  if (!isRecord(req)) return 0;
+  if (!isRecord(req.product)) return 16;
+  return Math.ceil(Math.log2(count(req.maxLayers, 20))) + 1;
 }
 
 /**
