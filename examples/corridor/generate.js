@@ -102,6 +102,33 @@ function section(s) {
       },
     ];
   }
+  if (fill && (s === 1720 || s === 1740)) {
+    // The highest fill, by the Corrin culvert's wing walls: steepened with geogrids at 2 m spacing
+    // from 1 m above the natural ground at the toe, each ending 0.3 m inside the side slope.
+    const toe = meet[1];
+    item.reinforcement = [];
+    for (let y = toe + 1; y < F - 1; y += 2) {
+      item.reinforcement.push({
+        type: 'geosynthetic',
+        name: `geogrid at ${r2(y)} m`,
+        elevation: r2(y),
+        from: 0,
+        to: r2(HALF_WIDTH + SLOPE * (F - y) - 0.3),
+        strength: 35,
+        interaction: 0.8,
+      });
+    }
+    // At the end of construction the soft foundation still governs: how much basal force at the
+    // foot of the fill would bring it to its requirement?
+    const base = r2(toe + 0.3);
+    item.cases[0].analysis = {
+      requiredReinforcement: {
+        level: base,
+        from: 0,
+        to: r2(HALF_WIDTH + SLOPE * (F - base) - 0.3),
+      },
+    };
+  }
   if (s === 1600) {
     // Over the culvert: a higher requirement in the long term, and less movement in an earthquake.
     item.analysis = { requiredFs: 1.6 };
@@ -121,7 +148,7 @@ const batch = {
   id: 'wcb-main',
   title: 'Wendlecombe bypass, main line, right-hand side',
   description:
-    'Invented demonstration corridor (not for design): sections every 20 m, centreline at x = 0, road platform 8 m wide, side slopes 1:2 in fill and in cut. In cut the strata follow the cut surface by depth; on embankment they are given as elevations under the fill. Design cases: long term (required FS 1.5, 1.6 over the culvert at 1+600) and an earthquake (kh 0.1; pga 0.2 g, magnitude 6, 100 mm allowed, 50 mm over the culvert) everywhere, and the end of construction (the weathered mudstone undrained) on embankment.',
+    'Invented demonstration corridor (not for design): sections every 20 m, centreline at x = 0, road platform 8 m wide, side slopes 1:2 in fill and in cut. In cut the strata follow the cut surface by depth; on embankment they are given as elevations under the fill. Design cases: long term (required FS 1.5, 1.6 over the culvert at 1+600) and an earthquake (kh 0.1; pga 0.2 g, magnitude 6, 100 mm allowed, 50 mm over the culvert) everywhere, and the end of construction (the weathered mudstone undrained) on embankment. The highest fill (1+720, 1+740) is reinforced with geogrids.',
   units: 'si',
   template: {
     offset: 0,
