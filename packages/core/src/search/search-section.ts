@@ -1,4 +1,5 @@
 import { yAt } from '../geometry/y-at';
+import { reinforcementHeads } from '../reinforcement/heads';
 import type { Polyline, SearchSurface } from '../model/types';
 import { linearStrength, variesWithStress } from '../strength/registry';
 import type { PreparedSection } from '../slices/prepare-section';
@@ -115,7 +116,13 @@ export function searchSection(
   let deepest = Infinity;
   if (g.rigidTop) for (const p of g.rigidTop) deepest = Math.min(deepest, p[1]);
   else deepest = -Infinity;
-  const settings = searchSettings(spec, section.units, section.ground, deepest);
+  const settings = searchSettings(
+    spec,
+    section.units,
+    section.ground,
+    deepest,
+    reinforcementHeads(section),
+  );
   const cohesionless = evaluation.cohesionless ? cohesionlessSlope(prepared) : null;
   if (cohesionless && settings.grid) settings.grid.moves = 0;
   const evaluate = evaluation.circle;
@@ -158,8 +165,14 @@ export function searchSection(
     const apartFrom = (t: CircleTrial, s: CircleTrial) =>
       Math.hypot(t.center[0] - s.center[0], t.center[1] - s.center[1]) > 0.5 * s.radius;
     for (const start of free) polishes.push(refineCircle(start, step, evaluate, trials));
+    // on a reinforced slope a face's start near another is polished too where it is as low as
+    // the best polished so far: across a reinforcement head F steps (the element is crossed or
+    // not), so circles close together may lie in separate valleys
+    const rugged = section.reinforcement.length > 0;
     for (const start of faceStarts) {
-      if (!free.every((t) => apartFrom(t, start))) continue;
+      const lowSoFar = polishes.reduce((best, p) => Math.min(best, p.to.fs), circle.fs);
+      const near = !free.every((t) => apartFrom(t, start));
+      if (near && (!rugged || start.fs > 1.05 * lowSoFar)) continue;
       free.push(start);
       polishes.push(refineCircle(start, Math.min(step, 0.5 * start.radius), evaluate, trials));
     }

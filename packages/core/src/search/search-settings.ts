@@ -1,3 +1,4 @@
+import { yAt } from '../geometry/y-at';
 import { toSi } from '../model/units';
 import type { Polyline, SearchSurface, UnitSystem } from '../model/types';
 import type { GridReport } from '../result';
@@ -136,17 +137,57 @@ export function slopeZone(ground: Polyline): SlopeZone {
   return { x0, x1, yLow, yHigh, crestRight: yAtX(x1) >= yAtX(x0) };
 }
 
+/** At most this many parts of faces between reinforcement heads get ranges of their own, each this many points a range and radii. */
+const MAX_PARTS = 12;
+const PART_POINTS = 7;
+
+/**
+ * The slope faces cut at the x of reinforcement heads on them (`stops`): the parts of a face
+ * between two heads, below the lowest and above the highest, each at least MIN_RELIEF high
+ * (at most MAX_PARTS, the highest first), each with its face. A surface that comes out of the
+ * face between two rows of nails passes under the rows below it, and one that comes out above
+ * the top row crosses none: each part is where such surfaces come out.
+ */
+export function faceParts(
+  ground: Polyline,
+  stops: readonly number[],
+): { part: SlopeZone; face: SlopeZone }[] {
+  const parts: { part: SlopeZone; face: SlopeZone }[] = [];
+  for (const face of slopeFaces(ground)) {
+    const inside = stops.filter((x) => x > face.x0 && x < face.x1).sort((a, b) => a - b);
+    if (inside.length === 0) continue;
+    const xs = [face.x0, ...inside, face.x1];
+    for (let i = 0; i + 1 < xs.length; i++) {
+      const ya = yAt(ground, xs[i]);
+      const yb = yAt(ground, xs[i + 1]);
+      const part = {
+        x0: xs[i],
+        x1: xs[i + 1],
+        yLow: Math.min(ya, yb),
+        yHigh: Math.max(ya, yb),
+        crestRight: face.crestRight,
+      };
+      if (part.yHigh - part.yLow >= MIN_RELIEF) parts.push({ part, face });
+    }
+  }
+  return parts
+    .sort((p, q) => q.part.yHigh - q.part.yLow - (p.part.yHigh - p.part.yLow))
+    .slice(0, MAX_PARTS);
+}
+
 /**
  * Search settings from the section's `analysis.surface` (in the file's units) and defaults
  * derived from the geometry: a 10 × 10 grid of centres above the slope, twelve tangent
  * elevations from just below the toe down to one and a half slope heights (or the rigid
- * base), ground ranges on the crest and at the toe, six-vertex noncircular surfaces.
+ * base), ground ranges on the crest and at the toe (and on each face, and each part of a face
+ * between reinforcement heads at `stops`), six-vertex noncircular surfaces.
  */
 export function searchSettings(
   spec: SearchSurface,
   units: UnitSystem,
   ground: Polyline,
   deepest: number,
+  stops: readonly number[] = [],
 ): SearchSettings {
   const L = (v: number) => toSi(v, 'length', units);
   const Lp = (p: [number, number] | null) => (p ? ([L(p[0]), L(p[1])] as [number, number]) : null);
@@ -217,13 +258,38 @@ export function searchSettings(
     .filter((f) => f.yHigh - f.yLow >= MIN_RELIEF)
     .slice(0, MAX_FACES);
   const sameAsZone = (f: SlopeZone) => f.x0 === z.x0 && f.x1 === z.x1;
+  /**
+   * Surfaces that come out of a part of a face between reinforcement heads: the lower range
+   * over the part, the upper from the part's top to beyond the face's crest; the parts are
+   * small, so fewer points and radii each.
+   */
+  const partRanges = (part: SlopeZone, face: SlopeZone): GroundRangeSettings => {
+    const side = face.crestRight ? 1 : -1;
+    const w = Math.max(face.x1 - face.x0, face.yHigh - face.yLow);
+    const top = face.crestRight ? part.x1 : part.x0;
+    const crest = face.crestRight ? face.x1 : face.x0;
+    const range = (a: number, b: number): [number, number] => [
+      clampX(Math.min(a, b)),
+      clampX(Math.max(a, b)),
+    ];
+    return {
+      upper: range(top, crest + side * 0.8 * w),
+      lower: range(part.x0, part.x1),
+      points: PART_POINTS,
+      radii: PART_POINTS,
+    };
+  };
+  const own = (f: SlopeZone) => {
+    const h = Math.max(f.yHigh - f.yLow, MIN_RELIEF);
+    return rangesOf(f, h, Math.max(f.x1 - f.x0, h));
+  };
   const faceRanges =
-    upper || lower || spec.type === 'grid' || (faces.length === 1 && sameAsZone(faces[0]))
+    upper || lower || spec.type === 'grid'
       ? []
-      : faces.map((f) => {
-          const h = Math.max(f.yHigh - f.yLow, 1);
-          return rangesOf(f, h, Math.max(f.x1 - f.x0, h));
-        });
+      : [
+          ...(faces.length === 1 && sameAsZone(faces[0]) ? [] : faces.map(own)),
+          ...faceParts(ground, stops).map(({ part, face }) => partRanges(part, face)),
+        ];
   const noncircular: NoncircularSettings = {
     vertices: Math.min(12, Math.max(3, Math.round(num(spec.vertices, 6)))),
     restarts: Math.max(0, Math.round(num(spec.restarts, 4))),
