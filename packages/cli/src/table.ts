@@ -111,6 +111,60 @@ export function strengthWords(m: MethodReport, units: UnitSystem): string | null
   return `strengths taken at each slice base's stress, ${m.method}${settled}: ${parts.join('; ')}`;
 }
 
+const MODE_WORDS: Record<string, string> = {
+  strength: 'its own strength',
+  pullout: 'pullout behind the surface',
+  front: 'pullout in front',
+  facing: 'its facing',
+};
+
+/**
+ * A method's reinforcement in words, one line an element: its force in the equilibrium where
+ * the surface crosses it, what limits it, and whether it is divided by F; or that the surface
+ * does not cross it (or only pushes it).
+ *
+ * @example reinforcementWords(bishop, 'si') // → ['reinforcement, bishop (kN/m):', '  geosynthetic "basal geotextile" 159.0 at x = 5.30 of 200.0 (its own strength), divided by F']
+ */
+export function reinforcementWords(m: MethodReport, units: UnitSystem): string[] {
+  if (!m.reinforcement || m.reinforcement.length === 0 || !m.converged) return [];
+  const u = UNIT_LABELS[units];
+  const lines = [`reinforcement, ${m.method} (forces in ${u.forcePerLength}, x in ${u.length}):`];
+  for (const e of m.reinforcement) {
+    const counted = e.crossings.filter((c) => c.counted);
+    const name = `${e.type} "${e.name}"`;
+    if (counted.length === 0) {
+      lines.push(
+        `  ${name}: ${e.crossings.length ? 'crossed only where it is pushed' : 'not crossed'}`,
+      );
+      continue;
+    }
+    const at = counted
+      .map(
+        (c) =>
+          `${c.force.toFixed(1)} at x = ${c.at[0].toFixed(2)} of ${c.available.toFixed(1)} (${MODE_WORDS[c.mode] ?? c.mode})`,
+      )
+      .join('; ');
+    lines.push(`  ${name} ${at}, ${e.dividedByF ? 'divided by F' : 'at full value'}`);
+  }
+  return lines;
+}
+
+/** A case's required reinforcement in words (one line). */
+export function requiredWords(
+  r: NonNullable<CaseResult['requiredReinforcement']>,
+  units: UnitSystem,
+): string {
+  const u = UNIT_LABELS[units];
+  const where = `at ${r.level.toFixed(2)} ${u.length} from x = ${r.from.toFixed(2)} to ${r.to.toFixed(2)}`;
+  if (!r.reached || r.value === null)
+    return `required reinforcement: not reached: ${r.reason ?? ''} (${r.analyses} analyses)`;
+  const what =
+    r.kind === 'force'
+      ? `a further uniform force of ${r.value.toFixed(1)} ${u.forcePerLength} ${where}`
+      : `${r.value} layer${r.value > 1 ? 's' : ''} of the product ${where} and up at ${r.spacing?.toFixed(2)} ${u.length}`;
+  return `required reinforcement: ${what} gives FS ${r.fs === null ? '—' : fsText(r.fs)} (${r.method ?? '—'}) against required ${r.requiredFs}, ${r.dividedByF ? 'divided by F' : 'at full value'} (${r.analyses} analyses, each with its search)`;
+}
+
 /**
  * The slice table of a method: a row per slice, left to right, with its geometry, weight, pore
  * pressure and base forces, its base material and the strength the base took (c′ or Su, φ′)
@@ -144,6 +198,8 @@ export function sliceTable(m: MethodReport, units: UnitSystem): string[] {
   ];
   if (withC) cols.push({ head: 'c′/Su', width: 8, cell: (s) => n(s.cohesion, 1) });
   if (withPhi) cols.push({ head: 'φ′°', width: 6, cell: (s) => n(s.frictionAngle, 1) });
+  if (m.slices.some((s) => has(s.reinforcement)))
+    cols.push({ head: 'T', width: 8, cell: (s) => (s.reinforcement ? n(s.reinforcement, 1) : '') });
   if (withAt)
     cols.push({
       head: 'taken at',
@@ -154,7 +210,7 @@ export function sliceTable(m: MethodReport, units: UnitSystem): string[] {
           : '—',
     });
   const lines = [
-    `slices of ${m.method} (x, b in ${u.length}; W, N′, S in ${u.forcePerLength}; u, c′/Su and the stress a strength was taken at in ${u.pressure})`,
+    `slices of ${m.method} (x, b in ${u.length}; W, N′, S${m.reinforcement ? ', T (reinforcement)' : ''} in ${u.forcePerLength}; u, c′/Su and the stress a strength was taken at in ${u.pressure})`,
     `${'#'.padStart(3)} ${cols
       .slice(0, 7)
       .map((c) => c.head.padStart(c.width))
@@ -201,6 +257,9 @@ function caseLines(c: CaseResult, units: UnitSystem, indent: string, slices = fa
   const governing = c.results.find((m) => m.method === c.governing?.method);
   const strengths = governing ? strengthWords(governing, units) : null;
   if (strengths) lines.push(`${indent}${strengths}`);
+  if (governing) for (const w of reinforcementWords(governing, units)) lines.push(`${indent}${w}`);
+  if (c.requiredReinforcement)
+    lines.push(`${indent}${requiredWords(c.requiredReinforcement, units)}`);
   if (c.search?.howFound)
     for (const w of howFoundWords(c.search.howFound)) lines.push(`${indent}${w}`);
   for (const w of distinctWarnings({ results: c.results, warnings: c.warnings })) {

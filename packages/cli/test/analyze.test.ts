@@ -123,6 +123,37 @@ describe('scarpline analyze', () => {
     });
   });
 
+  test('reinforcement: the force of each element and what limits it, and the required force, in the table as in the JSON', () => {
+    const file = 'examples/embankment-basal-reinforcement.yaml';
+    const table = run(['analyze', file]).out;
+    const doc = JSON.parse(run(['analyze', file, '--json']).out) as {
+      sections: {
+        cases: {
+          governing: { method: string };
+          requiredReinforcement: { value: number; fs: number };
+          results: {
+            method: string;
+            reinforcement: {
+              name: string;
+              crossings: { force: number; available: number; at: number[] }[];
+            }[];
+          }[];
+        }[];
+      }[];
+    };
+    expect(validate(doc.sections[0])).toBe(true);
+    const c = doc.sections[0].cases[0];
+    const m = c.results.find((r) => r.method === c.governing.method)!;
+    const x = m.reinforcement[0].crossings[0];
+    expect(table).toContain(
+      `geosynthetic "basal geotextile" ${x.force.toFixed(1)} at x = ${x.at[0].toFixed(2)} of ${x.available.toFixed(1)} (its own strength), divided by F`,
+    );
+    expect(table).toContain(
+      `required reinforcement: a further uniform force of ${c.requiredReinforcement.value.toFixed(1)} kN/m at 11.00 m`,
+    );
+    expect(c.requiredReinforcement.fs).toBeGreaterThanOrEqual(1.3);
+  });
+
   test('exit 0 when every section passes, with a readable table and the caution', () => {
     const { code, out } = run(['analyze', 'examples/cut-surcharge-seismic.yaml']);
     expect(code).toBe(0);
