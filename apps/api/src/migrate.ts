@@ -9,6 +9,7 @@ import * as fifth from './migrations/0005-accounts-and-editors';
 import * as sixth from './migrations/0006-worker-heartbeats';
 import * as seventh from './migrations/0007-phi-zero-circle-interslice';
 import * as eighth from './migrations/0008-case-results';
+import * as ninth from './migrations/0009-required-reinforcement';
 
 export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
   return new Umzug({
@@ -21,6 +22,7 @@ export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
       { name: '0006-worker-heartbeats', up: sixth.up, down: sixth.down },
       { name: '0007-phi-zero-circle-interslice', up: seventh.up, down: seventh.down },
       { name: '0008-case-results', up: eighth.up, down: eighth.down },
+      { name: '0009-required-reinforcement', up: ninth.up, down: ninth.down },
     ],
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),

@@ -51,6 +51,7 @@ function solvedCase(c: CaseResult): SolvedCase {
       search: text(c.search),
       drawdown: text(c.drawdown),
       seismic: text(c.seismic),
+      requiredReinforcement: text(c.requiredReinforcement),
     },
   };
 }

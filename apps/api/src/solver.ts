@@ -51,7 +51,7 @@ export interface SolvedCase {
   governing: { method: string; fs: number } | null;
   requiredFs: number | null;
   ratio: number | null;
-  /** The governing methods, the per-method reports, the governing method's critical surface, the warnings, the search, the drawdown and seismic reports. */
+  /** The governing methods, the per-method reports, the governing method's critical surface, the warnings, the search, the drawdown and seismic reports, the required reinforcement. */
   json: {
     governs: string;
     methods: string;
@@ -60,6 +60,7 @@ export interface SolvedCase {
     search: string | null;
     drawdown: string | null;
     seismic: string | null;
+    requiredReinforcement: string | null;
   };
 }
 

@@ -39,6 +39,8 @@ export class CaseResultRow extends Model<
   /** A rapid-drawdown case's stages; a seismic case's yield coefficient and displacement. */
   declare drawdown: object | null;
   declare seismic: object | null;
+  /** Where asked and below its requirement: the extra reinforcement that meets it. */
+  declare requiredReinforcement: object | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -60,6 +62,7 @@ CaseResultRow.init(
     warnings: { type: DataTypes.JSONB, allowNull: false },
     drawdown: { type: DataTypes.JSONB, allowNull: true },
     seismic: { type: DataTypes.JSONB, allowNull: true },
+    requiredReinforcement: { type: DataTypes.JSONB, allowNull: true },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
   },

@@ -72,6 +72,7 @@ function caseView(c: CaseResultRow, search: boolean) {
     search: search ? (c.search ?? null) : null,
     ...(c.drawdown ? { drawdown: c.drawdown } : {}),
     ...(c.seismic ? { seismic: c.seismic } : {}),
+    ...(c.requiredReinforcement ? { requiredReinforcement: c.requiredReinforcement } : {}),
   };
 }
 

@@ -114,7 +114,8 @@ const RESULT_COLUMNS = `section_id, run, verdict, governing_case, governing_meth
   duration_ms, attempt`;
 
 const CASE_COLUMNS = `position, name, kind, verdict, governing_method, governing_fs, required_fs,
-  ratio, governs, methods, critical_surface, search, warnings, drawdown, seismic`;
+  ratio, governs, methods, critical_surface, search, warnings, drawdown, seismic,
+  required_reinforcement`;
 
 const CASE_VALUES = CASE_COLUMNS.replace(/(\w+)/g, 'c.$1');
 
@@ -138,7 +139,8 @@ async function writeResults(ends: (SectionEnd & { kind: 'result' })[]): Promise<
      ), c AS (
        SELECT * FROM unnest($17::int[], $18::int[], $19::int[], $20::text[], $21::text[],
          $22::text[], $23::text[], $24::float8[], $25::float8[], $26::float8[], $27::jsonb[],
-         $28::jsonb[], $29::jsonb[], $30::jsonb[], $31::jsonb[], $32::jsonb[], $33::jsonb[])
+         $28::jsonb[], $29::jsonb[], $30::jsonb[], $31::jsonb[], $32::jsonb[], $33::jsonb[],
+         $34::jsonb[])
          AS c(section_id, run, ${CASE_COLUMNS})
      ), ended AS (
        UPDATE sections s
@@ -171,7 +173,8 @@ async function writeResults(ends: (SectionEnd & { kind: 'result' })[]): Promise<
          required_fs = EXCLUDED.required_fs, ratio = EXCLUDED.ratio, governs = EXCLUDED.governs,
          methods = EXCLUDED.methods, critical_surface = EXCLUDED.critical_surface,
          search = EXCLUDED.search, warnings = EXCLUDED.warnings, drawdown = EXCLUDED.drawdown,
-         seismic = EXCLUDED.seismic, updated_at = EXCLUDED.updated_at
+         seismic = EXCLUDED.seismic, required_reinforcement = EXCLUDED.required_reinforcement,
+         updated_at = EXCLUDED.updated_at
      )
      SELECT id FROM ended`,
     {
@@ -209,6 +212,7 @@ async function writeResults(ends: (SectionEnd & { kind: 'result' })[]): Promise<
         caseCol((x) => x.c.json.warnings),
         caseCol((x) => x.c.json.drawdown),
         caseCol((x) => x.c.json.seismic),
+        caseCol((x) => x.c.json.requiredReinforcement),
       ],
       type: QueryTypes.SELECT,
     },
