@@ -18,6 +18,8 @@ export interface AnalyzeOptions extends Overrides {
   json?: boolean;
   csv?: boolean;
   units?: UnitSystem;
+  /** Each case's table ends with its governing method's slices. */
+  sliceTable?: boolean;
 }
 
 /**
@@ -91,7 +93,7 @@ export function analyzeFiles(
     out(analyzeCsv(results).replace(/\n$/, ''));
   } else {
     for (const { result } of results) {
-      for (const line of sectionTable(result)) out(line);
+      for (const line of sectionTable(result, { slices: options.sliceTable })) out(line);
       out('');
     }
     out(`Caution: ${CAUTION}`);

@@ -3,10 +3,17 @@ import { UserError } from './read-input';
 import { cut } from './starters/cut';
 import { embankment } from './starters/embankment';
 import { levee } from './starters/levee';
+import { rockCut } from './starters/rock-cut';
 import { sandFill } from './starters/sand-fill';
 
 /** The starter files `scarpline init --kind` writes. */
-export const STARTERS = { cut, embankment, levee, 'sand-fill': sandFill } as const;
+export const STARTERS = {
+  cut,
+  embankment,
+  levee,
+  'sand-fill': sandFill,
+  'rock-cut': rockCut,
+} as const;
 export type StarterKind = keyof typeof STARTERS;
 
 /**

@@ -77,6 +77,10 @@ withOverrides(
 )
   .option('--json', 'print the result contract as JSON: { caution, sections }')
   .option('--csv', 'print CSV: a row per section and method')
+  .option(
+    '--slice-table',
+    "end each case's table with its governing method's slices: geometry, forces, the strength each base took and the stress it was taken at",
+  )
   .addOption(units())
   .addHelpText(
     'after',
@@ -85,6 +89,7 @@ Examples:
   $ scarpline analyze examples/cut-homogeneous.yaml
   $ scarpline analyze examples/levee-land-side.yaml --json > levee.json
   $ scarpline analyze examples/*.yaml --csv --method bishop,spencer --slices 60
+  $ scarpline analyze examples/cut-rock-hoek-brown.yaml --slice-table
   $ cat section.yaml | scarpline analyze - --units us
 ${EXIT}`,
   )
@@ -94,6 +99,7 @@ ${EXIT}`,
       opts: {
         json?: boolean;
         csv?: boolean;
+        sliceTable?: boolean;
         units?: UnitSystem;
         method?: string[];
         slices?: string;
@@ -101,11 +107,19 @@ ${EXIT}`,
       },
     ) => {
       if (opts.json && opts.csv) throw new UserError('give --json or --csv, not both');
+      if (opts.sliceTable && (opts.json || opts.csv))
+        throw new UserError('--slice-table is for the table: --json and --csv hold every slice');
       const { checkOverrides } = await import('./overrides');
       const { analyzeFiles } = await import('./analyze-files');
       process.exitCode = analyzeFiles(
         files,
-        { json: opts.json, csv: opts.csv, units: opts.units, ...checkOverrides(opts) },
+        {
+          json: opts.json,
+          csv: opts.csv,
+          sliceTable: opts.sliceTable,
+          units: opts.units,
+          ...checkOverrides(opts),
+        },
         print,
         printErr,
       );

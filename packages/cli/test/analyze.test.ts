@@ -41,6 +41,88 @@ describe('scarpline analyze', () => {
     expect(slices.some((s) => s.strengthAt !== null)).toBe(true);
   });
 
+  describe('--slice-table', () => {
+    interface Slice {
+      x: number;
+      material: string;
+      cohesion: number;
+      frictionAngle: number;
+      strengthAt: { kind: 'normal' | 'vertical'; stress: number } | null;
+    }
+    interface Doc {
+      sections: {
+        cases: {
+          governing: { method: string } | null;
+          results: { method: string; slices: Slice[] }[];
+        }[];
+      }[];
+    }
+    /** The rows of the slice table printed under the (only) case. */
+    const rows = (out: string) => {
+      const lines = out.split('\n');
+      const start = lines.findIndex((l) => /^\s+slices of /.test(l));
+      expect(start).toBeGreaterThan(0);
+      const rest = lines.slice(start + 2);
+      const end = rest.findIndex((l) => !/^\s+\d+\s/.test(l));
+      return { head: lines.slice(start, start + 2), rows: rest.slice(0, end) };
+    };
+    /** The governing method's slices of the same analysis, from --json. */
+    const governingSlices = (file: string) => {
+      const doc = JSON.parse(run(['analyze', file, '--json']).out) as Doc;
+      const c = doc.sections[0].cases[0];
+      return c.results.find((r) => r.method === c.governing?.method)!.slices;
+    };
+
+    test.each([
+      ['examples/cut-rock-hoek-brown.yaml', 'mudstone', 'σ′n'],
+      ['examples/embankment-soft-clay-shansep.yaml', 'soft-clay', 'σ′v'],
+    ])(
+      '%s: each slice with the c, φ′ its base took and the stress it was taken at, as in --json',
+      (file, material, kind) => {
+        const r = run(['analyze', file, '--slice-table']);
+        expect([0, 2]).toContain(r.code);
+        const { head, rows: table } = rows(r.out);
+        expect(head[0]).toMatch(/slices of [a-z-]+ \(x, b in m; W, N′, S in kN\/m; u, c′\/Su/);
+        expect(head[1]).toMatch(
+          /#\s+x\s+b\s+α°\s+W\s+u\s+N′\s+S\s+material\s+c′\/Su\s+φ′°\s+taken at$/,
+        );
+        const slices = governingSlices(file);
+        expect(table).toHaveLength(slices.length);
+        let taken = 0;
+        slices.forEach((s, i) => {
+          const cells = table[i].trim().split(/\s+/);
+          expect(cells[0]).toBe(String(i + 1));
+          expect(cells[1]).toBe(s.x.toFixed(2));
+          expect(cells[8]).toBe(s.material);
+          expect(cells[9]).toBe(s.cohesion.toFixed(1));
+          expect(cells[10]).toBe(s.frictionAngle.toFixed(1));
+          if (s.strengthAt === null) expect(cells[11]).toBe('—');
+          else {
+            expect(cells.slice(11)).toEqual([
+              s.strengthAt.kind === 'normal' ? 'σ′n' : 'σ′v',
+              s.strengthAt.stress.toFixed(1),
+            ]);
+            taken++;
+          }
+        });
+        expect(taken).toBeGreaterThan(0);
+        expect(table.some((l) => l.includes(`${material} `) && l.includes(kind))).toBe(true);
+      },
+    );
+
+    test('no stress column where every strength is fixed; not with --json or --csv', () => {
+      const r = run(['analyze', 'examples/cut-homogeneous.yaml', '--slice-table']);
+      const { head, rows: table } = rows(r.out);
+      expect(head[1]).toMatch(/material\s+c′\/Su\s+φ′°$/);
+      expect(table.length).toBeGreaterThan(5);
+      // without the option the table is as it was
+      expect(run(['analyze', 'examples/cut-homogeneous.yaml']).out).not.toMatch(/slices of /);
+      const both = run(['analyze', 'examples/cut-homogeneous.yaml', '--slice-table', '--json']);
+      expect(both.code).toBe(1);
+      expect(both.err).toMatch(/--slice-table is for the table/);
+    });
+  });
+
   test('exit 0 when every section passes, with a readable table and the caution', () => {
     const { code, out } = run(['analyze', 'examples/cut-surcharge-seismic.yaml']);
     expect(code).toBe(0);

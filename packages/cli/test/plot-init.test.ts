@@ -53,7 +53,7 @@ describe('scarpline plot', () => {
 });
 
 describe('scarpline init', () => {
-  test.each(['cut', 'embankment', 'levee', 'sand-fill'])(
+  test.each(['cut', 'embankment', 'levee', 'sand-fill', 'rock-cut'])(
     '--kind %s writes a commented starter that validates and analyses',
     (kind) => {
       const file = join(dir, `${kind}.yaml`);
@@ -70,6 +70,18 @@ describe('scarpline init', () => {
       expect(a.out).toMatch(/governing: [a-z-]+ FS \d\.\d{3} against required/);
     },
   );
+
+  test('--kind rock-cut: rock in Hoek–Brown, its strengths taken at each base, no warning', () => {
+    const printed = run(['init', '--kind', 'rock-cut', '-']);
+    expect(printed.out).toMatch(/strength: \{ model: hoek-brown, intactStrength: 10 MPa, gsi: 30/);
+    const a = run(['analyze', '-'], printed.out);
+    expect(a.code).toBe(0);
+    expect(a.out).toMatch(/search: [\d,]+ trial circles/);
+    expect(a.out).toMatch(
+      /strengths taken at each slice base's stress, \w+ \(settled in \d+ solutions\): siltstone: c [\d.]+–[\d.]+ kPa, φ [\d.]+–[\d.]+° at σ′n \d+–\d+ kPa/,
+    );
+    expect(a.out).not.toMatch(/warning/);
+  });
 
   test('never over an existing file without --force; - prints; an unknown kind is refused', () => {
     const file = join(dir, 'cut.yaml');

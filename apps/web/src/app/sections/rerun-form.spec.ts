@@ -4,6 +4,7 @@ import { RerunForm } from './rerun-form';
 import type { SectionInput, SectionView } from './section-types';
 import { apiTestProviders, verifyAndReset } from '../testing/api-testing';
 import { sectionWithCases } from '../testing/rerun-case-fixtures';
+import { sectionWithStrengths } from '../testing/strength-fixtures';
 
 function input(): SectionInput {
   return {
@@ -409,6 +410,164 @@ describe('RerunForm', () => {
       expect(el().querySelector('[data-testid="rerun-errors"]')?.textContent).toContain(
         'cases[1].requiredFs',
       );
+    });
+  });
+
+  describe('a section whose strengths vary with stress', () => {
+    beforeEach(async () => {
+      const v = view(4);
+      v.input = sectionWithStrengths();
+      fixture.componentRef.setInput('section', v);
+      await fixture.whenStable();
+    });
+
+    const materialBox = (name: string) =>
+      Array.from(el().querySelectorAll<HTMLElement>('form > fieldset.group')).find((f) =>
+        f.querySelector('legend')?.textContent?.trim().startsWith(`${name} `),
+      )!;
+    const labels = (box: HTMLElement) =>
+      Array.from(box.querySelectorAll('mat-label')).map((l) => l.textContent);
+    const pointInputs = (box: HTMLElement, which: 'σ′n' | 'τ') =>
+      Array.from(
+        box.querySelectorAll<HTMLInputElement>(
+          `[data-testid="strength-points"] input[aria-label$="${which} in kPa"]`,
+        ),
+      );
+
+    it("labels each model's own fields with their units", () => {
+      expect(labels(materialBox('mudstone'))).toEqual([
+        'γ (kN/m³)',
+        'γsat (kN/m³)',
+        'σci (kPa)',
+        'GSI',
+        'mi',
+        'D',
+      ]);
+      expect(labels(materialBox('soft-clay')).slice(2)).toEqual([
+        'S = Su/σ′v',
+        'm (exponent of OCR)',
+        'OCR',
+        'Least Su (kPa)',
+      ]);
+      expect(labels(materialBox('crust-clay'))).toContain('POP (kPa)');
+      expect(labels(materialBox('fill')).slice(2)).toEqual([
+        'c′ (kPa)',
+        'φ′1 (°)',
+        'Break stress σ′n (kPa)',
+        'φ′2 (°)',
+      ]);
+      const rockfill = materialBox('rockfill');
+      expect(pointInputs(rockfill, 'σ′n').map((i) => i.value)).toEqual(['0', '100', '400']);
+      expect(pointInputs(rockfill, 'τ').map((i) => i.value)).toEqual(['0', '95', '300.123']);
+      expect(field('materials.mudstone.strength.intactStrength').value).toBe('15000');
+      // the case that sets its own rockfill offers its points too
+      const loose = el().querySelector('[data-testid="rerun-case"][data-case="loose rockfill"]')!;
+      expect(
+        loose.querySelector('[data-field="cases[1].materials.rockfill.strength.points"]'),
+      ).not.toBeNull();
+    });
+
+    it('marks points whose σ′n does not increase, and sends nothing', async () => {
+      const rockfill = materialBox('rockfill');
+      await type(pointInputs(rockfill, 'σ′n')[2], '50');
+      await submit();
+      expect(
+        rockfill.querySelector('[data-testid="strength-points-error"]')?.textContent,
+      ).toContain('Point 3: σ′n 50 kPa is not above that of the point before (100 kPa)');
+      backend.expectNone('/api/v1/sections/7/runs');
+    });
+
+    it('adds a point at the end and sends the whole list with the other edits', async () => {
+      const rockfill = materialBox('rockfill');
+      (
+        Array.from(rockfill.querySelectorAll('button')).find((b) =>
+          b.textContent?.includes('Add a point at the end'),
+        ) as HTMLButtonElement
+      ).click();
+      await fixture.whenStable();
+      await type(pointInputs(rockfill, 'σ′n')[3], '700');
+      await type(pointInputs(rockfill, 'τ')[3], '480');
+      await type(field('materials.mudstone.strength.gsi'), '42');
+      await type(field('materials.soft-clay.strength.minimum'), '10');
+      await submit();
+      const req = backend.expectOne('/api/v1/sections/7/runs');
+      expect(req.request.body).toEqual({
+        materials: {
+          mudstone: { strength: { gsi: 42 } },
+          'soft-clay': { strength: { minimum: 10 } },
+          rockfill: {
+            strength: {
+              points: [
+                [0, 0],
+                [100, 95],
+                [400, 300.123456789],
+                [700, 480],
+              ],
+            },
+          },
+        },
+      });
+      req.flush(view(5, 'queued'));
+    });
+
+    it("shows the API's error about a point by that point's field", async () => {
+      await type(field('materials.fill.strength.frictionAngleBeyond'), '40');
+      await submit();
+      backend.expectOne('/api/v1/sections/7/runs').flush(
+        {
+          title: 'Invalid input',
+          status: 422,
+          detail: '2 errors in the input.',
+          errors: [
+            {
+              severity: 'error',
+              file: 'edited-section.json',
+              line: 30,
+              column: 11,
+              path: 'materials.rockfill.strength.points[1]',
+              code: 'points-not-increasing',
+              message: 'σn 100 is not above that of the point before',
+            },
+            {
+              severity: 'error',
+              file: 'edited-section.json',
+              line: 44,
+              column: 11,
+              path: 'materials.fill.strength.frictionAngleBeyond',
+              code: 'check-order',
+              message: 'φ′ beyond the break is above φ′ before it',
+            },
+          ],
+        },
+        { status: 422, statusText: 'Unprocessable Entity' },
+      );
+      await fixture.whenStable();
+      const point = field('materials.rockfill.strength.points[1][0]');
+      expect(point.closest('mat-form-field')?.textContent).toContain(
+        'σn 100 is not above that of the point before',
+      );
+      expect(
+        field('materials.fill.strength.frictionAngleBeyond').closest('mat-form-field')?.textContent,
+      ).toContain('φ′ beyond the break is above φ′ before it');
+    });
+
+    it('puts the stored points back', async () => {
+      const rockfill = materialBox('rockfill');
+      await type(pointInputs(rockfill, 'σ′n')[1], '120');
+      (
+        Array.from(el().querySelectorAll('button')).find((b) =>
+          b.textContent?.includes('Put back the stored values'),
+        ) as HTMLButtonElement
+      ).click();
+      await fixture.whenStable();
+      expect(pointInputs(materialBox('rockfill'), 'σ′n').map((i) => i.value)).toEqual([
+        '0',
+        '100',
+        '400',
+      ]);
+      await submit();
+      expect(el().querySelector('.notice')?.textContent).toContain('Nothing has changed');
+      backend.expectNone('/api/v1/sections/7/runs');
     });
   });
 });

@@ -26,10 +26,12 @@ import {
   keepCase,
   mayRemove,
   newPoint,
+  newStressPoint,
   placeErrors,
   removeCase,
   type CaseEdit,
   type Field,
+  type PointsEdit,
   type RerunModel,
 } from './rerun-model';
 import type { Point, SectionView } from './section-types';
@@ -130,16 +132,39 @@ export class RerunForm {
     line.markAsDirty();
   }
 
+  /** Adds a point of a shear–normal strength at the end (a copy of the last, to edit). */
+  protected addStressPoint(p: PointsEdit): void {
+    const last = p.array.controls[p.array.length - 1]?.getRawValue();
+    const at: Point | null =
+      last && typeof last.x === 'number' && typeof last.y === 'number' ? [last.x, last.y] : null;
+    p.array.push(newStressPoint(at));
+    p.array.markAsDirty();
+  }
+
+  protected removeStressPoint(p: PointsEdit, i: number): void {
+    p.array.removeAt(i);
+    p.array.markAsDirty();
+  }
+
   /** Puts the stored values back. */
   protected reset(): void {
     const m = this.model();
-    for (const mat of m.materials) for (const f of mat.fields) f.control.reset(f.shown);
+    const resetPoints = (p: PointsEdit | null) => {
+      if (!p) return;
+      p.array.clear();
+      for (const pt of p.original) p.array.push(newStressPoint(pt));
+    };
+    for (const mat of m.materials) {
+      for (const f of mat.fields) f.control.reset(f.shown);
+      resetPoints(mat.points);
+    }
     m.water.unitWeight.control.reset(m.water.unitWeight.shown);
     m.water.ru?.control.reset(m.water.ru.shown);
     m.requiredFs.control.reset(m.requiredFs.shown);
     for (const c of m.cases) {
       keepCase(c);
       for (const f of c.fields) f.control.reset(f.shown);
+      for (const mat of c.materials) resetPoints(mat.points);
     }
     const line = m.water.line;
     if (line && m.water.originalLine) {

@@ -100,13 +100,27 @@ export interface Field {
   inFileUnit?: boolean;
 }
 
+export type PointGroup = FormGroup<{ x: NumCtl; y: NumCtl }>;
+
+/**
+ * A shear–normal strength's points (σ′n, τ in kPa) as an editable list: the whole list is
+ * sent when it changed (a merge patch replaces a list), a point kept in place keeping its
+ * exact stored value.
+ */
+export interface PointsEdit {
+  /** The path of the list in the section document, as the API's errors name it. */
+  path: string;
+  original: Point[];
+  array: FormArray<PointGroup>;
+}
+
 export interface MaterialEdit {
   name: string;
   model: Strength['model'];
   fields: Field[];
+  /** The points of a shear–normal strength; null for any other model. */
+  points: PointsEdit | null;
 }
-
-export type PointGroup = FormGroup<{ x: NumCtl; y: NumCtl }>;
 
 export interface RerunModel {
   form: FormGroup;
@@ -196,6 +210,42 @@ function pointGroup(p: Point | null): PointGroup {
     x: new FormControl<number | null>(p ? shownCoordinate(p[0]) : null, numberIn('x', 'm', {})),
     y: new FormControl<number | null>(p ? shownCoordinate(p[1]) : null, numberIn('y', 'm', {})),
   });
+}
+
+/** A point of a shear–normal strength: σ′n any number, τ at least 0 (kPa), six digits shown. */
+function stressPointGroup(p: Point | null): PointGroup {
+  return new FormGroup({
+    x: new FormControl<number | null>(p ? shownValue(p[0]) : null, numberIn('σ′n', 'kPa', {})),
+    y: new FormControl<number | null>(
+      p ? shownValue(p[1]) : null,
+      numberIn('τ', 'kPa', { min: 0 }),
+    ),
+  });
+}
+
+/**
+ * At least two points, σ′n increasing from one point to the next (the schema's minItems and
+ * the core's check of a shear–normal strength).
+ */
+function stressPointsValidator(c: AbstractControl): ValidationErrors | null {
+  const rows = (c as FormArray<PointGroup>).controls;
+  if (rows.length < 2)
+    return { points: 'A shear–normal strength needs at least two points (σ′n, τ).' };
+  for (let i = 1; i < rows.length; i++) {
+    const a = rows[i - 1].controls.x.value;
+    const b = rows[i].controls.x.value;
+    if (typeof a === 'number' && typeof b === 'number' && !(b > a)) {
+      return {
+        order: `Point ${i + 1}: σ′n ${b} kPa is not above that of the point before (${a} kPa); give the points with σ′n increasing.`,
+      };
+    }
+  }
+  return null;
+}
+
+/** A new point of a shear–normal strength, after the given one (a copy of it) or empty. */
+export function newStressPoint(after: Point | null): PointGroup {
+  return stressPointGroup(after);
 }
 
 /** At least two points, x never decreasing from one point to the next. */
@@ -300,8 +350,160 @@ function materialEdit(name: string, m: Material, at: string): MaterialEdit {
         ['strength', 'suDatum'],
       ),
     );
+  } else if (s.model === 'hoek-brown') {
+    fields.push(
+      field(
+        'intactStrength',
+        'σci',
+        'kPa',
+        'pressure',
+        `${at}.strength.intactStrength`,
+        s.intactStrength,
+        numberIn('σci', 'kPa', { min: 0, minExclusive: true }),
+        ['strength', 'intactStrength'],
+      ),
+      field(
+        'gsi',
+        'GSI',
+        '',
+        null,
+        `${at}.strength.gsi`,
+        s.gsi,
+        numberIn('GSI', '', { min: 0, minExclusive: true, max: 100 }),
+        ['strength', 'gsi'],
+      ),
+      field(
+        'mi',
+        'mi',
+        '',
+        null,
+        `${at}.strength.mi`,
+        s.mi,
+        numberIn('mi', '', { min: 0, minExclusive: true, max: 50 }),
+        ['strength', 'mi'],
+      ),
+      field(
+        'disturbance',
+        'D',
+        '',
+        null,
+        `${at}.strength.disturbance`,
+        s.disturbance,
+        numberIn('D', '', { min: 0, max: 1 }),
+        ['strength', 'disturbance'],
+      ),
+    );
+  } else if (s.model === 'undrained-ratio') {
+    fields.push(
+      field(
+        'ratio',
+        'S = Su/σ′v',
+        '',
+        null,
+        `${at}.strength.ratio`,
+        s.ratio,
+        numberIn('S', '', { min: 0, minExclusive: true }),
+        ['strength', 'ratio'],
+      ),
+      field(
+        'exponent',
+        'm (exponent of OCR)',
+        '',
+        null,
+        `${at}.strength.exponent`,
+        s.exponent,
+        numberIn('m', '', { min: 0, max: 1.5 }),
+        ['strength', 'exponent'],
+      ),
+      // OCR or POP, as the section gives it (the two are never given together)
+      s.pop === null
+        ? field(
+            'ocr',
+            'OCR',
+            '',
+            null,
+            `${at}.strength.ocr`,
+            s.ocr,
+            numberIn('OCR', '', { min: 1 }),
+            ['strength', 'ocr'],
+          )
+        : field(
+            'pop',
+            'POP',
+            'kPa',
+            'pressure',
+            `${at}.strength.pop`,
+            s.pop,
+            numberIn('POP', 'kPa', { min: 0 }),
+            ['strength', 'pop'],
+          ),
+      field(
+        'minimum',
+        'Least Su',
+        'kPa',
+        'pressure',
+        `${at}.strength.minimum`,
+        s.minimum,
+        numberIn('The least Su', 'kPa', { min: 0 }),
+        ['strength', 'minimum'],
+      ),
+    );
+  } else if (s.model === 'bilinear') {
+    fields.push(
+      field(
+        'cohesion',
+        'c′',
+        'kPa',
+        'pressure',
+        `${at}.strength.cohesion`,
+        s.cohesion,
+        numberIn('c′', 'kPa', { min: 0 }),
+        ['strength', 'cohesion'],
+      ),
+      field(
+        'frictionAngle',
+        'φ′1',
+        '°',
+        null,
+        `${at}.strength.frictionAngle`,
+        s.frictionAngle,
+        numberIn('φ′1', '°', { min: 0, max: 90, maxExclusive: true }),
+        ['strength', 'frictionAngle'],
+      ),
+      field(
+        'breakStress',
+        'Break stress σ′n',
+        'kPa',
+        'pressure',
+        `${at}.strength.breakStress`,
+        s.breakStress,
+        numberIn('The break stress', 'kPa', { min: 0, minExclusive: true }),
+        ['strength', 'breakStress'],
+      ),
+      field(
+        'frictionAngleBeyond',
+        'φ′2',
+        '°',
+        null,
+        `${at}.strength.frictionAngleBeyond`,
+        s.frictionAngleBeyond,
+        numberIn('φ′2', '°', { min: 0, max: 90, maxExclusive: true }),
+        ['strength', 'frictionAngleBeyond'],
+      ),
+    );
   }
-  return { name, model: s.model, fields };
+  const points: PointsEdit | null =
+    s.model === 'shear-normal'
+      ? {
+          path: `${at}.strength.points`,
+          original: s.points.map((p) => [p[0], p[1]] as Point),
+          array: new FormArray<PointGroup>(
+            s.points.map((p) => stressPointGroup(p)),
+            stressPointsValidator,
+          ),
+        }
+      : null;
+  return { name, model: s.model, fields, points };
 }
 
 /** The controls for a stored section (its values are SI). */
@@ -367,9 +569,10 @@ export function buildModel(input: SectionInput): RerunModel {
 
 /** A material's controls as a group (the datum checked again when the rate changes). */
 function materialGroup(m: MaterialEdit): FormGroup {
-  const group = new FormGroup<Record<string, NumCtl>>(
+  const group = new FormGroup<Record<string, AbstractControl>>(
     Object.fromEntries(m.fields.map((f) => [f.key, f.control])),
   );
+  if (m.points) group.addControl('points', m.points.array);
   const rate = group.controls['suRate'];
   const datum = group.controls['suDatum'];
   if (rate && datum) rate.valueChanges.subscribe(() => datum.updateValueAndValidity());
@@ -541,15 +744,16 @@ function put(target: Record<string, unknown>, at: string[], value: unknown): voi
 }
 
 /**
- * The points of the line as edited, or null when they are as shown. A point left as it was
- * shown keeps its exact stored value.
+ * The points of a list as edited, or null when they are as shown (`show` rounds a stored value
+ * as its field shows it). A point left as it was shown keeps its exact stored value.
  */
-function editedLine(model: RerunModel): Point[] | null {
-  const line = model.water.line;
-  const before = model.water.originalLine;
-  if (!line || !before) return null;
-  const now = line.controls.map((g) => [g.controls.x.value, g.controls.y.value] as Point);
-  const shown = before.map((p) => [shownCoordinate(p[0]), shownCoordinate(p[1])] as Point);
+function editedPoints(
+  array: FormArray<PointGroup>,
+  before: Point[],
+  show: (v: number) => number,
+): Point[] | null {
+  const now = array.controls.map((g) => [g.controls.x.value, g.controls.y.value] as Point);
+  const shown = before.map((p) => [show(p[0]), show(p[1])] as Point);
   const same =
     now.length === shown.length &&
     now.every((p, i) => p[0] === shown[i][0] && p[1] === shown[i][1]);
@@ -558,6 +762,28 @@ function editedLine(model: RerunModel): Point[] | null {
   return now.map((p, i) =>
     shown[i] && p[0] === shown[i][0] && p[1] === shown[i][1] ? before[i] : p,
   );
+}
+
+/** The points of the piezometric line as edited, or null when they are as shown. */
+function editedLine(model: RerunModel): Point[] | null {
+  const line = model.water.line;
+  const before = model.water.originalLine;
+  if (!line || !before) return null;
+  return editedPoints(line, before, shownCoordinate);
+}
+
+/**
+ * The merge patch of one material: its changed fields, and a shear–normal strength's points
+ * whole when any changed (a merge patch replaces a list).
+ */
+function materialPatch(m: MaterialEdit): Record<string, unknown> {
+  const mp: Record<string, unknown> = {};
+  for (const f of m.fields) if (changed(f)) put(mp, f.at, f.control.value);
+  if (m.points) {
+    const pts = editedPoints(m.points.array, m.points.original, (v) => shownValue(v) ?? v);
+    if (pts) put(mp, ['strength', 'points'], pts);
+  }
+  return mp;
 }
 
 /**
@@ -569,8 +795,7 @@ export function buildPatch(model: RerunModel): SectionPatch {
   const patch: SectionPatch = {};
   const materials: Record<string, unknown> = {};
   for (const m of model.materials) {
-    const mp: Record<string, unknown> = {};
-    for (const f of m.fields) if (changed(f)) put(mp, f.at, f.control.value);
+    const mp = materialPatch(m);
     if (Object.keys(mp).length) materials[m.name] = mp;
   }
   if (Object.keys(materials).length) patch['materials'] = materials;
@@ -607,29 +832,38 @@ function casePatch(c: CaseEdit): Record<string, unknown> {
   for (const f of c.earthquake ?? []) if (changed(f)) put(cp, f.at, f.control.value);
   const materials: Record<string, unknown> = {};
   for (const m of c.materials) {
-    const mp: Record<string, unknown> = {};
-    for (const f of m.fields) if (changed(f)) put(mp, f.at, f.control.value);
+    const mp = materialPatch(m);
     if (Object.keys(mp).length) materials[m.name] = mp;
   }
   if (Object.keys(materials).length) cp['materials'] = materials;
   return cp;
 }
 
+/** A list of points and each point's two values, with their paths: `x[1]`, `x[1][0]` … */
+function pointTargets(
+  path: string,
+  array: FormArray<PointGroup>,
+): { path: string; control: AbstractControl }[] {
+  const out: { path: string; control: AbstractControl }[] = [{ path, control: array }];
+  array.controls.forEach((g, i) => {
+    out.push({ path: `${path}[${i}]`, control: g.controls.x });
+    out.push({ path: `${path}[${i}][0]`, control: g.controls.x });
+    out.push({ path: `${path}[${i}][1]`, control: g.controls.y });
+  });
+  return out;
+}
+
 /** Every control of the model with the path the API's errors use for it. */
 function targets(model: RerunModel): { path: string; control: AbstractControl }[] {
   const out: { path: string; control: AbstractControl }[] = [];
-  for (const m of model.materials) for (const f of m.fields) out.push(f);
+  for (const m of model.materials) {
+    for (const f of m.fields) out.push(f);
+    if (m.points) out.push(...pointTargets(m.points.path, m.points.array));
+  }
   out.push(model.water.unitWeight, model.requiredFs);
   if (model.water.ru) out.push(model.water.ru);
   const line = model.water.line;
-  if (line) {
-    out.push({ path: 'water.piezometric', control: line });
-    line.controls.forEach((g, i) => {
-      out.push({ path: `water.piezometric[${i}]`, control: g.controls.x });
-      out.push({ path: `water.piezometric[${i}][0]`, control: g.controls.x });
-      out.push({ path: `water.piezometric[${i}][1]`, control: g.controls.y });
-    });
-  }
+  if (line) out.push(...pointTargets('water.piezometric', line));
   // requiredFs is sent at the top but checked as part of the analysis
   out.push({ path: 'requiredFs', control: model.requiredFs.control });
   // the API locates a case's errors in the list as edited: without the cases removed
@@ -637,6 +871,10 @@ function targets(model: RerunModel): { path: string; control: AbstractControl }[
     const from = `cases[${c.index}]`;
     for (const f of c.fields) {
       out.push({ path: `cases[${k}]${f.path.slice(from.length)}`, control: f.control });
+    }
+    for (const m of c.materials) {
+      if (m.points)
+        out.push(...pointTargets(`cases[${k}]${m.points.path.slice(from.length)}`, m.points.array));
     }
   });
   return out;

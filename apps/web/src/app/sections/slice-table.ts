@@ -4,11 +4,18 @@ import { MatSelectModule } from '@angular/material/select';
 import { fixed, surfaceText, unitOf } from './format';
 import { methodName } from '../shared/method-names';
 import { DRAWDOWN_STAGE_WORDS } from './drawdown-report';
-import type { DrawdownReport, MethodId, MethodReport, UnitSystem } from './section-types';
+import type {
+  DrawdownReport,
+  MethodId,
+  MethodReport,
+  SliceReport,
+  UnitSystem,
+} from './section-types';
 
 /**
  * The slices of one method (the governing one unless another is picked): every quantity the
- * result holds for each slice, in the section's units.
+ * result holds for each slice, in the section's units, with the strength each base took and,
+ * for a strength that varies with stress, the stress it was taken at.
  */
 @Component({
   selector: 'sl-slice-table',
@@ -85,6 +92,21 @@ import type { DrawdownReport, MethodId, MethodReport, UnitSystem } from './secti
                 line of thrust y<span class="u">{{ u().length }}</span>
               </th>
               <th scope="col">base material</th>
+              @if (strengthColumns(); as sc) {
+                @if (sc.c) {
+                  <th scope="col" class="sl-num">
+                    strength c′ or Su<span class="u">{{ u().pressure }}</span>
+                  </th>
+                }
+                @if (sc.phi) {
+                  <th scope="col" class="sl-num">φ′<span class="u">°</span></th>
+                }
+                @if (sc.at) {
+                  <th scope="col" class="sl-num" data-testid="strength-at">
+                    taken at {{ sc.at }}<span class="u">{{ u().pressure }}</span>
+                  </th>
+                }
+              }
               @if (stages(); as st) {
                 <th scope="col" class="sl-num">
                   strength<span class="u">{{ u().pressure }}</span>
@@ -113,6 +135,22 @@ import type { DrawdownReport, MethodId, MethodReport, UnitSystem } from './secti
                 </td>
                 <td class="sl-num">{{ f(s.interslice.thrust) }}</td>
                 <td>{{ s.material }}</td>
+                @if (strengthColumns(); as sc) {
+                  @if (sc.c) {
+                    <td class="sl-num">{{ f(s.cohesion) }}</td>
+                  }
+                  @if (sc.phi) {
+                    <td class="sl-num">{{ f(s.frictionAngle, 1) }}</td>
+                  }
+                  @if (sc.at) {
+                    <td class="sl-num" [attr.title]="stressWords(s)">
+                      @if (sc.mixed && s.strengthAt) {
+                        <span class="k">{{ s.strengthAt.kind === 'normal' ? 'σ′n' : 'σ′v' }}</span>
+                      }
+                      {{ f(s.strengthAt?.stress) }}
+                    </td>
+                  }
+                }
                 @if (stages(); as st) {
                   <td class="sl-num">{{ f(st[$index].strength) }}</td>
                   <td [attr.data-stage]="st[$index].stage">{{ stageWords[st[$index].stage] }}</td>
@@ -136,6 +174,14 @@ import type { DrawdownReport, MethodId, MethodReport, UnitSystem } from './secti
         N′: effective normal force on the base; S: mobilised shear on the base; E, X: interslice
         normal and shear force on the slice's right side (— where the method does not compute it);
         line of thrust: height where E acts there (— where undefined). A negative N′ is marked.
+        @if (strengthColumns()?.c) {
+          c′ or Su, φ′: the strength the base took (φ′ = 0 for Su).
+        }
+        @if (strengthColumns()?.at) {
+          Taken at: for a strength that varies with stress, the effective normal stress σ′n on the
+          base or, for Su from σ′v, the vertical effective stress σ′v above it (— for a fixed
+          strength).
+        }
       </p>
     }
   `,
@@ -200,6 +246,10 @@ import type { DrawdownReport, MethodId, MethodReport, UnitSystem } from './secti
       content: ' (tension)';
       font-weight: 400;
     }
+    .k {
+      color: var(--sl-muted);
+      margin-right: 4px;
+    }
     .legend {
       font-size: 12.5px;
       color: var(--sl-muted);
@@ -242,6 +292,30 @@ export class SliceTable {
     if (d === null || r === null || r.method !== this.governing()) return null;
     return d.length === r.slices.length ? d : null;
   });
+  /**
+   * Which strength columns the shown slices fill: c (c′ or Su) and φ′ where any slice has
+   * them (results of earlier versions have neither), and the stress a strength that varies
+   * with stress was taken at where any slice has one (σ′n, σ′v, or both kinds in one surface);
+   * null when none.
+   */
+  protected readonly strengthColumns = computed(() => {
+    const slices = this.shown()?.slices ?? [];
+    const has = (v: number | null | undefined) => typeof v === 'number' && Number.isFinite(v);
+    const c = slices.some((s) => has(s.cohesion));
+    const phi = slices.some((s) => has(s.frictionAngle));
+    const kinds = new Set(
+      slices.filter((s) => s.strengthAt && has(s.strengthAt.stress)).map((s) => s.strengthAt!.kind),
+    );
+    const at =
+      kinds.size === 0
+        ? null
+        : kinds.size === 2
+          ? 'σ′n or σ′v'
+          : kinds.has('normal')
+            ? 'σ′n'
+            : 'σ′v';
+    return c || phi || at ? { c, phi, at, mixed: kinds.size === 2 } : null;
+  });
   protected readonly surface = computed(() =>
     surfaceText(this.shown()?.surface ?? null, this.units()),
   );
@@ -270,7 +344,17 @@ export class SliceTable {
     return `${this.name(r.method)} does not compute ${what}${assumes}: shown as —.`;
   });
 
-  protected f(v: number | null, digits = 2): string {
+  /** The stress a slice's strength was taken at, in words (a cell's title). */
+  protected stressWords(s: SliceReport): string | null {
+    const at = s.strengthAt;
+    if (!at) return 'a fixed strength';
+    const p = this.u().pressure;
+    return at.kind === 'normal'
+      ? `at the effective normal stress σ′n = ${this.f(at.stress)} ${p} on the base`
+      : `Su at the vertical effective stress σ′v = ${this.f(at.stress)} ${p} above the base`;
+  }
+
+  protected f(v: number | null | undefined, digits = 2): string {
     return fixed(v, digits);
   }
 }
