@@ -17,6 +17,7 @@ export const EDITABLE = [
   'strata',
   'water',
   'loads',
+  'reinforcement',
   'seismic',
   'crack',
   'analysis',

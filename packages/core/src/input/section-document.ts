@@ -8,6 +8,10 @@ import type {
   RawWater,
 } from '../model/raw-section';
 import type { Analysis, DesignCase, Material, Section, UnitSystem, Water } from '../model/types';
+import {
+  reinforcementDocument,
+  requiredReinforcementDocument,
+} from '../model/reinforcement-document';
 import { fromSi } from '../model/units';
 import { isRigid, strengthDocument } from '../strength/registry';
 import { parseSections } from './parse-sections';
@@ -48,6 +52,9 @@ export function sectionDocument(s: Section): RawSection {
     strata: s.strata.map((st, i) => (i === 0 ? { material: st.material } : st)),
     water,
     loads: s.loads,
+    ...(s.reinforcement.length > 0
+      ? { reinforcement: s.reinforcement.map(reinforcementDocument) }
+      : {}),
     seismic: s.seismic,
     ...(s.crack ? { crack: s.crack } : {}),
     analysis: defined({
@@ -92,6 +99,9 @@ function analysisDocument(a: Analysis): Omit<RawAnalysis, 'case' | 'requiredFs'>
     interslice: a.interslice,
     trialBand: a.trialBand,
     searchEachMethod: a.searchEachMethod,
+    requiredReinforcement: a.requiredReinforcement
+      ? requiredReinforcementDocument(a.requiredReinforcement)
+      : null,
   });
 }
 
@@ -123,6 +133,8 @@ function caseDocument(c: DesignCase, s: Section): RawCase {
   }
   if (Object.keys(materials).length > 0) doc.materials = materials;
   if (!same(c.loads, s.loads)) doc.loads = c.loads;
+  if (!same(c.reinforcement, s.reinforcement))
+    doc.reinforcement = c.reinforcement.map(reinforcementDocument);
   if (!same(c.seismic, s.seismic)) doc.seismic = c.seismic;
   if (c.crack && !same(c.crack, s.crack)) doc.crack = c.crack;
   const own = analysisDocument(s.analysis) as Record<string, unknown>;
