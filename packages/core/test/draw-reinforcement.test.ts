@@ -12,7 +12,7 @@ import {
   type Section,
 } from '@scarpline/core';
 import { REINFORCEMENT, REINFORCEMENT_TEXT } from '../src/draw/palette';
-import { limitWords } from '../src/draw/reinforcement-shapes';
+import { limitWords } from '../src/reinforcement/limit-words';
 import type { SectionResult } from '../src/result';
 
 // Invented demo data (the Wendlecombe corridor): a nailed cut with an anchor, a pile row at

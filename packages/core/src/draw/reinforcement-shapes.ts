@@ -1,10 +1,7 @@
 import { yAt } from '../geometry/y-at';
 import type { Point, Polyline } from '../model/types';
-import type {
-  CrossingReport,
-  ReinforcementMode,
-  ReinforcementReport,
-} from '../reinforcement/types';
+import { limitWords } from '../reinforcement/limit-words';
+import type { CrossingReport, ReinforcementReport } from '../reinforcement/types';
 import { boxIsClear, textWidth, type Box, type Obstacles } from './free-place';
 import type { LegendItem } from './legend';
 import { REINFORCEMENT, REINFORCEMENT_TEXT } from './palette';
@@ -15,24 +12,6 @@ import { toPixels, type Scales } from './types';
 const ARROW = 30; // pixels, whatever the force: the label gives it
 const FONT = 10.5;
 const fmt = (v: number) => String(Number(v.toPrecision(3)));
-
-/** What limits a reinforcement force, in words (a pile's strength is its shear resistance). */
-export function limitWords(mode: ReinforcementMode, type: ReinforcementReport['type']): string {
-  switch (mode) {
-    case 'strength':
-      return type === 'pile'
-        ? 'shear resistance'
-        : type === 'geosynthetic'
-          ? 'tensile strength'
-          : 'bar strength';
-    case 'pullout':
-      return 'pullout behind the surface';
-    case 'front':
-      return 'pullout in front';
-    case 'facing':
-      return 'facing and bond in front';
-  }
-}
 
 /** The style of each kind of element: a line shape of its own, in the one reinforcement colour. */
 const STYLE = {
