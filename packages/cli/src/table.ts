@@ -2,6 +2,7 @@ import {
   distinctWarnings,
   fsText,
   howFoundWords,
+  limitWords,
   UNIT_LABELS,
   VERDICT_WORDS,
   type MethodReport,
@@ -111,19 +112,12 @@ export function strengthWords(m: MethodReport, units: UnitSystem): string | null
   return `strengths taken at each slice base's stress, ${m.method}${settled}: ${parts.join('; ')}`;
 }
 
-const MODE_WORDS: Record<string, string> = {
-  strength: 'its own strength',
-  pullout: 'pullout behind the surface',
-  front: 'pullout in front',
-  facing: 'its facing',
-};
-
 /**
  * A method's reinforcement in words, one line an element: its force in the equilibrium where
  * the surface crosses it, what limits it, and whether it is divided by F; or that the surface
  * does not cross it (or only pushes it).
  *
- * @example reinforcementWords(bishop, 'si') // → ['reinforcement, bishop (kN/m):', '  geosynthetic "basal geotextile" 159.0 at x = 5.30 of 200.0 (its own strength), divided by F']
+ * @example reinforcementWords(bishop, 'si') // → ['reinforcement, bishop (kN/m):', '  geosynthetic "basal geotextile" 159.0 at x = 5.30 of 200.0 (tensile strength), divided by F']
  */
 export function reinforcementWords(m: MethodReport, units: UnitSystem): string[] {
   if (!m.reinforcement || m.reinforcement.length === 0 || !m.converged) return [];
@@ -141,7 +135,7 @@ export function reinforcementWords(m: MethodReport, units: UnitSystem): string[]
     const at = counted
       .map(
         (c) =>
-          `${c.force.toFixed(1)} at x = ${c.at[0].toFixed(2)} of ${c.available.toFixed(1)} (${MODE_WORDS[c.mode] ?? c.mode})`,
+          `${c.force.toFixed(1)} at x = ${c.at[0].toFixed(2)} of ${c.available.toFixed(1)} (${limitWords(c.mode, e.type)})`,
       )
       .join('; ');
     lines.push(`  ${name} ${at}, ${e.dividedByF ? 'divided by F' : 'at full value'}`);

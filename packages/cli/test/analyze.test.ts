@@ -146,7 +146,7 @@ describe('scarpline analyze', () => {
     const m = c.results.find((r) => r.method === c.governing.method)!;
     const x = m.reinforcement[0].crossings[0];
     expect(table).toContain(
-      `geosynthetic "basal geotextile" ${x.force.toFixed(1)} at x = ${x.at[0].toFixed(2)} of ${x.available.toFixed(1)} (its own strength), divided by F`,
+      `geosynthetic "basal geotextile" ${x.force.toFixed(1)} at x = ${x.at[0].toFixed(2)} of ${x.available.toFixed(1)} (tensile strength), divided by F`,
     );
     expect(table).toContain(
       `required reinforcement: a further uniform force of ${c.requiredReinforcement.value.toFixed(1)} kN/m at 11.00 m`,

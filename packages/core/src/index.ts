@@ -98,6 +98,7 @@ export { defaultPivot } from './methods/pivot';
 export type { SliceMethodResult, MethodWarning } from './methods/types';
 export { analyzeSection, SOLVER_VERSION } from './analyze';
 export { howFoundWords } from './search-words';
+export { limitWords } from './reinforcement/limit-words';
 export * from './caution';
 // --- rapid drawdown (Duncan, Wright & Wong 1990)
 export { analyzeDrawdown, type DrawdownAnalysis } from './drawdown/analyze-drawdown';

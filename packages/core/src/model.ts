@@ -4,6 +4,10 @@
  */
 export * from './model/types';
 export type * from './model/raw-section';
+export {
+  reinforcementDocument,
+  requiredReinforcementDocument,
+} from './model/reinforcement-document';
 export { caseKindOf, caseSection, designCases, sectionOfCase } from './model/design-cases';
 export {
   RENAMED_METHODS,

@@ -14,6 +14,7 @@ export type {
 } from './reinforcement/types';
 
 export { howFoundWords } from './search-words';
+export { limitWords } from './reinforcement/limit-words';
 export { caseOf, caseView } from './case-view';
 
 /** One slice as reported (section coordinates and units; forces per unit run). */

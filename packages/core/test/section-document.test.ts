@@ -100,3 +100,48 @@ cases:
     });
   });
 });
+
+describe('a reinforced section', () => {
+  // Invented demo data (Wendlecombe corridor); every kind of element, its defaults left out,
+  // a case with its own reinforcement and the required reinforcement to find.
+  const text = `
+format: scarpline/1
+id: wcb-1240-N
+title: nailed cut
+units: us
+ground: [[0, 200], [60, 200], [95, 235], [230, 242]]
+materials:
+  till: { unitWeight: 128, strength: { model: mohr-coulomb, cohesion: 120, frictionAngle: 29 } }
+strata: [{ material: till }]
+reinforcement:
+  - { type: nail, name: nail 1, head: [66, 206], inclination: 15, length: 33, spacing: 5, tensileCapacity: 33000, bond: 2000 }
+  - { type: anchor, name: anchor A, head: [86, 226], inclination: 20, freeLength: 20, bondLength: 16, spacing: 6.5, capacity: 67000 }
+  - { type: geosynthetic, name: crest grid, elevation: 238, from: 130, to: 200, strength: 2700, interaction: 0.8 }
+  - { type: geosynthetic, name: bent grid, points: [[120, 236], [160, 237.5]], strength: 2700, interaction: 0.7, coverage: 0.8, dividedByF: false }
+  - { type: pile, name: toe piles, x: 52, bottom: 180, shear: 3400 }
+analysis:
+  methods: [bishop]
+  surface: { type: circle, center: [60, 275], radius: 75 }
+  requiredFs: 1.5
+  requiredReinforcement: { level: 204, product: { strength: 2700, interaction: 0.8 }, spacing: 2 }
+cases:
+  - { name: long term, kind: long-term }
+  - name: no anchor
+    kind: long-term
+    reinforcement:
+      - { type: pile, name: toe piles, x: 52, top: 199, bottom: 180, shear: 3400 }
+`;
+  const parsed = parseSections(text, 'reinforced.yaml');
+
+  test('its elements, its cases and the required reinforcement read back the same', () => {
+    expect(parsed.messages.filter((m) => m.severity === 'error')).toEqual([]);
+    const section = parsed.sections[0];
+    expect(section.reinforcement).toHaveLength(5);
+    const doc = sectionDocument(section);
+    expect(doc.reinforcement).toHaveLength(5);
+    expect(doc.cases![1].reinforcement).toHaveLength(1);
+    const back = readSectionDocument(doc, 'edited-section.json', section.units);
+    expect(back.messages.filter((m) => m.severity === 'error')).toEqual([]);
+    expect(back.section).toEqual(section);
+  });
+});

@@ -9,8 +9,22 @@ import { fraction, fsMapDomain, fsMapShape } from './fs-map-shape';
 import type { Obstacles } from './free-place';
 import { legend, legendHeight, type LegendItem } from './legend';
 import { loadShapes } from './load-shapes';
-import { ACCENT, fsColor, INK, MUTED, RIGID_FILL, WATER_FILL, WATER_LINE } from './palette';
+import {
+  ACCENT,
+  fsColor,
+  INK,
+  MUTED,
+  REINFORCEMENT,
+  RIGID_FILL,
+  WATER_FILL,
+  WATER_LINE,
+} from './palette';
 import { pondedPolygons } from './ponded-polygons';
+import {
+  reinforcementLegend,
+  reinforcementPoints,
+  reinforcementShapes,
+} from './reinforcement-shapes';
 import { sectionInUnits } from './section-in-units';
 import { sliceShapes } from './slice-shapes';
 import { strataFills, strataLabels, strataShapes } from './strata-shapes';
@@ -57,6 +71,8 @@ function bounds(model: ReturnType<typeof sectionInUnits>, r: DrawableResult): Bo
   const within = (p: Point) => p[0] >= x0 - 0.3 * span && p[0] <= x1 + 0.3 * span;
   for (const s of model.strata) pts.push(...s.top);
   if (model.water.line) pts.push(...model.water.line.filter((p) => p[0] >= x0 && p[0] <= x1));
+  for (const e of model.reinforcement)
+    pts.push(...reinforcementPoints(e, model.ground).filter(within));
   for (const m of r.results) {
     if (!m.converged) continue;
     if (m.base) pts.push(...m.base);
@@ -80,7 +96,9 @@ function bounds(model: ReturnType<typeof sectionInUnits>, r: DrawableResult): Bo
 
 /**
  * The cross-section drawn as an SVG document: the strata coloured by material (a rigid base
- * hatched), the ground, the piezometric line and ponded water, the loads as arrows, the FS map
+ * hatched), the ground, the piezometric line and ponded water, the loads as arrows, the
+ * reinforcing elements with the governing method's reinforcement forces where its surface
+ * crosses them (reinforcement-shapes.ts), the FS map
  * of the search as filled contours with its colour bar (when the result carries a search), the
  * trial surfaces within the search's band of the least FS, the governing method's slices,
  * every method's critical surface (the governing one in the accent colour, its FS in a callout
@@ -146,6 +164,10 @@ export function drawSection(
       style: { stroke: INK, 'stroke-width': 1.3, 'marker-end': `url(#${ids}-arrow)` },
       label: 'loads (per unit run)',
     });
+  const forces = (governing?.reinforcement ?? []).some((e) =>
+    e.crossings.some((c) => c.counted && c.force > 0),
+  );
+  items.push(...reinforcementLegend(model, forces, governing?.method ?? null, ids));
   if (section.seismic.kh || section.seismic.kv)
     items.push({
       swatch: 'none',
@@ -234,6 +256,8 @@ export function drawSection(
       ? fsCallout(governingGroup, result.governing.method, frame, obstacles)
       : { svg: '', box: null };
   if (callout.box) obstacles.boxes.push(callout.box);
+  const reinforced = reinforcementShapes(model, governing?.reinforcement, frame, obstacles, ids);
+  obstacles.boxes.push(...reinforced.boxes);
   const labels = strataLabels(model, frame, yBottom, obstacles);
   const content = [
     strataShapes(model, frame, yBottom, ids),
@@ -252,8 +276,10 @@ export function drawSection(
       radii: options.radii === true,
       ...(domain ? { fill: (fs: number) => fsColor(fraction(fs, domain)) } : {}),
     }),
+    reinforced.svg,
     loadShapes(model, frame, ids),
     labels.svg,
+    reinforced.labels,
     callout.svg,
   ];
   if (model.offset !== null && model.offset >= b.xMin && model.offset <= b.xMax) {
@@ -360,6 +386,19 @@ export function drawSection(
         orient: 'auto-start-reverse',
       },
       [svgElement('path', { d: 'M0 0L10 5L0 10Z', fill: INK })],
+    ),
+    svgElement(
+      'marker',
+      {
+        id: `${ids}-rarrow`,
+        viewBox: '0 0 10 10',
+        refX: 9,
+        refY: 5,
+        markerWidth: 6,
+        markerHeight: 6,
+        orient: 'auto-start-reverse',
+      },
+      [svgElement('path', { d: 'M0 0L10 5L0 10Z', fill: REINFORCEMENT })],
     ),
     svgElement('clipPath', { id: plotClip }, [
       svgElement('rect', { x: frame.left, y: frame.top, width: frame.width, height: frame.height }),

@@ -17,6 +17,14 @@ export const GRID_LINE = '#e3e6ea';
 export const WATER_LINE = '#1f6fb2';
 export const WATER_FILL = '#a9d0ef';
 export const RIGID_FILL = '#a3a6aa';
+/**
+ * Reinforcing elements and their forces: a rust of our own (steel and grids), apart from the
+ * earth ramps, the water's blue and the accent; each kind of element also has its own line
+ * shape, so that colour is never the only cue.
+ */
+export const REINFORCEMENT = '#9c4a12';
+/** Words about reinforcement forces, dark enough to read on white (WCAG AA). */
+export const REINFORCEMENT_TEXT = '#7a360a';
 /** Points below the required FS on a chainage plot (shape differs too: never colour alone). */
 export const BELOW_REQUIRED = '#a3302a';
 /** Points that meet the required FS on a chainage plot. */

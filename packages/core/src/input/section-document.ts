@@ -4,21 +4,14 @@ import type {
   RawCase,
   RawMaterial,
   RawMaterialOverride,
-  RawReinforcement,
-  RawRequiredReinforcement,
   RawSection,
   RawWater,
 } from '../model/raw-section';
-import type {
-  Analysis,
-  DesignCase,
-  Material,
-  Reinforcement,
-  RequiredReinforcementSpec,
-  Section,
-  UnitSystem,
-  Water,
-} from '../model/types';
+import type { Analysis, DesignCase, Material, Section, UnitSystem, Water } from '../model/types';
+import {
+  reinforcementDocument,
+  requiredReinforcementDocument,
+} from '../model/reinforcement-document';
 import { fromSi } from '../model/units';
 import { isRigid, strengthDocument } from '../strength/registry';
 import { parseSections } from './parse-sections';
@@ -60,7 +53,7 @@ export function sectionDocument(s: Section): RawSection {
     water,
     loads: s.loads,
     ...(s.reinforcement.length > 0
-      ? { reinforcement: reinforcementDocument(s.reinforcement) }
+      ? { reinforcement: s.reinforcement.map(reinforcementDocument) }
       : {}),
     seismic: s.seismic,
     ...(s.crack ? { crack: s.crack } : {}),
@@ -107,31 +100,9 @@ function analysisDocument(a: Analysis): Omit<RawAnalysis, 'case' | 'requiredFs'>
     trialBand: a.trialBand,
     searchEachMethod: a.searchEachMethod,
     requiredReinforcement: a.requiredReinforcement
-      ? requiredDocument(a.requiredReinforcement)
-      : undefined,
+      ? requiredReinforcementDocument(a.requiredReinforcement)
+      : null,
   });
-}
-
-/** The reinforcement as a file gives it: a geosynthetic by its points, every setting written. */
-function reinforcementDocument(list: readonly Reinforcement[]): RawReinforcement[] {
-  return list.map((r): RawReinforcement => {
-    if (r.type !== 'geosynthetic') return { ...r } as RawReinforcement;
-    const { line, ...rest } = r;
-    return { ...rest, points: line };
-  });
-}
-
-/** The required reinforcement as a file gives it: the level and extent of its line, its product. */
-function requiredDocument(r: RequiredReinforcementSpec): RawRequiredReinforcement {
-  const [[from, level], [to]] = [r.line[0], r.line[r.line.length - 1]];
-  const base = { level, from, to, dividedByF: r.dividedByF };
-  if (r.kind === 'force') return base;
-  return {
-    ...base,
-    product: { strength: r.strength, interaction: r.interaction, coverage: r.coverage },
-    spacing: r.spacing,
-    maxLayers: r.maxLayers,
-  };
 }
 
 const same = (a: unknown, b: unknown): boolean => JSON.stringify(a) === JSON.stringify(b);
@@ -163,7 +134,7 @@ function caseDocument(c: DesignCase, s: Section): RawCase {
   if (Object.keys(materials).length > 0) doc.materials = materials;
   if (!same(c.loads, s.loads)) doc.loads = c.loads;
   if (!same(c.reinforcement, s.reinforcement))
-    doc.reinforcement = reinforcementDocument(c.reinforcement);
+    doc.reinforcement = c.reinforcement.map(reinforcementDocument);
   if (!same(c.seismic, s.seismic)) doc.seismic = c.seismic;
   if (c.crack && !same(c.crack, s.crack)) doc.crack = c.crack;
   const own = analysisDocument(s.analysis) as Record<string, unknown>;

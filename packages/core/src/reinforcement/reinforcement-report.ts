@@ -1,16 +1,7 @@
 import type { Reinforcement } from '../model/types';
 import type { Warning } from '../result';
-import type { Crossing, CrossingReport, ReinforcementMode, ReinforcementReport } from './types';
-
-const MODE_WORDS: Record<ReinforcementMode, string> = {
-  strength: 'its own strength',
-  pullout: 'pullout behind the slip surface',
-  front: 'pullout of the part in front of the slip surface',
-  facing: 'its facing with the bond in front',
-};
-
-/** The words for what limits a reinforcement force. */
-export const reinforcementModeWords = (m: ReinforcementMode): string => MODE_WORDS[m];
+import { limitWords } from './limit-words';
+import type { Crossing, CrossingReport, ReinforcementReport } from './types';
 
 const deg = (r: number) => (r * 180) / Math.PI;
 const finiteOrNull = (v: number) => (Number.isFinite(v) ? v : null);
@@ -72,7 +63,7 @@ export function reinforcementReport(
       if (asLoad || c.force < c.available * (1 - 1e-9)) continue;
       warnings.push({
         code: 'reinforcement-fully-mobilised',
-        message: `the ${e.type} "${e.name}" is fully mobilised where the slip surface crosses it at x = ${c.at[0].toFixed(2)}: the equilibrium takes all of its capacity there (limited by ${MODE_WORDS[c.mode]})${e.dividedByF ? ' with F ≤ 1' : ', not divided by F'}; there is no margin on it`,
+        message: `the ${e.type} "${e.name}" is fully mobilised where the slip surface crosses it at x = ${c.at[0].toFixed(2)}: the equilibrium takes all of its capacity there (${limitWords(c.mode, e.type)} governs)${e.dividedByF ? ' with F ≤ 1' : ', not divided by F'}; there is no margin on it`,
       });
       break;
     }

@@ -36,6 +36,7 @@ import {
 } from './rerun-model';
 import type { Point, SectionView } from './section-types';
 import { SectionsApi } from './sections-api';
+import { REINFORCEMENT_KIND_WORDS } from './reinforcement-table';
 
 /**
  * Re-run a section with edited parameters: each material's unit weights and strength, the
@@ -89,6 +90,7 @@ export class RerunForm {
 
   protected readonly errorText = errorText;
   protected readonly kindWords = caseKindWords;
+  protected readonly elementWords = REINFORCEMENT_KIND_WORDS;
 
   /** For a file in US units: the value of a field in the file's own units. */
   protected inFileUnits(f: Field): string {
@@ -161,6 +163,7 @@ export class RerunForm {
     m.water.unitWeight.control.reset(m.water.unitWeight.shown);
     m.water.ru?.control.reset(m.water.ru.shown);
     m.requiredFs.control.reset(m.requiredFs.shown);
+    for (const r of m.reinforcement) for (const f of r.fields) f.control.reset(f.shown);
     for (const c of m.cases) {
       keepCase(c);
       for (const f of c.fields) f.control.reset(f.shown);

@@ -1,6 +1,7 @@
 /**
  * The re-run form's model: controls for the editable parameters of a stored section (SI, as
- * the API takes edits), validators with the ranges of schemas/section.schema.json, the JSON
+ * the API takes edits: materials, water, the required FS, the design cases and the capacities of
+ * the reinforcing elements), validators with the ranges of schemas/section.schema.json, the JSON
  * merge patch of what changed, and where the API's located errors belong.
  */
 import { signal, type WritableSignal } from '@angular/core';
@@ -13,11 +14,13 @@ import {
   type ValidatorFn,
 } from '@angular/forms';
 import type { LocatedError } from '../core/models';
+import { reinforcementDocument } from '@scarpline/core/model';
 import { fromSi, type QuantityKind } from '@scarpline/core/units';
 import type {
   DesignCase,
   Material,
   Point,
+  Reinforcement,
   SectionInput,
   SectionPatch,
   Strength,
@@ -135,6 +138,24 @@ export interface RerunModel {
   requiredFs: Field;
   /** The design cases the section lists, in order; empty for a section that lists none. */
   cases: CaseEdit[];
+  /** The section's reinforcing elements, in order: their capacities. */
+  reinforcement: ReinforcementEdit[];
+}
+
+/**
+ * One reinforcing element's capacities: a geosynthetic's strength, interaction and coverage, a
+ * nail's bar, bond and facing, an anchor's capacity and bond, a pile's shear. A list is replaced
+ * whole by a merge patch, so an edit sends every element as the section document writes it.
+ */
+export interface ReinforcementEdit {
+  name: string;
+  type: Reinforcement['type'];
+  /** Its place in the stored list (`reinforcement[1]`). */
+  index: number;
+  /** The element as stored (SI), written back with the edited values. */
+  original: Reinforcement;
+  fields: Field[];
+  group: FormGroup;
 }
 
 /**
@@ -506,6 +527,50 @@ function materialEdit(name: string, m: Material, at: string): MaterialEdit {
   return { name, model: s.model, fields, points };
 }
 
+/** The capacities of a reinforcing element that a re-run may change (ranges of the schema). */
+function reinforcementEdit(r: Reinforcement, index: number): ReinforcementEdit {
+  const at = `reinforcement[${index}]`;
+  const f = (
+    key: string,
+    label: string,
+    unit: string,
+    quantity: QuantityKind | null,
+    value: number,
+    range: Range,
+  ) => field(key, label, unit, quantity, `${at}.${key}`, value, numberIn(label, unit, range));
+  const positive: Range = { min: 0, minExclusive: true };
+  const fields: Field[] =
+    r.type === 'geosynthetic'
+      ? [
+          f('strength', 'Design strength', 'kN/m', 'forcePerLength', r.strength, { min: 0 }),
+          f('interaction', 'Interaction Ci', '', null, r.interaction, {
+            ...positive,
+            max: 1.5,
+          }),
+          f('coverage', 'Coverage Rc', '', null, r.coverage, { ...positive, max: 1 }),
+        ]
+      : r.type === 'nail'
+        ? [
+            f('tensileCapacity', 'Bar capacity', 'kN', 'force', r.tensileCapacity, { min: 0 }),
+            f('bond', 'Bond', 'kN/m', 'forcePerLength', r.bond, { min: 0 }),
+            f('facingCapacity', 'Facing capacity', 'kN', 'force', r.facingCapacity, { min: 0 }),
+          ]
+        : r.type === 'anchor'
+          ? [
+              f('capacity', 'Capacity', 'kN', 'force', r.capacity, { min: 0 }),
+              f('bond', 'Bond', 'kN/m', 'forcePerLength', r.bond, { min: 0 }),
+            ]
+          : [f('shear', 'Shear resistance', 'kN/m', 'forcePerLength', r.shear, { min: 0 })];
+  return {
+    name: r.name,
+    type: r.type,
+    index,
+    original: r,
+    fields,
+    group: new FormGroup(Object.fromEntries(fields.map((x) => [x.key, x.control]))),
+  };
+}
+
 /** The controls for a stored section (its values are SI). */
 export function buildModel(input: SectionInput): RerunModel {
   const materials: MaterialEdit[] = Object.entries(input.materials).map(([name, m]) =>
@@ -564,7 +629,9 @@ export function buildModel(input: SectionInput): RerunModel {
   if (water.line) controls['line'] = water.line;
   const cases = (input.cases ?? []).map((c, i) => caseEdit(input, c, i));
   cases.forEach((c, i) => (controls[`case${i}`] = c.group));
-  return { form: new FormGroup(controls), materials, water, requiredFs, cases };
+  const reinforcement = (input.reinforcement ?? []).map((r, i) => reinforcementEdit(r, i));
+  reinforcement.forEach((r, i) => (controls[`reinforcement${i}`] = r.group));
+  return { form: new FormGroup(controls), materials, water, requiredFs, cases, reinforcement };
 }
 
 /** A material's controls as a group (the datum checked again when the rate changes). */
@@ -812,7 +879,22 @@ export function buildPatch(model: RerunModel): SectionPatch {
     if (cp === null || Object.keys(cp).length) cases[c.name] = cp;
   }
   if (Object.keys(cases).length) patch['cases'] = cases;
+  const list = reinforcementPatch(model.reinforcement);
+  if (list) patch['reinforcement'] = list;
   return patch;
+}
+
+/**
+ * The reinforcement as edited, every element as the section document writes it (SI) with its
+ * changed capacities; null when none changed. The whole list: a merge patch replaces a list.
+ */
+function reinforcementPatch(edits: readonly ReinforcementEdit[]): unknown[] | null {
+  if (!edits.some((e) => e.fields.some(changed))) return null;
+  return edits.map((e) => {
+    const doc = reinforcementDocument(e.original) as unknown as Record<string, unknown>;
+    for (const f of e.fields) if (changed(f)) doc[f.key] = f.control.value;
+    return doc;
+  });
 }
 
 /** The value to send: as edited, or the exact stored value when the field is as shown. */
@@ -864,6 +946,7 @@ function targets(model: RerunModel): { path: string; control: AbstractControl }[
   if (model.water.ru) out.push(model.water.ru);
   const line = model.water.line;
   if (line) out.push(...pointTargets('water.piezometric', line));
+  for (const r of model.reinforcement) out.push(...r.fields);
   // requiredFs is sent at the top but checked as part of the analysis
   out.push({ path: 'requiredFs', control: model.requiredFs.control });
   // the API locates a case's errors in the list as edited: without the cases removed

@@ -39,6 +39,8 @@ import { CaseTable } from './case-table';
 import { DrawdownReportView } from './drawdown-report';
 import { MethodTable } from './method-table';
 import { SeismicReportView } from './seismic-report';
+import { ReinforcementTable } from './reinforcement-table';
+import { RequiredReinforcementView } from './required-reinforcement';
 import { RerunForm } from './rerun-form';
 import { RunHistory } from './run-history';
 import { SectionDrawing } from './section-drawing';
@@ -78,6 +80,8 @@ function keepShown<T>(prev: Loaded<T>, next: Loaded<T>): Loaded<T> {
     CaseTable,
     DrawdownReportView,
     SeismicReportView,
+    ReinforcementTable,
+    RequiredReinforcementView,
     MethodTable,
     SliceTable,
     WarningList,
@@ -217,6 +221,10 @@ export class SectionDetail {
       search: c.search,
     };
   });
+  /** Whether any method of the shown result reports reinforcement. */
+  protected readonly reinforced = computed(() =>
+    (this.shown()?.methods ?? []).some((m) => (m.reinforcement?.length ?? 0) > 0),
+  );
   /** The drawing's case: named only when there are several (one case draws as before). */
   protected readonly drawnCase = computed(() => (this.manyCases() ? this.picked() : null));
   /** The pseudo-static kh of the shown case, from the section's input. */

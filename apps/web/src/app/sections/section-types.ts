@@ -11,6 +11,7 @@ import type {
   DrawdownReport,
   MethodReport,
   ReportedSurface,
+  RequiredReinforcementReport,
   SectionResult,
   SeismicReport,
   Warning,
@@ -25,6 +26,7 @@ export type {
   DesignCase,
   Load,
   Material,
+  Reinforcement,
   MethodId,
   Point,
   Strength,
@@ -32,11 +34,14 @@ export type {
 } from '@scarpline/core/model';
 export type {
   CaseKind,
+  CrossingReport,
   DisplacementEstimate,
   DrawdownReport,
   DrawdownStage,
   MethodReport,
+  ReinforcementReport,
   ReportedSurface,
+  RequiredReinforcementReport,
   SeismicReport,
   SliceReport,
   Warning,
@@ -74,6 +79,8 @@ export interface CaseView {
   search: SearchReport | null;
   drawdown?: DrawdownReport;
   seismic?: SeismicReport;
+  /** A case below its requirement whose section asks for it: the extra reinforcement that meets it. */
+  requiredReinforcement?: RequiredReinforcementReport;
 }
 
 /**

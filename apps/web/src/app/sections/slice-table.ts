@@ -15,7 +15,8 @@ import type {
 /**
  * The slices of one method (the governing one unless another is picked): every quantity the
  * result holds for each slice, in the section's units, with the strength each base took and,
- * for a strength that varies with stress, the stress it was taken at.
+ * for a strength that varies with stress, the stress it was taken at, and the reinforcement
+ * force on each slice where the result has it.
  */
 @Component({
   selector: 'sl-slice-table',
@@ -107,6 +108,11 @@ import type {
                   </th>
                 }
               }
+              @if (reinforced()) {
+                <th scope="col" class="sl-num" data-testid="slice-reinforcement">
+                  reinforcement T<span class="u">{{ u().force }}</span>
+                </th>
+              }
               @if (stages(); as st) {
                 <th scope="col" class="sl-num">
                   strength<span class="u">{{ u().pressure }}</span>
@@ -151,6 +157,9 @@ import type {
                     </td>
                   }
                 }
+                @if (reinforced()) {
+                  <td class="sl-num">{{ s.reinforcement ? f(s.reinforcement) : '' }}</td>
+                }
                 @if (stages(); as st) {
                   <td class="sl-num">{{ f(st[$index].strength) }}</td>
                   <td [attr.data-stage]="st[$index].stage">{{ stageWords[st[$index].stage] }}</td>
@@ -176,6 +185,10 @@ import type {
         line of thrust: height where E acts there (— where undefined). A negative N′ is marked.
         @if (strengthColumns()?.c) {
           c′ or Su, φ′: the strength the base took (φ′ = 0 for Su).
+        }
+        @if (reinforced()) {
+          T: the reinforcement force on the slice in the method's equilibrium (blank where no
+          element crosses its base).
         }
         @if (strengthColumns()?.at) {
           Taken at: for a strength that varies with stress, the effective normal stress σ′n on the
@@ -316,6 +329,10 @@ export class SliceTable {
             : 'σ′v';
     return c || phi || at ? { c, phi, at, mixed: kinds.size === 2 } : null;
   });
+  /** Whether the shown slices carry reinforcement forces (results with reinforcement only). */
+  protected readonly reinforced = computed(() =>
+    (this.shown()?.slices ?? []).some((s) => typeof s.reinforcement === 'number'),
+  );
   protected readonly surface = computed(() =>
     surfaceText(this.shown()?.surface ?? null, this.units()),
   );

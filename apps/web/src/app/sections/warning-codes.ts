@@ -81,6 +81,26 @@ export const WARNING_EXPLANATIONS: Readonly<Record<string, WarningExplanation>> 
     check:
       'Look at the steep parts of the surface and its upper end; a tension crack or another interslice function may help. Treat this FS with care.',
   },
+  'reinforcement-not-crossed': {
+    title: 'A reinforcing element is not crossed',
+    meaning:
+      'The critical slip surface of this method does not cross the element (the message names it), so it adds nothing to this factor of safety: the slide passes above, below or beside it.',
+    check:
+      'Check that the element is where it was meant to be (its elevation, head, length and side) and whether a longer or lower element should reach the surfaces that govern.',
+  },
+  'reinforcement-fully-mobilised': {
+    title: 'A reinforcing element is used to its full capacity',
+    meaning:
+      'Where the critical surface crosses the element the equilibrium takes the whole of the least of its capacities (F ≤ 1 with a force divided by F, or a force at its full value): there is no margin on it, and any lower capacity lowers this factor of safety.',
+    check:
+      'Read what limits it in the reinforcement table (its strength, its pullout behind or in front, its facing) and check that value and its reduction factors.',
+  },
+  'reinforcement-ignored': {
+    title: 'A reinforcing element is left out',
+    meaning:
+      'This method does not take the reinforcement (the infinite slope: there is no slip surface to cross it), so its factor of safety is that of the slope without it; the methods of slices take it.',
+    check: 'Compare with the methods of slices, which include the reinforcement.',
+  },
 
   // ---- the input: checks that warn but do not stop the analysis
   'unit-weight-unusual': {
