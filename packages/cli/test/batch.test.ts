@@ -93,6 +93,8 @@ describe('scarpline batch', () => {
       'required_fs',
       'ratio',
       'verdict',
+      'required_force',
+      'required_layers',
       'warnings',
       'note',
       'caution',

@@ -141,6 +141,8 @@ describe('the results table', () => {
         required_fs: c.requiredFs,
         ratio: c.ratio,
         verdict: c.verdict,
+        required_force: null,
+        required_layers: null,
         warnings: expect.any(Number),
         note: null,
         caution: CAUTION,
@@ -192,6 +194,40 @@ describe('the results table', () => {
     ]);
   });
 
+  test('a case below its requirement that asks for the required reinforcement: its force (or layers), or why none', () => {
+    const file = 'embankment-basal-reinforcement.yaml';
+    const text = readFileSync(join(__dirname, '../../../examples', file), 'utf8');
+    const section = parseSections(text, file).sections[0];
+    const r = analyzeSection(section);
+    const req = r.cases[0].requiredReinforcement!;
+    const [caseRow, stationRow] = stationRecords(r);
+    expect(caseRow).toMatchObject({
+      required_force: Math.round(req.value! * 10) / 10,
+      required_layers: null,
+      note: null,
+    });
+    expect(stationRow.required_force).toBe(caseRow.required_force);
+    for (const row of [caseRow, stationRow]) expect(validateRow(row)).toBe(true);
+    // a level in the rigid base, which no slip surface reaches: no force in range, and the note says why
+    const high = analyzeSection({
+      ...section,
+      analysis: {
+        ...section.analysis,
+        requiredReinforcement: {
+          kind: 'force',
+          line: [
+            [0, 0.5],
+            [70, 0.5],
+          ],
+          dividedByF: true,
+        },
+      },
+    });
+    const [row] = stationRecords(high);
+    expect(row.required_force).toBeNull();
+    expect(row.note).toMatch(/^required reinforcement not reached: /);
+  });
+
   test('CSV: FS and ratio with three decimals, empty cells for null, quoted cells, CRLF', () => {
     const r = results[0];
     const row = stationRecord(r);
@@ -212,7 +248,7 @@ describe('the results table', () => {
     });
     expect(validateRow(bad)).toBe(true);
     expect(exportCsvRow(bad)).toBe(
-      `,,wcb@sections[2],station,,,,,,,input-error,,"ground[2]: x = 15 does not increase, ""from"" the point before",${CAUTION}\r\n`,
+      `,,wcb@sections[2],station,,,,,,,input-error,,,,"ground[2]: x = 15 does not increase, ""from"" the point before",${CAUTION}\r\n`,
     );
   });
 

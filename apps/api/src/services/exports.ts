@@ -19,7 +19,7 @@ import {
   type ExportValue,
 } from '@scarpline/core/export';
 import { sectionOfCase, type MethodId, type Section } from '@scarpline/core/model';
-import type { MethodReport, Warning } from '@scarpline/core/result';
+import type { MethodReport, RequiredReinforcementReport, Warning } from '@scarpline/core/result';
 import { conflict, notFound } from '../errors';
 import { Batch, ResultRow, SectionRow, type CaseResultRow } from '../models';
 import type { Principal } from './auth';
@@ -49,6 +49,9 @@ function exportableCase(c: CaseResultRow): ExportableCase {
     verdict: c.verdict,
     warnings: c.warnings as Warning[],
     results: c.methods as MethodReport[],
+    ...(c.requiredReinforcement
+      ? { requiredReinforcement: c.requiredReinforcement as RequiredReinforcementReport }
+      : {}),
   };
 }
 

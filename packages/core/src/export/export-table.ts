@@ -24,6 +24,8 @@ export const EXPORT_COLUMNS = [
   'required_fs',
   'ratio',
   'verdict',
+  'required_force',
+  'required_layers',
   'warnings',
   'note',
   'caution',
@@ -52,6 +54,13 @@ export interface ExportRecord {
   ratio: number | null;
   /** null only in the service, while the section's job is queued or running. */
   verdict: Verdict | null;
+  /**
+   * Where the section asks for it and the case is below its requirement: the further uniform
+   * force per run that meets it (to 0.1, in the section's units), or the number of layers of the
+   * product; null otherwise, or where no value in range meets it (the note says so).
+   */
+  required_force: number | null;
+  required_layers: number | null;
   /** How many warnings the row's case lists (distinctWarnings; the station's row adds the station's own); null without a result. */
   warnings: number | null;
   /** Why there is no factor of safety, or what is wrong with the input. */
@@ -66,7 +75,10 @@ export type ExportValue = string | number | null;
 export type ExportableCase = Pick<
   CaseResult,
   'name' | 'kind' | 'requiredFs' | 'governing' | 'ratio' | 'verdict' | 'warnings'
-> & { results: readonly Pick<MethodReport, 'method' | 'reason' | 'warnings'>[] };
+> &
+  Partial<Pick<CaseResult, 'requiredReinforcement'>> & {
+    results: readonly Pick<MethodReport, 'method' | 'reason' | 'warnings'>[];
+  };
 
 /** What the table reads of a station: a StationResult, or the parts of one the service keeps. */
 export interface ExportableStation {
@@ -171,10 +183,29 @@ export function caseRecord(s: ExportableStation, c: ExportableCase): ExportRecor
     required_fs: c.requiredFs,
     ratio: c.ratio,
     verdict: c.verdict,
+    ...required(c),
     warnings: distinctWarnings(c).length,
-    note: c.verdict === 'no-fs' ? unsolvedReason(c.results) : null,
+    note: c.verdict === 'no-fs' ? unsolvedReason(c.results) : notReached(c),
     caution: CAUTION,
   };
+}
+
+/** A case's required reinforcement as the two columns give it. */
+function required(
+  c: ExportableCase | null,
+): Pick<ExportRecord, 'required_force' | 'required_layers'> {
+  const r = c?.requiredReinforcement;
+  const value = r && r.reached ? r.value : null;
+  return {
+    required_force: value !== null && r!.kind === 'force' ? Math.round(value * 10) / 10 : null,
+    required_layers: value !== null && r!.kind === 'layers' ? value : null,
+  };
+}
+
+/** Where a case's required reinforcement was asked but no value in range meets it: why. */
+function notReached(c: ExportableCase | null): string | null {
+  const r = c?.requiredReinforcement;
+  return r && !r.reached ? `required reinforcement not reached: ${r.reason ?? ''}` : null;
 }
 
 /**
@@ -200,8 +231,9 @@ export function stationRecord(s: ExportableStation): ExportRecord {
     required_fs: c?.requiredFs ?? null,
     ratio: c?.ratio ?? null,
     verdict: s.verdict,
+    ...required(c),
     warnings: (c ? distinctWarnings(c).length : 0) + s.warnings.length,
-    note,
+    note: note ?? notReached(c),
     caution: CAUTION,
   };
 }
@@ -244,6 +276,8 @@ export function unanalysedRecord(s: {
     required_fs: s.requiredFs ?? null,
     ratio: null,
     verdict: s.verdict,
+    required_force: null,
+    required_layers: null,
     warnings: null,
     note: s.note,
     caution: CAUTION,
