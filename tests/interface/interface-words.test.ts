@@ -75,7 +75,15 @@ describe('the interface uses none of its old words', () => {
     const found: string[] = [];
     for (const cmd of [[], ['validate'], ['analyze'], ['batch'], ['plot'], ['init']])
       found.push(...oldWords(`scarpline ${cmd.join(' ')} --help`, run([...cmd, '--help']).out));
-    for (const kind of ['cut', 'embankment', 'levee', 'sand-fill', 'rock-cut'])
+    for (const kind of [
+      'cut',
+      'embankment',
+      'levee',
+      'sand-fill',
+      'rock-cut',
+      'reinforced-embankment',
+      'nailed-cut',
+    ])
       found.push(...oldWords(`init --kind ${kind}`, run(['init', '--kind', kind, '-']).out));
     const examples = readdirSync(join(ROOT, 'examples'))
       .filter((f) => f.endsWith('.yaml'))

@@ -3,6 +3,8 @@ import { UserError } from './read-input';
 import { cut } from './starters/cut';
 import { embankment } from './starters/embankment';
 import { levee } from './starters/levee';
+import { nailedCut } from './starters/nailed-cut';
+import { reinforcedEmbankment } from './starters/reinforced-embankment';
 import { rockCut } from './starters/rock-cut';
 import { sandFill } from './starters/sand-fill';
 
@@ -13,6 +15,8 @@ export const STARTERS = {
   levee,
   'sand-fill': sandFill,
   'rock-cut': rockCut,
+  'reinforced-embankment': reinforcedEmbankment,
+  'nailed-cut': nailedCut,
 } as const;
 export type StarterKind = keyof typeof STARTERS;
 

@@ -53,23 +53,28 @@ describe('scarpline plot', () => {
 });
 
 describe('scarpline init', () => {
-  test.each(['cut', 'embankment', 'levee', 'sand-fill', 'rock-cut'])(
-    '--kind %s writes a commented starter that validates and analyses',
-    (kind) => {
-      const file = join(dir, `${kind}.yaml`);
-      const w = run(['init', '--kind', kind, file]);
-      expect(w.code).toBe(0);
-      const text = readFileSync(file, 'utf8');
-      expect(text.split('\n').filter((l) => /^\s*#/.test(l)).length).toBeGreaterThan(5);
-      expect(run(['validate', file])).toMatchObject({
-        code: 0,
-        out: `${file}: valid: 1 section\n`,
-      });
-      const a = run(['analyze', file]);
-      expect([0, 2]).toContain(a.code); // a factor of safety either way
-      expect(a.out).toMatch(/governing: [a-z-]+ FS \d\.\d{3} against required/);
-    },
-  );
+  test.each([
+    'cut',
+    'embankment',
+    'levee',
+    'sand-fill',
+    'rock-cut',
+    'reinforced-embankment',
+    'nailed-cut',
+  ])('--kind %s writes a commented starter that validates and analyses', (kind) => {
+    const file = join(dir, `${kind}.yaml`);
+    const w = run(['init', '--kind', kind, file]);
+    expect(w.code).toBe(0);
+    const text = readFileSync(file, 'utf8');
+    expect(text.split('\n').filter((l) => /^\s*#/.test(l)).length).toBeGreaterThan(5);
+    expect(run(['validate', file])).toMatchObject({
+      code: 0,
+      out: `${file}: valid: 1 section\n`,
+    });
+    const a = run(['analyze', file]);
+    expect([0, 2]).toContain(a.code); // a factor of safety either way
+    expect(a.out).toMatch(/governing: [a-z-]+ FS \d\.\d{3} against required/);
+  });
 
   test('--kind rock-cut: rock in Hoek–Brown, its strengths taken at each base, no warning', () => {
     const printed = run(['init', '--kind', 'rock-cut', '-']);
