@@ -154,6 +154,8 @@ test('CSV: the core’s results table, per station a row per case then the stati
       String(c.requiredFs),
       c.ratio === null ? '' : c.ratio.toFixed(3),
       verdict,
+      '', // required_force: no station here asks for it
+      '', // required_layers
       expect.stringMatching(/^\d+$/),
       '',
       CAUTION,
@@ -374,13 +376,15 @@ test('sections without a result: no verdict while queued, no-fs with the reason 
     '',
     '',
     '',
+    '', // required_force
+    '', // required_layers
     '',
     '',
     CAUTION,
     'pending',
     'queued',
   ]);
-  expect(failed.slice(10, 13)).toEqual(['no-fs', '', 'the job ran out of time or retries']);
+  expect(failed.slice(10, 15)).toEqual(['no-fs', '', '', '', 'the job ran out of time or retries']);
   expect(failed.slice(-1)).toEqual(['failed']);
   const geo = await request(app)
     .get(`/api/v1/batches/${b.id}/results.geojson`)

@@ -199,6 +199,40 @@ test('engineer: filters to the failing sections and opens the first', async () =
   });
 });
 
+test('engineer: a reinforced station shows its geogrids drawn and listed, and the basal force it needs', async () => {
+  assert.ok(found.batchId, 'the batch of the first step');
+  await scenario(browser, 'reinforced section', async ({ page }) => {
+    await signIn(page, 'engineer');
+    // the demo corridor's highest fill (1+720) has geogrids; its end-of-construction case governs
+    const list = await api(await tokenOf(page), `/batches/${found.batchId}/sections?pageSize=100`);
+    const item = list.body.items.find((s) => s.station === 1720);
+    assert.ok(item, 'station 1+720 in the batch');
+    const section = await api(await tokenOf(page), `/sections/${item.id}`);
+    const shown = section.body.result.cases.find(
+      (c) => c.name === section.body.result.governingCase,
+    );
+    await page.goto(`/sections/${item.id}`);
+    const table = page.getByTestId('reinforcement-table');
+    await table.waitFor();
+    const listed = await table.innerText();
+    assert.match(listed, /geogrid at 32\.67 m/, 'the geogrids listed by name');
+    assert.match(listed, /tensile strength|pullout/, 'what limits a force, in words');
+    const svg = await page
+      .getByTestId('section-drawing')
+      .locator('svg')
+      .first()
+      .evaluate((e) => e.outerHTML);
+    assert.match(svg, /kN\/m, (tensile strength|pullout)/, 'a force drawn at its crossing');
+    // the required basal force, as the API gives it for the case shown
+    const required = page.getByTestId('required-reinforcement');
+    await required.waitFor();
+    const value = shown.requiredReinforcement.value;
+    assert.match(await required.innerText(), new RegExp(value.toFixed(1).replace('.', '\\.')));
+    await page.getByRole('note', { name: 'Engineering caution' }).waitFor();
+    await shot(page, 'section-reinforced');
+  });
+});
+
 test('reviewer: signs the section off with a comment; the batch table shows it', async () => {
   assert.ok(found.sectionId, 'the section of the step before');
   await scenario(browser, 'sign off', async ({ page }) => {
