@@ -12,7 +12,22 @@ interface Hit {
   slope: number;
 }
 
-/** Where the segment (x0, y0)–(x1, y1) crosses a piece of the surface: parameters t in [0, 1] pushed with the point. */
+/**
+ * The crossings found for one element, in objects kept from call to call (the search cuts
+ * thousands of surfaces): `count` of them are this element's.
+ */
+const found: { hits: Hit[]; count: number } = { hits: [], count: 0 };
+
+function addHit(s: number, x: number, y: number, slope: number): void {
+  const h = found.hits[found.count] ?? (found.hits[found.count] = { s: 0, x: 0, y: 0, slope: 0 });
+  h.s = s;
+  h.x = x;
+  h.y = y;
+  h.slope = slope;
+  found.count++;
+}
+
+/** Where the segment (x0, y0)–(x1, y1) crosses a piece of the surface (into `found`). */
 function pieceHits(
   p: BasePiece,
   x0: number,
@@ -21,16 +36,10 @@ function pieceHits(
   y1: number,
   s0: number,
   len: number,
-  out: Hit[],
 ): void {
   const dx = x1 - x0;
   const dy = y1 - y0;
-  const push = (t: number, slope: number) => {
-    if (!(t >= 0 && t <= 1)) return;
-    const x = x0 + t * dx;
-    if (x < p.x0 || x > p.x1) return;
-    out.push({ s: s0 + t * len, x, y: y0 + t * dy, slope });
-  };
+  if (Math.max(x0, x1) < p.x0 || Math.min(x0, x1) > p.x1) return;
   if (p.arc) {
     const fx = x0 - p.xc;
     const fy = y0 - p.yc;
@@ -40,11 +49,13 @@ function pieceHits(
     const disc = b * b - 4 * a * c;
     if (!(disc > 0) || !(a > 0)) return;
     const q = Math.sqrt(disc);
-    for (const t of [(-b - q) / (2 * a), (-b + q) / (2 * a)]) {
-      const y = y0 + t * dy;
+    for (let k = 0; k < 2; k++) {
+      const t = (-b + (k === 0 ? -q : q)) / (2 * a);
+      if (!(t >= 0 && t <= 1)) continue;
       const x = x0 + t * dx;
-      if (!(y < p.yc)) continue;
-      push(t, (x - p.xc) / (p.yc - y));
+      const y = y0 + t * dy;
+      if (!(y < p.yc) || x < p.x0 || x > p.x1) continue;
+      addHit(s0 + t * len, x, y, (x - p.xc) / (p.yc - y));
     }
     return;
   }
@@ -54,8 +65,10 @@ function pieceHits(
   if (Math.abs(den) < 1e-12 * Math.max(1, a2(dx, dy) * a2(ex, ey))) return;
   const t = ((p.x0 - x0) * ey - (p.y0 - y0) * ex) / den;
   const u = ((p.x0 - x0) * dy - (p.y0 - y0) * dx) / den;
-  if (u < 0 || u > 1) return;
-  push(t, ey / ex);
+  if (u < 0 || u > 1 || !(t >= 0 && t <= 1)) return;
+  const x = x0 + t * dx;
+  if (x < p.x0 || x > p.x1) return;
+  addHit(s0 + t * len, x, y0 + t * dy, ey / ex);
 }
 
 const a2 = (x: number, y: number) => Math.sqrt(x * x + y * y);
@@ -97,22 +110,36 @@ export function reinforceSlices(
   s.rx.fill(0, 0, n);
   s.ry.fill(0, 0, n);
   s.rm.fill(0, 0, n);
-  out.length = 0;
-  const hits: Hit[] = [];
+  let used = 0;
   for (const e of elements) {
-    hits.length = 0;
+    found.count = 0;
     for (let k = 0; k + 1 < e.xs.length; k++) {
       const len = e.s[k + 1] - e.s[k];
-      for (const p of pieces)
-        pieceHits(p, e.xs[k], e.ys[k], e.xs[k + 1], e.ys[k + 1], e.s[k], len, hits);
+      for (const p of pieces) pieceHits(p, e.xs[k], e.ys[k], e.xs[k + 1], e.ys[k + 1], e.s[k], len);
     }
-    if (hits.length === 0) continue;
-    hits.sort((a, b) => a.s - b.s);
+    if (found.count === 0) continue;
+    const hits = found.hits;
+    // in order along the element (a few at most: insertion)
+    for (let i = 1; i < found.count; i++) {
+      const h = hits[i];
+      let j = i - 1;
+      while (j >= 0 && hits[j].s > h.s) {
+        hits[j + 1] = hits[j];
+        j--;
+      }
+      hits[j + 1] = h;
+    }
     // a crossing at the joint of two pieces is found on both
-    for (let h = hits.length - 1; h > 0; h--)
-      if (hits[h].s - hits[h - 1].s < 1e-9) hits.splice(h, 1);
+    let count = 1;
+    for (let i = 1; i < found.count; i++) {
+      if (hits[i].s - hits[count - 1].s < 1e-9) continue;
+      const h = hits[count];
+      hits[count] = hits[i];
+      hits[i] = h;
+      count++;
+    }
     const total = e.s[e.s.length - 1];
-    for (let h = 0; h < hits.length; h++) {
+    for (let h = 0; h < count; h++) {
       const hit = hits[h];
       // the element's direction at the crossing
       let k = 1;
@@ -123,10 +150,11 @@ export function reinforceSlices(
       // upward normal of the surface (−slope, 1): going forward dives below it → behind is forward
       const forwardBehind = -hit.slope * dx + dy < 0;
       const prev = h > 0 ? hits[h - 1].s : 0;
-      const next = h + 1 < hits.length ? hits[h + 1].s : total;
-      const [b0, b1, f0, f1] = forwardBehind
-        ? [hit.s, next, prev, hit.s]
-        : [prev, hit.s, hit.s, next];
+      const next = h + 1 < count ? hits[h + 1].s : total;
+      const b0 = forwardBehind ? hit.s : prev;
+      const b1 = forwardBehind ? next : hit.s;
+      const f0 = forwardBehind ? prev : hit.s;
+      const f1 = forwardBehind ? hit.s : next;
       const norm = Math.hypot(1, hit.slope);
       const tx = 1 / norm;
       const ty = hit.slope / norm;
@@ -137,7 +165,8 @@ export function reinforceSlices(
       let mode: ReinforcementMode = 'strength';
       const behind = resistanceBetween(e, b0, b1);
       const front = resistanceBetween(e, f0, f1);
-      let capacities = { strength: e.strength, behind: Infinity, front: Infinity };
+      let capBehind = Infinity;
+      let capFront = Infinity;
       if (e.type === 'pile') {
         ux = tx;
         uy = ty;
@@ -149,7 +178,8 @@ export function reinforceSlices(
         // the movement is −(tx, ty): the pull must oppose it
         counted = ux * tx + uy * ty > 0;
         const frontCap = e.type === 'anchor' ? Infinity : e.facing + front;
-        capacities = { strength: e.strength, behind, front: frontCap };
+        capBehind = behind;
+        capFront = frontCap;
         if (e.asLoad) {
           const bond = e.R[e.R.length - 1];
           const share = bond > 0 ? Math.min(1, behind / bond) : 1;
@@ -168,20 +198,36 @@ export function reinforceSlices(
         }
       }
       const slice = sliceAt(s, hit.x);
-      const c: Crossing = {
-        element: e.index,
-        x: hit.x,
-        y: hit.y,
-        slice,
-        force: counted ? force : 0,
-        ux,
-        uy,
-        mode,
-        counted,
-        dividedByF: e.dividedByF,
-        capacities,
-      };
-      out.push(c);
+      // the crossing's record, in an object kept from the cut before where there is one
+      const c: Crossing =
+        out[used] ??
+        (out[used] = {
+          element: 0,
+          x: 0,
+          y: 0,
+          slice: 0,
+          force: 0,
+          ux: 0,
+          uy: 0,
+          mode: 'strength',
+          counted: false,
+          dividedByF: false,
+          capacities: { strength: 0, behind: 0, front: 0 },
+        });
+      used++;
+      c.element = e.index;
+      c.x = hit.x;
+      c.y = hit.y;
+      c.slice = slice;
+      c.force = counted ? force : 0;
+      c.ux = ux;
+      c.uy = uy;
+      c.mode = mode;
+      c.counted = counted;
+      c.dividedByF = e.dividedByF;
+      c.capacities.strength = e.strength;
+      c.capacities.behind = capBehind;
+      c.capacities.front = capFront;
       if (!counted || !(c.force > 0)) continue;
       const fx = c.force * ux;
       const fy = c.force * uy;
@@ -197,4 +243,5 @@ export function reinforceSlices(
       }
     }
   }
+  out.length = used;
 }
