@@ -3,9 +3,12 @@
  * drawing without an SVG clip path, each drawn shape of its plot inside the plot rectangle, so
  * that a browser, librsvg and ImageMagick show the same drawing.
  */
-import { readdirSync, readFileSync } from 'node:fs';
+import { execFileSync, spawnSync } from 'node:child_process';
+import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { XMLParser } from 'fast-xml-parser';
+import { PNG } from 'pngjs';
 import { analyzeSection, caseView, drawSection, parseSections } from '@scarpline/core';
 import { clipPolygon, clipPolyline, clipSegment, type Rect } from '../src/draw/clip-rect';
 
@@ -222,6 +225,59 @@ describe('the section drawings clip in code', () => {
           expect([where, y >= y0 - tol && y <= y1 + tol]).toEqual([where, true]);
         }
       expect(checked).toBeGreaterThan(20);
+    },
+  );
+});
+
+/** Whether rsvg-convert runs here, installing Debian's librsvg2-bin when missing and root may. */
+function rsvgConvert(): { ok: true } | { ok: false; why: string } {
+  const runs = () => spawnSync('rsvg-convert', ['--version']).status === 0;
+  if (runs()) return { ok: true };
+  if (process.getuid?.() !== 0 || spawnSync('apt-get', ['--version']).status !== 0)
+    return { ok: false, why: 'rsvg-convert is not installed and apt-get cannot install it here' };
+  const apt = (args: string[]) =>
+    spawnSync('apt-get', args, {
+      timeout: 240_000,
+      env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' },
+    }).status === 0;
+  const install = ['install', '-y', '--no-install-recommends', 'librsvg2-bin'];
+  if (!apt(install) && !(apt(['update']) && apt(install)))
+    return {
+      ok: false,
+      why: "apt-get could not install librsvg2-bin (Debian's registry unreachable?)",
+    };
+  return runs()
+    ? { ok: true }
+    : { ok: false, why: 'librsvg2-bin installed but rsvg-convert does not run' };
+}
+
+const rsvg = rsvgConvert();
+if (!rsvg.ok) console.warn(`skipping the rsvg-convert check: ${rsvg.why}`);
+const rsvgTest = rsvg.ok ? test : test.skip;
+
+describe('librsvg renders the drawing', () => {
+  rsvgTest(
+    `rsvg-convert: the levee's strata colours fill the image${rsvg.ok ? '' : ` (skipped: ${rsvg.why})`}`,
+    () => {
+      const file = 'levee-land-side.yaml';
+      const s = parseSections(readFileSync(join(EXAMPLES, file), 'utf8'), file).sections[0];
+      const svg = drawSection(s, caseView(analyzeSection(s)));
+      const dir = mkdtempSync(join(tmpdir(), 'scarpline-rsvg-'));
+      writeFileSync(join(dir, 'levee.svg'), svg);
+      execFileSync('rsvg-convert', ['-o', join(dir, 'levee.png'), join(dir, 'levee.svg')]);
+      const png = PNG.sync.read(readFileSync(join(dir, 'levee.png')));
+      const [, w, h] = /width="(\d+)" height="(\d+)"/.exec(svg)!;
+      expect([png.width, png.height]).toEqual([Number(w), Number(h)]);
+      const strata = /<g class="strata">(.*?)<\/g>/.exec(svg)![1];
+      const fills = [...new Set([...strata.matchAll(/fill="(#[0-9a-f]{6})"/g)].map((m) => m[1]))];
+      expect(fills.length).toBe(3);
+      const count = new Map<string, number>();
+      for (let i = 0; i < png.data.length; i += 4) {
+        const hex = `#${[0, 1, 2].map((k) => png.data[i + k].toString(16).padStart(2, '0')).join('')}`;
+        count.set(hex, (count.get(hex) ?? 0) + 1);
+      }
+      // each material's fill covers a good many pixels of the image, as in a browser
+      for (const f of fills) expect([f, (count.get(f) ?? 0) > 500]).toEqual([f, true]);
     },
   );
 });
