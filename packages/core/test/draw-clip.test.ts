@@ -9,7 +9,14 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { XMLParser } from 'fast-xml-parser';
 import { PNG } from 'pngjs';
-import { analyzeSection, caseView, drawSection, parseSections } from '@scarpline/core';
+import {
+  analyzeSection,
+  caseView,
+  drawChainage,
+  drawSection,
+  parseSections,
+} from '@scarpline/core';
+import { chainageLayout } from '../src/draw/chainage-layout';
 import { clipPolygon, clipPolyline, clipSegment, type Rect } from '../src/draw/clip-rect';
 
 const EXAMPLES = join(__dirname, '..', '..', '..', 'examples');
@@ -227,6 +234,27 @@ describe('the section drawings clip in code', () => {
       expect(checked).toBeGreaterThan(20);
     },
   );
+});
+
+describe('the chainage drawing keeps inside its plot without a clip path', () => {
+  test('an FS far above the axis is drawn at its top edge; the lines stay in the plot', () => {
+    const points = [
+      { station: 1000, fs: 2, requiredFs: 1.5 },
+      { station: 1020, fs: 9, requiredFs: 1.5 },
+      { station: 1040, fs: 0.8, requiredFs: 1.5 },
+    ];
+    const svg = drawChainage(points, { units: 'si', title: 'wcb-main' });
+    expect(svg).not.toMatch(/clip-path|<clipPath/);
+    const l = chainageLayout(points, { width: 640, height: 300, units: 'si' });
+    for (const d of [l.fsPath, l.requiredPath])
+      for (const [x, y] of pathPoints(d)) {
+        expect(x).toBeGreaterThanOrEqual(l.plot.left - 0.01);
+        expect(x).toBeLessThanOrEqual(l.plot.right + 0.01);
+        expect(y).toBeGreaterThanOrEqual(l.plot.top - 0.01);
+        expect(y).toBeLessThanOrEqual(l.plot.bottom + 0.01);
+      }
+    expect(pathPoints(l.fsPath)).toHaveLength(3);
+  });
 });
 
 /** Whether rsvg-convert runs here, installing Debian's librsvg2-bin when missing and root may. */
