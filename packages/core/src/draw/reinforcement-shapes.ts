@@ -103,6 +103,13 @@ function elementShape(r: DrawingReinforcement, ground: Polyline, s: Frame): stri
   }
 }
 
+/** A box of w × h at `at`, moved the least it takes to lie in the plot area where it fits. */
+function intoArea(at: [number, number], w: number, h: number, r: Rect): Box {
+  const x0 = Math.max(r.x0 + 1, Math.min(at[0], r.x1 - 1 - w));
+  const y0 = Math.max(r.y0 + 1, Math.min(at[1], r.y1 - 1 - h));
+  return { x0, y0, x1: x0 + w, y1: y0 + h };
+}
+
 /** The label of a crossing's force: its value per unit run and what limits it. */
 export function crossingLabel(
   c: CrossingReport,
@@ -118,9 +125,10 @@ export function crossingLabel(
  * its line), and where the governing method's critical surface crosses one and it carries a
  * force, an arrow in the force's direction on the sliding mass labelled with the force (per
  * unit run, in the equilibrium) and what limits it; crossings that carry nothing are not
- * marked. Lines are cut to the plot area; a plate, an arrow or a label not wholly inside it is
- * left out. Labels are placed clear of the surfaces and of each other where they can be; their
- * boxes are returned so that other words keep clear of them. Arrow heads use `#<ids>-rarrow`.
+ * marked. Lines are cut to the plot area; a plate or an arrow not wholly inside it is left out,
+ * and a label is moved into it. Labels are placed clear of the surfaces and of each other where
+ * they can be; their boxes are returned so that other words keep clear of them. Arrow heads use
+ * `#<ids>-rarrow`.
  *
  * @example reinforcementShapes(model, governing.reinforcement, frame, obstacles, 'sl')
  */
@@ -173,16 +181,13 @@ export function reinforcementShapes(
         areas: [],
         boxes: [...boxes, ...obstacles.boxes],
       };
-      const box = places
-        .map(([bx, by]): Box => ({ x0: bx, y0: by, x1: bx + w, y1: by + h }))
-        .find((b) => boxIsClear(b, near)) ?? {
-        x0: places[0][0],
-        y0: places[0][1],
-        x1: places[0][0] + w,
-        y1: places[0][1] + h,
-      };
+      const inArea = (b: Box) => insideRect([b.x0, b.y0], area) && insideRect([b.x1, b.y1], area);
+      const box =
+        places
+          .map(([bx, by]): Box => ({ x0: bx, y0: by, x1: bx + w, y1: by + h }))
+          .find((b) => inArea(b) && boxIsClear(b, near)) ?? intoArea(places[0], w, h, area);
       boxes.push(box);
-      if (!insideRect([box.x0, box.y0], area) || !insideRect([box.x1, box.y1], area)) continue;
+      if (!inArea(box)) continue; // wider or taller than the plot area
       labels.push(
         svgText(box.x0, box.y1 - 3, text, {
           'font-size': FONT,
