@@ -309,6 +309,34 @@ test('SVG of a section: the drawing of its current result, with the caution', as
   expect(text).toContain(one.body.result.governing.fs.toFixed(2));
 });
 
+test('PNG of a section: the same drawing rendered, as an attachment named for it', async () => {
+  const s = jsonBatch.sections[0];
+  const res = await request(app)
+    .get(`/api/v1/sections/${s.id}/plot.png`)
+    .auth(viewer, bearer)
+    .buffer(true)
+    .parse((r, done) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => done(null, Buffer.concat(chunks)));
+    });
+  expect(res.status).toBe(200);
+  expect(res.headers['content-type']).toBe('image/png');
+  expect(res.headers['content-disposition']).toMatch(/^attachment; filename=".+-run1\.png"$/);
+  const png = res.body as Buffer;
+  // the PNG signature and its IHDR size (PNG specification, ISO/IEC 15948 §5.2, §11.2.2)
+  expect([...png.subarray(0, 8)]).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);
+  const svg = (
+    await request(app).get(`/api/v1/sections/${s.id}/plot.svg`).auth(viewer, bearer)
+  ).body.toString('utf8') as string;
+  const [, w, h] = /width="(\d+)" height="(\d+)"/.exec(svg)!;
+  expect([png.readUInt32BE(16), png.readUInt32BE(20)]).toEqual([Number(w), Number(h)]);
+  const missing = await request(app)
+    .get(`/api/v1/sections/${s.id}/plot.png?case=nope`)
+    .auth(viewer, bearer);
+  expectProblem(missing, 404);
+});
+
 test('an SVG before any result is a 409 problem', async () => {
   // A section written without a job stays queued: it has no result.
   const b = await Batch.create({

@@ -199,13 +199,14 @@ ${EXIT}
 withOverrides(
   program
     .command('plot')
-    .description('draw the cross-section with its critical surfaces as SVG')
+    .description('draw the cross-section with its critical surfaces as SVG and/or PNG')
     .argument(
       '<file>',
       'a section file (or a batch, or a GeoJSON corridor; - reads standard input)',
     ),
 )
-  .requiredOption('--svg <out>', 'the SVG file to write (several sections: OUT-<id>.svg each)')
+  .option('--svg <out>', 'the SVG file to write (several sections: OUT-<id>.svg each)')
+  .option('--png <out>', 'the PNG file to write, the same drawing (several: OUT-<id>.png each)')
   .option('-s, --section <id>', 'draw only this section of the file')
   .option('--case <name>', 'draw this design case (default: the governing case of each section)')
   .option('--width <px>', 'width of the drawing in pixels', '1100')
@@ -215,7 +216,10 @@ withOverrides(
     `
 Examples:
   $ scarpline plot examples/levee-land-side.yaml --svg levee.svg
+  $ scarpline plot examples/levee-land-side.yaml --png levee.png
   $ scarpline plot examples/corridor/corridor.json --svg corridor.svg --section wcb-main@1600
+
+At least one of --svg and --png.
 
 Exit status: 0 when drawn, 1 when the file is invalid.`,
   )
@@ -223,7 +227,8 @@ Exit status: 0 when drawn, 1 when the file is invalid.`,
     async (
       file: string,
       opts: {
-        svg: string;
+        svg?: string;
+        png?: string;
         section?: string;
         case?: string;
         width: string;
@@ -242,6 +247,7 @@ Exit status: 0 when drawn, 1 when the file is invalid.`,
         file,
         {
           svg: opts.svg,
+          png: opts.png,
           section: opts.section,
           case: opts.case,
           ...checkOverrides(opts),

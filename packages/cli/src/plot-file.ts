@@ -14,9 +14,13 @@ import {
 } from '@scarpline/core';
 import { applyOverrides, type Overrides } from './overrides';
 import { readInput, STDIN_NAME, UserError } from './read-input';
+import { svgToPng } from './svg-to-png';
 
 export interface PlotOptions extends Overrides {
-  svg: string;
+  /** The SVG file to write (at least one of svg and png is given). */
+  svg?: string;
+  /** The PNG file to write: the same drawing rendered. */
+  png?: string;
   section?: string;
   /** The design case to draw; the governing case of each section when not given. */
   case?: string;
@@ -25,9 +29,9 @@ export interface PlotOptions extends Overrides {
   radii?: boolean;
 }
 
-/** The file name for one of several sections: `out.svg` → `out-<id>.svg`. */
-export const svgNameFor = (out: string, id: string): string =>
-  out.replace(/(\.svg)?$/i, `-${id.replace(/[^A-Za-z0-9._+@-]/g, '_')}.svg`);
+/** The file name for one of several sections: `out.svg` → `out-<id>.svg` (`.png` alike). */
+export const svgNameFor = (out: string, id: string, ext = 'svg'): string =>
+  out.replace(new RegExp(`(\\.${ext})?$`, 'i'), `-${id.replace(/[^A-Za-z0-9._+@-]/g, '_')}.${ext}`);
 
 /** The sections of any input file: a section file, a batch, or a GeoJSON corridor. */
 export function readSections(file: string): {
@@ -53,8 +57,8 @@ export function readSections(file: string): {
 /**
  * `scarpline plot`: analyze the sections of a file and write the cross-section drawing as
  * SVG: one section to `--svg OUT`, several to `OUT-<id>.svg` each (or the one `--section ID`
- * names), each with its governing FS on standard output and then the caution (the drawing
- * carries it too). Returns the exit code: 0 when drawn, 1 on bad input.
+ * names), and the same drawing as PNG to `--png OUT` alike; each with its governing FS on
+ * standard output and then the caution (the drawing carries it too). Returns the exit code: 0 when drawn, 1 on bad input.
  */
 export function plotFile(
   file: string,
@@ -62,6 +66,8 @@ export function plotFile(
   out: (line: string) => void,
   err: (line: string) => void,
 ): number {
+  if (!options.svg && !options.png)
+    throw new UserError('plot: give --svg <out>, --png <out> or both');
   const { sections, errors, warnings } = readSections(file);
   for (const m of [...errors, ...warnings]) err(m);
   if (errors.length) return 1;
@@ -83,16 +89,26 @@ export function plotFile(
       );
     const name = options.case ?? station.governing?.case;
     const result = caseView(station, name);
-    const path = chosen.length === 1 ? options.svg : svgNameFor(options.svg, s.id);
-    writeFileSync(
-      path,
-      `${drawSection(sectionOfCase(section, result.case ?? undefined), result, { width: options.width, radii: options.radii })}\n`,
-    );
+    const svg = drawSection(sectionOfCase(section, result.case ?? undefined), result, {
+      width: options.width,
+      radii: options.radii,
+    });
+    const paths: string[] = [];
+    if (options.svg) {
+      const path = chosen.length === 1 ? options.svg : svgNameFor(options.svg, s.id);
+      writeFileSync(path, `${svg}\n`);
+      paths.push(path);
+    }
+    if (options.png) {
+      const path = chosen.length === 1 ? options.png : svgNameFor(options.png, s.id, 'png');
+      writeFileSync(path, svgToPng(svg));
+      paths.push(path);
+    }
     const fs = result.governing
       ? `governing FS ${fsText(result.governing.fs)} (${result.governing.method})`
       : 'no method converged';
     const drawn = station.cases.length > 1 ? `, case ${result.case}` : '';
-    out(`wrote ${path}: ${s.id}${drawn}, ${fs}`);
+    out(`wrote ${paths.join(' and ')}: ${s.id}${drawn}, ${fs}`);
   }
   if (chosen.length) out(`Caution: ${CAUTION}`);
   return 0;

@@ -2,6 +2,7 @@ import { mkdtempSync, readFileSync, existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
+import { PNG } from 'pngjs';
 import { run } from './run';
 
 const dir = mkdtempSync(join(tmpdir(), 'scarpline-plot-'));
@@ -41,14 +42,44 @@ describe('scarpline plot', () => {
     expect(none.err).toMatch(/--section: no section "nope"/);
   });
 
-  test('a bad file: located messages, no drawing, exit 1; --svg is required', () => {
+  test('--png: the same drawing as a PNG image of its size, beside or instead of the SVG', () => {
+    const svgOut = join(dir, 'both.svg');
+    const pngOut = join(dir, 'both.png');
+    const r = run(['plot', 'examples/levee-land-side.yaml', '--svg', svgOut, '--png', pngOut]);
+    expect(r.code).toBe(0);
+    expect(r.out).toContain(`wrote ${svgOut} and ${pngOut}: wfb-0410, governing FS 1.275 (bishop)`);
+    const png = readFileSync(pngOut);
+    // the PNG signature and the IHDR width and height (PNG specification, ISO/IEC 15948 §5.2, §11.2.2)
+    expect([...png.subarray(0, 8)]).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);
+    const [, w, h] = /width="(\d+)" height="(\d+)"/.exec(readFileSync(svgOut, 'utf8'))!;
+    expect([png.readUInt32BE(16), png.readUInt32BE(20)]).toEqual([Number(w), Number(h)]);
+    // the strata drawn: each material's fill (from the SVG) covers pixels of the image
+    const svg = readFileSync(svgOut, 'utf8');
+    const strata = /<g class="strata">(.*?)<\/g>/.exec(svg)![1];
+    const fills = [...new Set([...strata.matchAll(/fill="(#[0-9a-f]{6})"/g)].map((m) => m[1]))];
+    expect(fills.length).toBe(3);
+    const { data } = PNG.sync.read(png);
+    const count = new Map<string, number>();
+    for (let i = 0; i < data.length; i += 4) {
+      const hex = `#${[data[i], data[i + 1], data[i + 2]].map((v) => v.toString(16).padStart(2, '0')).join('')}`;
+      count.set(hex, (count.get(hex) ?? 0) + 1);
+    }
+    for (const f of fills) expect([f, (count.get(f) ?? 0) > 500]).toEqual([f, true]);
+    const several = run(['plot', TWO, '--png', join(dir, 'drawn.png')]);
+    expect(several.code).toBe(0);
+    expect(existsSync(join(dir, 'drawn-wcb-2940-R-eoc.png'))).toBe(true);
+    expect(existsSync(join(dir, 'drawn-wcb-2940-R-lt.png'))).toBe(true);
+    expect(existsSync(join(dir, 'drawn-wcb-2940-R-lt.svg'))).toBe(false);
+  });
+
+  test('a bad file: located messages, no drawing, exit 1; --svg or --png is required', () => {
     const r = run(['plot', 'packages/core/test/in/ranges.yaml', '--svg', join(dir, 'bad.svg')]);
     expect(r.code).toBe(1);
     expect(r.err).toMatch(/ranges\.yaml:7:90 materials\.clay\.strength\.frictionAngle/);
     expect(existsSync(join(dir, 'bad.svg'))).toBe(false);
     const missing = run(['plot', 'examples/levee-land-side.yaml']);
     expect(missing.code).toBe(1);
-    expect(missing.err).toMatch(/required option '--svg <out>'/);
+    expect(missing.err).toMatch(/give --svg <out>, --png <out> or both/);
   });
 });
 

@@ -330,20 +330,20 @@ describe('drawSection', () => {
     expect(XMLValidator.validate(svg)).toBe(true);
     const tree = parser.parse(svg);
     const map = all(tree, 'g').find((g) => g.class === 'fs-map');
-    const bands = all(map, 'path');
+    const bands = all(map, 'path').filter((b) => b.fill !== 'none');
     const levels = fsMapLevels(fsMapDomain(search.map!)!);
     expect(bands.length).toBeGreaterThanOrEqual(3);
     expect(bands.map((b) => b.fill)).toContain(fsColor(0)); // the least FS at the dark end
     // the filled area spans exactly the map's extent (a centre without a circle leaves its corner blank)
     const pts = bands.flatMap((b) => pointsOf(String(b.d)));
-    const extent = all(map, 'rect').find((c) => c.class === 'fs-map-extent')!;
-    const [x0, y0] = [Number(extent.x), Number(extent.y)];
-    const [x1, y1] = [x0 + Number(extent.width), y0 + Number(extent.height)];
+    const extent = pointsOf(String(all(map, 'path').find((c) => c.class === 'fs-map-extent')!.d));
+    const [x0, y0] = [Math.min(...extent.map((p) => p[0])), Math.min(...extent.map((p) => p[1]))];
+    const [x1, y1] = [Math.max(...extent.map((p) => p[0])), Math.max(...extent.map((p) => p[1]))];
     expect(Math.min(...pts.map((p) => p[0]))).toBeCloseTo(x0, 1);
     expect(Math.max(...pts.map((p) => p[0]))).toBeCloseTo(x1, 1);
     expect(Math.min(...pts.map((p) => p[1]))).toBeCloseTo(y0, 1);
     expect(Math.max(...pts.map((p) => p[1]))).toBeCloseTo(y1, 1);
-    expect(all(map, 'rect').filter((c) => c.fill === 'none')).toHaveLength(2); // extent and the move
+    expect(all(map, 'path').filter((c) => c.fill === 'none')).toHaveLength(2); // extent and the move
     // the colour bar in the same bands
     const bar = all(tree, 'g').find((g) => g.class === 'color-bar');
     const barFills = all(bar, 'rect')

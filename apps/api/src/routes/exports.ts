@@ -2,6 +2,7 @@ import { Router } from 'express';
 import { ALL, allow, principal } from '../middleware/auth';
 import { loadBatch } from '../services/batches';
 import { batchCsv, batchGeoJson, fileName, sectionSvg } from '../services/exports';
+import { sectionPng } from '../services/plot-png';
 import { API_LIMITS } from '../limits';
 import { idParam, queryName } from './params';
 
@@ -32,4 +33,14 @@ exportRoutes.get('/sections/:id/plot.svg', allow(...ALL), async (req, res) => {
     caseName,
   );
   res.type('image/svg+xml').set('Content-Disposition', `inline; filename="${name}"`).send(svg);
+});
+
+exportRoutes.get('/sections/:id/plot.png', allow(...ALL), async (req, res) => {
+  const caseName = queryName(req.query.case, 'case', API_LIMITS.caseName);
+  const { png, fileName: name } = await sectionPng(
+    principal(req),
+    idParam(req.params.id),
+    caseName,
+  );
+  res.type('image/png').set('Content-Disposition', attachment(name)).send(png);
 });

@@ -227,7 +227,6 @@ export function drawSection(
 
   // --- the parts, back to front; the labels last, where they keep clear of the surfaces
   const yBottom = b.yMin;
-  const plotClip = `${ids}-plot`;
   const trials = trialSurfaceShapes(search, model.ground, frame);
   const px = (line: readonly Point[]) =>
     line.map((p): [number, number] => [frame.x(p[0]), frame.y(p[1])]);
@@ -400,9 +399,6 @@ export function drawSection(
       },
       [svgElement('path', { d: 'M0 0L10 5L0 10Z', fill: REINFORCEMENT })],
     ),
-    svgElement('clipPath', { id: plotClip }, [
-      svgElement('rect', { x: frame.left, y: frame.top, width: frame.width, height: frame.height }),
-    ]),
   ]);
 
   const body = [
@@ -411,12 +407,14 @@ export function drawSection(
     ...lines,
     axisBottom(frame, `x (${L})`),
     axisLeft(frame, `elevation (${L})`),
-    svgElement('g', { 'clip-path': `url(#${plotClip})` }, content.filter(Boolean)),
+    // every shape in it is cut to the plot area in code (clip-rect.ts), not by the renderer
+    svgElement('g', { class: 'plot' }, content.filter(Boolean)),
     svgElement('rect', {
       x: frame.left,
       y: frame.top,
       width: frame.width,
       height: frame.height,
+      class: 'plot-frame',
       fill: 'none',
       stroke: INK,
       'stroke-width': 0.8,

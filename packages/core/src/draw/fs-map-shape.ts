@@ -1,8 +1,9 @@
 import { fsColor, INK } from './palette';
 import { niceStep } from './nice-ticks';
-import { pathData, svgElement } from './svg-element';
+import { clippedLineData, clippedPolygonData, plotRect, type Rect } from './clip-rect';
+import { svgElement } from './svg-element';
 import type { GridReport as SearchGrid, SearchReport } from '../result';
-import type { Scales } from './types';
+import type { Frame } from './types';
 
 type Map = NonNullable<SearchReport['map']>;
 
@@ -95,14 +96,19 @@ function clipTriangle(tri: readonly P[], lo: number, hi: number): P[] {
  */
 export function fsMapShape(
   search: SearchReport,
-  s: Scales,
+  s: Frame,
   domain: readonly [number, number],
 ): string {
   const parts: string[] = [];
+  const r = plotRect(s);
   const map = search.map;
   for (const move of search.moves)
     parts.push(
-      gridOutline(move.grid, s, { stroke: INK, 'stroke-opacity': 0.5, 'stroke-dasharray': '1 3' }),
+      gridOutline(move.grid, s, r, {
+        stroke: INK,
+        'stroke-opacity': 0.5,
+        'stroke-dasharray': '1 3',
+      }),
     );
   if (map && map.xs.length > 1 && map.ys.length > 1) {
     const levels = fsMapLevels(domain);
@@ -137,9 +143,9 @@ export function fsMapShape(
           for (const band of bands) {
             const poly = clipTriangle(tri as P[], band.lo, band.hi);
             if (poly.length)
-              band.d += pathData(
+              band.d += clippedPolygonData(
                 poly.map((p) => [p[0], p[1]] as [number, number]),
-                true,
+                r,
               );
           }
         }
@@ -161,12 +167,7 @@ export function fsMapShape(
     const [x0, x1] = [s.x(map.xs[0]), s.x(map.xs[map.xs.length - 1])];
     const [y0, y1] = [s.y(map.ys[map.ys.length - 1]), s.y(map.ys[0])];
     parts.push(
-      svgElement('rect', {
-        x: Math.min(x0, x1),
-        y: Math.min(y0, y1),
-        width: Math.abs(x1 - x0),
-        height: Math.abs(y1 - y0),
-        fill: 'none',
+      outline(x0, y0, x1, y1, r, {
         stroke: INK,
         'stroke-width': 0.8,
         class: 'fs-map-extent',
@@ -177,15 +178,33 @@ export function fsMapShape(
   return svgElement('g', { class: 'fs-map', opacity: 0.9 }, parts);
 }
 
-function gridOutline(g: SearchGrid, s: Scales, attrs: Record<string, string | number>): string {
-  const [x0, x1] = [s.x(g.x[0]), s.x(g.x[1])];
-  const [y0, y1] = [s.y(g.y[1]), s.y(g.y[0])];
-  return svgElement('rect', {
-    x: x0,
-    y: y0,
-    width: x1 - x0,
-    height: y1 - y0,
-    fill: 'none',
-    ...attrs,
-  });
+/** The outline of a rectangle in pixels, its sides cut to the plot area ('' where none is in it). */
+function outline(
+  x0: number,
+  y0: number,
+  x1: number,
+  y1: number,
+  r: Rect,
+  attrs: Record<string, string | number>,
+): string {
+  const d = clippedLineData(
+    [
+      [x0, y0],
+      [x1, y0],
+      [x1, y1],
+      [x0, y1],
+      [x0, y0],
+    ],
+    r,
+  );
+  return d ? svgElement('path', { d, fill: 'none', ...attrs }) : '';
+}
+
+function gridOutline(
+  g: SearchGrid,
+  s: Frame,
+  r: Rect,
+  attrs: Record<string, string | number>,
+): string {
+  return outline(s.x(g.x[0]), s.y(g.y[1]), s.x(g.x[1]), s.y(g.y[0]), r, attrs);
 }

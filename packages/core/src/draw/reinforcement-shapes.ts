@@ -6,8 +6,9 @@ import { boxIsClear, textWidth, type Box, type Obstacles } from './free-place';
 import type { LegendItem } from './legend';
 import { REINFORCEMENT, REINFORCEMENT_TEXT } from './palette';
 import type { DrawingModel, DrawingReinforcement } from './section-in-units';
-import { escapeXml, pathData, svgElement, svgText } from './svg-element';
-import { toPixels, type Scales } from './types';
+import { clippedLineData, insideRect, plotRect, type Rect } from './clip-rect';
+import { escapeXml, svgElement, svgText } from './svg-element';
+import { toPixels, type Frame } from './types';
 
 const ARROW = 30; // pixels, whatever the force: the label gives it
 const FONT = 10.5;
@@ -46,8 +47,9 @@ export function reinforcementPoints(r: DrawingReinforcement, ground: Polyline): 
   }
 }
 
-/** A small square plate at a head (a nail's facing, an anchor's head), in pixels. */
-function plate(p: [number, number]): string {
+/** A small square plate at a head (a nail's facing, an anchor's head), in pixels; none outside the plot area. */
+function plate(p: [number, number], r: Rect): string {
+  if (!insideRect(p, r, 3)) return '';
   return svgElement('rect', {
     x: p[0] - 3,
     y: p[1] - 3,
@@ -58,10 +60,12 @@ function plate(p: [number, number]): string {
 }
 
 /** One element drawn: a layer as its line, a nail or an anchor as its bar from the head (an anchor's bond length thick), a pile as its line. */
-function elementShape(r: DrawingReinforcement, ground: Polyline, s: Scales): string {
+function elementShape(r: DrawingReinforcement, ground: Polyline, s: Frame): string {
+  const area = plotRect(s);
   const px = (pts: readonly Point[]) => toPixels(pts, s);
+  const cut = (pts: readonly Point[]) => clippedLineData(px(pts), area);
   const line = (pts: readonly Point[], style: Record<string, string | number>) =>
-    svgElement('path', { d: pathData(px(pts)), fill: 'none', ...style });
+    cut(pts) ? svgElement('path', { d: cut(pts), fill: 'none', ...style }) : '';
   const title = svgElement('title', {}, [escapeXml(r.name)]);
   switch (r.type) {
     case 'geosynthetic':
@@ -71,7 +75,7 @@ function elementShape(r: DrawingReinforcement, ground: Polyline, s: Scales): str
       return svgElement('g', { 'data-element': r.type }, [
         title,
         line([r.head, end], STYLE.nail),
-        plate(px([r.head])[0]),
+        plate(px([r.head])[0], area),
       ]);
     }
     case 'anchor': {
@@ -80,13 +84,15 @@ function elementShape(r: DrawingReinforcement, ground: Polyline, s: Scales): str
       return svgElement('g', { 'data-element': r.type }, [
         title,
         line([r.head, bondStart], STYLE.free),
-        svgElement('path', {
-          d: pathData(px([bondStart, end])),
-          fill: 'none',
-          'data-part': 'bond',
-          ...STYLE.bond,
-        }),
-        plate(px([r.head])[0]),
+        cut([bondStart, end])
+          ? svgElement('path', {
+              d: cut([bondStart, end]),
+              fill: 'none',
+              'data-part': 'bond',
+              ...STYLE.bond,
+            })
+          : '',
+        plate(px([r.head])[0], area),
       ]);
     }
     case 'pile':
@@ -95,6 +101,13 @@ function elementShape(r: DrawingReinforcement, ground: Polyline, s: Scales): str
         line(reinforcementPoints(r, ground), STYLE.pile),
       ]);
   }
+}
+
+/** A box of w × h at `at`, moved the least it takes to lie in the plot area where it fits. */
+function intoArea(at: [number, number], w: number, h: number, r: Rect): Box {
+  const x0 = Math.max(r.x0 + 1, Math.min(at[0], r.x1 - 1 - w));
+  const y0 = Math.max(r.y0 + 1, Math.min(at[1], r.y1 - 1 - h));
+  return { x0, y0, x1: x0 + w, y1: y0 + h };
 }
 
 /** The label of a crossing's force: its value per unit run and what limits it. */
@@ -112,18 +125,21 @@ export function crossingLabel(
  * its line), and where the governing method's critical surface crosses one and it carries a
  * force, an arrow in the force's direction on the sliding mass labelled with the force (per
  * unit run, in the equilibrium) and what limits it; crossings that carry nothing are not
- * marked. Labels are placed clear of the surfaces and of each other where they can be; their
- * boxes are returned so that other words keep clear of them. Arrow heads use `#<ids>-rarrow`.
+ * marked. Lines are cut to the plot area; a plate or an arrow not wholly inside it is left out,
+ * and a label is moved into it. Labels are placed clear of the surfaces and of each other where
+ * they can be; their boxes are returned so that other words keep clear of them. Arrow heads use
+ * `#<ids>-rarrow`.
  *
  * @example reinforcementShapes(model, governing.reinforcement, frame, obstacles, 'sl')
  */
 export function reinforcementShapes(
   model: DrawingModel,
   reports: readonly ReinforcementReport[] | undefined,
-  s: Scales,
+  s: Frame,
   obstacles: Obstacles,
   ids: string,
 ): { svg: string; labels: string; boxes: Box[] } {
+  const area = plotRect(s);
   if (model.reinforcement.length === 0) return { svg: '', labels: '', boxes: [] };
   const elements = model.reinforcement.map((r) => elementShape(r, model.ground, s));
   const arrows: string[] = [];
@@ -136,6 +152,8 @@ export function reinforcementShapes(
       const a = (c.direction * Math.PI) / 180;
       const [dx, dy] = [Math.cos(a), -Math.sin(a)];
       const tip: [number, number] = [x + ARROW * dx, y + ARROW * dy];
+      // an arrow, with its head, wholly in the plot area or not at all
+      if (!insideRect([x, y], area, 3) || !insideRect(tip, area, 5)) continue;
       arrows.push(
         svgElement('circle', { cx: x, cy: y, r: 2.5, fill: REINFORCEMENT }),
         svgElement('line', {
@@ -163,15 +181,13 @@ export function reinforcementShapes(
         areas: [],
         boxes: [...boxes, ...obstacles.boxes],
       };
-      const box = places
-        .map(([bx, by]): Box => ({ x0: bx, y0: by, x1: bx + w, y1: by + h }))
-        .find((b) => boxIsClear(b, near)) ?? {
-        x0: places[0][0],
-        y0: places[0][1],
-        x1: places[0][0] + w,
-        y1: places[0][1] + h,
-      };
+      const inArea = (b: Box) => insideRect([b.x0, b.y0], area) && insideRect([b.x1, b.y1], area);
+      const box =
+        places
+          .map(([bx, by]): Box => ({ x0: bx, y0: by, x1: bx + w, y1: by + h }))
+          .find((b) => inArea(b) && boxIsClear(b, near)) ?? intoArea(places[0], w, h, area);
       boxes.push(box);
+      if (!inArea(box)) continue; // wider or taller than the plot area
       labels.push(
         svgText(box.x0, box.y1 - 3, text, {
           'font-size': FONT,

@@ -3,8 +3,9 @@ import type { Point } from '../model/types';
 import { boxIsClear, textWidth, type Box, type Obstacles } from './free-place';
 import { INK, materialFill, rgbDistance } from './palette';
 import type { DrawingModel } from './section-in-units';
-import { pathData, svgElement, svgText } from './svg-element';
-import { toPixels, type Frame, type Scales } from './types';
+import { clippedLineData, clippedPolygonData, plotRect } from './clip-rect';
+import { svgElement, svgText } from './svg-element';
+import { toPixels, type Frame } from './types';
 
 /**
  * The fill of each material of a drawing, by its kind and strength (materialFill): the same
@@ -45,23 +46,26 @@ function bottomOf(model: DrawingModel, i: number, yBottom: number): Point[] {
 /**
  * The strata as filled polygons (each from its top down to the next stratum's top, the last
  * one down to `yBottom`), coloured by material, a rigid base hatched (pattern `#<ids>-hatch`),
- * and the ground line.
+ * and the ground line, all cut to the frame's plot area.
  *
- * @example strataShapes(model, scales, 10, 'sl')
+ * @example strataShapes(model, frame, 10, 'sl')
  */
-export function strataShapes(model: DrawingModel, s: Scales, yBottom: number, ids: string): string {
+export function strataShapes(model: DrawingModel, s: Frame, yBottom: number, ids: string): string {
   const fills = strataFills(model);
+  const r = plotRect(s);
   const polygons: string[] = [];
   model.strata.forEach((stratum, i) => {
     const ring = [...stratum.top, ...[...bottomOf(model, i, yBottom)].reverse()];
-    const d = pathData(toPixels(ring, s), true);
+    const d = clippedPolygonData(toPixels(ring, s), r);
+    if (!d) return;
     polygons.push(svgElement('path', { d, fill: fills[stratum.material], stroke: 'none' }));
     if (stratum.rigid)
       polygons.push(svgElement('path', { d, fill: `url(#${ids}-hatch)`, stroke: 'none' }));
-    if (i > 0)
+    const top = clippedLineData(toPixels(stratum.top, s), r);
+    if (i > 0 && top)
       polygons.push(
         svgElement('path', {
-          d: pathData(toPixels(stratum.top, s)),
+          d: top,
           fill: 'none',
           stroke: INK,
           'stroke-width': 0.8,
@@ -70,7 +74,7 @@ export function strataShapes(model: DrawingModel, s: Scales, yBottom: number, id
       );
   });
   const ground = svgElement('path', {
-    d: pathData(toPixels(model.ground, s)),
+    d: clippedLineData(toPixels(model.ground, s), r),
     fill: 'none',
     stroke: INK,
     'stroke-width': 1.6,

@@ -3,9 +3,10 @@ import type { MethodId, Point, Polyline } from '../model/types';
 import { circleBelowGround } from './circle-below-ground';
 import { boxIsClear, textWidth, type Box, type Obstacles } from './free-place';
 import { ACCENT, ACCENT_TEXT, INK, MUTED } from './palette';
-import { pathData, svgElement, svgText } from './svg-element';
+import { clippedLineData, clipSegment, insideRect, plotRect } from './clip-rect';
+import { svgElement, svgText } from './svg-element';
 import type { SearchReport } from '../result';
-import { toPixels, type Frame, type Scales } from './types';
+import { toPixels, type Frame } from './types';
 
 /** Methods that found the same slip surface, drawn once. */
 export interface SurfaceGroup {
@@ -60,29 +61,33 @@ export const SURFACE_DASHES = ['6 4', '2 3', '10 3 2 3', '1 2'];
  * The critical surfaces: the governing one in the accent colour over a white halo, the others
  * dark and dashed; the centre of each circle (or the pole of a spiral) as a small ring, the
  * governing one filled with the colour of its FS on the FS map when `fill` gives it. Radii from
- * the centre to the surface's ends only when asked (`radii`).
+ * the centre to the surface's ends only when asked (`radii`). All cut to the frame's plot area
+ * (a centre outside it is not drawn).
  *
- * @example surfaceShapes(criticalSurfaces(result), scales)
+ * @example surfaceShapes(criticalSurfaces(result), frame)
  */
 export function surfaceShapes(
   groups: readonly SurfaceGroup[],
-  s: Scales,
+  s: Frame,
   options: { radii?: boolean; fill?: (fs: number) => string } = {},
 ): string {
   const parts: string[] = [];
+  const r = plotRect(s);
   let dash = 0;
   for (const g of groups) {
-    const d = pathData(toPixels(g.points, s));
+    const d = clippedLineData(toPixels(g.points, s), r);
     const colour = g.governing ? ACCENT : INK;
     if (g.center && options.radii) {
       const [cx, cy] = [s.x(g.center[0]), s.y(g.center[1])];
       for (const end of [g.points[0], g.points[g.points.length - 1]]) {
+        const radius = clipSegment([cx, cy], [s.x(end[0]), s.y(end[1])], r);
+        if (!radius) continue;
         parts.push(
           svgElement('line', {
-            x1: cx,
-            y1: cy,
-            x2: s.x(end[0]),
-            y2: s.y(end[1]),
+            x1: radius[0][0],
+            y1: radius[0][1],
+            x2: radius[1][0],
+            y2: radius[1][1],
             stroke: colour,
             'stroke-width': 0.7,
             'stroke-opacity': 0.45,
@@ -90,6 +95,10 @@ export function surfaceShapes(
           }),
         );
       }
+    }
+    if (!d) {
+      if (!g.governing) dash++; // the legend's dashes stay in step
+      continue;
     }
     if (g.governing) {
       parts.push(
@@ -126,12 +135,14 @@ export function surfaceShapes(
   for (const g of groups) {
     if (!g.center) continue;
     const [cx, cy] = [s.x(g.center[0]), s.y(g.center[1])];
+    const ring = g.governing ? 4.5 : 3;
+    if (!insideRect([cx, cy], r, ring + 1)) continue;
     const least = Math.min(...g.fs);
     parts.push(
       svgElement('circle', {
         cx,
         cy,
-        r: g.governing ? 4.5 : 3,
+        r: ring,
         fill: g.governing && options.fill ? options.fill(least) : '#ffffff',
         stroke: g.governing ? ACCENT : INK,
         'stroke-width': g.governing ? 2 : 1.2,
@@ -241,12 +252,12 @@ export function fsCallout(
  * The search's trial surfaces within its band of the least FS (search.trialBand) as thin faint
  * lines under the critical one; circles are drawn where they are below the ground.
  *
- * @example trialSurfaceShapes(result.search, ground, scales)
+ * @example trialSurfaceShapes(result.search, ground, frame)
  */
 export function trialSurfaceShapes(
   search: SearchReport | null | undefined,
   ground: Polyline,
-  s: Scales,
+  s: Frame,
 ): { svg: string; lines: Point[][] } {
   const surfaces = search?.trialBand?.surfaces ?? [];
   if (surfaces.length === 0) return { svg: '', lines: [] };
@@ -259,9 +270,11 @@ export function trialSurfaceShapes(
     else if (surface.type === 'polyline' || surface.type === 'log-spiral') lines = [surface.points];
     for (const line of lines) {
       all.push(line);
+      const d = clippedLineData(toPixels(line, s), plotRect(s));
+      if (!d) continue;
       parts.push(
         svgElement('path', {
-          d: pathData(toPixels(line, s)),
+          d,
           fill: 'none',
           stroke: MUTED,
           'stroke-width': 0.8,

@@ -2,24 +2,28 @@ import { yAt } from '../geometry/y-at';
 import { WATER_FILL, WATER_LINE } from './palette';
 import { pondedPolygons } from './ponded-polygons';
 import type { DrawingModel } from './section-in-units';
-import { pathData, svgElement } from './svg-element';
-import { toPixels, type Scales } from './types';
+import { clippedLineData, clippedPolygonData, insideRect, plotRect } from './clip-rect';
+import { svgElement } from './svg-element';
+import { toPixels, type Frame } from './types';
 
 /**
  * The piezometric line, the ponded water where it stands above the ground (filled), and the
  * water-table mark (an inverted triangle over short lines, as on geotechnical drawings) where
- * the line is below the ground. Nothing for ru or dry sections.
+ * the line is below the ground, all cut to the frame's plot area. Nothing for ru or dry sections.
  *
- * @example waterShapes(model, scales)
+ * @example waterShapes(model, frame)
  */
-export function waterShapes(model: DrawingModel, s: Scales): string {
+export function waterShapes(model: DrawingModel, s: Frame): string {
   const line = model.water.line;
   if (!line) return '';
+  const r = plotRect(s);
   const parts: string[] = [];
   for (const polygon of pondedPolygons(model.ground, line)) {
+    const d = clippedPolygonData(toPixels(polygon, s), r);
+    if (!d) continue;
     parts.push(
       svgElement('path', {
-        d: pathData(toPixels(polygon, s), true),
+        d,
         fill: WATER_FILL,
         'fill-opacity': 0.75,
         stroke: 'none',
@@ -34,15 +38,17 @@ export function waterShapes(model: DrawingModel, s: Scales): string {
     ...visible,
     [x1, yAt(line, x1)] as [number, number],
   ];
-  parts.push(
-    svgElement('path', {
-      d: pathData(toPixels(clipped, s)),
-      fill: 'none',
-      stroke: WATER_LINE,
-      'stroke-width': 1.4,
-      'stroke-dasharray': '7 3',
-    }),
-  );
+  const d = clippedLineData(toPixels(clipped, s), r);
+  if (d)
+    parts.push(
+      svgElement('path', {
+        d,
+        fill: 'none',
+        stroke: WATER_LINE,
+        'stroke-width': 1.4,
+        'stroke-dasharray': '7 3',
+      }),
+    );
   // the mark: at the first of a few places where the line is below the ground
   for (const f of [0.8, 0.2, 0.5, 0.1, 0.9]) {
     const x = x0 + (x1 - x0) * f;
@@ -50,6 +56,7 @@ export function waterShapes(model: DrawingModel, s: Scales): string {
     if (wy >= yAt(model.ground, x)) continue;
     const px = s.x(x);
     const py = s.y(wy);
+    if (!insideRect([px - 6, py - 9], r) || !insideRect([px + 6, py + 6], r)) continue;
     parts.push(
       svgElement('path', {
         d: `M${px - 6} ${py - 9}L${px + 6} ${py - 9}L${px} ${py - 1}Z`,

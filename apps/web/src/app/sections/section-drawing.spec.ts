@@ -82,4 +82,56 @@ describe('SectionDrawing', () => {
     await fixture.whenStable();
     expect(el().querySelector('[data-testid="section-drawing"]')?.textContent).toContain('run 2');
   });
+
+  it("downloads the server's PNG of the same case under the drawing's name as .png", async () => {
+    fixture.componentRef.setInput('fileName', 'wcb-main_1000-run2.svg');
+    fixture.componentRef.setInput('caseName', 'long term');
+    await fixture.whenStable();
+    // the first drawing's request gave way to the case's
+    backend
+      .match((r) => r.url === '/api/v1/sections/7/plot.svg')
+      .at(-1)!
+      .flush(SVG);
+    await fixture.whenStable();
+    const saved: { name: string; type: string }[] = [];
+    const click = vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(function (
+      this: HTMLAnchorElement,
+    ) {
+      saved.push({ name: this.download, type: '' });
+    });
+    const created = vi.spyOn(URL, 'createObjectURL').mockImplementation((b) => {
+      saved.push({ name: '', type: (b as Blob).type });
+      return 'blob:png';
+    });
+    vi.spyOn(URL, 'revokeObjectURL').mockImplementation(() => undefined);
+    const button = el().querySelector('[data-testid="download-png"]') as HTMLButtonElement;
+    expect(button.disabled).toBe(false);
+    button.click();
+    await fixture.whenStable();
+    const req = backend.expectOne('/api/v1/sections/7/plot.png?case=long%20term');
+    expect(req.request.responseType).toBe('blob');
+    expect(button.disabled).toBe(true); // while it is being made
+    req.flush(new Blob([new Uint8Array([137, 80, 78, 71])], { type: 'image/png' }));
+    await fixture.whenStable();
+    expect(saved).toEqual([
+      { name: '', type: 'image/png' },
+      { name: 'wcb-main_1000-run2.png', type: '' },
+    ]);
+    expect(button.disabled).toBe(false);
+    click.mockRestore();
+    created.mockRestore();
+  });
+
+  it('says so when the PNG cannot be made', async () => {
+    backend.expectOne('/api/v1/sections/7/plot.svg').flush(SVG);
+    await fixture.whenStable();
+    (el().querySelector('[data-testid="download-png"]') as HTMLButtonElement).click();
+    backend
+      .expectOne('/api/v1/sections/7/plot.png')
+      .flush(new Blob(['boom']), { status: 503, statusText: 'Service Unavailable' });
+    await fixture.whenStable();
+    expect(el().querySelector('.sl-drawing-png-error')?.textContent).toContain(
+      'Service Unavailable',
+    );
+  });
 });

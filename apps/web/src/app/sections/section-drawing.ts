@@ -7,6 +7,7 @@ import {
   signal,
   ViewEncapsulation,
 } from '@angular/core';
+import { HttpErrorResponse } from '@angular/common/http';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -26,7 +27,8 @@ interface Drawing {
  * The cross-section as the server draws it for the current run (of one design case when
  * named) (strata, water, loads, the
  * critical surfaces, slices, the FS map of the search, axes, legend, caution), inlined so it
- * scales with the page, with a download of the same SVG file. Reloads when `version` changes.
+ * scales with the page, with a download of the same SVG file and of the server's PNG rendering
+ * of it. Reloads when `version` changes.
  */
 @Component({
   selector: 'sl-section-drawing',
@@ -55,7 +57,20 @@ interface Drawing {
         <mat-icon aria-hidden="true">download</mat-icon>
         Download SVG
       </button>
+      <button
+        mat-stroked-button
+        type="button"
+        data-testid="download-png"
+        [disabled]="loaded().state !== 'ready' || pngBusy()"
+        (click)="downloadPng()"
+      >
+        <mat-icon aria-hidden="true">image</mat-icon>
+        Download PNG
+      </button>
     </div>
+    @if (pngFailed()) {
+      <p class="sl-drawing-png-error" role="alert">The PNG could not be made: {{ pngFailed() }}</p>
+    }
     @switch (loaded().state) {
       @case ('ready') {
         <div
@@ -111,6 +126,11 @@ interface Drawing {
     .sl-drawing-state {
       min-height: 120px;
     }
+    .sl-drawing-png-error {
+      margin: 0 0 8px;
+      text-align: right;
+      color: var(--sl-fail);
+    }
   `,
 })
 export class SectionDrawing {
@@ -126,6 +146,8 @@ export class SectionDrawing {
   readonly caseName = input<string | null>(null);
 
   protected readonly fit = signal(true);
+  protected readonly pngBusy = signal(false);
+  protected readonly pngFailed = signal<string | null>(null);
   private readonly tries = signal(0);
 
   private readonly request = computed(() => ({
@@ -165,10 +187,32 @@ export class SectionDrawing {
   protected download(): void {
     const d = this.drawing();
     if (!d) return;
-    const url = URL.createObjectURL(new Blob([d.text], { type: 'image/svg+xml' }));
+    this.save(new Blob([d.text], { type: 'image/svg+xml' }), this.fileName());
+  }
+
+  /** The server's PNG of the same drawing (same case), saved under the SVG's name as .png. */
+  protected downloadPng(): void {
+    this.pngBusy.set(true);
+    this.pngFailed.set(null);
+    this.api.plotPng(this.sectionId(), this.caseName()).subscribe({
+      next: (png) => {
+        this.pngBusy.set(false);
+        this.save(png, this.fileName().replace(/(\.svg)?$/i, '.png'));
+      },
+      error: (err: unknown) => {
+        this.pngBusy.set(false);
+        this.pngFailed.set(
+          err instanceof HttpErrorResponse ? err.statusText || 'no answer' : String(err),
+        );
+      },
+    });
+  }
+
+  private save(blob: Blob, name: string): void {
+    const url = URL.createObjectURL(blob);
     const a = document.createElement('a');
     a.href = url;
-    a.download = this.fileName();
+    a.download = name;
     document.body.appendChild(a);
     a.click();
     a.remove();

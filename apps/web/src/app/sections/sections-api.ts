@@ -47,6 +47,12 @@ export class SectionsApi {
       .pipe(catchError((err: unknown) => throwError(() => withJsonBody(err))));
   }
 
+  /** The same drawing rendered to PNG by the server, as a file to save. */
+  plotPng(id: number, caseName: string | null = null): Observable<Blob> {
+    const params = caseName === null ? undefined : new HttpParams().set('case', caseName);
+    return this.http.get(`${BASE}/sections/${id}/plot.png`, { responseType: 'blob', params });
+  }
+
   runs(id: number): Observable<RunsView> {
     return this.http.get<RunsView>(`${BASE}/sections/${id}/runs`);
   }
