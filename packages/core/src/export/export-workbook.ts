@@ -120,10 +120,13 @@ const round = (v: number | null | undefined, digits: number): number | null =>
   typeof v === 'number' && Number.isFinite(v) ? Number(v.toFixed(digits)) : null;
 
 /**
- * The columns of a slice table, as the command line's `--slice-table` shows them (and to the
- * same decimals): geometry, weight, pore pressure, base forces, the base material and the
- * strength it took (c′ or Su, φ′), the reinforcement force where the method has one, and the
- * stress a strength that varies with stress was taken at (σ′n on the base, σ′v above it).
+ * The columns of a slice table, as the web page's slice table and the command line's
+ * `--slice-table` show them, in the web page's order: geometry (x, b, α, the base length l),
+ * weight, pore pressure, base forces, interslice forces E and X and the height of the line of
+ * thrust (empty where the method computes none), the base material and the strength it took
+ * (c′ or Su, φ′), the stress a strength that varies with stress was taken at (σ′n on the base,
+ * σ′v above it), and the reinforcement force where the method has one. Decimals as the command
+ * line writes them (lengths 2, widths and base lengths 3, angles, forces and stresses 1).
  */
 function sliceColumns(units: UnitSystem, slices: readonly SliceReport[]): SliceColumn[] {
   const u = UNIT_LABELS[units];
@@ -143,17 +146,18 @@ function sliceColumns(units: UnitSystem, slices: readonly SliceReport[]): SliceC
     col('x', u.length, 2, (s) => s.x),
     col('b', u.length, 3, (s) => s.width),
     col('α', '°', 1, (s) => s.alpha),
+    col('l', u.length, 3, (s) => s.baseLength),
     col('W', u.forcePerLength, 1, (s) => s.weight),
     col('u', u.pressure, 1, (s) => s.porePressure),
     col('N′', u.forcePerLength, 1, (s) => s.normal),
     col('S', u.forcePerLength, 1, (s) => s.shear),
+    col('E', u.forcePerLength, 1, (s) => s.interslice.E),
+    col('X', u.forcePerLength, 1, (s) => s.interslice.X),
+    col('thrust y', u.length, 2, (s) => s.interslice.thrust),
     { name: 'material', unit: '', width: 16, value: (s) => s.material },
     col('c′/Su', u.pressure, 1, (s) => s.cohesion),
     col('φ′', '°', 1, (s) => s.frictionAngle),
   ];
-  if (slices.some((s) => typeof s.reinforcement === 'number'))
-    // blank where a slice carries no force, as the command line's table leaves it
-    cols.push(col('T', u.forcePerLength, 1, (s) => s.reinforcement || null));
   if (slices.some((s) => s.strengthAt))
     cols.push(
       {
@@ -164,6 +168,9 @@ function sliceColumns(units: UnitSystem, slices: readonly SliceReport[]): SliceC
       },
       col('stress', u.pressure, 1, (s) => s.strengthAt?.stress),
     );
+  // blank where a slice carries no force, as both tables leave it
+  if (slices.some((s) => typeof s.reinforcement === 'number'))
+    cols.push(col('T', u.forcePerLength, 1, (s) => s.reinforcement || null));
   return cols;
 }
 
