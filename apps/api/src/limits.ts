@@ -20,6 +20,8 @@ export const API_LIMITS = Object.freeze({
   /** The highest page of a paged list, and the most items on one page. */
   page: 100_000,
   pageSize: 500,
+  /** The most sections of a batch whose results.xlsx takes a slice sheet each (?slices=true). */
+  sliceSheetSections: 100,
   /** The largest id (PostgreSQL's integer). */
   id: 2_147_483_647,
 });

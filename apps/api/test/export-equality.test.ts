@@ -1,7 +1,7 @@
 /**
  * One results table: the demo corridor run through the command line (`scarpline batch`) and
- * through the API gives the same CSV and the same GeoJSON, apart from what only the service
- * knows (the review state and the job state, its own columns at the end). The command is the
+ * through the API gives the same CSV, the same GeoJSON and the same results sheet of the
+ * spreadsheet (values and number formats), apart from what only the service knows (the review state and the job state, its own columns at the end). The command is the
  * built one (`npm test` builds first), as its own tests run it.
  */
 import { spawnSync } from 'node:child_process';
@@ -9,6 +9,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
+import { Workbook } from 'exceljs';
 import { EXPORT_COLUMNS } from '@scarpline/core';
 import { createApp } from '../src/app';
 import { sequelize } from '../src/db';
@@ -24,6 +25,25 @@ const app = createApp();
 const bearer = { type: 'bearer' as const };
 let engineer: string;
 let projectId: number;
+
+/** A results sheet read back: each row's cells (caution, names, units, then the records) and each column's number format. */
+interface Sheet {
+  rows: unknown[][];
+  formats: string[];
+}
+
+async function resultsSheet(bytes: Buffer): Promise<Sheet> {
+  const wb = new Workbook();
+  await wb.xlsx.load(new Uint8Array(bytes).buffer);
+  const ws = wb.getWorksheet('results')!;
+  const width = ws.getRow(2).cellCount;
+  const rows: unknown[][] = [];
+  ws.eachRow({ includeEmpty: true }, (row) =>
+    rows.push(Array.from({ length: width }, (_, i) => row.getCell(i + 1).value)),
+  );
+  const formats = Array.from({ length: width }, (_, i) => ws.getColumn(i + 1).numFmt ?? '');
+  return { rows, formats };
+}
 
 interface Collection {
   type: string;
@@ -48,8 +68,10 @@ afterAll(async () => {
   await sequelize.close();
 });
 
-/** `scarpline batch FILE --out DIR`: results.csv and results.geojson as written. */
-function cliExports(file: string): { csv: string; geojson: Collection } {
+/** `scarpline batch FILE --out DIR`: results.csv, results.geojson and results.xlsx as written. */
+async function cliExports(
+  file: string,
+): Promise<{ csv: string; geojson: Collection; xlsx: Sheet }> {
   const out = fs.mkdtempSync(path.join(os.tmpdir(), 'scarpline-equal-'));
   const r = spawnSync(process.execPath, [CLI, 'batch', file, '--out', out, '--no-svg'], {
     cwd: ROOT,
@@ -61,11 +83,14 @@ function cliExports(file: string): { csv: string; geojson: Collection } {
   return {
     csv: fs.readFileSync(path.join(out, 'results.csv'), 'utf8'),
     geojson: JSON.parse(fs.readFileSync(path.join(out, 'results.geojson'), 'utf8')) as Collection,
+    xlsx: await resultsSheet(fs.readFileSync(path.join(out, 'results.xlsx'))),
   };
 }
 
-/** The API's two exports of a finished batch. */
-async function apiExports(batchId: number): Promise<{ csv: string; geojson: Collection }> {
+/** The API's three exports of a finished batch. */
+async function apiExports(
+  batchId: number,
+): Promise<{ csv: string; geojson: Collection; xlsx: Sheet }> {
   await waitForBatch(app, engineer, batchId, 120000);
   const csv = await request(app)
     .get(`/api/v1/batches/${batchId}/results.csv`)
@@ -73,12 +98,28 @@ async function apiExports(batchId: number): Promise<{ csv: string; geojson: Coll
   const geo = await request(app)
     .get(`/api/v1/batches/${batchId}/results.geojson`)
     .auth(engineer, bearer);
-  expect([csv.status, geo.status]).toEqual([200, 200]);
-  return { csv: csv.text, geojson: JSON.parse(geo.text) as Collection };
+  const xlsx = await request(app)
+    .get(`/api/v1/batches/${batchId}/results.xlsx`)
+    .auth(engineer, bearer)
+    .buffer(true)
+    .parse((res, done) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => done(null, Buffer.concat(chunks)));
+    });
+  expect([csv.status, geo.status, xlsx.status]).toEqual([200, 200, 200]);
+  return {
+    csv: csv.text,
+    geojson: JSON.parse(geo.text) as Collection,
+    xlsx: await resultsSheet(xlsx.body as Buffer),
+  };
 }
 
 /** The two exports agree, the API's own columns (at the end of each row) set aside. */
-function expectEqual(cli: { csv: string; geojson: Collection }, api: typeof cli): void {
+function expectEqual(
+  cli: { csv: string; geojson: Collection; xlsx: Sheet },
+  api: typeof cli,
+): void {
   const cliLines = cli.csv.split('\r\n');
   const apiLines = api.csv.split('\r\n');
   expect(cliLines[0]).toBe(EXPORT_COLUMNS.join(','));
@@ -109,10 +150,19 @@ function expectEqual(cli: { csv: string; geojson: Collection }, api: typeof cli)
   expect(stripped.map((f) => Object.keys(f.properties))).toEqual(
     cliFeatures.map((f) => Object.keys(f.properties)),
   );
+
+  // the results sheet: the same cells (the service's two columns at the end set aside, their
+  // names in row 2), the same number formats, a row per CSV record below the caution, names and units
+  const n = EXPORT_COLUMNS.length;
+  expect(cli.xlsx.rows[1]).toEqual([...EXPORT_COLUMNS]);
+  expect(api.xlsx.rows[1]).toEqual([...EXPORT_COLUMNS, ...SERVICE_COLUMNS]);
+  expect(api.xlsx.rows.map((r) => r.slice(0, n))).toEqual(cli.xlsx.rows);
+  expect(api.xlsx.formats.slice(0, n)).toEqual(cli.xlsx.formats);
+  expect(cli.xlsx.rows).toHaveLength(3 + cliLines.length - 2);
 }
 
-test('the demo corridor: the CSV and GeoJSON of the command and of the API are the same', async () => {
-  const cli = cliExports(CORRIDOR);
+test('the demo corridor: the CSV, GeoJSON and results sheet of the command and of the API are the same', async () => {
+  const cli = await cliExports(CORRIDOR);
   const corridor = JSON.parse(fs.readFileSync(CORRIDOR, 'utf8')) as { sections: unknown[] };
   const post = await request(app)
     .post(`/api/v1/projects/${projectId}/batches`)
@@ -145,7 +195,7 @@ test('a GeoJSON corridor: the lines and their attributes come back the same from
   const text = JSON.stringify({ type: 'FeatureCollection', scarpline: header, features }, null, 2);
   const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), 'scarpline-geo-')), 'lines.geojson');
   fs.writeFileSync(file, text);
-  const cli = cliExports(file);
+  const cli = await cliExports(file);
   const up = await request(app)
     .post(`/api/v1/projects/${projectId}/uploads`)
     .auth(engineer, bearer)

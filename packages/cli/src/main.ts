@@ -139,7 +139,11 @@ withOverrides(
 )
   .option(
     '-o, --out <dir>',
-    'write results.json, results.csv, results.geojson, chainage.svg and sections/<id>.svg there',
+    'write results.json, results.csv, results.geojson, results.xlsx, chainage.svg and sections/<id>.svg there',
+  )
+  .option(
+    '--slice-sheets',
+    "results.xlsx: add a sheet per section with the slice table of each case's governing method",
   )
   .option('-j, --jobs <n>', 'worker threads (default: one per core)')
   .option(
@@ -168,12 +172,15 @@ ${EXIT}
         jobs?: string;
         template?: string;
         svg?: boolean;
+        sliceSheets?: boolean;
         units?: UnitSystem;
         method?: string[];
         slices?: string;
         requiredFs?: string;
       },
     ) => {
+      if (opts.sliceSheets && !opts.out)
+        throw new UserError('--slice-sheets is for results.xlsx: give --out <dir>');
       const jobs = opts.jobs === undefined ? undefined : Number(opts.jobs);
       if (jobs !== undefined && (!Number.isInteger(jobs) || jobs < 1))
         throw new UserError(`--jobs: ${opts.jobs} is not a whole number of 1 or more`);
@@ -185,6 +192,7 @@ ${EXIT}
           out: opts.out,
           template: opts.template,
           svg: opts.svg,
+          sliceSheets: opts.sliceSheets === true,
           units: opts.units,
           ...checkOverrides(opts),
           jobs,

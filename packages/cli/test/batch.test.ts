@@ -7,6 +7,7 @@ import { XMLValidator } from 'fast-xml-parser';
 import Ajv2020 from 'ajv/dist/2020';
 import { resultSchema } from '@scarpline/schemas';
 import { FIXTURES, MAIN, ROOT, run } from './run';
+import { readXlsx, shown } from './xlsx-cells';
 
 const validate = new Ajv2020({ strict: false }).compile(resultSchema);
 const tmp = () => mkdtempSync(join(tmpdir(), 'scarpline-batch-'));
@@ -121,6 +122,27 @@ describe('scarpline batch', () => {
     // a station of one case: its station row is its case row but for the row
     for (const i of [0, 2, 5]) expect({ ...rows[i], row: 'station' }).toEqual(rows[i + 1]);
     for (const x of rows) expect(x.caution).toMatch(/licensed practice/);
+  });
+
+  test('results.xlsx: its results sheet holds the CSV, cell by cell, with the caution, names and units above', async () => {
+    const csv = parse(readFileSync(join(out, 'results.csv'), 'utf8'));
+    const wb = await readXlsx(join(out, 'results.xlsx'));
+    expect(wb.worksheets.map((w) => w.name)).toEqual(['results']); // no slice sheets unless asked
+    const ws = wb.worksheets[0];
+    expect(ws.getCell('A1').value).toMatch(/^Caution: Results are for review by a qualified/);
+    const [header, ...records] = csv;
+    header.forEach((name, i) => expect(ws.getRow(2).getCell(i + 1).value).toBe(name));
+    expect(ws.getRow(3).getCell(header.indexOf('station') + 1).value).toBe('m');
+    expect(ws.getRow(3).getCell(header.indexOf('required_force') + 1).value).toBe('kN/m');
+    expect(ws.rowCount).toBe(3 + records.length);
+    records.forEach((record, r) =>
+      record.forEach((text, c) => {
+        expect(shown(ws, r + 4, c + 1)).toBe(text);
+        const v = ws.getRow(r + 4).getCell(c + 1).value;
+        // numbers are stored as numbers, to the CSV's precision (not more)
+        if (typeof v === 'number') expect(v).toBe(Number(text));
+      }),
+    );
   });
 
   test('results.geojson from a YAML batch: unlocated features (geometry null) keyed by station and case', () => {

@@ -1,10 +1,18 @@
 import { Router } from 'express';
 import { ALL, allow, principal } from '../middleware/auth';
 import { loadBatch } from '../services/batches';
-import { batchCsv, batchGeoJson, fileName, sectionSvg } from '../services/exports';
+import {
+  batchCsv,
+  batchGeoJson,
+  batchXlsx,
+  fileName,
+  sectionSvg,
+  xlsxFileName,
+} from '../services/exports';
+import { XLSX_TYPE } from '../xlsx';
 import { sectionPng } from '../services/plot-png';
 import { API_LIMITS } from '../limits';
-import { idParam, queryName } from './params';
+import { idParam, queryFlag, queryName } from './params';
 
 export const exportRoutes = Router();
 const attachment = (name: string) => `attachment; filename="${name}"`;
@@ -23,6 +31,16 @@ exportRoutes.get('/batches/:id/results.geojson', allow(...ALL), async (req, res)
     .type('application/geo+json')
     .set('Content-Disposition', attachment(fileName(b, 'geojson')))
     .send(JSON.stringify(await batchGeoJson(b)));
+});
+
+exportRoutes.get('/batches/:id/results.xlsx', allow(...ALL), async (req, res) => {
+  const slices = queryFlag(req.query.slices, 'slices');
+  const b = await loadBatch(principal(req), idParam(req.params.id));
+  const xlsx = await batchXlsx(b, { slices });
+  res
+    .type(XLSX_TYPE)
+    .set('Content-Disposition', attachment(xlsxFileName(b, new Date())))
+    .send(xlsx);
 });
 
 exportRoutes.get('/sections/:id/plot.svg', allow(...ALL), async (req, res) => {

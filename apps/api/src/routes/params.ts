@@ -80,6 +80,14 @@ export function queryInt(value: unknown, name: string, fallback: number, max: nu
   return n;
 }
 
+/** A yes-or-no query (`?slices=true`): `true` or `false`, false when not given; 400 otherwise. */
+export function queryFlag(value: unknown, name: string): boolean {
+  const v = queryText(value, name);
+  if (v === undefined || v === 'false') return false;
+  if (v === 'true') return true;
+  throw badRequest(`${name} is true or false.`);
+}
+
 /** One text from a query, or undefined; 400 when the parameter is repeated or nested. */
 export function queryText(value: unknown, name: string): string | undefined {
   if (value === undefined || value === '') return undefined;

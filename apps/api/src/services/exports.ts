@@ -1,9 +1,9 @@
 /**
- * Exports of a batch's current results (CSV, GeoJSON) and a section's plot (SVG). The CSV
- * columns and GeoJSON properties are the core's results table (export/export-table.ts,
- * schemas/export-table.schema.json), the same as `scarpline batch` writes — per station a row
- * per design case, then the station's — with the service's own columns at the end: the review
- * state and the job state.
+ * Exports of a batch's current results (CSV, GeoJSON, a spreadsheet) and a section's plot (SVG).
+ * The CSV columns, the GeoJSON properties and the spreadsheet's results sheet are the core's
+ * results table (export/export-table.ts, schemas/export-table.schema.json), the same as
+ * `scarpline batch` writes — per station a row per design case, then the station's — with the
+ * service's own columns at the end: the review state and the job state.
  */
 import { CAUTION } from '@scarpline/core/caution';
 import { drawSection, type DrawableResult } from '@scarpline/core/draw';
@@ -17,20 +17,28 @@ import {
   type ExportableCase,
   type ExportRecord,
   type ExportValue,
+  resultsSheet,
+  resultsWorkbook,
+  sliceSheet,
 } from '@scarpline/core/export';
-import { sectionOfCase, type MethodId, type Section } from '@scarpline/core/model';
+import { sectionOfCase, type MethodId, type Section, type UnitSystem } from '@scarpline/core/model';
 import type { MethodReport, RequiredReinforcementReport, Warning } from '@scarpline/core/result';
-import { conflict, notFound } from '../errors';
+import { conflict, invalid, notFound } from '../errors';
+import { API_LIMITS } from '../limits';
 import { Batch, ResultRow, SectionRow, type CaseResultRow } from '../models';
 import type { Principal } from './auth';
 import { sectionReviewStates } from './reviews';
 import { casesOf, loadSection } from './sections';
+import { xlsxBuffer } from '../xlsx';
 
 /** The columns the service adds after the table's: what only it knows. */
 export const SERVICE_COLUMNS = ['review_state', 'job_state'] as const;
 
 interface Row {
   section: SectionRow;
+  units: UnitSystem;
+  /** The cases of its current result (none without one). */
+  cases: CaseResultRow[];
   records: ExportRecord[];
   service: Record<(typeof SERVICE_COLUMNS)[number], ExportValue>;
 }
@@ -114,9 +122,12 @@ async function rows(batch: Batch): Promise<Row[]> {
   const reviews = await sectionReviewStates(batch.id);
   return sections.map((section) => {
     const result = resultOf.get(section.id) ?? null;
+    const own = result ? (cases.get(result.id) ?? []) : [];
     return {
       section,
-      records: recordsOf(section, result, result ? (cases.get(result.id) ?? []) : []),
+      units: (section.input as Partial<Section>).units ?? 'si',
+      cases: own,
+      records: recordsOf(section, result, own),
       service: {
         review_state: reviews.get(section.id)?.decision ?? 'pending',
         job_state: section.status,
@@ -136,6 +147,56 @@ export async function batchCsv(batch: Batch): Promise<string> {
     for (const record of records) lines.push(exportCsvRow(record, own));
   }
   return lines.join('');
+}
+
+/**
+ * The name of a batch's spreadsheet: the corridor and the day it was made (UTC).
+ *
+ * @example xlsxFileName(batch, new Date('2026-12-02T21:30:00Z')) // → 'wcb-main-results-2026-12-02.xlsx'
+ */
+export function xlsxFileName(batch: Batch, date: Date): string {
+  return fileName(batch, 'xlsx').replace(/\.xlsx$/, `-${date.toISOString().slice(0, 10)}.xlsx`);
+}
+
+/**
+ * The batch's results as a spreadsheet: the results sheet, the same records, columns and
+ * precision as the CSV with the service's own columns at the end, and with `slices` a sheet per
+ * section holding each case's governing slices (for batches of at most
+ * API_LIMITS.sliceSheetSections sections: 422 beyond, so that a download stays bounded).
+ */
+export async function batchXlsx(batch: Batch, options: { slices: boolean }): Promise<Buffer> {
+  if (options.slices && batch.total > API_LIMITS.sliceSheetSections)
+    throw invalid(
+      `Slice sheets are given for batches of at most ${API_LIMITS.sliceSheetSections} sections; this one has ${batch.total}. Download results.xlsx without them, or a section's slices from its page.`,
+    );
+  const all = await rows(batch);
+  const units = new Set(all.map((r) => r.units));
+  const main = resultsSheet(
+    all.flatMap(({ records, service }) =>
+      records.map((record) => ({ record, extra: SERVICE_COLUMNS.map((c) => service[c]) })),
+    ),
+    { units: units.size === 1 ? [...units][0] : null, extra: SERVICE_COLUMNS },
+  );
+  const taken = new Set<string>();
+  const slices = options.slices
+    ? all
+        .filter((r) => r.cases.length > 0)
+        .map((r) =>
+          sliceSheet(
+            {
+              id: r.section.key,
+              units: r.units,
+              cases: r.cases.map((c) => ({
+                name: c.name,
+                governing: exportableCase(c).governing,
+                results: c.methods as MethodReport[],
+              })),
+            },
+            taken,
+          ),
+        )
+    : [];
+  return xlsxBuffer(resultsWorkbook(main, slices));
 }
 
 export async function batchGeoJson(batch: Batch) {

@@ -12,6 +12,9 @@ import {
   isGeoJsonCorridor,
   parseGeoJsonCorridor,
   parseSections,
+  resultsSheet,
+  resultsWorkbook,
+  uniqueSheetName,
   toSi,
   unanalysedRecord,
   VERDICT_WORDS,
@@ -20,6 +23,7 @@ import {
   type ExportRecord,
   type Section,
   type SectionEntry,
+  type SheetSpec,
   type UnitSystem,
   type Verdict,
 } from '@scarpline/core';
@@ -28,12 +32,15 @@ import { readInput, UserError } from '../read-input';
 import type { Reply, Task } from './messages';
 import { Output, resultsGeoJson, stationLine as line, stationRow } from './outputs';
 import { WorkerPool } from './pool';
+import { writeXlsx } from '../xlsx';
 
 export interface BatchOptions extends Overrides {
   out?: string;
   jobs?: number;
   template?: string;
   svg?: boolean;
+  /** Add a sheet per section to results.xlsx: the slice table of each case's governing method. */
+  sliceSheets?: boolean;
   units?: UnitSystem;
   /** Show a progress bar (a terminal) or plain lines. */
   tty?: boolean;
@@ -52,6 +59,8 @@ interface Entry {
   inputError: string | null;
   feature: CorridorFeature | null;
   records: ExportRecord[] | null;
+  /** Its slice sheet of results.xlsx, when asked for and analysed. */
+  slices: SheetSpec | null;
   /** Its result is in results.json. */
   analysed: boolean;
 }
@@ -96,6 +105,7 @@ function entriesOf(
     inputError: inputErrorOf(e),
     feature: 'feature' in e ? (e.feature as CorridorFeature) : null,
     records: null,
+    slices: null,
     analysed: false,
   }));
   return {
@@ -208,6 +218,7 @@ export async function runBatch(
           section,
           svgPath: drawings ? join(drawings, `${safe(e.label)}.svg`) : null,
           units: options.units ?? null,
+          sliceSheet: outDir !== undefined && options.sliceSheets === true,
         };
         pool.run(task);
       }
@@ -227,6 +238,7 @@ export async function runBatch(
         replies.delete(next);
         if (reply.ok) {
           e.records = reply.records;
+          e.slices = reply.slices;
           e.analysed = true;
           await json?.write(`${written > 0 ? ',\n' : ''}${reply.json}`);
           written++;
@@ -262,7 +274,13 @@ export async function runBatch(
 
   const done = entries.slice(0, next).map((e) => {
     const records = e.records as ExportRecord[];
-    return { records, record: stationRow(records), feature: e.feature, analysed: e.analysed };
+    return {
+      records,
+      record: stationRow(records),
+      feature: e.feature,
+      analysed: e.analysed,
+      slices: e.slices,
+    };
   });
   const failures = done
     .filter((e) => !e.analysed)
@@ -279,6 +297,20 @@ export async function runBatch(
   await csv?.close();
   if (outDir) {
     writeFileSync(join(outDir, 'results.geojson'), resultsGeoJson(id, done));
+    // the same records as results.csv, then the slice sheets asked for (names unique)
+    const taken = new Set<string>();
+    await writeXlsx(
+      join(outDir, 'results.xlsx'),
+      resultsWorkbook(
+        resultsSheet(
+          done.flatMap((e) => e.records.map((record) => ({ record }))),
+          { units: shownUnits },
+        ),
+        done.flatMap(({ slices }) =>
+          slices ? [{ ...slices, name: uniqueSheetName(slices.name, taken) }] : [],
+        ),
+      ),
+    );
     // the station's governing FS against its requirement (its governing case's)
     const points = done
       .map(({ record: r }) => ({
@@ -302,7 +334,9 @@ export async function runBatch(
   );
   if (outDir) {
     const svgs = drawings ? `, sections/*.svg (${written})` : '';
-    out(`wrote ${outDir}: results.json, results.csv, results.geojson, chainage.svg${svgs}`);
+    out(
+      `wrote ${outDir}: results.json, results.csv, results.geojson, results.xlsx${options.sliceSheets ? ' (with slice sheets)' : ''}, chainage.svg${svgs}`,
+    );
   }
   if (signalled)
     err(

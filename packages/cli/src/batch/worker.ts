@@ -1,7 +1,7 @@
 /**
  * A batch worker thread: analyses the sections it is sent with the built core and answers
- * with the result as JSON text (written to results.json by the main thread) and its rows of
- * the results table (a row per case, then the station's), writing the section's drawing itself
+ * with the result as JSON text (written to results.json by the main thread), its rows of
+ * the results table (a row per case, then the station's) and, when asked, its slice sheet, writing the section's drawing itself
  * when asked.
  */
 import { writeFileSync } from 'node:fs';
@@ -10,6 +10,7 @@ import {
   analyzeSection,
   caseView,
   drawSection,
+  sliceSheet,
   sectionOfCase,
   stationInUnits,
   stationRecords,
@@ -34,6 +35,7 @@ parentPort?.on('message', (task: Task) => {
       json: JSON.stringify(shown),
       // a row per case, then the station's: its governing case, and its verdict over every case
       records: stationRecords(shown),
+      slices: task.sliceSheet ? sliceSheet(shown, new Set()) : null,
     };
   } catch (e) {
     reply = { index: task.index, ok: false, error: e instanceof Error ? e.message : String(e) };

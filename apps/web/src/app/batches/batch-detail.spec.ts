@@ -146,6 +146,36 @@ describe('BatchDetail', () => {
     expect(el.querySelector('[data-testid=batch-progress]')?.textContent).toContain('3 total');
     expect(el.querySelector('[data-testid=download-csv]')).not.toBeNull();
     expect(el.querySelector('[data-testid=download-geojson]')).not.toBeNull();
+    expect(el.querySelector('[data-testid=download-xlsx]')).not.toBeNull();
+    fixture.destroy();
+  });
+
+  it('asks for the spreadsheet with slice sheets, and says why when the service refuses', async () => {
+    const fixture = TestBed.createComponent(BatchDetail);
+    fixture.componentRef.setInput('id', '5');
+    await fixture.whenStable();
+    backend.expectOne('/api/v1/batches/5').flush(batch('done', progress(3)));
+    await fixture.whenStable();
+    flushData();
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    const button = el.querySelector<HTMLButtonElement>('[data-testid=download-xlsx-slices]')!;
+    expect(button.textContent).toContain('Spreadsheet with slice tables');
+    button.click();
+    await fixture.whenStable();
+    expect(button.textContent).toContain('Preparing spreadsheet…');
+    const detail = 'Slice sheets are given for batches of at most 100 sections; this one has 300.';
+    const problem = { type: 'about:blank', title: 'Invalid input', status: 422, detail };
+    backend
+      .expectOne('/api/v1/batches/5/results.xlsx?slices=true')
+      .flush(new Blob([JSON.stringify(problem)], { type: 'application/problem+json' }), {
+        status: 422,
+        statusText: 'Unprocessable Entity',
+      });
+    await new Promise((r) => setTimeout(r, 0));
+    await fixture.whenStable();
+    expect(el.querySelector('[role=alert]')?.textContent).toContain(detail);
+    expect(button.disabled).toBe(false);
     fixture.destroy();
   });
 

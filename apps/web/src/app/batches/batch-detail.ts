@@ -39,7 +39,7 @@ import type {
   ReviewRequestResult,
   SectionListItem,
 } from './batch-types';
-import { BatchesApi } from './batches-api';
+import { BatchesApi, type ExportKind } from './batches-api';
 import { CaseCharts } from './case-charts';
 import { ChainageChart } from './chainage-chart';
 import { batchCases } from './design-cases';
@@ -216,7 +216,8 @@ export class BatchDetail {
   /** The units of the batch's sections, for the plan's scale bar. */
   protected readonly units = computed(() => batchUnits(this.all().value ?? []));
 
-  protected readonly downloading = signal<'csv' | 'geojson' | null>(null);
+  /** The export being fetched: a kind, or the spreadsheet with its slice sheets. */
+  protected readonly downloading = signal<ExportKind | 'xlsx-slices' | null>(null);
   protected readonly downloadProblem = signal<Problem | null>(null);
 
   protected readonly asking = signal(false);
@@ -263,12 +264,12 @@ export class BatchDetail {
     if (id !== undefined) this.openSection(id);
   }
 
-  protected download(kind: 'csv' | 'geojson'): void {
+  protected download(kind: ExportKind, slices = false): void {
     const b = this.batch();
     if (!b || this.downloading()) return;
-    this.downloading.set(kind);
+    this.downloading.set(slices ? 'xlsx-slices' : kind);
     this.downloadProblem.set(null);
-    this.api.download(b.id, kind).subscribe({
+    this.api.download(b.id, kind, { slices }).subscribe({
       next: (d) => {
         save(d.blob, d.fileName);
         this.downloading.set(null);

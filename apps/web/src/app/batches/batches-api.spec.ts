@@ -133,6 +133,21 @@ describe('BatchesApi', () => {
     expect(name).toBe('batch-9-results.geojson');
   });
 
+  it('downloads the spreadsheet, with its slice sheets when asked', () => {
+    const names: string[] = [];
+    api.download(9, 'xlsx').subscribe((d) => names.push(d.fileName));
+    api.download(9, 'xlsx', { slices: true }).subscribe((d) => names.push(d.fileName));
+    const plain = backend.expectOne('/api/v1/batches/9/results.xlsx');
+    expect(plain.request.params.has('slices')).toBe(false);
+    plain.flush(new Blob(['PK']), {
+      headers: { 'Content-Disposition': 'attachment; filename="wcb-main-results-2026-12-02.xlsx"' },
+    });
+    const withSlices = backend.expectOne('/api/v1/batches/9/results.xlsx?slices=true');
+    expect(withSlices.request.responseType).toBe('blob');
+    withSlices.flush(new Blob(['PK']));
+    expect(names).toEqual(['wcb-main-results-2026-12-02.xlsx', 'batch-9-results.xlsx']);
+  });
+
   it('reads file names from Content-Disposition', () => {
     expect(fileNameOf('attachment; filename="a b.csv"')).toBe('a b.csv');
     expect(fileNameOf('attachment; filename=plain.geojson')).toBe('plain.geojson');

@@ -1,6 +1,22 @@
-import { HttpClient, HttpHeaders, HttpParams, type HttpResponse } from '@angular/common/http';
+import {
+  HttpClient,
+  HttpErrorResponse,
+  HttpHeaders,
+  HttpParams,
+  type HttpResponse,
+} from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
-import { EMPTY, expand, map, reduce, type Observable } from 'rxjs';
+import {
+  catchError,
+  EMPTY,
+  expand,
+  from,
+  map,
+  mergeMap,
+  reduce,
+  throwError,
+  type Observable,
+} from 'rxjs';
 import type {
   Batch,
   Download,
@@ -13,6 +29,28 @@ import type {
 } from './batch-types';
 
 const API = '/api/v1';
+
+/**
+ * A refused download's problem+json, which arrives as a Blob since the file was asked for as
+ * one, read back into the error as JSON so that its title and detail can be shown.
+ */
+async function problemOfBlob(err: unknown): Promise<unknown> {
+  if (!(err instanceof HttpErrorResponse) || !(err.error instanceof Blob)) return err;
+  try {
+    return new HttpErrorResponse({
+      error: JSON.parse(await err.error.text()) as unknown,
+      headers: err.headers,
+      status: err.status,
+      statusText: err.statusText,
+      url: err.url ?? undefined,
+    });
+  } catch {
+    return err;
+  }
+}
+
+/** The exports of a batch's results: the results table as CSV, GeoJSON or a spreadsheet. */
+export type ExportKind = 'csv' | 'geojson' | 'xlsx';
 /** The largest page GET /batches/:id/sections gives. */
 export const MAX_PAGE_SIZE = 500;
 
@@ -70,10 +108,19 @@ export class BatchesApi {
     return this.http.get<ResultCollection>(`${API}/batches/${batchId}/results.geojson`);
   }
 
-  /** The CSV or GeoJSON export as a file (the bearer token goes with it, unlike a plain link). */
-  download(batchId: number, kind: 'csv' | 'geojson'): Observable<Download> {
+  /**
+   * The CSV, GeoJSON or spreadsheet export as a file (the bearer token goes with it, unlike a
+   * plain link); the spreadsheet with a sheet of slices per section when `slices` is set.
+   */
+  download(
+    batchId: number,
+    kind: ExportKind,
+    options: { slices?: boolean } = {},
+  ): Observable<Download> {
+    const params = options.slices ? new HttpParams().set('slices', 'true') : undefined;
     return this.http
       .get(`${API}/batches/${batchId}/results.${kind}`, {
+        params,
         responseType: 'blob',
         observe: 'response',
       })
@@ -84,6 +131,9 @@ export class BatchesApi {
             fileNameOf(res.headers.get('Content-Disposition')) ??
             `batch-${batchId}-results.${kind}`,
         })),
+        catchError((err: unknown) =>
+          from(problemOfBlob(err)).pipe(mergeMap((e) => throwError(() => e))),
+        ),
       );
   }
 
