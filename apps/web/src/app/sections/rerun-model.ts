@@ -293,6 +293,19 @@ export function newPoint(after: Point | null): PointGroup {
 function materialEdit(name: string, m: Material, at: string): MaterialEdit {
   const s = m.strength;
   const fields: Field[] = [];
+  /** A field of the material's strength: its path and its place in the patch from its key. */
+  const strength = (
+    key: string,
+    label: string,
+    unit: string,
+    quantity: QuantityKind | null,
+    original: number | null,
+    validator: ValidatorFn,
+  ): Field =>
+    field(key, label, unit, quantity, `${at}.strength.${key}`, original, validator, [
+      'strength',
+      key,
+    ]);
   if (s.model !== 'rigid') {
     fields.push(
       field(
@@ -317,199 +330,114 @@ function materialEdit(name: string, m: Material, at: string): MaterialEdit {
   }
   if (s.model === 'mohr-coulomb') {
     fields.push(
-      field(
-        'cohesion',
-        'c′',
-        'kPa',
-        'pressure',
-        `${at}.strength.cohesion`,
-        s.cohesion,
-        numberIn('c′', 'kPa', { min: 0 }),
-        ['strength', 'cohesion'],
-      ),
-      field(
+      strength('cohesion', 'c′', 'kPa', 'pressure', s.cohesion, numberIn('c′', 'kPa', { min: 0 })),
+      strength(
         'frictionAngle',
         'φ′',
         '°',
         null,
-        `${at}.strength.frictionAngle`,
         s.frictionAngle,
         numberIn('φ′', '°', { min: 0, max: 90, maxExclusive: true }),
-        ['strength', 'frictionAngle'],
       ),
     );
   } else if (s.model === 'undrained') {
     fields.push(
-      field(
-        'su',
-        'Su',
-        'kPa',
-        'pressure',
-        `${at}.strength.su`,
-        s.su,
-        numberIn('Su', 'kPa', { min: 0 }),
-        ['strength', 'su'],
-      ),
-      field(
+      strength('su', 'Su', 'kPa', 'pressure', s.su, numberIn('Su', 'kPa', { min: 0 })),
+      strength(
         'suRate',
         'Su increase with depth',
         'kPa/m',
         'pressurePerLength',
-        `${at}.strength.suRate`,
         s.suRate,
         numberIn('The increase of Su', 'kPa/m', { min: 0 }),
-        ['strength', 'suRate'],
       ),
-      field(
-        'suDatum',
-        'Su datum elevation y',
-        'm',
-        'length',
-        `${at}.strength.suDatum`,
-        s.suDatum,
-        datumValidator,
-        ['strength', 'suDatum'],
-      ),
+      strength('suDatum', 'Su datum elevation y', 'm', 'length', s.suDatum, datumValidator),
     );
   } else if (s.model === 'hoek-brown') {
     fields.push(
-      field(
+      strength(
         'intactStrength',
         'σci',
         'kPa',
         'pressure',
-        `${at}.strength.intactStrength`,
         s.intactStrength,
         numberIn('σci', 'kPa', { min: 0, minExclusive: true }),
-        ['strength', 'intactStrength'],
       ),
-      field(
+      strength(
         'gsi',
         'GSI',
         '',
         null,
-        `${at}.strength.gsi`,
         s.gsi,
         numberIn('GSI', '', { min: 0, minExclusive: true, max: 100 }),
-        ['strength', 'gsi'],
       ),
-      field(
+      strength(
         'mi',
         'mi',
         '',
         null,
-        `${at}.strength.mi`,
         s.mi,
         numberIn('mi', '', { min: 0, minExclusive: true, max: 50 }),
-        ['strength', 'mi'],
       ),
-      field(
-        'disturbance',
-        'D',
-        '',
-        null,
-        `${at}.strength.disturbance`,
-        s.disturbance,
-        numberIn('D', '', { min: 0, max: 1 }),
-        ['strength', 'disturbance'],
-      ),
+      strength('disturbance', 'D', '', null, s.disturbance, numberIn('D', '', { min: 0, max: 1 })),
     );
   } else if (s.model === 'undrained-ratio') {
     fields.push(
-      field(
+      strength(
         'ratio',
         'S = Su/σ′v',
         '',
         null,
-        `${at}.strength.ratio`,
         s.ratio,
         numberIn('S', '', { min: 0, minExclusive: true }),
-        ['strength', 'ratio'],
       ),
-      field(
+      strength(
         'exponent',
         'm (exponent of OCR)',
         '',
         null,
-        `${at}.strength.exponent`,
         s.exponent,
         numberIn('m', '', { min: 0, max: 1.5 }),
-        ['strength', 'exponent'],
       ),
       // OCR or POP, as the section gives it (the two are never given together)
       s.pop === null
-        ? field(
-            'ocr',
-            'OCR',
-            '',
-            null,
-            `${at}.strength.ocr`,
-            s.ocr,
-            numberIn('OCR', '', { min: 1 }),
-            ['strength', 'ocr'],
-          )
-        : field(
-            'pop',
-            'POP',
-            'kPa',
-            'pressure',
-            `${at}.strength.pop`,
-            s.pop,
-            numberIn('POP', 'kPa', { min: 0 }),
-            ['strength', 'pop'],
-          ),
-      field(
+        ? strength('ocr', 'OCR', '', null, s.ocr, numberIn('OCR', '', { min: 1 }))
+        : strength('pop', 'POP', 'kPa', 'pressure', s.pop, numberIn('POP', 'kPa', { min: 0 })),
+      strength(
         'minimum',
         'Least Su',
         'kPa',
         'pressure',
-        `${at}.strength.minimum`,
         s.minimum,
         numberIn('The least Su', 'kPa', { min: 0 }),
-        ['strength', 'minimum'],
       ),
     );
   } else if (s.model === 'bilinear') {
     fields.push(
-      field(
-        'cohesion',
-        'c′',
-        'kPa',
-        'pressure',
-        `${at}.strength.cohesion`,
-        s.cohesion,
-        numberIn('c′', 'kPa', { min: 0 }),
-        ['strength', 'cohesion'],
-      ),
-      field(
+      strength('cohesion', 'c′', 'kPa', 'pressure', s.cohesion, numberIn('c′', 'kPa', { min: 0 })),
+      strength(
         'frictionAngle',
         'φ′1',
         '°',
         null,
-        `${at}.strength.frictionAngle`,
         s.frictionAngle,
         numberIn('φ′1', '°', { min: 0, max: 90, maxExclusive: true }),
-        ['strength', 'frictionAngle'],
       ),
-      field(
+      strength(
         'breakStress',
         'Break stress σ′n',
         'kPa',
         'pressure',
-        `${at}.strength.breakStress`,
         s.breakStress,
         numberIn('The break stress', 'kPa', { min: 0, minExclusive: true }),
-        ['strength', 'breakStress'],
       ),
-      field(
+      strength(
         'frictionAngleBeyond',
         'φ′2',
         '°',
         null,
-        `${at}.strength.frictionAngleBeyond`,
         s.frictionAngleBeyond,
         numberIn('φ′2', '°', { min: 0, max: 90, maxExclusive: true }),
-        ['strength', 'frictionAngleBeyond'],
       ),
     );
   }
