@@ -62,6 +62,7 @@ export async function writeCorridorReport(
     source: string;
     solverVersion: string;
     stations: { section: Section; result: StationResult | null; reason?: string }[];
+    unread: { label: string; station: number | null; reason: string }[];
   },
   err: (line: string) => void,
 ): Promise<string> {
@@ -74,6 +75,7 @@ export async function writeCorridorReport(
   const pdf = await corridorReportPdf({
     meta,
     stations: corridor.stations.map((s) => ({ ...s, meta })),
+    unread: corridor.unread,
     appendix: request.appendix,
     onProgress: (done, total) => {
       // a line at every tenth of the appendix

@@ -49,17 +49,27 @@ export function corridorReportPdf(input: CorridorReportInput): Promise<Buffer> {
   const units: UnitSystem = stations[0]?.section.units ?? 'si';
   const L = UNIT_LABELS[units].length;
   const caseNames = [...new Set(results.flatMap((r) => r.cases.map((c) => c.name)))];
-  const failed = stations.filter((s) => s.result === null);
+  const failed = [
+    ...stations
+      .filter((s) => s.result === null)
+      .map((s) => ({
+        station: s.section.station,
+        label: s.section.id,
+        reason: s.reason ?? 'not analysed',
+      })),
+    ...(input.unread ?? []).map((u) => ({ ...u, reason: `did not read: ${u.reason}` })),
+  ].sort((a, b) => (a.station ?? Infinity) - (b.station ?? Infinity));
+  const total = stations.length + (input.unread?.length ?? 0);
   const count = (v: Verdict) => results.filter((r) => r.verdict === v).length;
 
   titleBlock(l, `Corridor report: ${name}`, meta, [
-    ['stations', String(stations.length)],
+    ['stations', String(total)],
     ['cases', caseNames.join('; ') || '—'],
   ]);
 
   l.heading('Summary');
   l.fields([
-    ['stations', String(stations.length)],
+    ['stations', String(total)],
     ['analysed', String(analysed.length)],
     ['not analysed (failed)', String(failed.length)],
     ['design cases', String(caseNames.length)],
@@ -155,18 +165,14 @@ export function corridorReportPdf(input: CorridorReportInput): Promise<Buffer> {
         { head: 'section', width: 120 },
         { head: 'why', width: 320 },
       ],
-      failed.map((s) => [
-        String(s.section.station ?? '—'),
-        s.section.id,
-        s.reason ?? 'not analysed',
-      ]),
+      failed.map((s) => [String(s.station ?? '—'), s.label, s.reason]),
       { wrap: [2] },
     );
 
   const chosen = appendixStations(analysed, input.appendix);
   const shown = chosen.slice(0, REPORT_LIMITS.maxAppendixSections);
-  const total = shown.length;
-  input.onProgress?.(0, total);
+  const pages = shown.length;
+  input.onProgress?.(0, pages);
   l.heading('Appendix: section pages');
   l.paragraph(
     input.appendix === 'none'
@@ -181,12 +187,12 @@ export function corridorReportPdf(input: CorridorReportInput): Promise<Buffer> {
     );
   shown.forEach((s, i) => {
     l.newPage();
-    l.paragraph(`Appendix ${i + 1} of ${total}: ${stationName(s.section)}`, {
+    l.paragraph(`Appendix ${i + 1} of ${pages}: ${stationName(s.section)}`, {
       color: MUTED,
       size: 8,
     });
     sectionPages(l, { section: s.section, result: s.result as StationResult, meta: s.meta });
-    input.onProgress?.(i + 1, total);
+    input.onProgress?.(i + 1, pages);
   });
   return l.finish();
 }

@@ -48,6 +48,11 @@ export interface CorridorReportInput {
   stations: CorridorStation[];
   /** section pages of every station / of those below requirement / none */
   appendix: 'all' | 'below' | 'none';
+  /**
+   * Stations of the corridor's file that did not read (no section to show): counted among the
+   * stations not analysed, with why. Optional, beside the interface the service builds on.
+   */
+  unread?: { label: string; station: number | null; reason: string }[];
   /** called as section pages are laid out */
   onProgress?: (done: number, total: number) => void;
 }

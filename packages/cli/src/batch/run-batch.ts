@@ -363,6 +363,10 @@ export async function runBatch(
         source: input.name,
         solverVersion: SOLVER_VERSION,
         stations: entries.slice(0, next).flatMap((e) => (e.kept ? [e.kept] : [])),
+        unread: entries
+          .slice(0, next)
+          .filter((e) => e.inputError !== null)
+          .map((e) => ({ label: e.label, station: e.station, reason: e.inputError ?? '' })),
       },
       err,
     );
