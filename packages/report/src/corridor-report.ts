@@ -120,7 +120,7 @@ export function corridorReportPdf(input: CorridorReportInput): Promise<Buffer> {
     const svg = drawChainage(points, {
       title: `Governing FS and the required FS along the chainage, case ${n}`,
       units,
-      width: 820,
+      width: 1040,
       height: 300,
     });
     l.heading(`FS along the chainage: case ${n}`, 2, l.svgSize(svg, 330).h + 6);

@@ -77,6 +77,12 @@ export function titleBlock(
   if (!reviewed(r)) l.handLines(['checked by', 'date', 'signature']);
 }
 
+/** Label–value rows of a list: the label on the first, 'none' for an empty list. */
+const listed = (label: string, items: readonly string[]): [string, string][] =>
+  items.length
+    ? items.map((x, i): [string, string] => [i === 0 ? label : '', x])
+    : [[label, 'none']];
+
 /** The inputs: geometry, materials, water, loads, reinforcement, cases and requirements. */
 function inputs(l: Layout, s: Section): void {
   const u = s.units;
@@ -115,8 +121,14 @@ function inputs(l: Layout, s: Section): void {
   l.heading('Water, loads and reinforcement', 3);
   l.fields([
     ['water', waterText(s.water, u)],
-    ['loads', s.loads.map((x) => loadText(x, u)).join('; ') || 'none'],
-    ['reinforcement', s.reinforcement.map((x) => reinforcementText(x, u)).join('; ') || 'none'],
+    ...listed(
+      'loads',
+      s.loads.map((x) => loadText(x, u)),
+    ),
+    ...listed(
+      'reinforcement',
+      s.reinforcement.map((x) => reinforcementText(x, u)),
+    ),
     [
       'seismic coefficients',
       s.seismic.kh || s.seismic.kv ? `kh ${s.seismic.kh}, kv ${s.seismic.kv}` : 'none',
