@@ -8,7 +8,7 @@ import {
   type UnitSystem,
   type Verdict,
 } from '@scarpline/core';
-import { Layout, MUTED } from './layout';
+import { MUTED, renderPdf, type Layout } from './layout';
 import { sectionPages, stationName, titleBlock } from './section-pages';
 import type { CorridorReportInput, CorridorStation } from './types';
 import { num } from './words';
@@ -38,12 +38,19 @@ export function appendixStations(
  * many were left out). `onProgress` is told as each section page is laid out.
  */
 export function corridorReportPdf(input: CorridorReportInput): Promise<Buffer> {
+  const { meta } = input;
+  const name = meta.corridor ?? meta.source ?? 'corridor';
+  return renderPdf(
+    `Corridor report: ${name}`,
+    { subject: 'Slope-stability corridor report', author: meta.submittedBy },
+    (l, final) => corridorPages(l, input, final),
+  );
+}
+
+/** The corridor's pages (`final`: the run that tells `onProgress`). */
+function corridorPages(l: Layout, input: CorridorReportInput, final: boolean): void {
   const { meta, stations } = input;
   const name = meta.corridor ?? meta.source ?? 'corridor';
-  const l = new Layout(`Corridor report: ${name}`, {
-    subject: 'Slope-stability corridor report',
-    author: meta.submittedBy,
-  });
   const analysed = stations.filter((s) => s.result !== null);
   const results = analysed.map((s) => s.result as StationResult);
   const units: UnitSystem = stations[0]?.section.units ?? 'si';
@@ -172,7 +179,7 @@ export function corridorReportPdf(input: CorridorReportInput): Promise<Buffer> {
   const chosen = appendixStations(analysed, input.appendix);
   const shown = chosen.slice(0, REPORT_LIMITS.maxAppendixSections);
   const pages = shown.length;
-  input.onProgress?.(0, pages);
+  if (final) input.onProgress?.(0, pages);
   l.heading('Appendix: section pages');
   l.paragraph(
     input.appendix === 'none'
@@ -192,7 +199,6 @@ export function corridorReportPdf(input: CorridorReportInput): Promise<Buffer> {
       size: 8,
     });
     sectionPages(l, { section: s.section, result: s.result as StationResult, meta: s.meta });
-    input.onProgress?.(i + 1, pages);
+    if (final) input.onProgress?.(i + 1, pages);
   });
-  return l.finish();
 }

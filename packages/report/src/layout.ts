@@ -31,11 +31,18 @@ const lineHeight = (size: number) => size * 1.32;
  * A report's pages, laid out top to bottom: the text is written line by line in runs of one
  * script (Fira Sans comes as a Latin and a Greek file), wrapped and broken over pages here, so
  * that nothing runs into the footer; tables repeat their header on each page they continue
- * on. `finish` puts the header (Scarpline and the report's title), the caution and "page n of
- * m" on every page (pdfkit's buffered pages) and gives the file's bytes.
+ * on. Each page gets the header (Scarpline and the report's title), the caution and "page n
+ * of m" as it begins.
+ *
+ * A layout without `total` is a dry run: it measures and breaks pages but draws nothing, and
+ * counts the pages (renderPdf lays a report out dry first, then for real with the count). So
+ * pdfkit can write out and let go of each page as the next begins, instead of holding every
+ * page of a long corridor report in memory until the count is known.
  */
 export class Layout {
-  readonly doc: PDFKit.PDFDocument;
+  private readonly doc: PDFKit.PDFDocument;
+  /** The number of the page being laid out (1-based). */
+  page = 1;
   readonly left = MARGIN.left;
   readonly width = PAGE.width - MARGIN.left - MARGIN.right;
   private readonly bottom = PAGE.height - MARGIN.bottom;
@@ -43,14 +50,17 @@ export class Layout {
   private readonly chunks: Buffer[] = [];
   private readonly done: Promise<Buffer>;
 
+  private readonly dry: boolean;
+
   constructor(
     private readonly title: string,
     info: { subject: string; author?: string },
+    private readonly total: number | null,
   ) {
+    this.dry = total === null;
     this.doc = new PDFDocument({
       size: 'A4',
       margin: 0,
-      bufferPages: true,
       info: {
         Title: title,
         Subject: info.subject,
@@ -65,6 +75,7 @@ export class Layout {
       this.doc.on('end', () => resolve(Buffer.concat(this.chunks)));
       this.doc.on('error', reject);
     });
+    this.decorate();
   }
 
   /** The width of a line of text. */
@@ -79,6 +90,7 @@ export class Layout {
 
   /** One line of text with its top at (x, y); no wrapping. */
   draw(text: string, x: number, y: number, t: TextStyle = {}): void {
+    if (this.dry) return;
     const style = t.style ?? 'regular';
     const size = t.size ?? 9;
     this.doc.fillColor(t.color ?? INK).fontSize(size);
@@ -123,8 +135,16 @@ export class Layout {
   }
 
   newPage(): void {
-    this.doc.addPage();
+    if (!this.dry) this.doc.addPage();
+    this.page++;
     this.y = MARGIN.top;
+    this.decorate();
+  }
+
+  /** A line from (x0, y0) to (x1, y1). */
+  private rule(x0: number, y0: number, x1: number, y1: number, width: number, color: string) {
+    if (this.dry) return;
+    this.doc.moveTo(x0, y0).lineTo(x1, y1).lineWidth(width).strokeColor(color).stroke();
   }
 
   /** Whether the cursor is at the top of a page. */
@@ -157,12 +177,7 @@ export class Layout {
     this.draw(text, this.left, this.y, { style: 'bold', size });
     this.y += lineHeight(size);
     if (level <= 2) {
-      this.doc
-        .moveTo(this.left, this.y)
-        .lineTo(this.left + this.width, this.y)
-        .lineWidth(level === 1 ? 0.9 : 0.5)
-        .strokeColor(RULE)
-        .stroke();
+      this.rule(this.left, this.y, this.left + this.width, this.y, level === 1 ? 0.9 : 0.5, RULE);
       this.y += 4;
     } else this.y += 1;
   }
@@ -191,12 +206,7 @@ export class Layout {
     this.y += 22;
     labels.forEach((label, i) => {
       const x = this.left + i * (w + gap);
-      this.doc
-        .moveTo(x, this.y)
-        .lineTo(x + w, this.y)
-        .lineWidth(0.6)
-        .strokeColor(INK)
-        .stroke();
+      this.rule(x, this.y, x + w, this.y, 0.6, INK);
       this.draw(label, x, this.y + 2, { size: 7.5, color: MUTED });
     });
     this.y += 16;
@@ -227,9 +237,10 @@ export class Layout {
     const header = () => {
       const lines = cols.map((c) => this.wrap(c.head, c.width - 2 * pad, { size, style: 'bold' }));
       const hh = h * Math.max(...lines.map((l) => l.length)) - (h - lineHeight(size) - 2);
-      this.doc
-        .rect(this.left, this.y, this.width * Math.min(1, (total * k) / this.width), hh + 2)
-        .fill(SHADE);
+      if (!this.dry)
+        this.doc
+          .rect(this.left, this.y, this.width * Math.min(1, (total * k) / this.width), hh + 2)
+          .fill(SHADE);
       let x = this.left;
       lines.forEach((ls, i) => {
         ls.forEach((l, j) => cell(l, i, x, this.y + 2 + j * (h - 2), { size, style: 'bold' }));
@@ -253,12 +264,8 @@ export class Layout {
         x += cols[i].width;
       });
       this.y += n * (h - 2) + 2;
-      this.doc
-        .moveTo(this.left, this.y - 0.5)
-        .lineTo(this.left + cols.reduce((s, c) => s + c.width, 0), this.y - 0.5)
-        .lineWidth(0.25)
-        .strokeColor('#c8c8c8')
-        .stroke();
+      const right = this.left + cols.reduce((s, c) => s + c.width, 0);
+      this.rule(this.left, this.y - 0.5, right, this.y - 0.5, 0.25, '#c8c8c8');
     }
     this.y += 6;
   }
@@ -278,58 +285,67 @@ export class Layout {
   svg(svg: string, maxHeight = 420): void {
     const { w, h } = this.svgSize(svg, maxHeight);
     this.ensure(h + 4);
-    SVGtoPDF(this.doc, svgForPdf(svg), this.left, this.y, {
-      width: w,
-      height: h,
-      preserveAspectRatio: 'xMinYMin meet',
-      fontCallback: (family, bold, italic) =>
-        fontName(
-          bold ? 'bold' : italic ? 'italic' : 'regular',
-          family === GREEK_FAMILY ? 'greek' : 'latin',
-        ),
-      warningCallback: () => undefined,
-    });
+    if (!this.dry)
+      SVGtoPDF(this.doc, svgForPdf(svg), this.left, this.y, {
+        width: w,
+        height: h,
+        preserveAspectRatio: 'xMinYMin meet',
+        fontCallback: (family, bold, italic) =>
+          fontName(
+            bold ? 'bold' : italic ? 'italic' : 'regular',
+            family === GREEK_FAMILY ? 'greek' : 'latin',
+          ),
+        warningCallback: () => undefined,
+      });
     this.y += h + 6;
   }
 
-  /** The header and footer on every page (the caution, "page n of m"); the file's bytes. */
+  /** The header and footer of the page begun: the caution, "page n of m". */
+  private decorate(): void {
+    if (this.dry) return;
+    const top = 28;
+    this.draw('Scarpline', this.left, top, { style: 'bold', size: 10 });
+    const t = this.fit(this.title, this.width - 90, { size: 8.5, color: MUTED });
+    this.draw(t, this.left + this.width - this.measure(t, { size: 8.5 }), top + 1.5, {
+      size: 8.5,
+      color: MUTED,
+    });
+    this.rule(this.left, top + 16, this.left + this.width, top + 16, 0.6, RULE);
+    const foot = PAGE.height - MARGIN.bottom + 14;
+    this.rule(this.left, foot, this.left + this.width, foot, 0.6, RULE);
+    const page = `page ${this.page} of ${this.total}`;
+    const pw = this.measure(page, { size: 8 });
+    const caution = this.wrap(`Caution: ${CAUTION}`, this.width - pw - 24, {
+      size: 7.5,
+      style: 'italic',
+    });
+    caution.forEach((l, j) =>
+      this.draw(l, this.left, foot + 5 + j * lineHeight(7.5), { size: 7.5, style: 'italic' }),
+    );
+    this.draw(page, this.left + this.width - pw, foot + 5, { size: 8 });
+  }
+
+  /** The file's bytes (a dry run: none; its `page` is the count). */
   finish(): Promise<Buffer> {
-    const range = this.doc.bufferedPageRange();
-    const n = range.count;
-    for (let i = 0; i < n; i++) {
-      this.doc.switchToPage(range.start + i);
-      const top = 28;
-      this.draw('Scarpline', this.left, top, { style: 'bold', size: 10 });
-      const t = this.fit(this.title, this.width - 90, { size: 8.5, color: MUTED });
-      this.draw(t, this.left + this.width - this.measure(t, { size: 8.5 }), top + 1.5, {
-        size: 8.5,
-        color: MUTED,
-      });
-      this.doc
-        .moveTo(this.left, top + 16)
-        .lineTo(this.left + this.width, top + 16)
-        .lineWidth(0.6)
-        .strokeColor(RULE)
-        .stroke();
-      const foot = PAGE.height - MARGIN.bottom + 14;
-      this.doc
-        .moveTo(this.left, foot)
-        .lineTo(this.left + this.width, foot)
-        .lineWidth(0.6)
-        .strokeColor(RULE)
-        .stroke();
-      const page = `page ${i + 1} of ${n}`;
-      const pw = this.measure(page, { size: 8 });
-      const caution = this.wrap(`Caution: ${CAUTION}`, this.width - pw - 24, {
-        size: 7.5,
-        style: 'italic',
-      });
-      caution.forEach((l, j) =>
-        this.draw(l, this.left, foot + 5 + j * lineHeight(7.5), { size: 7.5, style: 'italic' }),
-      );
-      this.draw(page, this.left + this.width - pw, foot + 5, { size: 8 });
-    }
+    if (!this.dry && this.page !== this.total)
+      throw new Error(`the report took ${this.page} pages laid out again, ${this.total} at first`);
     this.doc.end();
     return this.done;
   }
+}
+
+/**
+ * A report as a PDF: `body` lays it out twice, dry to count the pages, then for real with "page
+ * n of m" on each (`final` false, then true: say progress on the final run only).
+ */
+export function renderPdf(
+  title: string,
+  info: { subject: string; author?: string },
+  body: (l: Layout, final: boolean) => void,
+): Promise<Buffer> {
+  const dry = new Layout(title, info, null);
+  body(dry, false);
+  const l = new Layout(title, info, dry.page);
+  body(l, true);
+  return l.finish();
 }

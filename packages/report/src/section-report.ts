@@ -1,4 +1,4 @@
-import { Layout } from './layout';
+import { renderPdf } from './layout';
 import { sectionPages } from './section-pages';
 import type { SectionReportInput } from './types';
 
@@ -11,10 +11,9 @@ import type { SectionReportInput } from './types';
  */
 export function sectionReportPdf(input: SectionReportInput): Promise<Buffer> {
   const { section } = input;
-  const l = new Layout(`Section report ${section.id}: ${section.title}`, {
-    subject: 'Slope-stability section report',
-    author: input.meta.submittedBy,
-  });
-  sectionPages(l, input);
-  return l.finish();
+  return renderPdf(
+    `Section report ${section.id}: ${section.title}`,
+    { subject: 'Slope-stability section report', author: input.meta.submittedBy },
+    (l) => sectionPages(l, input),
+  );
 }
