@@ -52,6 +52,10 @@ function classify(err: unknown, key: string): Error {
 }
 
 export function makeClient(s3: S3Config): S3Client {
+  // The SDK warns once on stderr, in plain text, that its releases after January 2027 want
+  // Node 22. The version used here is pinned (package.json) and runs on Node 20; the warning
+  // would be the one line of the process's output that is not a JSON log line.
+  process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
   return new S3Client({
     endpoint: s3.endpoint || undefined,
     region: s3.region,

@@ -125,6 +125,23 @@ test('a download while storage is away is a 503 problem with Retry-After, never 
   expect(res.body.detail).toMatch(/storage cannot be reached/);
 });
 
+test('storeFile while storage is away: StorageUnavailable, and no row', async () => {
+  const { storeFile } = await import('../src/services/files');
+  const { StorageUnavailable } = await import('../src/storage');
+  const mine = { where: { createdBy: engineerId } };
+  const before = await m.models.StoredFile.count(mine);
+  await expect(
+    storeFile({
+      kind: 'report',
+      name: 'r.pdf',
+      contentType: 'application/pdf',
+      body: Buffer.from('x'),
+      createdBy: engineerId,
+    }),
+  ).rejects.toBeInstanceOf(StorageUnavailable);
+  expect(await m.models.StoredFile.count(mine)).toBe(before);
+});
+
 test('/ready is not ready and names the storage', async () => {
   const res = await request(m.app).get('/ready');
   m.helpers.expectProblem(res, 503);

@@ -14,6 +14,7 @@ import { config } from '../src/config';
 import { sequelize } from '../src/db';
 import { Batch, StoredFile } from '../src/models';
 import { stopQueue } from '../src/queue';
+import { storeFile } from '../src/services/files';
 import { closeStorage, makeClient } from '../src/storage';
 import { expectProblem, makeUsers, schemaErrors, signIn } from './helpers';
 
@@ -192,8 +193,33 @@ test("another project's user gets the batch's own answer (404) for its inputs", 
   expectProblem(await request(app).get(`/api/v1/batches/${batchId}/inputs`), 401);
 });
 
+test('storeFile keeps a report: object and row, SHA-256 and size of the bytes given', async () => {
+  const body = Buffer.from('%PDF-1.7\n% a stand-in for a report\n');
+  const f = await storeFile({
+    kind: 'report',
+    name: 'wcb-report.pdf',
+    contentType: 'application/pdf',
+    body,
+    createdBy: users.engineer.id,
+  });
+  expect(f).toMatchObject({
+    kind: 'report',
+    name: 'wcb-report.pdf',
+    size: body.length,
+    sha256: sha256(body),
+    batchId: null,
+    sectionId: null,
+  });
+  expect(f.objectKey).toMatch(/^report\//);
+  expect((await objectBytes(f.objectKey)).equals(body)).toBe(true);
+  expect((await StoredFile.findByPk(f.id))?.size).toBe(body.length);
+});
+
 test('/ready reports the storage and its bucket', async () => {
+  // Ready or not (no worker runs in this file), the storage check is there.
   const res = await request(app).get('/ready');
-  const r = res.status === 200 ? res.body : res.body;
-  expect(r.checks.storage).toEqual({ ok: true, detail: `bucket ${config.s3.bucket} answers` });
+  expect(res.body.checks.storage).toEqual({
+    ok: true,
+    detail: `bucket ${config.s3.bucket} answers`,
+  });
 });
