@@ -6,7 +6,8 @@
  *   node apps/api/scripts/pg.js status   # prints running / stopped; exit 0 when running
  *   node apps/api/scripts/pg.js stop
  *   node apps/api/scripts/pg.js run <command…>   # start it if stopped, run the command, then
- *                                                # stop it again if this started it
+ *                                                # stop it again if this started it; the local
+ *                                                # S3 fake (scripts/s3.js) answers meanwhile
  *
  * With DATABASE_URL set it does nothing: the database is someone else's. Otherwise the cluster
  * lives in apps/api/.data/pg (git-ignored) when the postgres user can reach that folder, else in
@@ -316,12 +317,16 @@ function status() {
 }
 
 /**
- * Runs a command with the cluster running: starts it when it is stopped, runs the command
+ * Runs a command with the cluster running (and the S3 fake of scripts/s3.js, which it stops
+ * again if it started it): starts it when it is stopped, runs the command
  * (its output is ours), and stops the cluster again afterwards if this started it, and only
  * then. Resolves with the command's exit code (128 + the signal's number when a signal ended it).
  */
 async function run(command, args) {
   const { started } = await start();
+  // The S3 fake beside this script (a copy of this script alone runs without one).
+  const fake = path.join(__dirname, 's3.js');
+  const storage = fs.existsSync(fake) ? await require(fake).start() : { stop: async () => {} };
   const child = spawn(command, args, { stdio: 'inherit' });
   // Ctrl-C reaches the command from the terminal; here it only waits for the command to end.
   const ignore = () => {};
@@ -336,6 +341,7 @@ async function run(command, args) {
   });
   process.off('SIGINT', ignore);
   process.off('SIGTERM', ignore);
+  await storage.stop();
   if (started) stop();
   return code;
 }

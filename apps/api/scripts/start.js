@@ -1,18 +1,20 @@
 #!/usr/bin/env node
 /**
- * Starts the whole product on this machine: the local PostgreSQL (scripts/pg.js), the API build,
+ * Starts the whole product on this machine: the local PostgreSQL (scripts/pg.js), the local S3
+ * fake (scripts/s3.js, unless AWS_ENDPOINT_URL_S3 names other storage), the API build,
  * the web app's build when it is missing or older than its sources, migrations, the demo seed
  * (the invented Wendlecombe corridor, demo users with their passwords printed), the API and one
  * worker process, then prints the address to open and the demo users. The API and the worker
  * log JSON lines (pino: one object a line) and are kept running (scripts/supervise.js): one
  * that ends is started again after a pause, with a line that says so, and a worker's end never
- * stops the API. Ctrl-C stops the API and the worker (the database
+ * stops the API. Ctrl-C stops the API, the worker and the fake (the database
  * keeps running; `node apps/api/scripts/pg.js stop` ends it).
  */
 const { spawnSync } = require('node:child_process');
 const fs = require('node:fs');
 const path = require('node:path');
 const pg = require('./pg.js');
+const s3 = require('./s3.js');
 const { supervise, stopOnSignals } = require('./supervise.js');
 
 const API_DIR = path.resolve(__dirname, '..');
@@ -118,6 +120,16 @@ function buildWebIfNeeded() {
   if (r.status !== 0) throw new Error('build of apps/web failed (npm run build -w @scarpline/web)');
 }
 
+/** Waits until the storage fake answers (the API's seed stores its input there). */
+async function waitForStorage() {
+  const end = Date.now() + 30000;
+  while (Date.now() < end) {
+    if (await s3.answers(s3.portOf())) return;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error(`the S3 fake does not answer on ${s3.endpoint()} (see its lines above)`);
+}
+
 /** Waits until the API answers (the seed may take a while), then says where to go. */
 async function announce() {
   const base = `http://127.0.0.1:${PORT}`;
@@ -164,7 +176,18 @@ async function main() {
   if (build.status !== 0) throw new Error('build of apps/api failed');
   buildWebIfNeeded();
   const env = { ...process.env, DATABASE_URL: url, SMTP_FAKE_PORT, PORT };
-  const supervisor = supervise([
+  const storage = process.env.AWS_ENDPOINT_URL_S3
+    ? null
+    : supervise([
+        {
+          name: 'storage',
+          command: process.execPath,
+          args: [path.join(__dirname, 's3.js'), 'serve'],
+          options: { env, stdio: 'inherit' },
+        },
+      ]);
+  if (storage) await waitForStorage();
+  const services = supervise([
     {
       name: 'API',
       command: process.execPath,
@@ -185,7 +208,9 @@ async function main() {
       },
     },
   ]);
-  stopOnSignals(supervisor);
+  stopOnSignals({
+    stop: (signal) => Promise.all([services.stop(signal), storage?.stop(signal)]),
+  });
   await announce();
 }
 

@@ -85,6 +85,27 @@ export interface Config {
   logLevel: string;
   /** A bearer token /metrics asks for; empty: /metrics answers loopback addresses only. */
   metricsToken: string;
+  /**
+   * Object storage (S3-compatible) for uploaded inputs and generated reports. The endpoint is
+   * AWS_ENDPOINT_URL_S3 (or AWS_ENDPOINT_URL); empty means AWS's own for the region. Credentials
+   * come from AWS_ACCESS_KEY_ID / AWS_SECRET_ACCESS_KEY (/ AWS_SESSION_TOKEN) when set, else
+   * from the SDK's usual chain (profile, instance role). Outside production, with no endpoint
+   * set, the local fake of scripts/s3.js and its credentials.
+   */
+  s3: S3Config;
+}
+
+export interface S3Config {
+  endpoint: string;
+  region: string;
+  bucket: string;
+  /** Path-style addressing (http://host/bucket/key), as most S3-compatible servers want. */
+  forcePathStyle: boolean;
+  credentials: { accessKeyId: string; secretAccessKey: string; sessionToken?: string } | null;
+  /** Attempts of one request (the first and the SDK's retries) and its time limits (ms). */
+  maxAttempts: number;
+  connectTimeoutMs: number;
+  requestTimeoutMs: number;
 }
 
 function num(name: string, fallback: number): number {
@@ -110,6 +131,47 @@ function localDatabaseUrl(env: Config['env']): string {
   // eslint-disable-next-line @typescript-eslint/no-require-imports
   const pg = require('../scripts/pg.js') as { urlFor(database: string): string };
   return pg.urlFor('scarpline');
+}
+
+function flag(name: string, fallback: boolean): boolean {
+  const v = process.env[name];
+  if (v === undefined || v === '') return fallback;
+  if (v === 'true' || v === '1') return true;
+  if (v === 'false' || v === '0') return false;
+  throw new Error(`${name} must be true or false, got ${v}`);
+}
+
+/** Object storage from the environment (Config.s3). */
+function storage(env: Config['env']): S3Config {
+  const given = process.env.AWS_ENDPOINT_URL_S3 || process.env.AWS_ENDPOINT_URL || '';
+  const local = !given && env !== 'production';
+  // eslint-disable-next-line @typescript-eslint/no-require-imports
+  const fake = local ? (require('../scripts/s3.js') as LocalFake) : null;
+  const keyId = process.env.AWS_ACCESS_KEY_ID;
+  const secret = process.env.AWS_SECRET_ACCESS_KEY;
+  return {
+    endpoint: fake ? fake.endpoint() : given,
+    region: process.env.AWS_REGION || process.env.AWS_DEFAULT_REGION || 'us-east-1',
+    bucket: process.env.SCARPLINE_S3_BUCKET || (env === 'test' ? 'scarpline-test' : 'scarpline'),
+    forcePathStyle: flag('SCARPLINE_S3_FORCE_PATH_STYLE', Boolean(fake || given)),
+    credentials: fake
+      ? fake.FAKE_CREDENTIALS
+      : keyId && secret
+        ? {
+            accessKeyId: keyId,
+            secretAccessKey: secret,
+            sessionToken: process.env.AWS_SESSION_TOKEN,
+          }
+        : null,
+    maxAttempts: num('SCARPLINE_S3_ATTEMPTS', 3),
+    connectTimeoutMs: num('SCARPLINE_S3_CONNECT_TIMEOUT_MS', 3000),
+    requestTimeoutMs: num('SCARPLINE_S3_REQUEST_TIMEOUT_MS', 30000),
+  };
+}
+
+interface LocalFake {
+  endpoint(): string;
+  FAKE_CREDENTIALS: { accessKeyId: string; secretAccessKey: string };
 }
 
 function read(): Config {
@@ -158,6 +220,7 @@ function read(): Config {
     solverMemoryMb: num('SOLVER_MEMORY_MB', 2048),
     logLevel: process.env.LOG_LEVEL || (env === 'test' ? 'silent' : 'info'),
     metricsToken: process.env.METRICS_TOKEN ?? '',
+    s3: storage(env),
   };
 }
 

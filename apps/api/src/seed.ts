@@ -4,6 +4,7 @@ import path from 'node:path';
 import { DEMO_USERS } from './demo-users';
 import { Project, User } from './models';
 import { submitBatch } from './services/batches';
+import { inputContentType } from './services/files';
 import { createUser } from './services/users';
 import { parseFiles } from './services/validate';
 
@@ -32,6 +33,8 @@ export async function seedDemo(corridorFile: string): Promise<{ created: boolean
     tokenId: 0,
     projectIds: null,
   };
-  await submitBatch(principal, project.id, parsed, 'seed');
+  const name = path.basename(corridorFile);
+  const input = { name, contentType: inputContentType(name), body: Buffer.from(text, 'utf8') };
+  await submitBatch(principal, project.id, parsed, 'seed', [input]);
   return { created: true };
 }

@@ -1,6 +1,8 @@
 /**
  * Starts the local cluster (scripts/pg.js) and gives the tests a fresh, migrated test
  * database. TEST_DATABASE_URL points the tests at another database (it is dropped and made anew).
+ * Starts the local S3 fake (scripts/s3.js) in this process too, unless one already answers (the
+ * `pg.js run` wrapper's) or AWS_ENDPOINT_URL_S3 names other storage; the teardown stops it.
  */
 import { Client } from 'pg';
 
@@ -9,7 +11,14 @@ const pg = require('../scripts/pg.js') as {
   start(): Promise<{ testUrl?: string }>;
 };
 
+// eslint-disable-next-line @typescript-eslint/no-require-imports
+const s3 = require('../scripts/s3.js') as { start(): Promise<{ stop: () => Promise<void> }> };
+
+/** The fake this setup started, for the teardown (a global: the way Jest hands it over). */
+const holder = globalThis as { scarplineS3Stop?: () => Promise<void> };
+
 export default async function globalSetup(): Promise<void> {
+  holder.scarplineS3Stop = (await s3.start()).stop;
   let url = process.env.TEST_DATABASE_URL;
   if (!url) {
     const saved = process.env.DATABASE_URL;

@@ -7,7 +7,8 @@
  * 1. Debian's chromium at /usr/bin/chromium (installed with apt-get when missing, as root).
  * 2. The builds: apps/web/dist/browser (the root `npm test` builds it first; WEB_DIST names
  *    another folder) and apps/api/dist.
- * 3. The project-local PostgreSQL (apps/api/scripts/pg.js; it keeps running afterwards) and a
+ * 3. The project-local PostgreSQL (apps/api/scripts/pg.js; it keeps running afterwards), the
+ *    local S3 fake (apps/api/scripts/s3.js; stopped afterwards if this started it), and a
  *    fresh database scarpline_e2e on it (dropped first when a run left one behind).
  * 4. The API (`node apps/api/dist/server.js --seed`: migrations, the demo users and the seeded
  *    corridor, the local SMTP fake, the web build at /) on a free port, then one worker process
@@ -237,6 +238,8 @@ async function main() {
 
   const pg = require('../../api/scripts/pg.js');
   const { url } = await pg.start();
+  // The local S3 fake the API keeps files in (already answering under `pg.js run`).
+  const storage = await require('../../api/scripts/s3.js').start();
   const dbUrl = databaseUrl(url, DATABASE);
   const logDir = fs.mkdtempSync(path.join(os.tmpdir(), 'scarpline-e2e-'));
   const children = [];
@@ -247,6 +250,7 @@ async function main() {
     if (cleaned) return;
     cleaned = true;
     for (const c of children.reverse()) await stopProcess(c);
+    await storage.stop();
     if (dbCreated) {
       try {
         await onServer(url, [`DROP DATABASE IF EXISTS ${DATABASE} WITH (FORCE)`]);

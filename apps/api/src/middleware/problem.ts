@@ -2,6 +2,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ConnectionError } from 'sequelize';
 import { Problem } from '../errors';
+import { StorageMissing, StorageUnavailable } from '../storage';
 
 const TYPE_BASE = 'https://scarpline.example/problems/';
 
@@ -73,6 +74,17 @@ export function problemOf(err: unknown): Problem {
       status,
       CLIENT_TITLES[status] ?? 'Bad request',
       String(field(err, 'message')),
+    );
+  }
+  // Before the database's check: a storage outage carries the same network codes.
+  if (err instanceof StorageMissing) {
+    return new Problem(404, 'Not found', 'The stored file is missing from storage.');
+  }
+  if (err instanceof StorageUnavailable) {
+    return new Problem(
+      503,
+      'Service unavailable',
+      'File storage cannot be reached just now; try again in a little while.',
     );
   }
   if (isDatabaseDown(err)) {

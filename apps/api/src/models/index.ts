@@ -10,6 +10,7 @@ import { Project } from './project';
 import { ResultRow } from './result';
 import { Review } from './review';
 import { SectionRow } from './section';
+import { StoredFile } from './stored-file';
 import { User } from './user';
 
 User.hasMany(ApiToken, { foreignKey: 'userId' });
@@ -29,6 +30,8 @@ Review.belongsTo(Batch, { foreignKey: 'batchId' });
 Review.belongsTo(SectionRow, { foreignKey: 'sectionId' });
 Batch.hasMany(Review, { foreignKey: 'batchId' });
 PasswordReset.belongsTo(User, { foreignKey: 'userId' });
+StoredFile.belongsTo(User, { foreignKey: 'createdBy', as: 'creator' });
+Batch.hasMany(StoredFile, { foreignKey: 'batchId' });
 
 export { ApiToken } from './api-token';
 export { AuditEntry } from './audit-entry';
@@ -39,5 +42,6 @@ export { Project } from './project';
 export { ResultRow } from './result';
 export { Review } from './review';
 export { SectionRow, type SectionStatus } from './section';
+export { STORED_FILE_KINDS, StoredFile, type StoredFileKind } from './stored-file';
 export { ROLES, User, type Role } from './user';
 export { WorkerHeartbeat } from './worker-heartbeat';

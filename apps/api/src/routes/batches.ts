@@ -7,6 +7,14 @@ import { readBatchText, readUploads } from '../intake/pool';
 import { ALL, allow, principal } from '../middleware/auth';
 import { batchView, listBatches, loadBatch, loadProject, submitBatch } from '../services/batches';
 import { etagOf } from '../services/events';
+import {
+  batchInputs,
+  inputContentType,
+  inputDownloadName,
+  loadBatchInput,
+  safeFileName,
+  sendStoredFile,
+} from '../services/files';
 import { idParam } from './params';
 
 export const batchRoutes = Router();
@@ -82,7 +90,12 @@ batchRoutes.post('/projects/:id/batches', submitters, project, async (req, res) 
     throw badRequest('Send the batch as application/json.');
   }
   const parsed = await readBatchText(req.body);
-  res.status(201).json(await submitBatch(principal(req), projectId, parsed, 'json'));
+  const input = {
+    name: `${safeFileName(parsed.name)}.json`,
+    contentType: 'application/json',
+    body: Buffer.from(req.body, 'utf8'),
+  };
+  res.status(201).json(await submitBatch(principal(req), projectId, parsed, 'json', [input]));
 });
 
 batchRoutes.post(
@@ -108,7 +121,12 @@ batchRoutes.post(
     const parsed = await readUploads(
       sent.map((f) => ({ name: f.originalname || 'upload', text: f.buffer.toString('utf8') })),
     );
-    res.status(201).json(await submitBatch(principal(req), projectId, parsed, 'upload'));
+    const inputs = sent.map((f) => ({
+      name: f.originalname || 'upload',
+      contentType: inputContentType(f.originalname),
+      body: f.buffer,
+    }));
+    res.status(201).json(await submitBatch(principal(req), projectId, parsed, 'upload', inputs));
   },
 );
 
@@ -117,4 +135,15 @@ batchRoutes.get('/batches/:id', allow(...ALL), async (req, res) => {
   const view = await batchView(b.id);
   // Express answers 304 itself when If-None-Match matches the ETag set here.
   res.set('ETag', etagOf(view)).json(view);
+});
+
+batchRoutes.get('/batches/:id/inputs', allow(...ALL), async (req, res) => {
+  const b = await loadBatch(principal(req), idParam(req.params.id));
+  res.json(await batchInputs(b.id));
+});
+
+batchRoutes.get('/batches/:id/inputs/:fileId', allow(...ALL), async (req, res) => {
+  const b = await loadBatch(principal(req), idParam(req.params.id));
+  const f = await loadBatchInput(b, idParam(req.params.fileId, 'fileId'));
+  await sendStoredFile(res, f, inputDownloadName(b, f));
 });

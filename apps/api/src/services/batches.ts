@@ -9,6 +9,7 @@ import { Batch, Project, SectionRow } from '../models';
 import { enqueueSections } from '../queue';
 import { audit } from './audit';
 import { assertProject, type Principal } from './auth';
+import { discardObjects, putObjects, recordObjects } from './files';
 import { batchReview } from './reviews';
 import { sectionMessage, type Parsed } from './validate';
 import { userRef } from './views';
@@ -22,45 +23,72 @@ export async function loadProject(p: Principal, projectId: number): Promise<Proj
   return project;
 }
 
-export async function submitBatch(p: Principal, projectId: number, parsed: Parsed, source: string) {
+/** A submitted file's original bytes, kept in storage with the batch. */
+export interface SubmittedInput {
+  name: string;
+  contentType: string;
+  body: Buffer;
+}
+
+/**
+ * Submits a batch: its inputs' bytes go to storage first, then the batch, its sections, their
+ * jobs and the inputs' rows in one transaction. When storage cannot take the inputs (503) or
+ * the transaction fails, nothing is created and the objects written are deleted again.
+ */
+export async function submitBatch(
+  p: Principal,
+  projectId: number,
+  parsed: Parsed,
+  source: string,
+  inputs: SubmittedInput[],
+) {
   await loadProject(p, projectId);
-  const batch = await sequelize.transaction(async (t) => {
-    const b = await Batch.create(
-      {
-        projectId,
-        submittedBy: p.userId,
-        name: parsed.name,
-        title: parsed.title,
-        status: 'running',
-        total: parsed.sections.length,
-        source,
-        finishedAt: null,
-      },
-      { transaction: t },
-    );
-    const rows = await SectionRow.bulkCreate(
-      parsed.sections.map((s: Section, i) => ({
-        batchId: b.id,
-        key: s.id,
-        position: i,
-        station: s.station,
-        input: s,
-        status: 'queued' as const,
-        failReason: null,
-        geometry: parsed.geometries?.[s.id] ?? null,
-        featureProperties: parsed.featureProperties?.[s.id] ?? null,
-        inputWarnings: (parsed.sectionWarnings[s.id] ?? []).map(sectionMessage),
-      })),
-      // Only the ids come back: the rows' inputs need not travel back from the database.
-      { transaction: t, returning: ['id'] },
-    );
-    await enqueueSections(
-      rows.map((r) => ({ sectionId: r.id, run: 1 })),
-      t,
-    );
-    await audit(p.userId, 'submit', 'batch', b.id, { sections: rows.length, source }, t);
-    return b;
-  });
+  const objects = await putObjects(
+    inputs.map((f) => ({ ...f, kind: 'batch-input' as const, createdBy: p.userId })),
+  );
+  const batch = await sequelize
+    .transaction(async (t) => {
+      const b = await Batch.create(
+        {
+          projectId,
+          submittedBy: p.userId,
+          name: parsed.name,
+          title: parsed.title,
+          status: 'running',
+          total: parsed.sections.length,
+          source,
+          finishedAt: null,
+        },
+        { transaction: t },
+      );
+      const rows = await SectionRow.bulkCreate(
+        parsed.sections.map((s: Section, i) => ({
+          batchId: b.id,
+          key: s.id,
+          position: i,
+          station: s.station,
+          input: s,
+          status: 'queued' as const,
+          failReason: null,
+          geometry: parsed.geometries?.[s.id] ?? null,
+          featureProperties: parsed.featureProperties?.[s.id] ?? null,
+          inputWarnings: (parsed.sectionWarnings[s.id] ?? []).map(sectionMessage),
+        })),
+        // Only the ids come back: the rows' inputs need not travel back from the database.
+        { transaction: t, returning: ['id'] },
+      );
+      await enqueueSections(
+        rows.map((r) => ({ sectionId: r.id, run: 1 })),
+        t,
+      );
+      await recordObjects(objects, { batchId: b.id }, t);
+      await audit(p.userId, 'submit', 'batch', b.id, { sections: rows.length, source }, t);
+      return b;
+    })
+    .catch(async (e: unknown) => {
+      await discardObjects(objects);
+      throw e;
+    });
   return { ...(await batchView(batch.id)), warnings: parsed.warnings };
 }
 

@@ -1,11 +1,13 @@
 /**
  * Health of an API process: liveness (it answers) and readiness: the database answers, the queue
- * runs in this process, and at least one worker's heartbeat is recent. Each check has a short
+ * runs in this process, at least one worker's heartbeat is recent, and file storage answers
+ * with its bucket there. Each check has a short
  * bound, so that a database that does not answer makes /ready answer 503 in seconds, not hang.
  */
 import { config } from '../config';
 import { sequelize } from '../db';
 import { queue, queueDepth } from '../queue';
+import { checkBucket } from '../storage';
 import { workerState } from './workers';
 
 const CHECK_MS = 3000;
@@ -17,7 +19,12 @@ export interface Check {
 
 export interface Readiness {
   ready: boolean;
-  checks: { database: Check; queue: Check; workers: Check & { alive: number } };
+  checks: {
+    database: Check;
+    queue: Check;
+    workers: Check & { alive: number };
+    storage: Check;
+  };
 }
 
 function bounded<T>(what: string, p: Promise<T>): Promise<T> {
@@ -38,7 +45,7 @@ export function liveness() {
 }
 
 export async function readiness(): Promise<Readiness> {
-  const [database, queueCheck, workers] = await Promise.all([
+  const [database, queueCheck, workers, storage] = await Promise.all([
     bounded('the database', sequelize.query('SELECT 1')).then(
       (): Check => ({ ok: true, detail: 'answers' }),
       failed,
@@ -65,9 +72,10 @@ export async function readiness(): Promise<Readiness> {
       }),
       (e: unknown) => ({ ...failed(e), alive: 0 }),
     ),
+    bounded('file storage', checkBucket()).then((detail): Check => ({ ok: true, detail }), failed),
   ]);
   return {
-    ready: database.ok && queueCheck.ok && workers.ok,
-    checks: { database, queue: queueCheck, workers },
+    ready: database.ok && queueCheck.ok && workers.ok && storage.ok,
+    checks: { database, queue: queueCheck, workers, storage },
   };
 }

@@ -179,6 +179,82 @@ describe('BatchDetail', () => {
     fixture.destroy();
   });
 
+  it('lists the submitted files and fetches one with the name the service gives it', async () => {
+    const fixture = TestBed.createComponent(BatchDetail);
+    fixture.componentRef.setInput('id', '5');
+    await fixture.whenStable();
+    backend.expectOne('/api/v1/batches/5').flush(batch('done', progress(3)));
+    await fixture.whenStable();
+    flushData();
+    const sha = 'ab'.repeat(32);
+    backend.expectOne('/api/v1/batches/5/inputs').flush([
+      {
+        id: 41,
+        kind: 'batch-input',
+        name: 'corridor.geojson',
+        contentType: 'application/geo+json',
+        size: 12345,
+        sha256: sha,
+        createdBy: 9,
+        creator: GINA,
+        createdAt: '2026-01-01T00:00:00Z',
+      },
+    ]);
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    const items = el.querySelectorAll('[data-testid=batch-input]');
+    expect(items.length).toBe(1);
+    const line = items[0].textContent?.replace(/\s+/g, ' ') ?? '';
+    expect(line).toContain('corridor.geojson');
+    expect(line).toContain('12.3 kB');
+    expect(line).toContain('Gina Gis');
+    expect(items[0].querySelector('abbr')?.getAttribute('title')).toBe(`SHA-256 ${sha}`);
+
+    const saved: string[] = [];
+    const click = vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(function (
+      this: HTMLAnchorElement,
+    ) {
+      saved.push(this.download);
+    });
+    const button = items[0].querySelector<HTMLButtonElement>('button')!;
+    button.click();
+    await fixture.whenStable();
+    expect(button.textContent).toContain('Fetching corridor.geojson…');
+    backend.expectOne('/api/v1/batches/5/inputs/41').flush(new Blob(['{}']), {
+      headers: {
+        'Content-Disposition':
+          'attachment; filename="wcb-live-batch-5-input-2026-01-01-corridor.geojson"',
+      },
+    });
+    await fixture.whenStable();
+    expect(saved).toEqual(['wcb-live-batch-5-input-2026-01-01-corridor.geojson']);
+    expect(button.disabled).toBe(false);
+    click.mockRestore();
+
+    // Storage away: the service's words, and the button back.
+    button.click();
+    await fixture.whenStable();
+    const problem = {
+      type: 'about:blank',
+      title: 'Service unavailable',
+      status: 503,
+      detail: 'File storage cannot be reached just now; try again in a little while.',
+    };
+    backend
+      .expectOne('/api/v1/batches/5/inputs/41')
+      .flush(new Blob([JSON.stringify(problem)], { type: 'application/problem+json' }), {
+        status: 503,
+        statusText: 'Service Unavailable',
+      });
+    await new Promise((r) => setTimeout(r, 0));
+    await fixture.whenStable();
+    expect(el.querySelector('[data-testid=batch-inputs] [role=alert]')?.textContent).toContain(
+      'File storage cannot be reached',
+    );
+    expect(button.disabled).toBe(false);
+    fixture.destroy();
+  });
+
   it('names who submitted the batch, with "(you)" for the signed-in user', async () => {
     const submitterOf = async (by: UserRef) => {
       const fixture = TestBed.createComponent(BatchDetail);

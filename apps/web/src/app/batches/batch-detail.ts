@@ -29,7 +29,7 @@ import { toProblem } from '../core/problem';
 import { ProjectsApi } from '../projects/projects-api';
 import { ReviewPanel } from '../reviews/review-panel';
 import { Caution } from '../shared/caution';
-import { loadState } from '../shared/load-state';
+import { loadState, type Loaded } from '../shared/load-state';
 import { PageState } from '../shared/page-state';
 import { BatchEvents, type LiveProgress } from './batch-events';
 import type {
@@ -38,6 +38,7 @@ import type {
   ResultFeature,
   ReviewRequestResult,
   SectionListItem,
+  StoredInput,
 } from './batch-types';
 import { BatchesApi, type ExportKind } from './batches-api';
 import { CaseCharts } from './case-charts';
@@ -178,6 +179,17 @@ export class BatchDetail {
     { initialValue: nothingYet<ResultCollection>() },
   );
 
+  /** The files the batch was submitted with, read again with the batch. */
+  protected readonly inputs = toSignal<Loaded<StoredInput[]>, Loaded<StoredInput[]>>(
+    combineLatest([toObservable(this.batchId), toObservable(this.reloadTick)]).pipe(
+      switchMap(([id]) => loadState(this.api.inputs(id))),
+    ),
+    { initialValue: { state: 'loading' } },
+  );
+  /** The submitted file being fetched (its id), and why the last fetch failed. */
+  protected readonly fetchingInput = signal<number | null>(null);
+  protected readonly inputProblem = signal<Problem | null>(null);
+
   /** The project's name for the way back (the batch carries only its id). */
   protected readonly projectName = toSignal(
     toObservable(computed(() => this.batch()?.projectId ?? null)).pipe(
@@ -279,6 +291,30 @@ export class BatchDetail {
         this.downloading.set(null);
       },
     });
+  }
+
+  protected downloadInput(file: StoredInput): void {
+    const b = this.batch();
+    if (!b || this.fetchingInput() !== null) return;
+    this.fetchingInput.set(file.id);
+    this.inputProblem.set(null);
+    this.api.downloadInput(b.id, file).subscribe({
+      next: (d) => {
+        save(d.blob, d.fileName);
+        this.fetchingInput.set(null);
+      },
+      error: (err: unknown) => {
+        this.inputProblem.set(toProblem(err));
+        this.fetchingInput.set(null);
+      },
+    });
+  }
+
+  /** A size in bytes, in words a person reads (1 kB = 1000 bytes). */
+  protected sizeText(bytes: number): string {
+    if (bytes < 1000) return `${bytes} bytes`;
+    if (bytes < 1_000_000) return `${(bytes / 1000).toFixed(1)} kB`;
+    return `${(bytes / 1_000_000).toFixed(1)} MB`;
   }
 
   protected startAsk(): void {

@@ -212,6 +212,20 @@ export interface ReviewRequestResult {
 }
 
 /** A file fetched for saving, with the name the API gave it. */
+/** A file a batch was submitted with, kept in storage (GET /batches/:id/inputs). */
+export interface StoredInput {
+  id: number;
+  kind: string;
+  name: string;
+  contentType: string;
+  /** Bytes. */
+  size: number;
+  sha256: string;
+  createdBy: number;
+  creator: UserRef;
+  createdAt: string;
+}
+
 export interface Download {
   blob: Blob;
   fileName: string;

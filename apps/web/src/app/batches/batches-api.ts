@@ -25,6 +25,7 @@ import type {
   SectionListItem,
   SectionPage,
   SectionQuery,
+  StoredInput,
   SubmittedBatch,
 } from './batch-types';
 
@@ -130,6 +131,29 @@ export class BatchesApi {
           fileName:
             fileNameOf(res.headers.get('Content-Disposition')) ??
             `batch-${batchId}-results.${kind}`,
+        })),
+        catchError((err: unknown) =>
+          from(problemOfBlob(err)).pipe(mergeMap((e) => throwError(() => e))),
+        ),
+      );
+  }
+
+  /** The files the batch was submitted with (their metadata). */
+  inputs(batchId: number): Observable<StoredInput[]> {
+    return this.http.get<StoredInput[]>(`${API}/batches/${batchId}/inputs`);
+  }
+
+  /** One submitted file's bytes as kept, with the file name the API gives it. */
+  downloadInput(batchId: number, file: StoredInput): Observable<Download> {
+    return this.http
+      .get(`${API}/batches/${batchId}/inputs/${file.id}`, {
+        responseType: 'blob',
+        observe: 'response',
+      })
+      .pipe(
+        map((res: HttpResponse<Blob>) => ({
+          blob: res.body ?? new Blob([]),
+          fileName: fileNameOf(res.headers.get('Content-Disposition')) ?? file.name,
         })),
         catchError((err: unknown) =>
           from(problemOfBlob(err)).pipe(mergeMap((e) => throwError(() => e))),
