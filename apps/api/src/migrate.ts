@@ -10,6 +10,7 @@ import * as sixth from './migrations/0006-worker-heartbeats';
 import * as seventh from './migrations/0007-phi-zero-circle-interslice';
 import * as eighth from './migrations/0008-case-results';
 import * as ninth from './migrations/0009-required-reinforcement';
+import * as eleventh from './migrations/0011-reports';
 
 export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
   return new Umzug({
@@ -23,6 +24,7 @@ export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
       { name: '0007-phi-zero-circle-interslice', up: seventh.up, down: seventh.down },
       { name: '0008-case-results', up: eighth.up, down: eighth.down },
       { name: '0009-required-reinforcement', up: ninth.up, down: ninth.down },
+      { name: '0011-reports', up: eleventh.up, down: eleventh.down },
     ],
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
