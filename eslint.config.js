@@ -7,7 +7,8 @@
 // - angular-eslint's recommended TypeScript, template and template-accessibility rules on the
 //   web app.
 // - The package boundaries (no-restricted-imports, and no-restricted-syntax for import() and
-//   require()): what the core, its drawing, the web app and the CLI and API may import.
+//   require()): what the core, its drawing, the web app and the CLI, the report writers and the
+//   API may import.
 //   DEVELOPERS.md ("Package boundaries") says why; tests/boundaries shows each rule failing.
 // A rule turned off says why in a line beside it.
 const { builtinModules } = require('node:module');
@@ -107,8 +108,8 @@ const WEB_IMPORTS_SUBPATHS = [
     'Import the core by its package subpaths, not by a path into packages/core.',
   ),
   rule(
-    String.raw`^@scarpline\/(api|cli)(\/|$)`,
-    'The web app talks to the API over HTTP; it imports no other workspace.',
+    String.raw`^@scarpline\/(api|cli|report)(\/|$)`,
+    'The web app talks to the API over HTTP; it imports no other workspace (the report writers are Node-side).',
   ),
 ];
 
@@ -229,7 +230,11 @@ module.exports = tseslint.config(
   },
   { files: ['apps/web/src/**/*.ts'], rules: restrict(WEB_IMPORTS_SUBPATHS) },
   {
-    files: ['packages/cli/{src,test,bench}/**/*.{ts,js}', 'apps/api/{src,test,bench}/**/*.{ts,js}'],
+    files: [
+      'packages/cli/{src,test,bench}/**/*.{ts,js}',
+      'packages/report/{src,test}/**/*.{ts,js}',
+      'apps/api/{src,test,bench}/**/*.{ts,js}',
+    ],
     rules: restrict(CORE_BY_ENTRY_POINT),
   },
 

@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { Command, Option } from 'commander';
 import type { UnitSystem } from '@scarpline/core';
 import { initFile, STARTERS } from './init-file';
+import type { Appendix } from './report-file';
 import { UserError } from './read-input';
 
 // Start-up: this module loads only commander and the starter files (text). Each other command
@@ -19,6 +20,7 @@ Exit status: 0 when every section meets its required FS, 2 when at least one is 
 1 when an input is invalid or a section has no factor of safety (no method converged).`;
 
 const collect = (v: string, all: string[] = []) => [...all, v];
+
 const print = (line: string) => console.log(line);
 const printErr = (line: string) => console.error(line);
 
@@ -151,6 +153,14 @@ withOverrides(
     'GeoJSON corridor: the corridor settings (id, units, template) from this file instead of the collection\'s "scarpline" member',
   )
   .option('--no-svg', 'do not draw a section SVG per station')
+  .addOption(
+    new Option(
+      '--report [appendix]',
+      'also write the corridor report (PDF) into --out, with the section pages of every station, of those below requirement, or none',
+    ).choices(['all', 'below', 'none']),
+  )
+  .option('--project <name>', 'the project named in the report')
+  .option('--by <name>', 'who submits the report')
   .addOption(units())
   .addHelpText(
     'after',
@@ -158,6 +168,7 @@ withOverrides(
 Examples:
   $ scarpline batch examples/corridor/corridor.json --out results/
   $ scarpline batch sections.geojson --template corridor-settings.yaml --out results/ --jobs 4
+  $ scarpline batch examples/corridor/corridor.json --out results/ --report below --by "J. Marsh"
 
 A terminal gets a progress bar; otherwise a line per section goes to standard error.
 Ctrl-C stops the workers and closes the files with the sections finished so far.
@@ -173,6 +184,9 @@ ${EXIT}
         template?: string;
         svg?: boolean;
         sliceSheets?: boolean;
+        report?: true | Appendix;
+        project?: string;
+        by?: string;
         units?: UnitSystem;
         method?: string[];
         slices?: string;
@@ -181,6 +195,10 @@ ${EXIT}
     ) => {
       if (opts.sliceSheets && !opts.out)
         throw new UserError('--slice-sheets is for results.xlsx: give --out <dir>');
+      if (opts.report && !opts.out)
+        throw new UserError(
+          '--report writes the corridor report into the output folder: give --out <dir>',
+        );
       const jobs = opts.jobs === undefined ? undefined : Number(opts.jobs);
       if (jobs !== undefined && (!Number.isInteger(jobs) || jobs < 1))
         throw new UserError(`--jobs: ${opts.jobs} is not a whole number of 1 or more`);
@@ -190,10 +208,103 @@ ${EXIT}
         file,
         {
           out: opts.out,
+          ...(opts.report && opts.out
+            ? {
+                report: {
+                  appendix: opts.report === true ? 'below' : opts.report,
+                  project: opts.project,
+                  by: opts.by,
+                },
+              }
+            : {}),
           template: opts.template,
           svg: opts.svg,
           sliceSheets: opts.sliceSheets === true,
           units: opts.units,
+          ...checkOverrides(opts),
+          jobs,
+          tty: process.stderr.isTTY === true,
+        },
+        print,
+        printErr,
+      );
+    },
+  );
+
+withOverrides(
+  program
+    .command('report')
+    .description(
+      'write a PDF report: of a section (a section file), or of a corridor (a batch file or a GeoJSON corridor, analysed as batch does)',
+    )
+    .argument(
+      '<file>',
+      'a section file, a batch file or a GeoJSON corridor (- reads standard input)',
+    ),
+)
+  .option(
+    '-o, --out <file.pdf>',
+    'the PDF to write (default: beside the input, <id>-section-report.pdf or <corridor>-corridor-report.pdf)',
+  )
+  .addOption(
+    new Option(
+      '--appendix <which>',
+      'corridor report: the section pages of every station, of those below requirement, or none',
+    )
+      .choices(['all', 'below', 'none'])
+      .default('below'),
+  )
+  .option('--project <name>', 'the project named in the report')
+  .option('--by <name>', 'who submits the report')
+  .option('-j, --jobs <n>', 'corridor: worker threads (default: one per core)')
+  .option(
+    '-t, --template <file>',
+    'GeoJSON corridor: the corridor settings from this file instead of the collection\'s "scarpline" member',
+  )
+  .addHelpText(
+    'after',
+    `
+Examples:
+  $ scarpline report examples/levee-land-side.yaml --project "Wendle flood bank" --by "J. Marsh"
+  $ scarpline report examples/corridor/corridor.json --appendix all -o corridor.pdf
+
+A report holds the title block with the review record (lines to sign when nobody has reviewed
+it), the inputs, the methods and their references, the results of each case and method, the
+drawing, the search, the warnings and the governing slice table; a corridor report adds the
+summary, the FS along the chainage per case and the stations below requirement, and ends with
+the section pages asked for. The caution and "page n of m" are on every page.
+${EXIT}`,
+  )
+  .action(
+    async (
+      file: string,
+      opts: {
+        out?: string;
+        appendix: Appendix;
+        project?: string;
+        by?: string;
+        jobs?: string;
+        template?: string;
+        method?: string[];
+        slices?: string;
+        requiredFs?: string;
+      },
+    ) => {
+      const jobs = opts.jobs === undefined ? undefined : Number(opts.jobs);
+      if (jobs !== undefined && (!Number.isInteger(jobs) || jobs < 1))
+        throw new UserError(`--jobs: ${opts.jobs} is not a whole number of 1 or more`);
+      if (opts.out !== undefined && !/\.pdf$/i.test(opts.out))
+        throw new UserError(`--out: ${opts.out} is not a .pdf file name`);
+      const { checkOverrides } = await import('./overrides');
+      const { reportFile } = await import('./report-file');
+      process.exitCode = await reportFile(
+        file,
+        {
+          out: opts.out,
+          appendix: opts.appendix,
+          project: opts.project,
+          by: opts.by,
+          template: opts.template,
           ...checkOverrides(opts),
           jobs,
           tty: process.stderr.isTTY === true,
@@ -300,6 +411,7 @@ Examples:
   $ scarpline analyze examples/cut-homogeneous.yaml
   $ scarpline plot examples/levee-land-side.yaml --svg levee.svg
   $ scarpline batch examples/corridor/corridor.json --out results/
+  $ scarpline report examples/levee-land-side.yaml
 ${EXIT}`,
 );
 

@@ -14,7 +14,7 @@ import {
 } from '@scarpline/core';
 import { applyOverrides, type Overrides } from './overrides';
 import { readInput, STDIN_NAME, UserError } from './read-input';
-import { svgToPng } from './svg-to-png';
+import { svgToPng } from '@scarpline/report';
 
 export interface PlotOptions extends Overrides {
   /** The SVG file to write (at least one of svg and png is given). */

@@ -98,6 +98,8 @@ export { defaultPivot } from './methods/pivot';
 export type { SliceMethodResult, MethodWarning } from './methods/types';
 export { analyzeSection, SOLVER_VERSION } from './analyze';
 export { howFoundWords } from './search-words';
+export * from './case-words';
+export { METHOD_WORDS, type MethodWords } from './method-words';
 export { limitWords } from './reinforcement/limit-words';
 export * from './caution';
 // --- rapid drawdown (Duncan, Wright & Wong 1990)
@@ -129,7 +131,7 @@ export { hoekBrownConstants, hoekBrownEnvelope, hoekBrownPoint } from './strengt
 export { undrainedRatioSu } from './strength/undrained-ratio';
 export { shearNormalEnvelope } from './strength/shear-normal';
 export { bilinearEnvelope } from './strength/bilinear';
-export { strengthEnvelope, verticalStressStrength } from './strength/registry';
+export { strengthEnvelope, strengthQuantities, verticalStressStrength } from './strength/registry';
 export type { NormalStressEnvelope } from './strength/types';
 export { AnalysisStopped, WORK_LIMIT, WorkMeter, type AnalyzeOptions } from './work-limit';
 export { METHODS, methodsFor, type MethodEntry } from './methods/registry';

@@ -9,7 +9,7 @@ import {
   sectionSvg,
   xlsxFileName,
 } from '../services/exports';
-import { XLSX_TYPE } from '../xlsx';
+import { XLSX_TYPE } from '@scarpline/report';
 import { sectionPng } from '../services/plot-png';
 import { API_LIMITS } from '../limits';
 import { idParam, queryFlag, queryName } from './params';

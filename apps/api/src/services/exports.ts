@@ -29,7 +29,7 @@ import { Batch, ResultRow, SectionRow, type CaseResultRow } from '../models';
 import type { Principal } from './auth';
 import { sectionReviewStates } from './reviews';
 import { casesOf, loadSection } from './sections';
-import { xlsxBuffer } from '../xlsx';
+import { xlsxBuffer } from '@scarpline/report';
 
 /** The columns the service adds after the table's: what only it knows. */
 export const SERVICE_COLUMNS = ['review_state', 'job_state'] as const;

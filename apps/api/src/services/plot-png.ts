@@ -1,4 +1,4 @@
-import { Resvg } from '@resvg/resvg-js';
+import { svgToPng } from '@scarpline/report';
 import type { Principal } from './auth';
 import { sectionSvg } from './exports';
 
@@ -9,11 +9,8 @@ import { sectionSvg } from './exports';
  */
 export async function sectionPng(p: Principal, sectionId: number, caseName?: string) {
   const { svg, fileName } = await sectionSvg(p, sectionId, caseName);
-  const png = new Resvg(svg, {
-    background: '#ffffff',
-    font: { loadSystemFonts: true, defaultFontFamily: 'DejaVu Sans' },
-  })
-    .render()
-    .asPng();
-  return { png, fileName: fileName.replace(/\.svg$/, '.png') };
+  return {
+    png: svgToPng(svg),
+    fileName: fileName.replace(/\.svg$/, '.png'),
+  };
 }

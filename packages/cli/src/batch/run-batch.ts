@@ -14,6 +14,7 @@ import {
   parseSections,
   resultsSheet,
   resultsWorkbook,
+  SOLVER_VERSION,
   uniqueSheetName,
   toSi,
   unanalysedRecord,
@@ -24,6 +25,7 @@ import {
   type Section,
   type SectionEntry,
   type SheetSpec,
+  type StationResult,
   type UnitSystem,
   type Verdict,
 } from '@scarpline/core';
@@ -32,7 +34,8 @@ import { readInput, UserError } from '../read-input';
 import type { Reply, Task } from './messages';
 import { Output, resultsGeoJson, stationLine as line, stationRow } from './outputs';
 import { WorkerPool } from './pool';
-import { writeXlsx } from '../xlsx';
+import { writeXlsx } from '@scarpline/report';
+import { corridorReportName, writeCorridorReport, type ReportRequest } from '../report-file';
 
 export interface BatchOptions extends Overrides {
   out?: string;
@@ -44,6 +47,8 @@ export interface BatchOptions extends Overrides {
   units?: UnitSystem;
   /** Show a progress bar (a terminal) or plain lines. */
   tty?: boolean;
+  /** Also write the corridor report (PDF) there, with these section pages. */
+  report?: ReportRequest;
 }
 
 /**
@@ -63,6 +68,8 @@ interface Entry {
   slices: SheetSpec | null;
   /** Its result is in results.json. */
   analysed: boolean;
+  /** Kept for the corridor report, when one is asked for: the section analysed and its result. */
+  kept: { section: Section; result: StationResult | null; reason?: string } | null;
 }
 
 /** The errors of a section that did not read, as one note. */
@@ -107,6 +114,7 @@ function entriesOf(
     records: null,
     slices: null,
     analysed: false,
+    kept: null,
   }));
   return {
     entries,
@@ -212,7 +220,8 @@ export async function runBatch(
     while (!stopping && pool.idle > 0 && queued < entries.length && queued < next + window) {
       const e = entries[queued];
       if (e.section) {
-        const section = applyOverrides(e.section, options);
+        // the section as analysed (the corridor report shows it with its result)
+        const section = (e.section = applyOverrides(e.section, options));
         const task: Task = {
           index: queued,
           section,
@@ -236,14 +245,19 @@ export async function runBatch(
         const reply = replies.get(next);
         if (!reply) break;
         replies.delete(next);
+        const kept = options.report ? e.section : null;
         if (reply.ok) {
+          if (kept) e.kept = { section: kept, result: JSON.parse(reply.json) as StationResult };
           e.records = reply.records;
           e.slices = reply.slices;
           e.analysed = true;
           await json?.write(`${written > 0 ? ',\n' : ''}${reply.json}`);
           written++;
-        } else
+        } else {
           e.records = [unanalysed(e, shownUnits, 'no-fs', `the solver failed: ${reply.error}`)];
+          if (kept)
+            e.kept = { section: kept, result: null, reason: `the solver failed: ${reply.error}` };
+        }
       } else e.records = [unanalysed(e, shownUnits, 'input-error', e.inputError ?? '')];
       e.section = null; // done with it: let it go
       await csv?.write(e.records.map((r) => exportCsvRow(r)).join(''));
@@ -337,6 +351,26 @@ export async function runBatch(
     out(
       `wrote ${outDir}: results.json, results.csv, results.geojson, results.xlsx${options.sliceSheets ? ' (with slice sheets)' : ''}, chainage.svg${svgs}`,
     );
+  }
+  if (options.report) {
+    const path = await writeCorridorReport(
+      {
+        ...options.report,
+        path: options.report.path ?? join(outDir ?? '.', corridorReportName(id)),
+      },
+      {
+        id,
+        source: input.name,
+        solverVersion: SOLVER_VERSION,
+        stations: entries.slice(0, next).flatMap((e) => (e.kept ? [e.kept] : [])),
+        unread: entries
+          .slice(0, next)
+          .filter((e) => e.inputError !== null)
+          .map((e) => ({ label: e.label, station: e.station, reason: e.inputError ?? '' })),
+      },
+      err,
+    );
+    out(`wrote ${path}`);
   }
   if (signalled)
     err(
