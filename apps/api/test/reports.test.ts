@@ -14,7 +14,7 @@ import { Batch, ReportRow, StoredFile } from '../src/models';
 import { stopQueue } from '../src/queue';
 import { deleteObject } from '../src/storage';
 import { startWorker } from '../src/worker';
-import { pdfPages } from '../../../packages/report/test/pdf-text';
+import { pageTexts, pdfFile, requirePoppler } from '../../../packages/report/test/poppler';
 import { expectProblem, makeUsers, signIn, waitForBatch } from './helpers';
 
 const EXAMPLES = path.resolve(__dirname, '../../../examples');
@@ -39,6 +39,9 @@ function getPdf(url: string, token: string) {
   return request(app).get(url).auth(token, bearer).buffer(true).parse(bytes);
 }
 
+/** The text of each page of a PDF (poppler's pdftotext). */
+const pdfPages = (pdf: Buffer) => pageTexts(pdfFile(pdf));
+
 /** The caution as the PDF's text has it: one line of words, whatever the line breaks. */
 const words = (t: string) => t.replace(/\s+/g, ' ').trim();
 
@@ -57,6 +60,7 @@ async function waitForReport(id: number, limitMs = 60_000) {
 }
 
 beforeAll(async () => {
+  requirePoppler();
   await startWorker();
   users = await makeUsers('reports');
   engineer = await signIn(app, users.engineer.email);
