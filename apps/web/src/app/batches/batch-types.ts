@@ -211,8 +211,5 @@ export interface ReviewRequestResult {
   caution: string;
 }
 
-/** A file fetched for saving, with the name the API gave it. */
-export interface Download {
-  blob: Blob;
-  fileName: string;
-}
+/** A file fetched for saving, with the name the API gave it (shared/download.ts). */
+export type { Download } from '../shared/download';
