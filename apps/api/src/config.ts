@@ -26,6 +26,15 @@ export interface Config {
   intakeQueue: number;
   intakeTimeoutMs: number;
   intakeMemoryMb: number;
+  /**
+   * The report pool that lays out PDF reports (a section's in the API, a corridor's in a
+   * worker): threads, most waiting (then 503), time limit per report in milliseconds, memory
+   * of a thread in MB.
+   */
+  reportThreads: number;
+  reportQueue: number;
+  reportTimeoutMs: number;
+  reportMemoryMb: number;
   /** Sign-in attempts per address, and failed ones per account, per window. */
   loginLimit: number;
   loginAccountLimit: number;
@@ -191,6 +200,10 @@ function read(): Config {
     intakeQueue: num('INTAKE_QUEUE', 32),
     intakeTimeoutMs: num('INTAKE_TIMEOUT_MS', 30_000),
     intakeMemoryMb: num('INTAKE_MEMORY_MB', 1024),
+    reportThreads: num('REPORT_THREADS', 1),
+    reportQueue: num('REPORT_QUEUE', 8),
+    reportTimeoutMs: num('REPORT_TIMEOUT_MS', 300_000),
+    reportMemoryMb: num('REPORT_MEMORY_MB', 2048),
     loginLimit: num('LOGIN_LIMIT', 10),
     loginAccountLimit: num('LOGIN_ACCOUNT_LIMIT', 10),
     loginWindowMs: num('LOGIN_WINDOW_MS', 15 * 60 * 1000),

@@ -11,6 +11,7 @@ import * as seventh from './migrations/0007-phi-zero-circle-interslice';
 import * as eighth from './migrations/0008-case-results';
 import * as ninth from './migrations/0009-required-reinforcement';
 import * as tenth from './migrations/0010-stored-files';
+import * as eleventh from './migrations/0011-reports';
 
 export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
   return new Umzug({
@@ -25,6 +26,7 @@ export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
       { name: '0008-case-results', up: eighth.up, down: eighth.down },
       { name: '0009-required-reinforcement', up: ninth.up, down: ninth.down },
       { name: '0010-stored-files', up: tenth.up, down: tenth.down },
+      { name: '0011-reports', up: eleventh.up, down: eleventh.down },
     ],
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),

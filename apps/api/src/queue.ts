@@ -10,8 +10,14 @@ import type pg from 'pg';
 
 export const SECTION_QUEUE = 'section-analysis';
 export const DEAD_QUEUE = 'section-analysis-dead';
+/** Corridor reports to lay out (one job a report; services/reports.ts). */
+export const REPORT_QUEUE = 'corridor-report';
 /** The channel a submission notifies (at its commit) that new section jobs wait. */
 const NEW_JOBS_CHANNEL = 'scarpline_section_jobs';
+
+export interface ReportJob {
+  reportId: number;
+}
 
 export interface SectionJob {
   sectionId: number;
@@ -25,6 +31,11 @@ export interface SectionJob {
  */
 export function expireSeconds(): number {
   return Math.ceil(config.jobTimeout + Math.max(5, config.jobTimeout / 10));
+}
+
+/** How long a report job may stay active before the queue takes it back: its limit, and time to store it. */
+export function reportExpireSeconds(): number {
+  return Math.ceil(config.reportTimeoutMs / 1000 + 60);
 }
 
 let boss: PgBoss | null = null;
@@ -51,6 +62,15 @@ async function start(): Promise<PgBoss> {
         transaction,
       });
       if (!(await b.getQueue(DEAD_QUEUE))) await b.createQueue(DEAD_QUEUE, { name: DEAD_QUEUE });
+      if (!(await b.getQueue(REPORT_QUEUE))) {
+        // A report is laid out in a thread ended at REPORT_TIMEOUT_MS: a job still active well
+        // after that was left by a worker that died, and goes to another once.
+        await b.createQueue(REPORT_QUEUE, {
+          name: REPORT_QUEUE,
+          retryLimit: 1,
+          expireInSeconds: reportExpireSeconds(),
+        });
+      }
       if (!(await b.getQueue(SECTION_QUEUE))) {
         await b.createQueue(SECTION_QUEUE, {
           name: SECTION_QUEUE,
@@ -158,6 +178,17 @@ export async function enqueueSections(jobs: SectionJob[], transaction: Transacti
   );
   // Delivered at the commit: the idle workers take the jobs at once instead of at their next poll.
   await client.query(`NOTIFY ${NEW_JOBS_CHANNEL}`);
+}
+
+/** Enqueues a corridor report's job inside the caller's transaction (with its row). */
+export async function enqueueReport(job: ReportJob, transaction: Transaction): Promise<void> {
+  const b = await queue();
+  const client = (transaction as Transaction & { connection: pg.ClientBase }).connection;
+  const db = { executeSql: (text: string, values: unknown[]) => client.query(text, values) };
+  await b.insert(
+    [{ name: REPORT_QUEUE, data: job, retryLimit: 1, expireInSeconds: reportExpireSeconds() }],
+    { db },
+  );
 }
 
 /**

@@ -23,13 +23,17 @@ import { log } from './log';
 import { jobDuration, jobsTotal, workerRegistry } from './metrics';
 import {
   DEAD_QUEUE,
+  REPORT_QUEUE,
   SECTION_QUEUE,
   onNewJobs,
   onQueueStop,
   queue,
   restartJobClock,
+  type ReportJob,
   type SectionJob,
 } from './queue';
+import { closeReports } from './reports/pool';
+import { runCorridorReport } from './services/reports';
 import {
   closeBatches,
   endSections,
@@ -55,18 +59,18 @@ export interface RunningWorker {
 type Job = PgBoss.JobWithMetadata<SectionJob>;
 
 /** Takes jobs of `name` one at a time until `signal` aborts; never throws. */
-async function consume(
+async function consume<T extends object>(
   boss: PgBoss,
   name: string,
   pollMs: number,
   signal: AbortSignal,
-  handle: (job: Job) => Promise<void>,
+  handle: (job: PgBoss.JobWithMetadata<T>) => Promise<void>,
 ): Promise<void> {
   while (!signal.aborted) {
     // pg-boss's fetch answers [] when the database cannot be reached.
     const jobs = await boss
-      .fetch<SectionJob>(name, { batchSize: 1, includeMetadata: true })
-      .catch(() => [] as Job[]);
+      .fetch<T>(name, { batchSize: 1, includeMetadata: true })
+      .catch(() => [] as PgBoss.JobWithMetadata<T>[]);
     if (jobs.length === 0) {
       await delay(pollMs, undefined, { signal }).catch(() => undefined);
       continue;
@@ -371,7 +375,30 @@ export async function startWorker(): Promise<RunningWorker> {
     await settle('complete the dead letter', () => boss.complete(DEAD_QUEUE, job.id), signal);
   };
 
-  const loops = Promise.all([sections(), consume(boss, DEAD_QUEUE, 1000, signal, dead)]);
+  /** Lays out a corridor report (on a report thread: the analysis goes on meanwhile). */
+  const report = async (job: PgBoss.JobWithMetadata<ReportJob>) => {
+    try {
+      await runCorridorReport(job.data.reportId);
+    } catch (e) {
+      jobsTotal.inc({ queue: REPORT_QUEUE, outcome: 'error' });
+      const message = (e as Error).message;
+      log.warn({ err: e, reportId: job.data.reportId }, `report not made: ${message}`);
+      await settle(
+        'fail the report job',
+        () => boss.fail(REPORT_QUEUE, job.id, { message }),
+        signal,
+      );
+      return;
+    }
+    jobsTotal.inc({ queue: REPORT_QUEUE, outcome: 'done' });
+    await settle('complete the report job', () => boss.complete(REPORT_QUEUE, job.id), signal);
+  };
+
+  const loops = Promise.all([
+    sections(),
+    consume(boss, DEAD_QUEUE, 1000, signal, dead),
+    consume(boss, REPORT_QUEUE, 1000, signal, report),
+  ]);
   log.info(
     { worker: heartbeat.id, timeLimitSeconds: config.jobTimeout, fetch: config.workerFetch },
     'worker: taking jobs',
@@ -382,6 +409,7 @@ export async function startWorker(): Promise<RunningWorker> {
     (stopped ??= (async () => {
       stopping.abort();
       await solver.close();
+      await closeReports();
       await loops;
       await stopListening();
       await heartbeat.stop();

@@ -4,7 +4,8 @@
  *
  *   npm run test:browser -w @scarpline/web
  *
- * 1. Debian's chromium at /usr/bin/chromium (installed with apt-get when missing, as root).
+ * 1. Debian's chromium at /usr/bin/chromium and poppler's pdftotext (which reads downloaded
+ *    reports back), installed with apt-get when missing, as root.
  * 2. The builds: apps/web/dist/browser (the root `npm test` builds it first; WEB_DIST names
  *    another folder) and apps/api/dist.
  * 3. The project-local PostgreSQL (apps/api/scripts/pg.js; it keeps running afterwards), the
@@ -67,6 +68,26 @@ function ensureChromium() {
   }
   if (!fs.existsSync(CHROMIUM)) {
     throw new SetupError(`apt-get installed chromium, but there is no ${CHROMIUM}.`);
+  }
+}
+
+/** poppler's pdftotext, which reads the downloaded reports back (Debian's poppler-utils). */
+function ensurePdftotext() {
+  if (spawnSync('pdftotext', ['-v']).status === 0) return;
+  const isRoot = typeof process.getuid === 'function' && process.getuid() === 0;
+  if (!isRoot) {
+    throw new SetupError(
+      "pdftotext is missing. Install Debian's poppler-utils as root " +
+        '(`apt-get update && apt-get install -y poppler-utils`), then run the tests again.',
+    );
+  }
+  say("pdftotext is missing: installing Debian's poppler-utils with apt-get");
+  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+  for (const args of [['update'], ['install', '-y', 'poppler-utils']]) {
+    const r = spawnSync('apt-get', args, { stdio: 'inherit', env });
+    if (r.status !== 0) {
+      throw new SetupError(`apt-get ${args.join(' ')} failed (exit ${r.status}); see above.`);
+    }
   }
 }
 
@@ -232,6 +253,7 @@ async function main() {
   const started = Date.now();
   const files = testFiles();
   ensureChromium();
+  ensurePdftotext();
   ensureBuilds();
   fs.rmSync(SHOTS, { recursive: true, force: true });
   fs.mkdirSync(SHOTS, { recursive: true });

@@ -296,6 +296,22 @@ describe('drawSection', () => {
     }
   });
 
+  test("the callout gives the governing method's FS, not the least of the methods on its surface", () => {
+    const s = section('levee-land-side.yaml');
+    const r = caseView(analyzeSection(s));
+    const bishop = r.results[0];
+    // A second method on the same surface with a higher FS that governs (as Spencer may
+    // govern with Bishop for comparison on the same circle): the callout must name its FS.
+    const other = { ...bishop, method: 'spencer' as const, fs: bishop.fs! + 0.002 };
+    const svg = drawSection(s, {
+      ...r,
+      results: [bishop, other],
+      governing: { method: 'spencer', fs: other.fs },
+    });
+    const callout = all(parser.parse(svg), 'g').find((g) => g.class === 'fs-callout');
+    expect(JSON.stringify(callout)).toContain(`FS ${other.fs.toFixed(3)} (spencer)`);
+  });
+
   test('a US section is drawn in feet with loads in psf', () => {
     const s = section('cut-us-units.yaml');
     const svg = drawSection(s, caseView(analyzeSection(s)));

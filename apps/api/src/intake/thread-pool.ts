@@ -6,7 +6,8 @@
  * once; idle threads do not keep the process alive and end after a while.
  *
  * The script answers `{ id, task }` messages with `{ id, ok: true, value }` or
- * `{ id, ok: false, error: { name, message } }` (see thread.ts).
+ * `{ id, ok: false, error: { name, message } }` (see thread.ts); before that it may send
+ * `{ id, progress }` messages, which go to the job's `onProgress`.
  */
 import { Worker } from 'node:worker_threads';
 
@@ -32,9 +33,15 @@ export class PoolError extends Error {
   }
 }
 
+/** What a caller may hear of its job while it runs. */
+export interface RunOptions {
+  onProgress?: (progress: unknown) => void;
+}
+
 interface Job {
   id: number;
   task: unknown;
+  onProgress?: (progress: unknown) => void;
   resolve: (value: unknown) => void;
   reject: (e: unknown) => void;
 }
@@ -62,10 +69,10 @@ export class ThreadPool {
   }
 
   /** Runs a job on a thread; rejects with a PoolError when it cannot be done. */
-  run(task: unknown): Promise<unknown> {
+  run(task: unknown, options: RunOptions = {}): Promise<unknown> {
     if (this.closed) return Promise.reject(new PoolError('closed', 'the pool is closed'));
     return new Promise((resolve, reject) => {
-      const job: Job = { id: this.next++, task, resolve, reject };
+      const job: Job = { id: this.next++, task, onProgress: options.onProgress, resolve, reject };
       const slot = this.freeSlot();
       if (slot) return this.start(slot, job);
       if (this.waiting.length >= this.options.queue) {
@@ -104,12 +111,17 @@ export class ThreadPool {
       'message',
       (reply: {
         id: number;
-        ok: boolean;
+        ok?: boolean;
         value?: unknown;
         error?: { name: string; message: string };
+        progress?: unknown;
       }) => {
         const job = slot.job;
         if (!job || job.id !== reply.id) return;
+        if (reply.ok === undefined) {
+          job.onProgress?.(reply.progress);
+          return;
+        }
         this.settle(slot);
         if (reply.ok) job.resolve(reply.value);
         else

@@ -7,6 +7,7 @@ import { Batch } from './batch';
 import { CaseResultRow } from './case-result';
 import { PasswordReset } from './password-reset';
 import { Project } from './project';
+import { ReportRow } from './report';
 import { ResultRow } from './result';
 import { Review } from './review';
 import { SectionRow } from './section';
@@ -32,6 +33,9 @@ Batch.hasMany(Review, { foreignKey: 'batchId' });
 PasswordReset.belongsTo(User, { foreignKey: 'userId' });
 StoredFile.belongsTo(User, { foreignKey: 'createdBy', as: 'creator' });
 Batch.hasMany(StoredFile, { foreignKey: 'batchId' });
+ReportRow.belongsTo(Batch, { foreignKey: 'batchId' });
+ReportRow.belongsTo(SectionRow, { foreignKey: 'sectionId' });
+ReportRow.belongsTo(User, { foreignKey: 'requestedBy', as: 'requester' });
 
 export { ApiToken } from './api-token';
 export { AuditEntry } from './audit-entry';
@@ -39,6 +43,15 @@ export { Batch, type BatchStatus } from './batch';
 export { CaseResultRow } from './case-result';
 export { PasswordReset } from './password-reset';
 export { Project } from './project';
+export {
+  APPENDIX_CHOICES,
+  REPORT_KINDS,
+  REPORT_STATES,
+  ReportRow,
+  type Appendix,
+  type ReportKind,
+  type ReportState,
+} from './report';
 export { ResultRow } from './result';
 export { Review } from './review';
 export { SectionRow, type SectionStatus } from './section';

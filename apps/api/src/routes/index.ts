@@ -13,6 +13,7 @@ import { mailRoutes } from './mail';
 import { metricsRoutes } from './metrics';
 import { passwordResetRoutes } from './password-resets';
 import { projectRoutes } from './projects';
+import { reportRoutes } from './reports';
 import { reviewRequestRoutes } from './review-requests';
 import { reviewRoutes } from './reviews';
 import { runRoutes } from './runs';
@@ -38,4 +39,5 @@ export const authenticatedRoutes: readonly Router[] = [
   reviewRoutes,
   reviewRequestRoutes,
   exportRoutes,
+  reportRoutes,
 ];

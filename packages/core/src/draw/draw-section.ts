@@ -252,7 +252,7 @@ export function drawSection(
   const governingGroup = groups.find((g) => g.governing) ?? null;
   const callout =
     governingGroup && result.governing
-      ? fsCallout(governingGroup, result.governing.method, frame, obstacles)
+      ? fsCallout(governingGroup, result.governing, frame, obstacles)
       : { svg: '', box: null };
   if (callout.box) obstacles.boxes.push(callout.box);
   const reinforced = reinforcementShapes(model, governing?.reinforcement, frame, obstacles, ids);

@@ -154,22 +154,23 @@ export function surfaceShapes(
 }
 
 /**
- * The governing surface's factor of safety in a callout at its arc: a box with "FS 1.275
- * (bishop)" below the lowest point of the surface (or beside it, or above the ground, wherever
+ * The governing method's factor of safety in a callout at its surface's arc: a box with "FS
+ * 1.275 (bishop)" — that method's FS, not the least of the methods that share the surface —
+ * below the lowest point of the surface (or beside it, or above the ground, wherever
  * it first keeps clear of the obstacles and inside the frame), joined to the arc by a short
  * leader. Returns the callout and the box it took (for the labels to keep clear of).
  *
- * @example fsCallout(group, 'bishop', frame, obstacles)
+ * @example fsCallout(group, { method: 'bishop', fs: 1.275 }, frame, obstacles)
  */
 export function fsCallout(
   g: SurfaceGroup,
-  method: string,
+  governing: { method: string; fs: number },
   frame: Frame,
   obstacles: Obstacles,
 ): { svg: string; box: Box | null } {
   const px = toPixels(g.points, frame);
   if (px.length < 2) return { svg: '', box: null };
-  const text = `FS ${Math.min(...g.fs).toFixed(3)} (${method})`;
+  const text = `FS ${governing.fs.toFixed(3)} (${governing.method})`;
   const w = textWidth(text.length, 12) + 14;
   const h = 20;
   let low = px[0];

@@ -28,6 +28,7 @@ import type { Problem } from '../core/models';
 import { toProblem } from '../core/problem';
 import { ProjectsApi } from '../projects/projects-api';
 import { ReviewPanel } from '../reviews/review-panel';
+import { CorridorReports } from '../reports/corridor-reports';
 import { Caution } from '../shared/caution';
 import { loadState, type Loaded } from '../shared/load-state';
 import { PageState } from '../shared/page-state';
@@ -87,6 +88,7 @@ function save(blob: Blob, fileName: string): void {
     PlanView,
     SectionTable,
     ReviewPanel,
+    CorridorReports,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './batch-detail.html',

@@ -211,7 +211,6 @@ export interface ReviewRequestResult {
   caution: string;
 }
 
-/** A file fetched for saving, with the name the API gave it. */
 /** A file a batch was submitted with, kept in storage (GET /batches/:id/inputs). */
 export interface StoredInput {
   id: number;
@@ -226,7 +225,5 @@ export interface StoredInput {
   createdAt: string;
 }
 
-export interface Download {
-  blob: Blob;
-  fileName: string;
-}
+/** A file fetched for saving, with the name the API gave it (shared/download.ts). */
+export type { Download } from '../shared/download';

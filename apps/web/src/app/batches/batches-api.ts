@@ -1,10 +1,4 @@
-import {
-  HttpClient,
-  HttpErrorResponse,
-  HttpHeaders,
-  HttpParams,
-  type HttpResponse,
-} from '@angular/common/http';
+import { HttpClient, HttpHeaders, HttpParams, type HttpResponse } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import {
   catchError,
@@ -28,48 +22,17 @@ import type {
   StoredInput,
   SubmittedBatch,
 } from './batch-types';
+import { fileNameOf, problemOfBlob } from '../shared/download';
+
+/** The download helpers live in shared/download.ts; this one is still exported from here too. */
+export { fileNameOf };
 
 const API = '/api/v1';
-
-/**
- * A refused download's problem+json, which arrives as a Blob since the file was asked for as
- * one, read back into the error as JSON so that its title and detail can be shown.
- */
-async function problemOfBlob(err: unknown): Promise<unknown> {
-  if (!(err instanceof HttpErrorResponse) || !(err.error instanceof Blob)) return err;
-  try {
-    return new HttpErrorResponse({
-      error: JSON.parse(await err.error.text()) as unknown,
-      headers: err.headers,
-      status: err.status,
-      statusText: err.statusText,
-      url: err.url ?? undefined,
-    });
-  } catch {
-    return err;
-  }
-}
 
 /** The exports of a batch's results: the results table as CSV, GeoJSON or a spreadsheet. */
 export type ExportKind = 'csv' | 'geojson' | 'xlsx';
 /** The largest page GET /batches/:id/sections gives. */
 export const MAX_PAGE_SIZE = 500;
-
-/** The file name in a Content-Disposition header (`attachment; filename="x.csv"`), or null. */
-export function fileNameOf(disposition: string | null): string | null {
-  if (!disposition) return null;
-  const star = /filename\*\s*=\s*(?:UTF-8'')?([^;]+)/i.exec(disposition);
-  if (star) {
-    try {
-      return decodeURIComponent(star[1].trim().replace(/^"|"$/g, ''));
-    } catch {
-      // fall through to the plain parameter
-    }
-  }
-  const plain = /filename\s*=\s*("([^"]*)"|[^;]+)/i.exec(disposition);
-  if (!plain) return null;
-  return (plain[2] ?? plain[1]).trim() || null;
-}
 
 /** Batches, their sections and their exports, over HttpClient. */
 @Injectable({ providedIn: 'root' })

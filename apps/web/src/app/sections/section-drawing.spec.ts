@@ -134,4 +134,57 @@ describe('SectionDrawing', () => {
       'Service Unavailable',
     );
   });
+
+  it("fetches the section's report.pdf and saves it under the server's name", async () => {
+    backend.expectOne('/api/v1/sections/7/plot.svg').flush(SVG);
+    await fixture.whenStable();
+    const saved: string[] = [];
+    vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(function (
+      this: HTMLAnchorElement,
+    ) {
+      saved.push(this.download);
+    });
+    vi.spyOn(URL, 'createObjectURL').mockImplementation(() => 'blob:pdf');
+    vi.spyOn(URL, 'revokeObjectURL').mockImplementation(() => undefined);
+    const button = el().querySelector<HTMLButtonElement>(
+      '[data-testid="download-section-report"]',
+    )!;
+    expect(button.textContent).toContain('Report (PDF)');
+    button.click();
+    await fixture.whenStable();
+    expect(button.disabled).toBe(true);
+    expect(button.textContent).toContain('Preparing the report…');
+    const req = backend.expectOne('/api/v1/sections/7/report.pdf');
+    expect(req.request.responseType).toBe('blob');
+    const name = 'wcb-main-1+000-run2-report-2026-12-02.pdf';
+    req.flush(new Blob(['%PDF-1.7'], { type: 'application/pdf' }), {
+      headers: { 'Content-Disposition': `attachment; filename="${name}"` },
+    });
+    await fixture.whenStable();
+    expect(saved).toEqual([name]);
+    expect(button.disabled).toBe(false);
+    expect(button.textContent).toContain('Report (PDF)');
+    vi.restoreAllMocks();
+  });
+
+  it("shows the report's problem when it cannot be made", async () => {
+    backend.expectOne('/api/v1/sections/7/plot.svg').flush(SVG);
+    await fixture.whenStable();
+    el().querySelector<HTMLButtonElement>('[data-testid="download-section-report"]')!.click();
+    const problem = { title: 'Conflict', status: 409, detail: 'Run 2 has no result yet.' };
+    backend
+      .expectOne('/api/v1/sections/7/report.pdf')
+      .flush(new Blob([JSON.stringify(problem)], { type: 'application/problem+json' }), {
+        status: 409,
+        statusText: 'Conflict',
+      });
+    await new Promise((r) => setTimeout(r, 0));
+    await fixture.whenStable();
+    expect(el().querySelector('[data-testid="section-report-problem"]')?.textContent?.trim()).toBe(
+      'The report could not be made: Conflict — Run 2 has no result yet.',
+    );
+    expect(
+      el().querySelector<HTMLButtonElement>('[data-testid="download-section-report"]')!.disabled,
+    ).toBe(false);
+  });
 });

@@ -16,6 +16,9 @@ import { DomSanitizer, type SafeHtml } from '@angular/platform-browser';
 import { map, switchMap } from 'rxjs';
 import { loadState, type Loaded } from '../shared/load-state';
 import { PageState } from '../shared/page-state';
+import type { Problem } from '../core/models';
+import { toProblem } from '../core/problem';
+import { ReportsApi } from '../reports/reports-api';
 import { SectionsApi } from './sections-api';
 
 interface Drawing {
@@ -28,7 +31,7 @@ interface Drawing {
  * named) (strata, water, loads, the
  * critical surfaces, slices, the FS map of the search, axes, legend, caution), inlined so it
  * scales with the page, with a download of the same SVG file and of the server's PNG rendering
- * of it. Reloads when `version` changes.
+ * of it, and of the section's PDF report. Reloads when `version` changes.
  */
 @Component({
   selector: 'sl-section-drawing',
@@ -67,9 +70,24 @@ interface Drawing {
         <mat-icon aria-hidden="true">image</mat-icon>
         Download PNG
       </button>
+      <button
+        mat-stroked-button
+        type="button"
+        data-testid="download-section-report"
+        [disabled]="reportBusy()"
+        (click)="downloadReport()"
+      >
+        <mat-icon aria-hidden="true">picture_as_pdf</mat-icon>
+        {{ reportBusy() ? 'Preparing the report…' : 'Report (PDF)' }}
+      </button>
     </div>
     @if (pngFailed()) {
       <p class="sl-drawing-png-error" role="alert">The PNG could not be made: {{ pngFailed() }}</p>
+    }
+    @if (reportProblem(); as p) {
+      <p class="sl-drawing-png-error" role="alert" data-testid="section-report-problem">
+        The report could not be made: {{ p.title }}{{ p.detail ? ' — ' + p.detail : '' }}
+      </p>
     }
     @switch (loaded().state) {
       @case ('ready') {
@@ -136,6 +154,7 @@ interface Drawing {
 export class SectionDrawing {
   private readonly api = inject(SectionsApi);
   private readonly sanitizer = inject(DomSanitizer);
+  private readonly reports = inject(ReportsApi);
 
   readonly sectionId = input.required<number>();
   /** Changes when the run or its status changes: the drawing is fetched again. */
@@ -148,6 +167,8 @@ export class SectionDrawing {
   protected readonly fit = signal(true);
   protected readonly pngBusy = signal(false);
   protected readonly pngFailed = signal<string | null>(null);
+  protected readonly reportBusy = signal(false);
+  protected readonly reportProblem = signal<Problem | null>(null);
   private readonly tries = signal(0);
 
   private readonly request = computed(() => ({
@@ -204,6 +225,22 @@ export class SectionDrawing {
         this.pngFailed.set(
           err instanceof HttpErrorResponse ? err.statusText || 'no answer' : String(err),
         );
+      },
+    });
+  }
+
+  /** The section's PDF report of its current run, under the name the server gives it. */
+  protected downloadReport(): void {
+    this.reportBusy.set(true);
+    this.reportProblem.set(null);
+    this.reports.sectionPdf(this.sectionId()).subscribe({
+      next: (d) => {
+        this.reportBusy.set(false);
+        this.save(d.blob, d.fileName);
+      },
+      error: (err: unknown) => {
+        this.reportBusy.set(false);
+        this.reportProblem.set(toProblem(err));
       },
     });
   }

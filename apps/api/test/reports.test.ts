@@ -1,0 +1,236 @@
+/**
+ * Reports from the service: a section's PDF (made on request, kept, made again only when its
+ * run or its review changes) and a corridor's (asked for, laid out by the worker with its
+ * progress, stored, downloaded). Their text, read back with poppler's pdftotext, holds the FS
+ * values of the stored result, the review record, and the caution on every page.
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+import request from 'supertest';
+import { CAUTION } from '@scarpline/core/caution';
+import { createApp } from '../src/app';
+import { sequelize } from '../src/db';
+import { Batch, ReportRow, StoredFile } from '../src/models';
+import { stopQueue } from '../src/queue';
+import { deleteObject } from '../src/storage';
+import { startWorker } from '../src/worker';
+import { pageTexts, pdfFile, requirePoppler } from '../../../packages/report/test/poppler';
+import { expectProblem, makeUsers, signIn, waitForBatch } from './helpers';
+
+const EXAMPLES = path.resolve(__dirname, '../../../examples');
+const app = createApp();
+const bearer = { type: 'bearer' as const };
+const corridor = JSON.parse(fs.readFileSync(path.join(EXAMPLES, 'corridor/corridor.json'), 'utf8'));
+let users: Awaited<ReturnType<typeof makeUsers>>;
+let engineer: string;
+let reviewer: string;
+let viewer: string;
+let outsider: string;
+let batchId: number;
+
+/** The response body as bytes (supertest buffers only the types it knows). */
+function bytes(res: request.Response, done: (e: Error | null, body: Buffer) => void) {
+  const chunks: Buffer[] = [];
+  res.on('data', (c: Buffer) => chunks.push(c));
+  res.on('end', () => done(null, Buffer.concat(chunks)));
+}
+
+function getPdf(url: string, token: string) {
+  return request(app).get(url).auth(token, bearer).buffer(true).parse(bytes);
+}
+
+/** The text of each page of a PDF (poppler's pdftotext). */
+const pdfPages = (pdf: Buffer) => pageTexts(pdfFile(pdf));
+
+/** The caution as the PDF's text has it: one line of words, whatever the line breaks. */
+const words = (t: string) => t.replace(/\s+/g, ' ').trim();
+
+/** Polls a report until it is done or failed (a bound, not an assertion on time). */
+async function waitForReport(id: number, limitMs = 60_000) {
+  const end = Date.now() + limitMs;
+  const seen: { done: number; total: number }[] = [];
+  for (;;) {
+    const res = await request(app).get(`/api/v1/reports/${id}`).auth(viewer, bearer);
+    expect(res.status).toBe(200);
+    seen.push(res.body.progress);
+    if (res.body.status === 'done' || res.body.status === 'failed') return { ...res.body, seen };
+    if (Date.now() > end) throw new Error(`report ${id} not made: ${JSON.stringify(res.body)}`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
+
+beforeAll(async () => {
+  requirePoppler();
+  await startWorker();
+  users = await makeUsers('reports');
+  engineer = await signIn(app, users.engineer.email);
+  reviewer = await signIn(app, users.reviewer.email);
+  viewer = await signIn(app, users.viewer.email);
+  const p = await request(app)
+    .post('/api/v1/projects')
+    .auth(engineer, bearer)
+    .send({ name: 'Reports' });
+  // A token of another project sees no batch of this one.
+  const elsewhere = await request(app)
+    .post('/api/v1/projects')
+    .auth(engineer, bearer)
+    .send({ name: 'Elsewhere' });
+  const admin = await signIn(app, users.admin.email);
+  const t = await request(app)
+    .post('/api/v1/tokens')
+    .auth(admin, bearer)
+    .send({ userId: users.integration.id, name: 'GIS feed', projectIds: [elsewhere.body.id] });
+  outsider = t.body.token as string;
+  const post = await request(app)
+    .post(`/api/v1/projects/${p.body.id}/batches`)
+    .auth(engineer, bearer)
+    .send({ ...corridor, id: 'wcb-report', sections: corridor.sections.slice(0, 3) });
+  expect(post.status).toBe(201);
+  batchId = post.body.id;
+  await waitForBatch(app, engineer, batchId);
+});
+
+afterAll(async () => {
+  await stopQueue();
+  await sequelize.close();
+});
+
+test('a section report: the stored FS values, the review record once signed, the caution on every page; kept until its review changes', async () => {
+  const list = await request(app)
+    .get(`/api/v1/batches/${batchId}/sections?sort=station`)
+    .auth(viewer, bearer);
+  const item = (list.body.items as { id: number; key: string }[])[0];
+  const section = await request(app).get(`/api/v1/sections/${item.id}`).auth(viewer, bearer);
+  const result = section.body.result as {
+    cases: { name: string; methods: { method: string; fs: number | null }[] }[];
+  };
+
+  const first = await getPdf(`/api/v1/sections/${item.id}/report.pdf`, viewer);
+  expect(first.status).toBe(200);
+  expect(first.headers['content-type']).toBe('application/pdf');
+  expect(first.headers['content-disposition']).toMatch(
+    /^attachment; filename="wcb-report-\d\+\d{3}-run1-report-\d{4}-\d{2}-\d{2}\.pdf"$/,
+  );
+  const pages = pdfPages(first.body as Buffer);
+  const all = pages.join('\n');
+  pages.forEach((page, i) => {
+    expect(words(page)).toContain(words(CAUTION));
+    expect(page).toContain(`${i + 1} of ${pages.length}`);
+  });
+  for (const c of result.cases) {
+    expect(all).toContain(c.name);
+    for (const m of c.methods) if (m.fs !== null) expect(all).toContain(m.fs.toFixed(3));
+  }
+  expect(all).toMatch(/not reviewed/i);
+
+  // Asked again with nothing changed: the same stored file.
+  const files = await StoredFile.count({ where: { kind: 'report' } });
+  const again = await getPdf(`/api/v1/sections/${item.id}/report.pdf`, viewer);
+  expect(Buffer.compare(again.body as Buffer, first.body as Buffer)).toBe(0);
+  expect(await StoredFile.count({ where: { kind: 'report' } })).toBe(files);
+
+  // Signed off: the next report records who, what and why.
+  const review = await request(app)
+    .post(`/api/v1/sections/${item.id}/reviews`)
+    .auth(reviewer, bearer)
+    .send({ decision: 'approved', comment: 'Strengths checked against the borehole logs.' });
+  expect(review.status).toBe(201);
+  const signed = await getPdf(`/api/v1/sections/${item.id}/report.pdf`, viewer);
+  const text = words(pdfPages(signed.body as Buffer).join('\n'));
+  expect(text).toContain('reports reviewer');
+  expect(text).toMatch(/approved/i);
+  expect(text).toContain('Strengths checked against the borehole logs.');
+  expect(await StoredFile.count({ where: { kind: 'report' } })).toBe(files + 1);
+});
+
+test('a corridor report: asked for, made by the worker with its progress, signed by the batch review, downloaded', async () => {
+  const review = await request(app)
+    .post(`/api/v1/batches/${batchId}/reviews`)
+    .auth(reviewer, bearer)
+    .send({ decision: 'approved', comment: 'Corridor checked station by station.' });
+  expect(review.status).toBe(201);
+
+  expectProblem(
+    await request(app).post(`/api/v1/batches/${batchId}/reports`).auth(viewer, bearer).send({}),
+    403,
+  );
+  expectProblem(
+    await request(app)
+      .post(`/api/v1/batches/${batchId}/reports`)
+      .auth(reviewer, bearer)
+      .send({ appendix: 'some' }),
+    422,
+  );
+  const asked = await request(app)
+    .post(`/api/v1/batches/${batchId}/reports`)
+    .auth(reviewer, bearer)
+    .send({ appendix: 'all' });
+  expect(asked.status).toBe(202);
+  expect(asked.headers.location).toBe(`/api/v1/reports/${asked.body.id}`);
+  expect(asked.body).toMatchObject({
+    kind: 'corridor',
+    status: 'queued',
+    appendix: 'all',
+    reviewId: review.body.id,
+    download: null,
+  });
+
+  const made = await waitForReport(asked.body.id);
+  expect(made.status).toBe('done');
+  expect(made.progress.done).toBe(made.progress.total);
+  expect(made.download).toBe(`/api/v1/reports/${asked.body.id}/file`);
+
+  const listed = await request(app).get(`/api/v1/batches/${batchId}/reports`).auth(viewer, bearer);
+  expect((listed.body.reports as { id: number }[]).map((r) => r.id)).toContain(asked.body.id);
+
+  const pdf = await getPdf(made.download as string, viewer);
+  expect(pdf.status).toBe(200);
+  expect(pdf.headers['content-type']).toBe('application/pdf');
+  expect(pdf.headers['content-disposition']).toMatch(
+    /^attachment; filename="wcb-report-corridor-report-sections-all-\d{4}-\d{2}-\d{2}\.pdf"$/,
+  );
+  const pages = pdfPages(pdf.body as Buffer);
+  pages.forEach((page, i) => {
+    expect(words(page)).toContain(words(CAUTION));
+    expect(page).toContain(`${i + 1} of ${pages.length}`);
+  });
+  const text = words(pages.join('\n'));
+  expect(text).toContain('reports reviewer');
+  expect(text).toContain('Corridor checked station by station.');
+  const sections = await request(app)
+    .get(`/api/v1/batches/${batchId}/sections?sort=station`)
+    .auth(viewer, bearer);
+  for (const s of sections.body.items as { governingFs: number | null }[]) {
+    if (s.governingFs !== null) expect(text).toContain(s.governingFs.toFixed(3));
+  }
+
+  // Its object gone from storage behind the service's back: a clear 404, not a 500.
+  const row = await ReportRow.findByPk(asked.body.id as number);
+  const file = await StoredFile.findByPk(row!.fileId!);
+  await deleteObject(file!.key);
+  expectProblem(await getPdf(made.download as string, viewer), 404);
+});
+
+test('reports are the batch’s: another project’s user gets 404, an unknown report 404; a running batch’s is 409', async () => {
+  expectProblem(
+    await request(app).get(`/api/v1/batches/${batchId}/reports`).auth(outsider, bearer),
+    404,
+  );
+  const listed = await request(app).get(`/api/v1/batches/${batchId}/reports`).auth(viewer, bearer);
+  const id = (listed.body.reports as { id: number }[])[0].id;
+  expectProblem(await request(app).get(`/api/v1/reports/${id}`).auth(outsider, bearer), 404);
+  expectProblem(await request(app).get(`/api/v1/reports/99999999`).auth(viewer, bearer), 404);
+  // A batch still running (set so here: how fast the worker is must not decide the test).
+  await Batch.update({ status: 'running' }, { where: { id: batchId } });
+  try {
+    expectProblem(
+      await request(app)
+        .post(`/api/v1/batches/${batchId}/reports`)
+        .auth(engineer, bearer)
+        .send({ appendix: 'none' }),
+      409,
+    );
+  } finally {
+    await Batch.update({ status: 'done' }, { where: { id: batchId } });
+  }
+});
