@@ -36,6 +36,7 @@ Batch.hasMany(StoredFile, { foreignKey: 'batchId' });
 ReportRow.belongsTo(Batch, { foreignKey: 'batchId' });
 ReportRow.belongsTo(SectionRow, { foreignKey: 'sectionId' });
 ReportRow.belongsTo(User, { foreignKey: 'requestedBy', as: 'requester' });
+ReportRow.belongsTo(StoredFile, { foreignKey: 'fileId', as: 'file' });
 
 export { ApiToken } from './api-token';
 export { AuditEntry } from './audit-entry';
