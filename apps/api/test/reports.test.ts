@@ -218,7 +218,12 @@ test('a corridor report: asked for, made by the worker with its progress, signed
   const row = await ReportRow.findByPk(asked.body.id as number);
   const file = await StoredFile.findByPk(row!.fileId!);
   await deleteObject(file!.objectKey);
-  expectProblem(await request(app).get(made.download as string).auth(viewer, bearer), 404);
+  expectProblem(
+    await request(app)
+      .get(made.download as string)
+      .auth(viewer, bearer),
+    404,
+  );
 });
 
 test('reports are the batch’s: another project’s user gets 404, an unknown report 404; a running batch’s is 409', async () => {

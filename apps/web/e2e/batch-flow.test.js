@@ -322,7 +322,11 @@ test('reviewer: signs the whole batch off and downloads the signed corridor repo
       assert.ok(flat.includes(comment), 'the review comment in the report');
       const pages = text.split('\f').filter((p) => p.trim() !== '');
       pages.forEach((p, i) => {
-        assert.match(p.replace(/\s+/g, ' '), /qualified geotechnical engineer/, `the caution on page ${i + 1}`);
+        assert.match(
+          p.replace(/\s+/g, ' '),
+          /qualified geotechnical engineer/,
+          `the caution on page ${i + 1}`,
+        );
         assert.ok(p.includes(`${i + 1} of ${pages.length}`), `"n of m" on page ${i + 1}`);
       });
     } finally {
