@@ -235,7 +235,7 @@ withOverrides(
   program
     .command('report')
     .description(
-      'write a PDF report: of a section (a section file), or of a corridor (a batch file or a GeoJSON corridor, analysed as batch does)',
+      'write a PDF report: of a section (a section file), or of a corridor (a batch file or a GeoJSON corridor, analyzed as batch does)',
     )
     .argument(
       '<file>',

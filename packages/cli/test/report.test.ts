@@ -48,8 +48,8 @@ describe('scarpline report', () => {
     const text = pageTexts(pdf).join('\n');
     const summary = flat(text.slice(text.indexOf('Summary'), text.indexOf('FS along')));
     expect(summary).toContain('stations 4');
-    expect(summary).toContain('analysed 3');
-    expect(summary).toContain('not analysed (failed) 1');
+    expect(summary).toContain('analyzed 3');
+    expect(summary).toContain('not analyzed (failed) 1');
     expect(summary).toContain('below requirement 1');
     expect(flat(text)).toContain('1240 wcb-test@1240 did not read: sections[2].ground[2]');
     expect([...text.matchAll(/Appendix \d+ of 3: .*?(wcb-test@\d+)/g)].map((m) => m[1])).toEqual([

@@ -62,7 +62,7 @@ function corridorPages(l: Layout, input: CorridorReportInput, final: boolean): v
       .map((s) => ({
         station: s.section.station,
         label: s.section.id,
-        reason: s.reason ?? 'not analysed',
+        reason: s.reason ?? 'not analyzed',
       })),
     ...(input.unread ?? []).map((u) => ({ ...u, reason: `did not read: ${u.reason}` })),
   ].sort((a, b) => (a.station ?? Infinity) - (b.station ?? Infinity));
@@ -77,8 +77,8 @@ function corridorPages(l: Layout, input: CorridorReportInput, final: boolean): v
   l.heading('Summary');
   l.fields([
     ['stations', String(total)],
-    ['analysed', String(analysed.length)],
-    ['not analysed (failed)', String(failed.length)],
+    ['analyzed', String(analysed.length)],
+    ['not analyzed (failed)', String(failed.length)],
     ['design cases', String(caseNames.length)],
     ['below requirement', String(count('below'))],
     ...VERDICTS.filter((v) => v !== 'below' && count(v) > 0).map((v): [string, string] => [
@@ -137,7 +137,7 @@ function corridorPages(l: Layout, input: CorridorReportInput, final: boolean): v
   l.heading('Stations below requirement');
   const low = stations.filter(below);
   if (low.length === 0)
-    l.paragraph('None: every station analysed meets its requirement or has none.');
+    l.paragraph('None: every station analyzed meets its requirement or has none.');
   else
     l.table(
       [
@@ -163,7 +163,7 @@ function corridorPages(l: Layout, input: CorridorReportInput, final: boolean): v
       }),
     );
 
-  l.heading('Stations not analysed');
+  l.heading('Stations not analyzed');
   if (failed.length === 0) l.paragraph('None.');
   else
     l.table(

@@ -78,8 +78,8 @@ describe('corridorReportPdf', () => {
     const { pages, text, progress } = await report('below');
     const summary = flat(between(text, 'Summary', 'FS along the chainage'));
     expect(summary).toContain(`stations ${stations.length}`);
-    expect(summary).toContain(`analysed ${analysed.length}`);
-    expect(summary).toContain('not analysed (failed) 1');
+    expect(summary).toContain(`analyzed ${analysed.length}`);
+    expect(summary).toContain('not analyzed (failed) 1');
     expect(summary).toContain(`below requirement ${belowIds.length}`);
     const cases = new Set(analysed.flatMap((s) => s.result.cases.map((c) => c.name)));
     expect(summary).toContain(`design cases ${cases.size}`);
@@ -90,13 +90,13 @@ describe('corridorReportPdf', () => {
       expect(summary).toContain(`${name} ${inCase.length} ${below} `);
     }
 
-    const list = between(text, 'Stations below requirement', 'Stations not analysed');
+    const list = between(text, 'Stations below requirement', 'Stations not analyzed');
     expect([...list.matchAll(/wcb-main@\d+/g)].map((m) => m[0])).toEqual(belowIds);
     for (const s of analysed.filter((x) => x.result.verdict === 'below')) {
       const g = s.result.governing!;
       expect(flat(list)).toContain(`${s.section.id} ${g.case} ${g.method}`);
     }
-    expect(flat(between(text, 'Stations not analysed', 'Appendix'))).toContain(
+    expect(flat(between(text, 'Stations not analyzed', 'Appendix'))).toContain(
       'wcb-main@1620 the solver ran out of time',
     );
 

@@ -186,7 +186,7 @@ async function corridorStations(batch: Batch, now: Date): Promise<CorridorStatio
       return {
         section: input,
         result: null,
-        reason: s.failReason ?? `not analysed (${s.status})`,
+        reason: s.failReason ?? `not analyzed (${s.status})`,
         meta,
       };
     }
