@@ -5,32 +5,19 @@
  * is ended when it passes) and each thread a memory limit (the thread dies, the process does
  * not); when more jobs wait than INTAKE_QUEUE the request is answered 503 at once.
  */
-import path from 'node:path';
 import type { Message } from '@scarpline/core/input';
 import type { Section } from '@scarpline/core/model';
 import { config } from '../config';
 import { Problem, unavailable } from '../errors';
 import type { InputFile, Parsed } from '../services/validate';
 import type { IntakeReply, IntakeTask } from './thread';
-import { PoolError, ThreadPool } from './thread-pool';
+import { PoolError, ThreadPool, threadScript } from './thread-pool';
 
 let pool: ThreadPool | null = null;
 
-/**
- * The thread's script: the compiled thread.js beside this file; when the API runs from its
- * TypeScript sources (Jest), scripts/source-thread.js, which compiles them as it loads them.
- */
-function script(): { script: string; workerData?: unknown } {
-  if (!__filename.endsWith('.ts')) return { script: path.join(__dirname, 'thread.js') };
-  return {
-    script: path.resolve(__dirname, '../../scripts/source-thread.js'),
-    workerData: { source: path.join(__dirname, 'thread.ts') },
-  };
-}
-
 function intakePool(): ThreadPool {
   pool ??= new ThreadPool({
-    ...script(),
+    ...threadScript(__filename),
     threads: config.intakeThreads,
     queue: config.intakeQueue,
     timeoutMs: config.intakeTimeoutMs,

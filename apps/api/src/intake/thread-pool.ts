@@ -9,7 +9,22 @@
  * `{ id, ok: false, error: { name, message } }` (see thread.ts); before that it may send
  * `{ id, progress }` messages, which go to the job's `onProgress`.
  */
+import path from 'node:path';
 import { Worker } from 'node:worker_threads';
+
+/**
+ * The script of a pool's threads, `thread` beside the pool's module (its `__filename`): the
+ * compiled thread.js; when the API runs from its TypeScript sources (Jest),
+ * scripts/source-thread.js, which compiles thread.ts as it loads it.
+ */
+export function threadScript(poolFile: string): { script: string; workerData?: unknown } {
+  const dir = path.dirname(poolFile);
+  if (!poolFile.endsWith('.ts')) return { script: path.join(dir, 'thread.js') };
+  return {
+    script: path.resolve(dir, '../../scripts/source-thread.js'),
+    workerData: { source: path.join(dir, 'thread.ts') },
+  };
+}
 
 export interface ThreadPoolOptions {
   script: string;

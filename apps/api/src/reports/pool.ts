@@ -4,26 +4,16 @@
  * with a time limit (REPORT_TIMEOUT_MS: the thread is ended when it passes) and a memory limit
  * (REPORT_MEMORY_MB); when more than REPORT_QUEUE wait, the next is refused at once (503).
  */
-import path from 'node:path';
 import { config } from '../config';
 import { unavailable } from '../errors';
-import { PoolError, ThreadPool } from '../intake/thread-pool';
+import { PoolError, ThreadPool, threadScript } from '../intake/thread-pool';
 import type { ReportTask } from './thread';
 
 let pool: ThreadPool | null = null;
 
-/** The thread's script: compiled beside this file, or its source under Jest (intake/pool.ts). */
-function script(): { script: string; workerData?: unknown } {
-  if (!__filename.endsWith('.ts')) return { script: path.join(__dirname, 'thread.js') };
-  return {
-    script: path.resolve(__dirname, '../../scripts/source-thread.js'),
-    workerData: { source: path.join(__dirname, 'thread.ts') },
-  };
-}
-
 function reportPool(): ThreadPool {
   pool ??= new ThreadPool({
-    ...script(),
+    ...threadScript(__filename),
     threads: config.reportThreads,
     queue: config.reportQueue,
     timeoutMs: config.reportTimeoutMs,
