@@ -1,10 +1,14 @@
 /**
  * The way a corridor goes through Scarpline, one step after the other: an engineer submits the
  * corridor file and watches it finish; the failing sections are found and opened; a reviewer
- * signs one off; a viewer reads it without the review buttons.
+ * signs one off; a viewer reads it without the review buttons; the reviewer signs the whole
+ * batch off and downloads its corridor report, which records the sign-off.
  */
+const { execFileSync } = require('node:child_process');
 const { after, before, test } = require('node:test');
 const assert = require('node:assert/strict');
+const fs = require('node:fs');
+const os = require('node:os');
 const path = require('node:path');
 const { NARROW, api, eventually, launch, scenario, shot, signIn, tokenOf } = require('./support');
 
@@ -277,5 +281,56 @@ test('viewer: reads the same section without the review buttons', async () => {
     assert.equal(await page.getByTestId('sign-off').count(), 0);
     assert.equal(await page.getByTestId('return').count(), 0);
     await page.getByRole('note', { name: 'Engineering caution' }).waitFor();
+  });
+});
+
+test('reviewer: signs the whole batch off and downloads the signed corridor report from the batch page', async () => {
+  assert.ok(found.batchId, 'the batch of the first step');
+  await scenario(browser, 'corridor report', async ({ page }) => {
+    await signIn(page, 'reviewer');
+    await page.goto(`/batches/${found.batchId}`);
+    const state = page.getByTestId('review-state');
+    await state.waitFor();
+    const comment = 'Corridor checked station by station against the ground model.';
+    await page.getByTestId('review-comment').fill(comment);
+    await page.getByTestId('sign-off').click();
+    await eventually(async () => /approved/i.test(await state.innerText()), {
+      what: 'the batch review to say approved',
+    });
+
+    await page.getByTestId('make-report').click();
+    const row = page.getByTestId('report-row').first();
+    await row.waitFor();
+    await eventually(async () => /done/i.test(await row.getByTestId('report-status').innerText()), {
+      timeout: 120_000,
+      interval: 1000,
+      what: 'the corridor report to be made',
+    });
+    await shot(page, 'corridor-report');
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      row.getByTestId('download-report').click(),
+    ]);
+    assert.match(download.suggestedFilename(), /corridor-report.*\.pdf$/);
+    const file = path.join(os.tmpdir(), `scarpline-e2e-${process.pid}.pdf`);
+    await download.saveAs(file);
+    try {
+      const text = execFileSync('pdftotext', [file, '-'], { encoding: 'utf8' });
+      const flat = text.replace(/\s+/g, ' ');
+      assert.match(flat, /Rhea Reviewer/, 'the reviewer in the report');
+      assert.match(flat, /approved/i);
+      assert.ok(flat.includes(comment), 'the review comment in the report');
+      const pages = text.split('\f').filter((p) => p.trim() !== '');
+      pages.forEach((p, i) => {
+        assert.match(
+          p.replace(/\s+/g, ' '),
+          /qualified geotechnical engineer/,
+          `the caution on page ${i + 1}`,
+        );
+        assert.ok(p.includes(`${i + 1} of ${pages.length}`), `"n of m" on page ${i + 1}`);
+      });
+    } finally {
+      fs.rmSync(file, { force: true });
+    }
   });
 });
