@@ -25,6 +25,7 @@ const fs = require('node:fs');
 const net = require('node:net');
 const os = require('node:os');
 const path = require('node:path');
+const ports = require('./local-ports');
 
 const API_DIR = path.resolve(__dirname, '..');
 const DATABASES = ['scarpline', 'scarpline_test'];
@@ -95,21 +96,10 @@ function dataDir() {
 }
 
 /** The port derived from a cluster's folder: the same for a checkout every time, another for another. */
-function derivedPort(dir) {
-  const hash = crypto.createHash('sha256').update(path.resolve(dir)).digest();
-  return PORT_BASE + (hash.readUInt32BE(0) % PORT_SPAN);
-}
+const derivedPort = (dir) => ports.derivedPort(dir, PORT_BASE, PORT_SPAN);
 
 /** The port written in SCARPLINE_PG_PORT, or null; a value that is no port is an error. */
-function portFromEnvironment() {
-  const raw = process.env.SCARPLINE_PG_PORT;
-  if (!raw) return null;
-  const port = Number(raw);
-  if (!Number.isInteger(port) || port < 1 || port > 65535) {
-    throw new Error(`SCARPLINE_PG_PORT=${raw} is not a port: give a number from 1024 to 65535`);
-  }
-  return port;
-}
+const portFromEnvironment = () => ports.portFromEnvironment('SCARPLINE_PG_PORT');
 
 /** The port a running cluster listens on (line 4 of postmaster.pid), or null. */
 function runningPort(dir) {

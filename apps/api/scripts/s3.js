@@ -14,10 +14,10 @@
  * S3RVER / S3RVER (FAKE_CREDENTIALS), which config.ts gives the API when no endpoint is set.
  * Production never uses it: there AWS_ENDPOINT_URL_S3 (or AWS's own endpoints) is real storage.
  */
-const crypto = require('node:crypto');
 const fs = require('node:fs');
 const net = require('node:net');
 const path = require('node:path');
+const ports = require('./local-ports');
 
 const API_DIR = path.resolve(__dirname, '..');
 /** The development bucket and the tests' bucket (config.ts picks one by NODE_ENV). */
@@ -34,20 +34,12 @@ function dataDir() {
   return process.env.SCARPLINE_S3_DIR || path.join(API_DIR, '.data', 's3');
 }
 
-/** The port derived from a data folder: the same for a checkout every time, another for another. */
-function derivedPort(dir) {
-  const hash = crypto.createHash('sha256').update(path.resolve(dir)).digest();
-  return PORT_BASE + (hash.readUInt32BE(0) % PORT_SPAN);
-}
-
+/** SCARPLINE_S3_PORT, else the port derived from the data folder. */
 function portOf() {
-  const raw = process.env.SCARPLINE_S3_PORT;
-  if (!raw) return derivedPort(dataDir());
-  const port = Number(raw);
-  if (!Number.isInteger(port) || port < 1 || port > 65535) {
-    throw new Error(`SCARPLINE_S3_PORT=${raw} is not a port: give a number from 1024 to 65535`);
-  }
-  return port;
+  return (
+    ports.portFromEnvironment('SCARPLINE_S3_PORT') ??
+    ports.derivedPort(dataDir(), PORT_BASE, PORT_SPAN)
+  );
 }
 
 /** The fake's address, as AWS_ENDPOINT_URL_S3 would give it. */
@@ -161,7 +153,7 @@ module.exports = {
   answers,
   endpoint,
   portOf,
-  derivedPort,
+  derivedPort: (dir) => ports.derivedPort(dir, PORT_BASE, PORT_SPAN),
   dataDir,
   BUCKETS,
   FAKE_CREDENTIALS,

@@ -54,6 +54,10 @@ beforeAll(() => {
   fs.mkdirSync(path.join(api, 'scripts'), { recursive: true });
   script = path.join(api, 'scripts/pg.js');
   fs.copyFileSync(path.join(ROOT, 'apps/api/scripts/pg.js'), script);
+  fs.copyFileSync(
+    path.join(ROOT, 'apps/api/scripts/local-ports.js'),
+    path.join(api, 'scripts/local-ports.js'),
+  );
   clusterDir = path.join(api, '.data/pg');
 });
 
