@@ -116,10 +116,11 @@ export function solveForValue(
       if (r.converged) return result(true, null, r.x, analyse(r.x));
     }
   }
+  const v = (x: number) => String(Number(x.toPrecision(6)));
   const seen = steps.filter((s) => s.fs !== null).map((s) => s.fs!);
   const reason =
     seen.length === 0
-      ? `no analysis in ${a} … ${b} gave a factor of safety (the input cannot take these values, or no admissible surface was found)`
-      : `no value in ${a} … ${b} gives FS = ${request.targetFs}: over the range the critical FS lies between ${Math.min(...seen).toFixed(3)} and ${Math.max(...seen).toFixed(3)}; widen the range or change the target`;
+      ? `no analysis in ${v(a)} … ${v(b)} gave a factor of safety (the input cannot take these values, or no admissible surface was found)`
+      : `no value in ${v(a)} … ${v(b)} gives FS = ${request.targetFs}: over the range the critical FS lies between ${Math.min(...seen).toFixed(3)} and ${Math.max(...seen).toFixed(3)}; widen the range or change the target`;
   return result(false, reason, null, null);
 }
