@@ -21,12 +21,11 @@ import {
   probabilityRun,
   realisationValues,
   solveForValue,
-  sliceSurface,
   taylorSeries,
   type ProbabilitySpec,
   type Section,
 } from '@scarpline/core';
-import { homogeneous, mohrCoulomb, relErr, simpleSlope, undrained } from './support';
+import { cut, homogeneous, mohrCoulomb, relErr, simpleSlope, undrained } from './support';
 
 const Phi = (z: number) => 0.5 * (1 + erf(z / Math.SQRT2));
 
@@ -232,10 +231,9 @@ describe('solving for a value', () => {
   };
   // the exact φ = 0 circle (disk ∩ soil, no slices): F is proportional to Su, so Su(F = 1) = Su/F
   const s0 = clay('phi-zero-circle', 200);
-  const p0 = prepareSection(s0);
   const exactF = phiZeroCircle(
-    p0,
-    sliceSurface(p0, circle, 200),
+    prepareSection(s0),
+    cut(s0, circle, 200),
     circle.center,
     circle.radius,
     s0.seismic,
