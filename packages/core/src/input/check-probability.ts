@@ -1,4 +1,4 @@
-import { cholesky } from '../numeric/cholesky';
+import { cholesky } from '../probability/cholesky';
 import { parseTarget } from '../probability/target';
 import { isNumber, isRecord } from './guards';
 import type { Issue, PathKey } from './types';

@@ -6,7 +6,7 @@
  */
 import { seededRandom } from '../numeric/seeded-random';
 import { phiInverse } from './distributions';
-export { cholesky } from '../numeric/cholesky';
+export { cholesky } from './cholesky';
 import type { SamplingMethod } from './types';
 
 /** A 32-bit hash of a seed and two integers (the finaliser of MurmurHash3), for independent streams. */
