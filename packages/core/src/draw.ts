@@ -24,8 +24,4 @@ export { scaleLinear, type LinearScale } from './draw/scale-linear';
 export { niceStep, niceTicks } from './draw/nice-ticks';
 // --- probability and sensitivity (issue 19): each takes a result
 export { drawProbability, type DrawProbabilityOptions } from './draw/draw-probability';
-export {
-  drawSensitivity,
-  drawTornado,
-  type DrawSensitivityOptions,
-} from './draw/draw-sensitivity';
+export { drawSensitivity, drawTornado, type DrawSensitivityOptions } from './draw/draw-sensitivity';
