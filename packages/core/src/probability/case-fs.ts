@@ -6,7 +6,8 @@
  * meter).
  */
 import { analyzeSection } from '../analyze';
-import { runOnPlane, runOnSurface } from '../method-report';
+import { pivotOf, runOnPlane, runOnSurface } from '../method-report';
+import { METHODS } from '../methods/registry';
 import { caseSection, designCases } from '../model/design-cases';
 import type {
   CircleSurface,
@@ -17,8 +18,9 @@ import type {
 } from '../model/types';
 import type { ReportedSurface } from '../result';
 import { type PreparedSection, prepareSection, stratumProperties } from '../slices/prepare-section';
-import { sliceSurface } from '../slices/slice-surface';
-import { strengthRules } from '../slices/stress-dependent';
+import { cutSurface, sliceWorkspace } from '../slices/cut-surface';
+import { slicedSurface } from '../slices/slice-surface';
+import { strengthRules, touchesRules } from '../slices/stress-dependent';
 import type { AnalyzeOptions } from '../work-limit';
 import type { Target } from './target';
 
@@ -122,9 +124,21 @@ export function fsOnSurface(base: Section, critical: Critical, targets: readonly
         rules: strengthRules(materials),
       };
     };
+    const entry = METHODS[method];
+    // one workspace for every realisation: the slices are cut into its buffers, not copied out
+    const ws = sliceWorkspace(first);
     return (s) => {
       const p = prepare(s);
-      const rep = runOnSurface(method, p, surface, sliceSurface(p, surface, slices));
+      ws.prepared = p;
+      if (cutSurface(ws, surface, slices) !== null) return null;
+      const cut = slicedSurface(ws, false);
+      // the method alone, without its report, where the strengths are fixed (as the report's own run)
+      if ('run' in entry && !touchesRules(cut.slices, p.rules)) {
+        const pivot = pivotOf(surface, cut.slices);
+        const r = entry.run({ prepared: p, surface, cut, pivot }).result;
+        return r.converged && Number.isFinite(r.fs) ? r.fs : null;
+      }
+      const rep = runOnSurface(method, p, surface, cut);
       return rep.converged && rep.fs !== null ? rep.fs : null;
     };
   }
