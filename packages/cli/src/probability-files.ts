@@ -272,7 +272,7 @@ async function searchedOnThreads(
   return probabilityResult(section, spec, cases);
 }
 
-/** `scarpline probability FILE`: exit 0 when analysed, 1 on bad input. */
+/** `scarpline probability FILE`: exit 0 when analyzed, 1 on bad input. */
 export async function probabilityFile(
   file: string,
   o: ProbabilityOptions,
@@ -344,7 +344,7 @@ function sensitivityInUnits(r: SensitivityResult, units: UnitSystem): Sensitivit
   };
 }
 
-/** `scarpline sensitivity FILE`: exit 0 when analysed, 1 on bad input. */
+/** `scarpline sensitivity FILE`: exit 0 when analyzed, 1 on bad input. */
 export function sensitivityFile(
   file: string,
   o: SensitivityOptions,

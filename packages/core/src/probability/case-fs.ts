@@ -90,7 +90,7 @@ export type CaseFs = (section: Section) => number | null;
  * governing method. Where only materials and the seismic coefficients change (and there is no
  * reinforcement), the geometry prepared once is reused and only the materials' properties are
  * taken again. A case whose critical surface is no circle or polyline (an infinite slope, a
- * log spiral, a drawdown's stages) is analysed in full with that method on that surface.
+ * log spiral, a drawdown's stages) is analyzed in full with that method on that surface.
  */
 export function fsOnSurface(base: Section, critical: Critical, targets: readonly Target[]): CaseFs {
   const method = critical.method;

@@ -87,7 +87,7 @@ export function solveForValue(
   const has = targetValue(model.section, parsed.target);
   if (!has.ok) return result(false, has.reason, null, null);
   const cache = new Map<number, Critical | null>();
-  const analyse = (x: number): Critical | null => {
+  const analyze = (x: number): Critical | null => {
     if (cache.has(x)) return cache.get(x)!;
     const applied = applyValue(model.section, parsed.target, x);
     const c = applied.ok ? criticalOf(applied.section, options) : null;
@@ -97,7 +97,7 @@ export function solveForValue(
     return c;
   };
   const g = (x: number) => {
-    const fs = analyse(x)?.fs;
+    const fs = analyze(x)?.fs;
     return fs === null || fs === undefined ? NaN : fs - request.targetFs;
   };
   const n = Math.max(2, request.scan ?? 9);
@@ -105,7 +105,7 @@ export function solveForValue(
   const gs = xs.map(g);
   const tol = request.tolerance ?? Math.max(1e-12, (b - a) * 1e-5);
   for (let k = 0; k < n; k++) {
-    if (gs[k] === 0) return result(true, null, xs[k], analyse(xs[k]));
+    if (gs[k] === 0) return result(true, null, xs[k], analyze(xs[k]));
     if (
       k + 1 < n &&
       Number.isFinite(gs[k]) &&
@@ -113,7 +113,7 @@ export function solveForValue(
       gs[k] * gs[k + 1] < 0
     ) {
       const r = brent(g, xs[k], xs[k + 1], tol, 100, gs[k], gs[k + 1]);
-      if (r.converged) return result(true, null, r.x, analyse(r.x));
+      if (r.converged) return result(true, null, r.x, analyze(r.x));
     }
   }
   const v = (x: number) => String(Number(x.toPrecision(6)));
