@@ -297,3 +297,68 @@ describe('a run repeats, and chunks of it are the run', () => {
     expect(water.to).toBe(0.5);
   });
 });
+
+describe('a corridor batch with random variables', () => {
+  const corridor = JSON.parse(
+    readFileSync(
+      join(__dirname, '..', '..', '..', 'examples', 'corridor', 'corridor.json'),
+      'utf8',
+    ),
+  ) as { template: Record<string, unknown>; sections: Record<string, unknown>[] };
+
+  test('the template’s variables hold for every section; a section may give its own', () => {
+    const batch = {
+      ...corridor,
+      template: {
+        ...corridor.template,
+        probability: {
+          variables: [
+            {
+              target: 'materials.weathered-mudstone.frictionAngle',
+              distribution: 'normal',
+              mean: 26,
+              sd: 2,
+            },
+          ],
+        },
+      },
+      sections: corridor.sections
+        .slice(0, 2)
+        .map((x, i) =>
+          i === 1
+            ? {
+                ...x,
+                probability: {
+                  variables: [{ target: 'seismic.kh', distribution: 'uniform', min: 0, max: 0.1 }],
+                },
+              }
+            : x,
+        ),
+    };
+    const r = parseSections(JSON.stringify(batch), 'corridor.json');
+    expect(r.messages.filter((m) => m.severity === 'error')).toEqual([]);
+    expect(r.sections.map((x) => x.probability!.variables[0].target)).toEqual([
+      'materials.weathered-mudstone.frictionAngle',
+      'seismic.kh',
+    ]);
+  });
+
+  test('a template’s target that a section does not have is located in the template', () => {
+    const batch = {
+      ...corridor,
+      template: {
+        ...corridor.template,
+        probability: {
+          variables: [{ target: 'materials.peat.su', distribution: 'normal', mean: 20, sd: 4 }],
+        },
+      },
+      sections: corridor.sections.slice(0, 2),
+    };
+    const m = parseSections(JSON.stringify(batch, null, 2), 'corridor.json').messages;
+    expect(m.map(formatMessage)).toEqual([
+      expect.stringMatching(
+        /^corridor\.json:\d+:\d+ template\.probability\.variables\[0\]\.target: "materials\.peat\.su": the section has no material "peat"/,
+      ),
+    ]);
+  });
+});
