@@ -8,6 +8,9 @@ import { join } from 'node:path';
 import { evaluate } from 'mathjs';
 import {
   analyzeProbability,
+  analyzeSection,
+  caseModels,
+  criticalOf,
   applyValue,
   caseProbability,
   formatMessage,
@@ -322,18 +325,16 @@ describe('a corridor batch with random variables', () => {
           ],
         },
       },
-      sections: corridor.sections
-        .slice(0, 2)
-        .map((x, i) =>
-          i === 1
-            ? {
-                ...x,
-                probability: {
-                  variables: [{ target: 'seismic.kh', distribution: 'uniform', min: 0, max: 0.1 }],
-                },
-              }
-            : x,
-        ),
+      sections: corridor.sections.slice(0, 2).map((x, i) =>
+        i === 1
+          ? {
+              ...x,
+              probability: {
+                variables: [{ target: 'seismic.kh', distribution: 'uniform', min: 0, max: 0.1 }],
+              },
+            }
+          : x,
+      ),
     };
     const r = parseSections(JSON.stringify(batch), 'corridor.json');
     expect(r.messages.filter((m) => m.severity === 'error')).toEqual([]);
@@ -361,4 +362,27 @@ describe('a corridor batch with random variables', () => {
       ),
     ]);
   });
+});
+
+describe('the FS of a case as the probabilistic analysis and solving take it', () => {
+  test.each([
+    'levee-drawdown-seismic.yaml',
+    'embankment-basal-reinforcement.yaml',
+    'embankment-stages.yaml',
+  ])(
+    '%s: each case’s critical FS is the governing FS of that case in the station’s analysis',
+    (file) => {
+      const text = readFileSync(join(__dirname, '..', '..', '..', 'examples', file), 'utf8');
+      for (const s of parseSections(text, file).sections) {
+        const station = analyzeSection(s);
+        const models = caseModels(s);
+        expect(models.map((m) => m.name)).toEqual(station.cases.map((c) => c.name));
+        models.forEach((m, k) => {
+          const fs = criticalOf(m.section).fs;
+          expect([m.name, fs]).toEqual([m.name, station.cases[k].governing?.fs ?? null]);
+        });
+      }
+    },
+    60_000,
+  );
 });

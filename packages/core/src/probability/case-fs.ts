@@ -48,17 +48,31 @@ export function caseModels(section: Section, name?: string): CaseModel[] {
 }
 
 /**
- * A case model with its one case given the section's own settings again (the targets change
- * the section's settings; the case keeps its kind, drawdown and earthquake).
+ * A case model as its critical FS needs it: its one case given the section's own settings
+ * again (the targets change the section's settings; the case keeps its kind and drawdown),
+ * without what only the station's report needs (a seismic case's yield coefficient and
+ * displacements, the extra reinforcement a case below its requirement would need): the FS is
+ * the same, without their further searches.
  */
 function synced(s: Section): Section {
-  if (!s.cases || s.cases.length !== 1) return s;
+  const analysis = { ...s.analysis, requiredReinforcement: null };
+  if (!s.cases || s.cases.length !== 1) return { ...s, analysis };
   const c = s.cases[0];
-  const { water, materials, loads, reinforcement, seismic, crack, analysis } = s;
-  return {
-    ...s,
-    cases: [{ ...c, water, materials, loads, reinforcement, seismic, crack, analysis }],
+  const { water, materials, loads, reinforcement, seismic, crack } = s;
+  const kind = c.kind === 'seismic' ? 'other' : c.kind;
+  const one = {
+    ...c,
+    kind,
+    earthquake: null,
+    water,
+    materials,
+    loads,
+    reinforcement,
+    seismic,
+    crack,
+    analysis,
   };
+  return { ...s, analysis, cases: [one] };
 }
 
 /** The critical FS of a case: the governing method, its FS and its surface (SI); FS null where none was found. */
