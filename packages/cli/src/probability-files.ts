@@ -25,6 +25,8 @@ import {
   sensitivity,
   solveForValue,
   targetQuantity,
+  targetValue,
+  sectionOfCase,
   taylorSeries,
   toSi,
   UNIT_LABELS,
@@ -239,6 +241,8 @@ async function searchedOnThreads(
     () => new Worker(join(__dirname, 'probability-worker.js')),
   );
   let next = 0;
+  let done = 0;
+  const total = tasks.reduce((k, t) => k + t.to - t.from, 0);
   try {
     await Promise.all(
       workers.map(
@@ -254,6 +258,10 @@ async function searchedOnThreads(
                   );
                 const out = fs.get(task.caseName)!;
                 reply.fs.forEach((v, k) => (out[task.from + k] = v));
+                done += reply.fs.length;
+                // a terminal sees the realisations counted as they come
+                if (process.stderr.isTTY)
+                  process.stderr.write(`\r${section.id}: ${done} of ${total} realisations`);
                 feed();
               });
               w.postMessage(task);
@@ -264,6 +272,7 @@ async function searchedOnThreads(
       ),
     );
   } finally {
+    if (process.stderr.isTTY) process.stderr.write('\n');
     await Promise.all(workers.map((w) => w.terminate()));
   }
   const cases: CaseProbability[] = run.cases.map((rc) =>
@@ -418,6 +427,8 @@ export function solveFile(file: string, o: SolveOptions, print: Print, printErr:
   const results: SolveResult[] = [];
   let code = 0;
   for (const s of sections) {
+    const has = targetValue(sectionOfCase(s, o.case), parsed.target);
+    if (!has.ok) throw new UserError(`--for: section ${s.id}: ${has.reason}`);
     const si = (v: number) => (kind ? toSi(v, kind, s.units) : v);
     const back = (v: number) => (kind ? fromSi(v, kind, s.units) : v);
     const r = solveForValue(s, {

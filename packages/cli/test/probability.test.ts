@@ -137,8 +137,8 @@ describe('scarpline solve', () => {
       '--range',
       '0,10',
     ]);
-    expect(r.code).toBe(2);
-    expect(r.out).toMatch(/the section has no material "peat"/);
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(/--for: section wfb-0520: the section has no material "peat"/);
     const bad = run([
       'solve',
       EXAMPLE,
