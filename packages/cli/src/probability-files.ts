@@ -438,11 +438,21 @@ export function solveFile(file: string, o: SolveOptions, print: Print, printErr:
       ...(o.case ? { caseName: o.case } : {}),
       ...(o.scan ? { scan: o.scan } : {}),
     });
+    const unitWords = kind ? ` ${UNIT_LABELS[s.units][kind]}` : '';
+    const seen = r.steps.flatMap((x) => (x.fs === null ? [] : [x.fs]));
+    const lo = back(r.range[0]);
+    const hi = back(r.range[1]);
+    const words = (v: number) => String(Number(v.toPrecision(6)));
     const shown: SolveResult = {
       ...r,
-      range: [back(r.range[0]), back(r.range[1])],
+      range: [lo, hi],
       value: r.value === null ? null : back(r.value),
       steps: r.steps.map((x) => ({ ...x, value: back(x.value) })),
+      // the reason in the file's units (the core's is in SI)
+      reason:
+        r.found || seen.length === 0
+          ? r.reason
+          : `no value in ${words(lo)} … ${words(hi)}${unitWords} gives FS = ${o.target}: over the range the critical FS lies between ${Math.min(...seen).toFixed(3)} and ${Math.max(...seen).toFixed(3)}; widen the range or change the target`,
     };
     results.push(shown);
     if (!r.found) code = 2;
@@ -465,7 +475,7 @@ export function solveFile(file: string, o: SolveOptions, print: Print, printErr:
         print(`  critical surface: polyline of ${r.surface.points.length} points`);
       else if (r.surface?.type === 'plane')
         print(`  critical surface: plane at ${n(r.surface.angle)}°`);
-    } else print(`  no value found: ${r.reason ?? ''} (${r.analyses} analyses)`);
+    } else print(`  no value found: ${shown.reason ?? ''} (${r.analyses} analyses)`);
     print('');
   }
   if (o.json) print(JSON.stringify({ caution: CAUTION, sections: results }, null, 2));

@@ -123,7 +123,22 @@ describe('scarpline solve', () => {
   test('a range that holds no value says so, with exit status 2', () => {
     const r = run(['solve', EXAMPLE, '--for', 'water.level', '--target', '1.5', '--range', '-1,0']);
     expect(r.code).toBe(2);
-    expect(r.out).toMatch(/no value found: no value in -1 … 0 gives FS = 1\.5/);
+    expect(r.out).toMatch(/no value found: no value in -1 … 0 m gives FS = 1\.5/);
+  });
+
+  test('a file in US units: the range, the value and the reason in its units', () => {
+    const file = 'examples/cut-us-units.yaml';
+    const args = ['solve', file, '--for', 'materials.lean-clay.cohesion', '--range', '0,2000'];
+    const found = run([...args, '--target', '1.5']);
+    expect(found.code).toBe(0);
+    expect(found.out).toContain('looked for in 0 … 2000 psf');
+    expect(found.out).toMatch(/value \d+(\.\d+)? psf: FS 1\.500/);
+    expect(found.out).toMatch(/radius \d+(\.\d+)? ft/);
+    const none = run([...args, '--target', '1']);
+    expect(none.code).toBe(2);
+    expect(none.out).toMatch(
+      /no value in 0 … 2000 psf gives FS = 1: over the range the critical FS lies between/,
+    );
   });
 
   test('an input the section does not have, and a bad range, are refused', () => {
