@@ -73,7 +73,17 @@ const svgWords = (svg: string) =>
 describe('the interface uses none of its old words', () => {
   test('the command: help, the starters, analyze, plot and batch output, and the drawings', () => {
     const found: string[] = [];
-    for (const cmd of [[], ['validate'], ['analyze'], ['batch'], ['plot'], ['init']])
+    for (const cmd of [
+      [],
+      ['validate'],
+      ['analyze'],
+      ['batch'],
+      ['plot'],
+      ['init'],
+      ['probability'],
+      ['sensitivity'],
+      ['solve'],
+    ])
       found.push(...oldWords(`scarpline ${cmd.join(' ')} --help`, run([...cmd, '--help']).out));
     for (const kind of [
       'cut',

@@ -379,6 +379,222 @@ Exit status: 0 when drawn, 1 when the file is invalid.`,
     },
   );
 
+// --- probability of failure, sensitivity, solving for a value (issue 19)
+const numberOption = (name: string, v: string | undefined, whole = false): number | undefined => {
+  if (v === undefined) return undefined;
+  const n = Number(v);
+  if (!Number.isFinite(n) || (whole && (!Number.isInteger(n) || n < 1)))
+    throw new UserError(
+      `${name}: ${v} is not ${whole ? 'a whole number of 1 or more' : 'a number'}`,
+    );
+  return n;
+};
+
+program
+  .command('probability')
+  .description(
+    "probability of failure of each case from the section's random variables (its probability block): mean and SD of FS, P(FS < 1) and P(FS < required) with standard errors, β",
+  )
+  .argument('<file>', 'a section file (or a batch; - reads standard input)')
+  .option('-s, --section <id>', 'only this section of the file')
+  .option('--case <name>', 'only this design case (default: every case)')
+  .option('-n, --realisations <n>', "number of realisations instead of the file's")
+  .option('--seed <n>', "seed instead of the file's (the same seed repeats a run exactly)")
+  .addOption(
+    new Option('--sampling <method>', "sampling instead of the file's").choices([
+      'monte-carlo',
+      'latin-hypercube',
+    ]),
+  )
+  .option('--search', 'search the critical surface again in each realisation (slow; on every core)')
+  .option('--taylor', 'also the Taylor series method (2n + 1 analyses) as a cross-check')
+  .option('-j, --jobs <n>', 'with --search: worker threads (default: one per core)')
+  .option('--json', 'print the results as JSON (FS statistics, histogram, CDF, convergence of P_f)')
+  .option(
+    '--svg <out>',
+    'draw the distribution of FS (several cases or sections: OUT-<id>-<case>.svg)',
+  )
+  .addHelpText(
+    'after',
+    `
+Examples:
+  $ scarpline probability examples/levee-probability.yaml
+  $ scarpline probability examples/levee-probability.yaml --taylor --svg fs-distribution.svg
+  $ scarpline probability examples/levee-probability.yaml --search -n 500 --jobs 2 --json > p.json
+
+Each realisation draws every variable (correlated through their normal scores), sets it on
+the case, and takes the FS on the case's critical surface at the means (or, with --search,
+on the surface searched again). P(FS < 1) is counted, with its standard error √(P(1 − P)/N).
+
+Exit status: 0 when analyzed, 1 when the file is invalid or gives no random variables.`,
+  )
+  .action(
+    async (
+      file: string,
+      opts: {
+        section?: string;
+        case?: string;
+        realisations?: string;
+        seed?: string;
+        sampling?: 'monte-carlo' | 'latin-hypercube';
+        search?: boolean;
+        taylor?: boolean;
+        jobs?: string;
+        json?: boolean;
+        svg?: string;
+      },
+    ) => {
+      const { probabilityFile } = await import('./probability-files');
+      process.exitCode = await probabilityFile(
+        file,
+        {
+          section: opts.section,
+          case: opts.case,
+          realisations: numberOption('--realisations', opts.realisations, true),
+          seed: numberOption('--seed', opts.seed),
+          method: opts.sampling,
+          search: opts.search === true,
+          taylor: opts.taylor === true,
+          jobs: numberOption('--jobs', opts.jobs, true),
+          json: opts.json === true,
+          svg: opts.svg,
+        },
+        print,
+        printErr,
+      );
+    },
+  );
+
+program
+  .command('sensitivity')
+  .description(
+    'how the FS of each case moves as each random variable goes over its range, the others at their means (one at a time), and the tornado of FS ranges',
+  )
+  .argument(
+    '<file>',
+    'a section file with a probability block (or a batch; - reads standard input)',
+  )
+  .option('-s, --section <id>', 'only this section of the file')
+  .option('--case <name>', 'only this design case (default: every case)')
+  .option('--points <n>', 'values over each range', '11')
+  .option('--search', 'search the critical surface again at each value')
+  .option('--json', 'print the series as JSON')
+  .option(
+    '--svg <out>',
+    'draw FS against each variable (several cases or sections: OUT-<id>-<case>.svg)',
+  )
+  .option('--tornado <out>', 'draw the tornado chart (several: OUT-<id>-<case>.svg)')
+  .addHelpText(
+    'after',
+    `
+Examples:
+  $ scarpline sensitivity examples/levee-probability.yaml
+  $ scarpline sensitivity examples/levee-probability.yaml --svg one-at-a-time.svg --tornado tornado.svg
+
+Each variable's range is its 1st to 99th percentile (a uniform or triangular one: its bounds).
+
+Exit status: 0 when analyzed, 1 when the file is invalid or gives no random variables.`,
+  )
+  .action(
+    async (
+      file: string,
+      opts: {
+        section?: string;
+        case?: string;
+        points: string;
+        search?: boolean;
+        json?: boolean;
+        svg?: string;
+        tornado?: string;
+      },
+    ) => {
+      const { sensitivityFile } = await import('./probability-files');
+      process.exitCode = sensitivityFile(
+        file,
+        {
+          section: opts.section,
+          case: opts.case,
+          points: numberOption('--points', opts.points, true),
+          search: opts.search === true,
+          json: opts.json === true,
+          svg: opts.svg,
+          tornado: opts.tornado,
+        },
+        print,
+        printErr,
+      );
+    },
+  );
+
+program
+  .command('solve')
+  .description(
+    'find the value of one input at which the critical FS (the full analysis at every step) equals a target: back-analysis (1.0) or design (the required FS)',
+  )
+  .argument('<file>', 'a section file (or a batch; - reads standard input)')
+  .requiredOption(
+    '--for <input>',
+    'the input: materials.<name>.<parameter>, water.level, loads.<i>.<parameter>, seismic.kh, ground.<i>.x|y, infiniteSlope.angle, reinforcement.<name>.<parameter>, …',
+  )
+  .requiredOption('--target <fs>', 'the factor of safety to reach')
+  .requiredOption(
+    '--range <a,b>',
+    "the values to look in, in the file's units (water.level: a shift)",
+  )
+  .option('-s, --section <id>', 'only this section of the file')
+  .option('--case <name>', 'this design case (default: the first)')
+  .option('--scan <n>', 'values the range is first scanned at to bracket the answer', '9')
+  .option('--json', 'print the result as JSON, with every analysis made')
+  .addHelpText(
+    'after',
+    `
+Examples:
+  $ scarpline solve examples/levee-probability.yaml --for materials.alluvium.frictionAngle --target 1.0 --range 10,30
+  $ scarpline solve examples/levee-probability.yaml --for water.level --target 1.5 --range -4,0
+
+The range is scanned, a change of side of the target bracketed, and the value refined by
+Brent's method; when the FS stays on one side of the target over the range, it says so.
+
+Exit status: 0 when a value was found, 2 when the range holds none, 1 when the input is invalid.`,
+  )
+  .action(
+    async (
+      file: string,
+      opts: {
+        for: string;
+        target: string;
+        range: string;
+        section?: string;
+        case?: string;
+        scan: string;
+        json?: boolean;
+      },
+    ) => {
+      const range = opts.range.split(',').map((v) => Number(v.trim()));
+      if (range.length !== 2 || !range.every(Number.isFinite) || range[0] === range[1])
+        throw new UserError(`--range: ${opts.range} is not two different numbers a,b`);
+      const target = numberOption('--target', opts.target)!;
+      if (!(target > 0))
+        throw new UserError(`--target: ${opts.target} is not a factor of safety above 0`);
+      const { solveFile } = await import('./probability-files');
+      process.exitCode = solveFile(
+        file,
+        {
+          for: opts.for,
+          target,
+          range: [range[0], range[1]],
+          section: opts.section,
+          case: opts.case,
+          scan: numberOption('--scan', opts.scan, true),
+          json: opts.json === true,
+        },
+        print,
+        printErr,
+      );
+    },
+  );
+// --- end of issue 19's commands
+
 program
   .command('init')
   .description('write a commented starter section file')
@@ -412,6 +628,8 @@ Examples:
   $ scarpline plot examples/levee-land-side.yaml --svg levee.svg
   $ scarpline batch examples/corridor/corridor.json --out results/
   $ scarpline report examples/levee-land-side.yaml
+  $ scarpline probability examples/levee-probability.yaml
+  $ scarpline solve examples/levee-probability.yaml --for water.level --target 1.5 --range -4,0
 ${EXIT}`,
 );
 

@@ -22,3 +22,6 @@ export {
 export { chainageLabel } from './draw/chainage-label';
 export { scaleLinear, type LinearScale } from './draw/scale-linear';
 export { niceStep, niceTicks } from './draw/nice-ticks';
+// --- probability and sensitivity (issue 19): each takes a result
+export { drawProbability, type DrawProbabilityOptions } from './draw/draw-probability';
+export { drawSensitivity, drawTornado, type DrawSensitivityOptions } from './draw/draw-sensitivity';

@@ -162,3 +162,6 @@ export { stationResult, stationVerdict, MIN_RELIEF, FS_CAP } from './station-res
 export * from './draw';
 export * from './verdict';
 export * from './export';
+
+// --- probability of failure, sensitivity, solving for a value (issue 19)
+export * from './probability';

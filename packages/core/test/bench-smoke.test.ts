@@ -93,3 +93,33 @@ test('input bench (packages/core/bench/input.js)', () => {
   expect(out).toMatch(line('the demo corridor as 100 sections \\(JSON, valid\\)', 'none'));
   expect(out.trim().split('\n')).toHaveLength(15);
 }, 120_000);
+
+test('probability bench (packages/core/bench/probability.js)', () => {
+  const r = spawnSync(
+    process.execPath,
+    [join(ROOT, 'packages', 'core', 'bench', 'probability.js')],
+    { cwd: ROOT, encoding: 'utf8', env: { ...process.env, BENCH_SMOKE: '1' } },
+  );
+  expect(r.stderr).toBe('');
+  expect(r.status).toBe(0);
+  const out = r.stdout;
+  const number = String.raw`[\d,]+(\.\d+)?`;
+  expect(out).toMatch(/^Scarpline probability benchmarks — node v\d+/);
+  expect(out).toMatch(/^smoke run \(BENCH_SMOKE=1\)/m);
+  expect(out).toMatch(
+    new RegExp(
+      `^${number} realisations on the critical surface, one core: ${number} ms \\(median of \\d+; target ≤ 1 000 ms\\)$`,
+      'm',
+    ),
+  );
+  expect(out).toMatch(
+    new RegExp(`^  the same with the \\d+ material variables only .*: ${number} ms$`, 'm'),
+  );
+  expect(out).toMatch(
+    new RegExp(
+      `^${number} realisations with the critical surface searched again in each, 2 worker threads: ${number} ms \\(median of \\d+; target ≤ 30 000 ms\\); mean FS \\d\\.\\d{3}, P\\(FS < 1\\) ${number} %$`,
+      'm',
+    ),
+  );
+  expect(out.trim().split('\n')).toHaveLength(6);
+}, 120_000);

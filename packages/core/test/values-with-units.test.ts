@@ -164,6 +164,9 @@ describe('the schemas', () => {
     // Hoek–Brown's GSI, mi and D; a ratio Su/σ′v, its exponent and OCR; a second friction angle
     ...['gsi', 'mi', 'disturbance', 'ratio', 'exponent', 'ocr', 'frictionAngleBeyond'],
     ...['interaction', 'coverage', 'inclination', 'maxLayers'],
+    // a random variable's values are in the units of the input it varies (converted by its
+    // target's kind of quantity, probability/normalise-probability.ts); counts and coefficients
+    ...['realisations', 'coefficient', 'mean', 'sd', 'cov', 'min', 'mode', 'max'],
   ]);
   test.each([
     ['section', sectionSchema],

@@ -2,6 +2,7 @@ import { WORK_LIMIT } from '../work-limit';
 import { caseWorkWords, estimateCaseWork, estimateWork, requiredSearches } from './estimate-work';
 import { caseOrigin, mergeCaseData } from '../model/merge-case';
 import { checkCases } from './check-cases';
+import { checkProbability } from './check-probability';
 import { checkReinforcement } from './check-reinforcement';
 import { betweenWords, checkBoundary } from './check-boundary';
 import type { RawStrength } from '../model/raw-section';
@@ -37,7 +38,12 @@ const WATER_WEIGHT = { si: [9, 10.5], us: [57, 67] } as const;
 export function checkSection(data: unknown): Issue[] {
   if (!isRecord(data)) return [];
   const own = checkSettings(data);
-  return [...own, ...checkCases(data, own, checkSettings), ...checkWork(data)];
+  return [
+    ...own,
+    ...checkCases(data, own, checkSettings),
+    ...checkWork(data),
+    ...checkProbability(data),
+  ];
 }
 
 /** The checks of checkSection on one set of settings: the section's own, or as a case sees them. */

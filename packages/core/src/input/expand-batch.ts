@@ -149,7 +149,7 @@ export function* expandSections(batch: Record<string, unknown>): Generator<Expan
       return w;
     };
 
-    for (const key of ['offset', 'loads', 'reinforcement', 'crack']) {
+    for (const key of ['offset', 'loads', 'reinforcement', 'crack', 'probability']) {
       const v = pick(template[key], item[key], [...T, key], [...S, key], [key]);
       if (v !== undefined) data[key] = v;
     }

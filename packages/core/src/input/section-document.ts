@@ -1,4 +1,6 @@
 import { SECTION_FORMAT } from '../formats';
+import type { RawProbability } from '../probability/normalise-probability';
+import type { ProbabilitySpec } from '../probability/types';
 import type {
   RawAnalysis,
   RawCase,
@@ -23,6 +25,21 @@ import { pathText } from './words';
 function defined<T extends object>(o: T): { [K in keyof T]?: Exclude<T[K], null> } {
   return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== null && v !== undefined)) as {
     [K in keyof T]?: Exclude<T[K], null>;
+  };
+}
+
+/** A section's random variables as its file writes them (SI: the document's units). */
+function probabilityDocument(p: ProbabilitySpec): RawProbability {
+  return {
+    variables: p.variables.map(({ name, target, distribution: d }) => {
+      const { kind, ...values } = d;
+      return { name, target, distribution: kind, ...values };
+    }),
+    ...(p.correlations.length > 0 ? { correlations: p.correlations } : {}),
+    seed: p.seed,
+    method: p.method,
+    realisations: p.realisations,
+    surface: p.surface,
   };
 }
 
@@ -63,6 +80,7 @@ export function sectionDocument(s: Section): RawSection {
       requiredFs: s.analysis.requiredFs,
     }),
     ...(s.cases && s.cases.length > 0 ? { cases: s.cases.map((c) => caseDocument(c, s)) } : {}),
+    ...(s.probability ? { probability: probabilityDocument(s.probability) } : {}),
   };
   // A plain copy: the document shares nothing with the section.
   return JSON.parse(JSON.stringify(doc)) as RawSection;

@@ -2,6 +2,7 @@ import { normaliseStrength } from '../strength/registry';
 import { boundaryOverGround } from './boundary-over-ground';
 import { lowerEnvelope } from '../geometry/lower-envelope';
 import { mergeCase } from './merge-case';
+import { normaliseProbability } from '../probability/normalise-probability';
 import { normaliseReinforcement, normaliseRequiredReinforcement } from './normalise-reinforcement';
 import type {
   RawAnalysis,
@@ -69,6 +70,7 @@ export function normaliseSection(raw: RawSection): Section {
   };
   if (raw.cases && raw.cases.length > 0)
     section.cases = raw.cases.map((c) => normaliseCase(raw, c, ground));
+  if (raw.probability) section.probability = normaliseProbability(raw.probability, raw.units);
   return section;
 }
 

@@ -3,6 +3,7 @@
  * file's own units, optional fields absent. normaliseSection turns it into a Section.
  */
 import type { SECTION_FORMAT } from '../formats';
+import type { RawProbability } from '../probability/normalise-probability';
 import type {
   DesignCaseKind,
   InfiniteSlopeSpec,
@@ -197,4 +198,6 @@ export interface RawSection {
   crack?: RawCrack;
   analysis?: RawAnalysis;
   cases?: RawCase[];
+  /** Random variables for the probabilistic analysis (probability/normalise-probability.ts). */
+  probability?: RawProbability;
 }

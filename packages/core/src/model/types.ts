@@ -8,6 +8,7 @@
  * x runs to the right, y up.
  */
 import type { SECTION_FORMAT } from '../formats';
+import type { ProbabilitySpec } from '../probability/types';
 
 /** A point [x, y]. */
 export type Point = [number, number];
@@ -364,6 +365,8 @@ export interface Section {
    * requiredFs name it and set its requirement); designCases() gives the list either way.
    */
   cases?: DesignCase[];
+  /** The random variables of the probabilistic analysis, in SI; absent when the file gives none. */
+  probability?: ProbabilitySpec;
 }
 
 // --- design cases ---------------------------------------------------------------------

@@ -188,7 +188,7 @@ function geometryOf(
   };
 }
 
-function stratumProperties(section: Section, materials: Material[], index: number[]) {
+export function stratumProperties(section: Section, materials: Material[], index: number[]) {
   const n = section.strata.length;
   const p: StratumProperties = {
     gamma: new Float64Array(n),

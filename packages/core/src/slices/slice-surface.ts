@@ -65,9 +65,12 @@ export function rejectReason(ws: SliceWorkspace, code: RejectCode): string {
   }
 }
 
-/** The slices now in a workspace as a result of their own (copied out of its buffers). */
-export function slicedSurface(ws: SliceWorkspace): SlicedSurface {
-  const S = copySliceSet(ws.slices);
+/**
+ * The slices now in a workspace as a result of their own (copied out of its buffers; with
+ * `copy` false, the workspace's own slices, valid until its next cut).
+ */
+export function slicedSurface(ws: SliceWorkspace, copy = true): SlicedSurface {
+  const S = copy ? copySliceSet(ws.slices) : ws.slices;
   const n = S.n;
   const sx = ws.mirrored ? -1 : 1;
   const base: Polyline = [];
