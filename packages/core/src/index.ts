@@ -162,3 +162,12 @@ export { stationResult, stationVerdict, MIN_RELIEF, FS_CAP } from './station-res
 export * from './draw';
 export * from './verdict';
 export * from './export';
+
+// --- map coordinates: a corridor's projected system (proj4), its lines in WGS 84
+export { parseCrs, crsDefinition, BUILT_IN_CRS, type Crs, type CrsProblem } from './geo/crs';
+export {
+  wgs84Line,
+  isProjectedLine,
+  type ProjectedLine,
+  type Wgs84Geometry,
+} from './geo/wgs84-geometry';

@@ -1,5 +1,7 @@
 import { LineCounter, parseDocument, type Document } from 'yaml';
 import { BATCH_FORMAT, corridorSectionId } from '../formats';
+import { parseCrs, type Crs } from '../geo/crs';
+import type { ProjectedLine } from '../geo/wgs84-geometry';
 import type { Point } from '../model/types';
 import { Concerns } from './concerns';
 import { isNumber, isRecord } from './guards';
@@ -21,6 +23,12 @@ export interface CorridorFeature {
   /** `<batch id>@<station>`: the id of the section (and result) made from this feature. */
   sectionId: string | null;
   geometry: unknown;
+  /**
+   * The section line in the corridor's projected system, when the corridor names one (`crs`):
+   * the positions projected from longitude and latitude, or as given when they are projected
+   * already. What results.geojson writes in WGS 84.
+   */
+  line: ProjectedLine | null;
   properties: Record<string, unknown>;
 }
 
@@ -34,6 +42,8 @@ export interface ParsedCorridor extends ParsedSections {
   features: CorridorFeature[];
   /** One entry per feature, in the order of the features. */
   entries: CorridorEntry[];
+  /** The projected system the corridor names (`crs`), null when it names none or it is not usable. */
+  crs: Crs | null;
 }
 
 /** A file read beside the corridor: the batch header (id, units, template) as YAML or JSON. */
@@ -181,6 +191,7 @@ export function parseGeoJsonCorridor(
   const entries: CorridorEntry[] = [];
   const concerns = new Concerns();
   let batch: BatchHeader | null = null;
+  let crs: Crs | null = null;
   const push = (
     severity: Message['severity'],
     at: Location & { file: string },
@@ -208,7 +219,7 @@ export function parseGeoJsonCorridor(
     concerns.resolve(messages, entries);
     const capped = capMessages(messages);
     for (const e of entries) e.messages = capMessages(e.messages);
-    return { sections: [], messages: capped, batch, entries, batchId, features };
+    return { sections: [], messages: capped, batch, entries, batchId, features, crs };
   };
 
   // A text too large, too deep or too long to read at all is refused before any parser runs.
@@ -340,6 +351,23 @@ export function parseGeoJsonCorridor(
     ...at(headerSource, [...headerBase, 'id']),
   };
 
+  // --- the coordinate system: positions in longitude and latitude (RFC 7946) are projected to
+  // the one the corridor names, unless it says they are projected already
+  const crsPath: PathKey[] = [...headerBase, 'crs'];
+  let lonLat = false;
+  if (typeof head.crs === 'string') {
+    const read = parseCrs(head.crs);
+    if (read.problem) {
+      push('error', at(headerSource, crsPath), crsPath, read.problem.code, read.problem.message);
+      allSpoiled = true;
+    } else {
+      crs = read.crs;
+      lonLat = head.coordinates !== 'projected';
+    }
+  }
+  // a length in the system's units → the corridor's (a system in metres for a corridor in feet)
+  const scale = crs ? crs.metresPerUnit / (batch.units === 'us' ? 0.3048 : 1) : 1;
+
   // A corridor of too many sections is read no further.
   if (data.features.length > MAX_SECTIONS) {
     push(
@@ -370,6 +398,7 @@ export function parseGeoJsonCorridor(
       station,
       sectionId: station === null ? null : corridorSectionId(batchId, station),
       geometry: isRecord(f) ? f.geometry : null,
+      line: null,
       properties: { ...props },
     };
     features.push(feature);
@@ -417,22 +446,37 @@ export function parseGeoJsonCorridor(
       );
     if (station === null)
       return problem(['properties', 'station'], 'not-a-number', 'expected a number (the chainage)');
-    const coords = g.coordinates as number[][];
+    if (lonLat) {
+      const k = (g.coordinates as number[][]).findIndex(
+        (c) => !(Math.abs(c[0]) <= 180 && Math.abs(c[1]) <= 90),
+      );
+      if (k >= 0)
+        return problem(
+          ['geometry', 'coordinates', k],
+          'not-lon-lat',
+          `expected longitude and latitude in degrees (RFC 7946): the corridor names ${crs?.name ?? 'a projected system'} and reads its positions as WGS 84; if they are projected already, give "coordinates": "projected" in the corridor settings`,
+        );
+    }
+    const given = g.coordinates as number[][];
+    const coords = lonLat
+      ? given.map((c) => [...crs!.toProjected(c[0], c[1]), ...c.slice(2)])
+      : given.map((c) => c.slice());
+    if (crs) feature.line = { type: 'LineString', coordinates: coords, crs: crs.name };
     const ground: Point[] = [];
     let run = 0;
     coords.forEach((c, k) => {
-      if (k > 0) run += Math.hypot(c[0] - coords[k - 1][0], c[1] - coords[k - 1][1]);
+      if (k > 0) run += Math.hypot(c[0] - coords[k - 1][0], c[1] - coords[k - 1][1]) * scale;
       ground.push([run, c[2]]);
     });
     const degrees = coords.every((c) => Math.abs(c[0]) <= 180 && Math.abs(c[1]) <= 90);
-    if (degrees && run < 0.05)
+    if (!crs && degrees && run < 0.05)
       concerns.note(
         push(
           'warning',
           at(geo, [...fp, 'geometry', 'coordinates']),
           [...fp, 'geometry', 'coordinates'],
           'looks-like-degrees',
-          `the line is ${run.toPrecision(2)} long: are these longitude and latitude? Give projected x and y in the corridor's units`,
+          `the line is ${run.toPrecision(2)} long: are these longitude and latitude? Name the corridor's projected system ("crs": "EPSG:32630" or a proj4 definition) to have them projected, or give projected x and y in the corridor's units`,
         ),
         [index],
       );
