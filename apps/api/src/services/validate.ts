@@ -123,8 +123,10 @@ export function parseFiles(files: InputFile[]): Parsed {
     // A GeoJSON corridor's sections keep their feature's line and attributes for the exports.
     for (const e of corridor?.entries ?? []) {
       if (!e.id) continue;
-      const { geometry, properties } = e.feature;
-      if (geometry && typeof geometry === 'object') geometries[e.id] = geometry;
+      const { geometry, line, properties } = e.feature;
+      // a line in the corridor's named system is kept with it (the exports write it in WGS 84)
+      if (line) geometries[e.id] = line;
+      else if (geometry && typeof geometry === 'object') geometries[e.id] = geometry;
       featureProperties[e.id] = properties;
     }
   }

@@ -89,7 +89,7 @@ export function isGeoJsonCorridor(text: string): boolean {
 }
 
 /** A file the messages are located in. */
-interface Source {
+export interface Source {
   fileName: string;
   locate(path: readonly PathKey[]): Location;
 }
@@ -120,7 +120,7 @@ function readJsonFile(text: string, fileName: string, data: unknown, values: num
 }
 
 /** The keys of a path as written by pathText: `a.b[2]["c.d"]` → ['a', 'b', 2, 'c.d']. */
-function parsePath(text: string): PathKey[] {
+export function parsePath(text: string): PathKey[] {
   const keys: PathKey[] = [];
   const re = /(?:^|\.)([A-Za-z0-9_][A-Za-z0-9_+@-]*)|\[(\d+)\]|\[("(?:[^"\\]|\\.)*")\]/g;
   for (const m of text.matchAll(re)) {
@@ -131,7 +131,7 @@ function parsePath(text: string): PathKey[] {
   return keys;
 }
 
-function idFromFileName(fileName: string): string {
+export function idFromFileName(fileName: string): string {
   const base = (fileName.split(/[\\/]/).pop() ?? 'corridor').replace(/\.[^.]*$/, '');
   const id = base.replace(/[^A-Za-z0-9._+@-]+/g, '-').replace(/^[^A-Za-z0-9]+/, '');
   return id || 'corridor';
@@ -158,6 +158,48 @@ function jsonSyntax(text: string): { line: number; column: number; message: stri
       message: `JSON syntax error: ${words.charAt(0).toLowerCase()}${words.slice(1)}`,
     };
   }
+}
+
+/**
+ * A corridor's header file (YAML or JSON: a corridor batch without its sections) read and
+ * screened: its settings, where they are written and the texts no stored text may hold, or
+ * why it cannot be read (located).
+ */
+export function readHeaderFile(
+  header: HeaderFile,
+):
+  | { src: Source; value: Record<string, unknown>; issues: readonly Issue[] }
+  | { refusal: Location & { path: PathKey[]; code: string; message: string } } {
+  const json = /\.json$/i.test(header.fileName);
+  const headerRefusal = screenText(header.text, json).refusal;
+  if (headerRefusal) return { refusal: { ...headerRefusal, path: [] } };
+  const hs = json ? jsonSyntax(header.text) : null;
+  const src = read(header.text, header.fileName, json);
+  if (hs || src.doc.errors.length) {
+    const e = src.doc.errors[0];
+    const lc = e ? src.counter.linePos(e.pos[0]) : { line: hs?.line ?? 1, col: hs?.column ?? 1 };
+    const words =
+      hs?.message ?? `YAML syntax error: ${e.message.charAt(0).toLowerCase()}${e.message.slice(1)}`;
+    return { refusal: { line: lc.line, column: lc.col, path: [], code: 'syntax', message: words } };
+  }
+  const value: unknown = src.doc.toJS({ maxAliasCount: 1000 });
+  const headerScreened = screenData(value);
+  if (headerScreened.refusal) {
+    const r = headerScreened.refusal;
+    return { refusal: { ...src.locate(r.path), path: r.path, code: r.code, message: r.message } };
+  }
+  if (!isRecord(value)) {
+    return {
+      refusal: {
+        ...src.locate([]),
+        path: [],
+        code: 'not-a-header',
+        message:
+          'expected the corridor settings: id, units and template (a corridor batch without its sections)',
+      },
+    };
+  }
+  return { src, value, issues: headerScreened.issues };
 }
 
 /**
@@ -274,45 +316,16 @@ export function parseGeoJsonCorridor(
   let headerBase: PathKey[] = [HEADER_MEMBER];
   let head: Record<string, unknown> = {};
   if (header) {
-    const json = /\.json$/i.test(header.fileName);
-    const headerRefusal = screenText(header.text, json).refusal;
-    if (headerRefusal) {
-      const where = { ...headerRefusal, file: header.fileName };
-      push('error', where, [], headerRefusal.code, headerRefusal.message);
+    const read = readHeaderFile(header);
+    if ('refusal' in read) {
+      const r = read.refusal;
+      push('error', { ...r, file: header.fileName }, r.path, r.code, r.message);
       return done(idFromFileName(fileName));
     }
-    const hs = json ? jsonSyntax(header.text) : null;
-    const src = read(header.text, header.fileName, json);
-    if (hs || src.doc.errors.length) {
-      const e = src.doc.errors[0];
-      const lc = e ? src.counter.linePos(e.pos[0]) : { line: hs?.line ?? 1, col: hs?.column ?? 1 };
-      const words =
-        hs?.message ??
-        `YAML syntax error: ${e.message.charAt(0).toLowerCase()}${e.message.slice(1)}`;
-      push('error', { line: lc.line, column: lc.col, file: header.fileName }, [], 'syntax', words);
-      return done(idFromFileName(fileName));
-    }
-    const value: unknown = src.doc.toJS({ maxAliasCount: 1000 });
-    const headerScreened = screenData(value);
-    if (headerScreened.refusal) {
-      const r = headerScreened.refusal;
-      push('error', at(src, r.path), r.path, r.code, r.message);
-      return done(idFromFileName(fileName));
-    }
-    if (!isRecord(value)) {
-      push(
-        'error',
-        at(src, []),
-        [],
-        'not-a-header',
-        'expected the corridor settings: id, units and template (a corridor batch without its sections)',
-      );
-      return done(idFromFileName(fileName));
-    }
-    head = value;
-    headerSource = src;
+    head = read.value;
+    headerSource = read.src;
     headerBase = [];
-    characters(src, headerScreened.issues);
+    characters(read.src, read.issues);
   } else if (data[HEADER_MEMBER] !== undefined) {
     if (!isRecord(data[HEADER_MEMBER])) {
       push(
@@ -464,9 +477,12 @@ export function parseGeoJsonCorridor(
     if (crs) feature.line = { type: 'LineString', coordinates: coords, crs: crs.name };
     const ground: Point[] = [];
     let run = 0;
+    // (projected from degrees, offsets to a thousandth of the unit: the degrees of a file
+    // carry no more, and a line given to 0.1 mm then meets polylines of the same offsets)
+    const mm = (v: number) => (lonLat ? Math.round(v * 1000) / 1000 : v);
     coords.forEach((c, k) => {
       if (k > 0) run += Math.hypot(c[0] - coords[k - 1][0], c[1] - coords[k - 1][1]) * scale;
-      ground.push([run, c[2]]);
+      ground.push([mm(run), c[2]]);
     });
     const degrees = coords.every((c) => Math.abs(c[0]) <= 180 && Math.abs(c[1]) <= 90);
     if (!crs && degrees && run < 0.05)
