@@ -33,7 +33,8 @@ function ground(s, x) {
   if (x <= HALF) return PLATFORM;
   return Math.min(PLATFORM + (x - HALF) / 2, natural(s, x));
 }
-const mudstone = (s, x) => natural(s, x) - 9 + 0.04 * x;
+/** The top of the mudstone: below the platform at the road, rising gently into the hill. */
+const mudstone = (s, x) => 37 + 0.12 * x + 0.5 * (natural(s, 20) - 48);
 const water = (s, x) => PLATFORM - 0.5 + Math.max(0, (x - HALF) * 0.12) + 0 * s;
 
 const surface = (name, f, s) =>
