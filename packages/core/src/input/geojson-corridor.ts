@@ -28,7 +28,7 @@ export interface CorridorFeature {
    * the positions projected from longitude and latitude, or as given when they are projected
    * already. What results.geojson writes in WGS 84.
    */
-  line: ProjectedLine | null;
+  line?: ProjectedLine | null;
   properties: Record<string, unknown>;
 }
 
