@@ -167,6 +167,32 @@ describe('parseLandXmlCorridor', () => {
     expect(byCode('bad-points')[0].sections).toEqual(['wcb-xs@1240']);
   });
 
+  test('what cannot be read at all: an empty document, an unknown unit, too many sections, nesting, entities', () => {
+    const codes = (text: string) =>
+      parseLandXmlCorridor(text, 'x.xml', header()).messages.map((m) => m.code);
+    expect(codes('<LandXML/>')).toEqual(['no-units', 'no-cross-sections']);
+    expect(
+      codes(
+        landxml(section('1', surf('EG', GROUND)), '<Units><Metric linearUnit="furlong"/></Units>'),
+      ),
+    ).toEqual(['unknown-unit']);
+    const many = Array.from({ length: 1001 }, (_, i) => section(String(i), surf('EG', GROUND)));
+    expect(codes(landxml(many.join('\n')))).toEqual(['too-many']);
+    const deep = `<LandXML>${'<a>'.repeat(500)}${'</a>'.repeat(500)}</LandXML>`;
+    expect(codes(deep)).toEqual(['syntax']);
+    // entities are not expanded: a name of a thousand "lol"s stays a reference
+    const lol = `<?xml version="1.0"?>
+<!DOCTYPE LandXML [<!ENTITY a "lol"><!ENTITY b "&a;&a;&a;&a;&a;&a;&a;&a;&a;&a;"><!ENTITY c "&b;&b;&b;&b;&b;&b;&b;&b;&b;&b;">]>
+<LandXML><Units><Metric linearUnit="meter"/></Units><Alignments><Alignment name="&c;"><CrossSects>
+${section('1', surf('EG', GROUND))}
+</CrossSects></Alignment></Alignments></LandXML>`;
+    expect(isLandXml(lol)).toBe(true);
+    const r = parseLandXmlCorridor(lol, 'x.xml', header());
+    expect(r.alignment).toBe('&c;');
+    expect(r.sections).toHaveLength(1);
+    expect(isLandXml('<?xml version="1.0"?><svg/>')).toBe(false);
+  });
+
   test('the checks of a batch located in the LandXML and in the header file', () => {
     // x not increasing in the ground: located at the ground surface's line
     const xml = landxml(section('1200', surf('EG', '0 62 18 62 10 72 70 74')));

@@ -62,7 +62,7 @@ const LINEAR_UNITS: Record<string, number> = {
  * @example isLandXml('<?xml version="1.0"?>\n<LandXML version="1.2">…') // → true
  */
 export function isLandXml(text: string): boolean {
-  return /^\uFEFF?\s*(?:<\?xml[^>]*\?>\s*)?(?:<!--[\s\S]*?-->\s*)*<LandXML[\s>/]/.test(
+  return /^\uFEFF?\s*(?:<\?xml[^>]*\?>\s*)?(?:<!--[\s\S]*?-->\s*|<!DOCTYPE[^[>]*(?:\[[\s\S]*?\])?\s*>\s*)*<LandXML[\s>/]/.test(
     text.slice(0, 8000),
   );
 }
@@ -203,7 +203,8 @@ export function parseLandXmlCorridor(
     push('error', { line: 1, column: 1, file: fileName }, '', 'syntax', `XML not read: ${why}`);
     return done(idFromFileName(fileName));
   }
-  const root = isRecord(doc.LandXML) ? (doc.LandXML as XNode) : null;
+  // (an empty <LandXML/> reads as an empty text: a document without cross-sections)
+  const root = isRecord(doc.LandXML) ? (doc.LandXML as XNode) : doc.LandXML === '' ? {} : null;
   if (!root) {
     push(
       'error',
@@ -558,7 +559,7 @@ export function parseLandXmlCorridor(
       designAt,
       'DesignCrossSectSurf',
       'design-surface-unused',
-      'design surfaces (DesignCrossSectSurf) are not read: each section is analysed on its ground surface',
+      'design surfaces (DesignCrossSectSurf) are not read: each section is analyzed on its ground surface',
       [],
     );
   if (items.length === 0) {
