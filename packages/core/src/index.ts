@@ -164,7 +164,14 @@ export * from './verdict';
 export * from './export';
 
 // --- map coordinates: a corridor's projected system (proj4), its lines in WGS 84
-export { parseCrs, crsDefinition, BUILT_IN_CRS, type Crs, type CrsProblem } from './geo/crs';
+export {
+  parseCrs,
+  lineInCrs,
+  crsDefinition,
+  BUILT_IN_CRS,
+  type Crs,
+  type CrsProblem,
+} from './geo/crs';
 export {
   wgs84Line,
   isProjectedLine,

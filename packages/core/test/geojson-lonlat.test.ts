@@ -177,5 +177,14 @@ describe('a corridor in longitude and latitude', () => {
     const w = parsed.messages.find((m) => m.code === 'looks-like-degrees');
     expect(w?.severity).toBe('warning');
     expect(w?.message).toContain('crs');
+    // and coordinates without a crs says it is not read
+    const alone = parseGeoJsonCorridor(
+      text([feature(1200, LINES[0])], header({ coordinates: 'lon-lat' })),
+      'c.geojson',
+    );
+    expect(alone.messages.map((m) => [m.code, m.path])).toEqual([
+      ['coordinates-without-crs', 'scarpline.coordinates'],
+    ]);
+    expect(alone.sections).toHaveLength(1);
   });
 });

@@ -6,6 +6,7 @@
  * written back in WGS 84 for a web map.
  */
 import proj4 from 'proj4';
+import type { ProjectedLine } from './wgs84-geometry';
 
 /** A corridor's projected coordinate system, ready to transform positions. */
 export interface Crs {
@@ -133,4 +134,30 @@ export function parseCrs(
     },
   };
   return { crs, problem: null };
+}
+
+const DEGREES = 1e9; // 1e-9° is about 0.1 mm on the ground
+
+/**
+ * A section line in a corridor's projected system, with its positions in WGS 84 for
+ * results.geojson: those given (a line read in longitude and latitude), or the projected ones
+ * taken back with proj4 (degrees to nine decimals, about 0.1 mm). z and any further member of
+ * a position are kept.
+ *
+ * @example lineInCrs([[500000, 5649824.4, 41]], parseCrs('EPSG:32630').crs!)
+ * // → { type: 'LineString', coordinates: [[500000, 5649824.4, 41]], crs: 'EPSG:32630', wgs84: [[-3, 51, 41]] }
+ */
+export function lineInCrs(projected: number[][], crs: Crs, wgs84?: number[][]): ProjectedLine {
+  const round = (v: number) => Math.round(v * DEGREES) / DEGREES;
+  return {
+    type: 'LineString',
+    coordinates: projected,
+    crs: crs.name,
+    wgs84:
+      wgs84 ??
+      projected.map((p) => {
+        const [lon, lat] = crs.toLonLat(p[0], p[1]);
+        return [round(lon), round(lat), ...p.slice(2)];
+      }),
+  };
 }

@@ -1,6 +1,6 @@
 import { LineCounter, parseDocument, type Document } from 'yaml';
 import { BATCH_FORMAT, corridorSectionId } from '../formats';
-import { parseCrs, type Crs } from '../geo/crs';
+import { lineInCrs, parseCrs, type Crs } from '../geo/crs';
 import type { ProjectedLine } from '../geo/wgs84-geometry';
 import type { Point } from '../model/types';
 import { Concerns } from './concerns';
@@ -204,7 +204,12 @@ export function readHeaderFile(
 
 /**
  * Reads a corridor given as a GeoJSON FeatureCollection (RFC 7946) of LineString features,
- * one per cross-section. Each feature's coordinates are [x, y, z] in a projected coordinate
+ * one per cross-section. When the corridor names its projected system (`crs`: an EPSG code of
+ * the built-in set or a proj4 definition, see geo/crs.ts) each feature's coordinates are
+ * [longitude, latitude, z] in WGS 84 as RFC 7946 has them (or, with `"coordinates":
+ * "projected"`, [x, y, z] in that system), projected to it before any length is measured, and
+ * the feature keeps its line in that system (`line`) for results.geojson. Without a `crs`
+ * each feature's coordinates are [x, y, z] in a projected coordinate
  * system in the corridor's units (m or ft), the section line drawn across the corridor; its
  * `station` property is the chainage. The section's ground profile is z along the line's
  * horizontal length: the first vertex is at offset 0, each next one at the horizontal
@@ -378,6 +383,16 @@ export function parseGeoJsonCorridor(
       lonLat = head.coordinates !== 'projected';
     }
   }
+  if (head.coordinates !== undefined && head.crs === undefined) {
+    const path: PathKey[] = [...headerBase, 'coordinates'];
+    push(
+      'warning',
+      at(headerSource, path),
+      path,
+      'coordinates-without-crs',
+      "coordinates applies to a corridor that names its crs: without one the positions are projected x and y in the corridor's units",
+    );
+  }
   // a length in the system's units → the corridor's (a system in metres for a corridor in feet)
   const scale = crs ? crs.metresPerUnit / (batch.units === 'us' ? 0.3048 : 1) : 1;
 
@@ -474,7 +489,8 @@ export function parseGeoJsonCorridor(
     const coords = lonLat
       ? given.map((c) => [...crs!.toProjected(c[0], c[1]), ...c.slice(2)])
       : given.map((c) => c.slice());
-    if (crs) feature.line = { type: 'LineString', coordinates: coords, crs: crs.name };
+    if (crs)
+      feature.line = lineInCrs(coords, crs, lonLat ? given.map((c) => c.slice()) : undefined);
     const ground: Point[] = [];
     let run = 0;
     // (projected from degrees, offsets to a thousandth of the unit: the degrees of a file
