@@ -116,6 +116,29 @@ describe('a corridor in longitude and latitude', () => {
     expect(exportFeature(record, { geometry: f.geometry }).geometry).toEqual(f.geometry);
   });
 
+  test('a file whose old (2008) "crs" member names a projected system is read as projected', () => {
+    const legacy = (name: string, coordinates: number[][]) =>
+      JSON.stringify({
+        type: 'FeatureCollection',
+        crs: { type: 'name', properties: { name } },
+        scarpline: header({ crs: 'EPSG:32630' }),
+        features: [feature(1200, coordinates)],
+      });
+    const projected = parseGeoJsonCorridor(
+      legacy('urn:ogc:def:crs:EPSG::32630', LINES[0]),
+      'old.geojson',
+    );
+    expect(projected.messages).toEqual([]);
+    expect(projected.features[0].line?.coordinates).toEqual(LINES[0]);
+    // one naming WGS 84 degrees is read as RFC 7946 has it
+    const degrees = parseGeoJsonCorridor(
+      legacy('urn:ogc:def:crs:OGC:1.3:CRS84', toLonLat(LINES[0])),
+      'old.geojson',
+    );
+    expect(degrees.messages).toEqual([]);
+    degrees.sections[0].ground.forEach(([x], i) => expect(x).toBeCloseTo(PROFILE[i][0], 3));
+  });
+
   test('a proj4 definition in feet: lengths in the corridor units', () => {
     const def = '+proj=utm +zone=30 +datum=WGS84 +units=m +no_defs';
     const parsed = parseGeoJsonCorridor(

@@ -161,6 +161,18 @@ function jsonSyntax(text: string): { line: number; column: number; message: stri
 }
 
 /**
+ * Whether a FeatureCollection's member "crs" of the 2008 GeoJSON format names a system other
+ * than WGS 84 longitude and latitude (`urn:ogc:def:crs:OGC:1.3:CRS84`, `EPSG:4326`): its
+ * positions are then projected, not RFC 7946 degrees.
+ */
+function namesProjectedCrs(member: unknown): boolean {
+  if (!isRecord(member) || !isRecord(member.properties)) return false;
+  const name = member.properties.name;
+  if (typeof name !== 'string') return false;
+  return !/CRS84$|(?:EPSG)?:+4326$/i.test(name.trim());
+}
+
+/**
  * A corridor's header file (YAML or JSON: a corridor batch without its sections) read and
  * screened: its settings, where they are written and the texts no stored text may hold, or
  * why it cannot be read (located).
@@ -380,7 +392,11 @@ export function parseGeoJsonCorridor(
       allSpoiled = true;
     } else {
       crs = read.crs;
-      lonLat = head.coordinates !== 'projected';
+      // RFC 7946 positions are longitude and latitude; a file that says otherwise by the old
+      // (2008) member "crs" naming a system other than WGS 84 degrees is projected already
+      lonLat =
+        head.coordinates === 'lon-lat' ||
+        (head.coordinates === undefined && !namesProjectedCrs(data.crs));
     }
   }
   if (head.coordinates !== undefined && head.crs === undefined) {
