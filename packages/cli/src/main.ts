@@ -51,19 +51,29 @@ program
 
 program
   .command('validate')
-  .description('check section and batch files (YAML or JSON) and print located messages')
-  .argument('<file...>', 'section or batch files; a directory means every .yaml/.yml/.json in it')
+  .description(
+    'check section and batch files (YAML or JSON) and corridors (GeoJSON, LandXML) and print located messages',
+  )
+  .argument(
+    '<file...>',
+    'section or batch files, GeoJSON or LandXML (.xml) corridors; a directory means every .yaml/.yml/.json in it',
+  )
+  .option(
+    '-t, --template <file>',
+    'GeoJSON or LandXML corridor: the corridor settings (id, units, template) from this file',
+  )
   .addHelpText(
     'after',
     `
 Example:
   $ scarpline validate examples/cut-homogeneous.yaml examples/corridor
+  $ scarpline validate examples/corridor/wendlecombe-cut.xml --template examples/corridor/wendlecombe-cut.yaml
 
 Exit status: 0 when every file is valid, 1 otherwise.`,
   )
-  .action(async (files: string[]) => {
+  .action(async (files: string[], opts: { template?: string }) => {
     const { validateFiles } = await import('./validate-files');
-    process.exitCode = validateFiles(files, print);
+    process.exitCode = validateFiles(files, print, opts.template);
   });
 
 withOverrides(
@@ -132,11 +142,11 @@ withOverrides(
   program
     .command('batch')
     .description(
-      'analyze a corridor (a batch file, or a GeoJSON FeatureCollection of section lines) on every core',
+      'analyze a corridor (a batch file, a GeoJSON FeatureCollection of section lines, or LandXML cross-sections) on every core',
     )
     .argument(
       '<corridor>',
-      'a batch file (format scarpline-batch/1, JSON or YAML) or a GeoJSON corridor',
+      'a batch file (format scarpline-batch/1, JSON or YAML), a GeoJSON corridor (projected, or lon/lat with a crs) or a LandXML file (.xml)',
     ),
 )
   .option(
@@ -150,7 +160,7 @@ withOverrides(
   .option('-j, --jobs <n>', 'worker threads (default: one per core)')
   .option(
     '-t, --template <file>',
-    'GeoJSON corridor: the corridor settings (id, units, template) from this file instead of the collection\'s "scarpline" member',
+    'GeoJSON or LandXML corridor: the corridor settings (id, units, template; crs, surfaces) from this file instead of the collection\'s "scarpline" member',
   )
   .option('--no-svg', 'do not draw a section SVG per station')
   .addOption(
@@ -168,6 +178,7 @@ withOverrides(
 Examples:
   $ scarpline batch examples/corridor/corridor.json --out results/
   $ scarpline batch sections.geojson --template corridor-settings.yaml --out results/ --jobs 4
+  $ scarpline batch examples/corridor/wendlecombe-cut.xml --template examples/corridor/wendlecombe-cut.yaml --out results/
   $ scarpline batch examples/corridor/corridor.json --out results/ --report below --by "J. Marsh"
 
 A terminal gets a progress bar; otherwise a line per section goes to standard error.

@@ -5,6 +5,7 @@ import {
   AnalysisStopped,
   formatMessage,
   isGeoJsonCorridor,
+  isLandXml,
   parseSections,
   type Section,
   type StationResult,
@@ -113,7 +114,8 @@ export async function reportFile(
     ...(options.project ? { project: options.project } : {}),
     ...(options.by ? { by: options.by } : {}),
   });
-  const geojson = isGeoJsonCorridor(input.text);
+  // a GeoJSON or LandXML corridor: read as batch reads it
+  const geojson = isGeoJsonCorridor(input.text) || isLandXml(input.text);
   const parsed = geojson ? null : parseSections(input.text, name);
   if (geojson || parsed?.batch || (parsed && parsed.sections.length > 1)) {
     const id = parsed?.batch?.id ?? basename(name, extname(name));

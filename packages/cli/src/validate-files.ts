@@ -1,17 +1,36 @@
 import { readFileSync } from 'node:fs';
-import { formatMessage, parseSections } from '@scarpline/core';
+import {
+  formatMessage,
+  isGeoJsonCorridor,
+  isLandXml,
+  parseGeoJsonCorridor,
+  parseLandXmlCorridor,
+  parseSections,
+  type HeaderFile,
+} from '@scarpline/core';
 import { collectFiles } from './collect-files';
+import { readInput } from './read-input';
 
 const plural = (n: number, word: string): string => `${n} ${word}${n === 1 ? '' : 's'}`;
 
 /**
  * `scarpline validate`: reads each file (every section file under a directory), prints its
  * located errors and warnings and a one-line summary, and returns the exit code: 0 when every
- * file is valid, 1 otherwise.
+ * file is valid, 1 otherwise. A GeoJSON or LandXML corridor is read as `batch` reads it, with
+ * the corridor settings of `template` when given.
  *
  * @example validateFiles(['examples'], console.log) // → 0
  */
-export function validateFiles(paths: readonly string[], print: (line: string) => void): number {
+export function validateFiles(
+  paths: readonly string[],
+  print: (line: string) => void,
+  template?: string,
+): number {
+  let header: HeaderFile | undefined;
+  if (template) {
+    const t = readInput(template);
+    header = { text: t.text, fileName: t.name };
+  }
   const { files, missing } = collectFiles(paths);
   let failed = missing.length;
   for (const path of missing) print(`${path}: no such file or directory`);
@@ -29,7 +48,22 @@ export function validateFiles(paths: readonly string[], print: (line: string) =>
       failed++;
       continue;
     }
-    const { sections, messages } = parseSections(text, file);
+    const parsed = isLandXml(text)
+      ? parseLandXmlCorridor(text, file, header)
+      : isGeoJsonCorridor(text)
+        ? parseGeoJsonCorridor(text, file, header)
+        : parseSections(text, file);
+    const { sections } = parsed;
+    // A corridor batch without its sections is the settings of a GeoJSON or LandXML corridor
+    // (--template): checked against the schema like any batch, all but the sections it leaves out.
+    const settings =
+      parsed.batch !== null &&
+      parsed.messages.some((m) => m.code === 'missing' && m.message === 'sections is missing');
+    const messages = settings
+      ? parsed.messages.filter(
+          (m) => !(m.code === 'missing' && m.message === 'sections is missing'),
+        )
+      : parsed.messages;
     for (const m of messages) print(formatMessage(m));
     const errors = messages.filter((m) => m.severity === 'error').length;
     const warnings = messages.length - errors;
@@ -37,7 +71,11 @@ export function validateFiles(paths: readonly string[], print: (line: string) =>
     if (errors) {
       failed++;
       print(`${file}: invalid: ${plural(errors, 'error')}${tail}`);
-    } else print(`${file}: valid: ${plural(sections.length, 'section')}${tail}`);
+    } else if (settings)
+      print(
+        `${file}: valid: corridor settings (give them with a GeoJSON or LandXML corridor: --template)${tail}`,
+      );
+    else print(`${file}: valid: ${plural(sections.length, 'section')}${tail}`);
   }
   return failed === 0 ? 0 : 1;
 }

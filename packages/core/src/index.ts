@@ -165,3 +165,18 @@ export * from './export';
 
 // --- probability of failure, sensitivity, solving for a value (issue 19)
 export * from './probability';
+// --- map coordinates: a corridor's projected system (proj4), its lines in WGS 84
+export {
+  parseCrs,
+  lineInCrs,
+  crsDefinition,
+  BUILT_IN_CRS,
+  type Crs,
+  type CrsProblem,
+} from './geo/crs';
+export {
+  wgs84Line,
+  isProjectedLine,
+  type ProjectedLine,
+  type Wgs84Geometry,
+} from './geo/wgs84-geometry';

@@ -1,5 +1,5 @@
 /**
- * `@scarpline/core/input`: reading section and batch files (YAML, JSON, GeoJSON corridors)
+ * `@scarpline/core/input`: reading section and batch files (YAML, JSON, GeoJSON and LandXML corridors)
  * into normalised sections with located messages, the batch structure every caller reads,
  * and the inverse of normalisation that re-runs patch. Loads yaml and ajv (and mathjs for a
  * value written with its unit); not for the browser bundle (its types are).
@@ -13,6 +13,7 @@ export {
   type CorridorFeature,
   type HeaderFile,
 } from './input/geojson-corridor';
+export { parseLandXmlCorridor, isLandXml, type ParsedLandXml } from './input/landxml-corridor';
 export { formatMessage } from './input/format-message';
 export { sectionDocument, readSectionDocument } from './input/section-document';
 export type { Message, BatchHeader, SectionEntry } from './input/types';

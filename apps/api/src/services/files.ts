@@ -46,6 +46,8 @@ export function inputContentType(name: string): string {
       return 'application/json';
     case 'geojson':
       return 'application/geo+json';
+    case 'xml':
+      return 'application/xml';
     case 'csv':
       return 'text/csv';
     default:

@@ -7,7 +7,9 @@ import {
   capMessages,
   formatMessage,
   isGeoJsonCorridor,
+  isLandXml,
   parseGeoJsonCorridor,
+  parseLandXmlCorridor,
   parseSections,
   readSectionDocument,
   type Message,
@@ -103,8 +105,36 @@ export function parseBatchBody(text: string): Parsed {
   };
 }
 
-/** Uploaded files: a batch (YAML/JSON), a GeoJSON corridor, or many section files. */
-export function parseFiles(files: InputFile[]): Parsed {
+/** Whether a YAML/JSON file is corridor settings: a corridor batch without its sections. */
+function isCorridorSettings(f: InputFile): boolean {
+  const p = parseSections(f.text, f.name);
+  return (
+    p.batch !== null &&
+    p.messages.some((m) => m.code === 'missing' && m.path === '' && /^sections\b/.test(m.message))
+  );
+}
+
+/**
+ * Uploaded files: a batch (YAML/JSON), a GeoJSON corridor, LandXML cross-sections with their
+ * corridor settings (the one YAML/JSON file of the upload that is a corridor batch without its
+ * sections), or many section files.
+ */
+export function parseFiles(uploaded: InputFile[]): Parsed {
+  let files = uploaded;
+  let header: { text: string; fileName: string } | undefined;
+  if (files.some((f) => isLandXml(f.text))) {
+    const settings = files.filter(
+      (f) => !isLandXml(f.text) && !isGeoJsonCorridor(f.text) && isCorridorSettings(f),
+    );
+    if (settings.length > 1)
+      throw invalid(
+        `LandXML cross-sections take one file of corridor settings (id, units, template, surfaces); this upload has ${settings.length}: ${settings.map((f) => f.name).join(', ')}.`,
+      );
+    if (settings.length === 1) {
+      header = { text: settings[0].text, fileName: settings[0].name };
+      files = files.filter((f) => f !== settings[0]);
+    }
+  }
   const sections: Section[] = [];
   const messages: Message[] = [];
   let name: string | null = null;
@@ -113,7 +143,8 @@ export function parseFiles(files: InputFile[]): Parsed {
   const featureProperties: Record<string, Record<string, unknown>> = {};
   for (const f of files) {
     const corridor = isGeoJsonCorridor(f.text) ? parseGeoJsonCorridor(f.text, f.name) : null;
-    const p = corridor ?? parseSections(f.text, f.name);
+    const landXml = isLandXml(f.text) ? parseLandXmlCorridor(f.text, f.name, header) : null;
+    const p = corridor ?? landXml ?? parseSections(f.text, f.name);
     sections.push(...p.sections);
     messages.push(...p.messages);
     if (p.batch) {
@@ -123,8 +154,10 @@ export function parseFiles(files: InputFile[]): Parsed {
     // A GeoJSON corridor's sections keep their feature's line and attributes for the exports.
     for (const e of corridor?.entries ?? []) {
       if (!e.id) continue;
-      const { geometry, properties } = e.feature;
-      if (geometry && typeof geometry === 'object') geometries[e.id] = geometry;
+      const { geometry, line, properties } = e.feature;
+      // a line in the corridor's named system is kept with it (the exports write it in WGS 84)
+      if (line) geometries[e.id] = line;
+      else if (geometry && typeof geometry === 'object') geometries[e.id] = geometry;
       featureProperties[e.id] = properties;
     }
   }

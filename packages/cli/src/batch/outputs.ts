@@ -28,7 +28,8 @@ export class Output {
 /**
  * results.geojson: the core's results table as a FeatureCollection (RFC 7946), a feature per
  * row: per station one per case, then the station's. For a GeoJSON corridor each feature is
- * the input line with its own flat properties kept; for a batch of JSON or YAML, which has no
+ * the input line with its own flat properties kept (in WGS 84 longitude and latitude when the
+ * corridor names its projected system, the projected positions in the properties); for a batch of JSON or YAML, which has no
  * map position, the geometry is null (an unlocated feature, RFC 7946 §3.2): GIS tools join
  * them to the alignment by station.
  */
@@ -38,7 +39,11 @@ export function resultsGeoJson(
 ): string {
   const features = stations.flatMap(({ records, feature }) =>
     records.map((record) =>
-      exportFeature(record, { geometry: feature?.geometry ?? null, input: feature?.properties }),
+      exportFeature(record, {
+        // a line in the corridor's named system is written in WGS 84 (RFC 7946)
+        geometry: feature?.line ?? feature?.geometry ?? null,
+        input: feature?.properties,
+      }),
     ),
   );
   return `${JSON.stringify(exportCollection(name, features), null, 1)}\n`;

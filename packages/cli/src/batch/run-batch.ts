@@ -10,6 +10,8 @@ import {
   formatMessage,
   fromSi,
   isGeoJsonCorridor,
+  isLandXml,
+  parseLandXmlCorridor,
   parseGeoJsonCorridor,
   parseSections,
   resultsSheet,
@@ -89,7 +91,14 @@ function entriesOf(
   templateFile?: string,
 ): { entries: Entry[]; messages: string[]; units: UnitSystem | null; id: string } {
   let parsed;
-  if (isGeoJsonCorridor(text)) {
+  if (isLandXml(text)) {
+    const header = templateFile ? readInput(templateFile) : undefined;
+    parsed = parseLandXmlCorridor(
+      text,
+      name,
+      header ? { text: header.text, fileName: header.name } : undefined,
+    );
+  } else if (isGeoJsonCorridor(text)) {
     const header = templateFile ? readInput(templateFile) : undefined;
     parsed = parseGeoJsonCorridor(
       text,
@@ -99,7 +108,7 @@ function entriesOf(
   } else {
     if (templateFile)
       throw new UserError(
-        '--template applies to a GeoJSON corridor; a batch file has its own template',
+        '--template applies to a GeoJSON or LandXML corridor; a batch file has its own template',
       );
     parsed = parseSections(text, name);
   }

@@ -10,6 +10,7 @@ import { CAUTION } from '../caution';
 import { chainageLabel } from '../draw/chainage-label';
 import type { UnitSystem } from '../model/types';
 import { fsRounded, fsText, type Verdict } from '../verdict';
+import { isProjectedLine, wgs84Line } from '../geo/wgs84-geometry';
 
 /** The columns of the table, in order (the properties of a results.geojson feature). */
 export const EXPORT_COLUMNS = [
@@ -329,7 +330,9 @@ export interface ExportFeature {
 
 /**
  * A feature of results.geojson, one per row: the section's line as its geometry (null when the
- * input had none: an unlocated feature, RFC 7946 §3.2), the input feature's own flat
+ * input had none: an unlocated feature, RFC 7946 §3.2; a line in a named projected system, a
+ * ProjectedLine, in WGS 84 longitude and latitude with `crs` and `projected_coordinates` among
+ * the properties), the input feature's own flat
  * properties (its attributes; settings for Scarpline, which are objects, left out), then the
  * columns of the table (the FS and the ratio rounded as in the CSV), then the writer's own. Its
  * id: the section's id for the station's row, `<section id>#<case>` for a case's.
@@ -351,11 +354,15 @@ export function exportFeature(
       return [c, ROUNDED.includes(c) && typeof v === 'number' ? fsRounded(v) : v];
     }),
   );
+  // A line in a named projected system is written in WGS 84 (RFC 7946), its projected
+  // positions and their system kept in the properties.
+  const mapped = isProjectedLine(options.geometry) ? wgs84Line(options.geometry) : null;
+  const located = mapped ? { crs: mapped.crs, projected_coordinates: mapped.projected } : {};
   return {
     type: 'Feature',
     id: r.row === 'case' ? `${r.section_id}#${r.case}` : r.section_id,
-    geometry: options.geometry ?? null,
-    properties: { ...Object.fromEntries(input), ...own, ...options.extra },
+    geometry: mapped ? mapped.geometry : (options.geometry ?? null),
+    properties: { ...Object.fromEntries(input), ...own, ...options.extra, ...located },
   };
 }
 

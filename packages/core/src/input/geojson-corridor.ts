@@ -1,5 +1,7 @@
 import { LineCounter, parseDocument, type Document } from 'yaml';
 import { BATCH_FORMAT, corridorSectionId } from '../formats';
+import { lineInCrs, parseCrs, type Crs } from '../geo/crs';
+import type { ProjectedLine } from '../geo/wgs84-geometry';
 import type { Point } from '../model/types';
 import { Concerns } from './concerns';
 import { isNumber, isRecord } from './guards';
@@ -21,6 +23,12 @@ export interface CorridorFeature {
   /** `<batch id>@<station>`: the id of the section (and result) made from this feature. */
   sectionId: string | null;
   geometry: unknown;
+  /**
+   * The section line in the corridor's projected system, when the corridor names one (`crs`):
+   * the positions projected from longitude and latitude, or as given when they are projected
+   * already. What results.geojson writes in WGS 84.
+   */
+  line?: ProjectedLine | null;
   properties: Record<string, unknown>;
 }
 
@@ -34,6 +42,8 @@ export interface ParsedCorridor extends ParsedSections {
   features: CorridorFeature[];
   /** One entry per feature, in the order of the features. */
   entries: CorridorEntry[];
+  /** The projected system the corridor names (`crs`), null when it names none or it is not usable. */
+  crs: Crs | null;
 }
 
 /** A file read beside the corridor: the batch header (id, units, template) as YAML or JSON. */
@@ -79,7 +89,7 @@ export function isGeoJsonCorridor(text: string): boolean {
 }
 
 /** A file the messages are located in. */
-interface Source {
+export interface Source {
   fileName: string;
   locate(path: readonly PathKey[]): Location;
 }
@@ -110,7 +120,7 @@ function readJsonFile(text: string, fileName: string, data: unknown, values: num
 }
 
 /** The keys of a path as written by pathText: `a.b[2]["c.d"]` → ['a', 'b', 2, 'c.d']. */
-function parsePath(text: string): PathKey[] {
+export function parsePath(text: string): PathKey[] {
   const keys: PathKey[] = [];
   const re = /(?:^|\.)([A-Za-z0-9_][A-Za-z0-9_+@-]*)|\[(\d+)\]|\[("(?:[^"\\]|\\.)*")\]/g;
   for (const m of text.matchAll(re)) {
@@ -121,7 +131,7 @@ function parsePath(text: string): PathKey[] {
   return keys;
 }
 
-function idFromFileName(fileName: string): string {
+export function idFromFileName(fileName: string): string {
   const base = (fileName.split(/[\\/]/).pop() ?? 'corridor').replace(/\.[^.]*$/, '');
   const id = base.replace(/[^A-Za-z0-9._+@-]+/g, '-').replace(/^[^A-Za-z0-9]+/, '');
   return id || 'corridor';
@@ -151,8 +161,67 @@ function jsonSyntax(text: string): { line: number; column: number; message: stri
 }
 
 /**
+ * Whether a FeatureCollection's member "crs" of the 2008 GeoJSON format names a system other
+ * than WGS 84 longitude and latitude (`urn:ogc:def:crs:OGC:1.3:CRS84`, `EPSG:4326`): its
+ * positions are then projected, not RFC 7946 degrees.
+ */
+function namesProjectedCrs(member: unknown): boolean {
+  if (!isRecord(member) || !isRecord(member.properties)) return false;
+  const name = member.properties.name;
+  if (typeof name !== 'string') return false;
+  return !/CRS84$|(?:EPSG)?:+4326$/i.test(name.trim());
+}
+
+/**
+ * A corridor's header file (YAML or JSON: a corridor batch without its sections) read and
+ * screened: its settings, where they are written and the texts no stored text may hold, or
+ * why it cannot be read (located).
+ */
+export function readHeaderFile(
+  header: HeaderFile,
+):
+  | { src: Source; value: Record<string, unknown>; issues: readonly Issue[] }
+  | { refusal: Location & { path: PathKey[]; code: string; message: string } } {
+  const json = /\.json$/i.test(header.fileName);
+  const headerRefusal = screenText(header.text, json).refusal;
+  if (headerRefusal) return { refusal: { ...headerRefusal, path: [] } };
+  const hs = json ? jsonSyntax(header.text) : null;
+  const src = read(header.text, header.fileName, json);
+  if (hs || src.doc.errors.length) {
+    const e = src.doc.errors[0];
+    const lc = e ? src.counter.linePos(e.pos[0]) : { line: hs?.line ?? 1, col: hs?.column ?? 1 };
+    const words =
+      hs?.message ?? `YAML syntax error: ${e.message.charAt(0).toLowerCase()}${e.message.slice(1)}`;
+    return { refusal: { line: lc.line, column: lc.col, path: [], code: 'syntax', message: words } };
+  }
+  const value: unknown = src.doc.toJS({ maxAliasCount: 1000 });
+  const headerScreened = screenData(value);
+  if (headerScreened.refusal) {
+    const r = headerScreened.refusal;
+    return { refusal: { ...src.locate(r.path), path: r.path, code: r.code, message: r.message } };
+  }
+  if (!isRecord(value)) {
+    return {
+      refusal: {
+        ...src.locate([]),
+        path: [],
+        code: 'not-a-header',
+        message:
+          'expected the corridor settings: id, units and template (a corridor batch without its sections)',
+      },
+    };
+  }
+  return { src, value, issues: headerScreened.issues };
+}
+
+/**
  * Reads a corridor given as a GeoJSON FeatureCollection (RFC 7946) of LineString features,
- * one per cross-section. Each feature's coordinates are [x, y, z] in a projected coordinate
+ * one per cross-section. When the corridor names its projected system (`crs`: an EPSG code of
+ * the built-in set or a proj4 definition, see geo/crs.ts) each feature's coordinates are
+ * [longitude, latitude, z] in WGS 84 as RFC 7946 has them (or, with `"coordinates":
+ * "projected"`, [x, y, z] in that system), projected to it before any length is measured, and
+ * the feature keeps its line in that system (`line`) for results.geojson. Without a `crs`
+ * each feature's coordinates are [x, y, z] in a projected coordinate
  * system in the corridor's units (m or ft), the section line drawn across the corridor; its
  * `station` property is the chainage. The section's ground profile is z along the line's
  * horizontal length: the first vertex is at offset 0, each next one at the horizontal
@@ -181,6 +250,7 @@ export function parseGeoJsonCorridor(
   const entries: CorridorEntry[] = [];
   const concerns = new Concerns();
   let batch: BatchHeader | null = null;
+  let crs: Crs | null = null;
   const push = (
     severity: Message['severity'],
     at: Location & { file: string },
@@ -208,7 +278,7 @@ export function parseGeoJsonCorridor(
     concerns.resolve(messages, entries);
     const capped = capMessages(messages);
     for (const e of entries) e.messages = capMessages(e.messages);
-    return { sections: [], messages: capped, batch, entries, batchId, features };
+    return { sections: [], messages: capped, batch, entries, batchId, features, crs };
   };
 
   // A text too large, too deep or too long to read at all is refused before any parser runs.
@@ -263,45 +333,16 @@ export function parseGeoJsonCorridor(
   let headerBase: PathKey[] = [HEADER_MEMBER];
   let head: Record<string, unknown> = {};
   if (header) {
-    const json = /\.json$/i.test(header.fileName);
-    const headerRefusal = screenText(header.text, json).refusal;
-    if (headerRefusal) {
-      const where = { ...headerRefusal, file: header.fileName };
-      push('error', where, [], headerRefusal.code, headerRefusal.message);
+    const read = readHeaderFile(header);
+    if ('refusal' in read) {
+      const r = read.refusal;
+      push('error', { ...r, file: header.fileName }, r.path, r.code, r.message);
       return done(idFromFileName(fileName));
     }
-    const hs = json ? jsonSyntax(header.text) : null;
-    const src = read(header.text, header.fileName, json);
-    if (hs || src.doc.errors.length) {
-      const e = src.doc.errors[0];
-      const lc = e ? src.counter.linePos(e.pos[0]) : { line: hs?.line ?? 1, col: hs?.column ?? 1 };
-      const words =
-        hs?.message ??
-        `YAML syntax error: ${e.message.charAt(0).toLowerCase()}${e.message.slice(1)}`;
-      push('error', { line: lc.line, column: lc.col, file: header.fileName }, [], 'syntax', words);
-      return done(idFromFileName(fileName));
-    }
-    const value: unknown = src.doc.toJS({ maxAliasCount: 1000 });
-    const headerScreened = screenData(value);
-    if (headerScreened.refusal) {
-      const r = headerScreened.refusal;
-      push('error', at(src, r.path), r.path, r.code, r.message);
-      return done(idFromFileName(fileName));
-    }
-    if (!isRecord(value)) {
-      push(
-        'error',
-        at(src, []),
-        [],
-        'not-a-header',
-        'expected the corridor settings: id, units and template (a corridor batch without its sections)',
-      );
-      return done(idFromFileName(fileName));
-    }
-    head = value;
-    headerSource = src;
+    head = read.value;
+    headerSource = read.src;
     headerBase = [];
-    characters(src, headerScreened.issues);
+    characters(read.src, read.issues);
   } else if (data[HEADER_MEMBER] !== undefined) {
     if (!isRecord(data[HEADER_MEMBER])) {
       push(
@@ -340,6 +381,37 @@ export function parseGeoJsonCorridor(
     ...at(headerSource, [...headerBase, 'id']),
   };
 
+  // --- the coordinate system: positions in longitude and latitude (RFC 7946) are projected to
+  // the one the corridor names, unless it says they are projected already
+  const crsPath: PathKey[] = [...headerBase, 'crs'];
+  let lonLat = false;
+  if (typeof head.crs === 'string') {
+    const read = parseCrs(head.crs);
+    if (read.problem) {
+      push('error', at(headerSource, crsPath), crsPath, read.problem.code, read.problem.message);
+      allSpoiled = true;
+    } else {
+      crs = read.crs;
+      // RFC 7946 positions are longitude and latitude; a file that says otherwise by the old
+      // (2008) member "crs" naming a system other than WGS 84 degrees is projected already
+      lonLat =
+        head.coordinates === 'lon-lat' ||
+        (head.coordinates === undefined && !namesProjectedCrs(data.crs));
+    }
+  }
+  if (head.coordinates !== undefined && head.crs === undefined) {
+    const path: PathKey[] = [...headerBase, 'coordinates'];
+    push(
+      'warning',
+      at(headerSource, path),
+      path,
+      'coordinates-without-crs',
+      "coordinates applies to a corridor that names its crs: without one the positions are projected x and y in the corridor's units",
+    );
+  }
+  // a length in the system's units → the corridor's (a system in metres for a corridor in feet)
+  const scale = crs ? crs.metresPerUnit / (batch.units === 'us' ? 0.3048 : 1) : 1;
+
   // A corridor of too many sections is read no further.
   if (data.features.length > MAX_SECTIONS) {
     push(
@@ -370,6 +442,7 @@ export function parseGeoJsonCorridor(
       station,
       sectionId: station === null ? null : corridorSectionId(batchId, station),
       geometry: isRecord(f) ? f.geometry : null,
+      line: null,
       properties: { ...props },
     };
     features.push(feature);
@@ -417,22 +490,41 @@ export function parseGeoJsonCorridor(
       );
     if (station === null)
       return problem(['properties', 'station'], 'not-a-number', 'expected a number (the chainage)');
-    const coords = g.coordinates as number[][];
+    if (lonLat) {
+      const k = (g.coordinates as number[][]).findIndex(
+        (c) => !(Math.abs(c[0]) <= 180 && Math.abs(c[1]) <= 90),
+      );
+      if (k >= 0)
+        return problem(
+          ['geometry', 'coordinates', k],
+          'not-lon-lat',
+          `expected longitude and latitude in degrees (RFC 7946): the corridor names ${crs?.name ?? 'a projected system'} and reads its positions as WGS 84; if they are projected already, give "coordinates": "projected" in the corridor settings`,
+        );
+    }
+    const given = g.coordinates as number[][];
+    const coords = lonLat
+      ? given.map((c) => [...crs!.toProjected(c[0], c[1]), ...c.slice(2)])
+      : given.map((c) => c.slice());
+    if (crs)
+      feature.line = lineInCrs(coords, crs, lonLat ? given.map((c) => c.slice()) : undefined);
     const ground: Point[] = [];
     let run = 0;
+    // (projected from degrees, offsets to a thousandth of the unit: the degrees of a file
+    // carry no more, and a line given to 0.1 mm then meets polylines of the same offsets)
+    const mm = (v: number) => (lonLat ? Math.round(v * 1000) / 1000 : v);
     coords.forEach((c, k) => {
-      if (k > 0) run += Math.hypot(c[0] - coords[k - 1][0], c[1] - coords[k - 1][1]);
-      ground.push([run, c[2]]);
+      if (k > 0) run += Math.hypot(c[0] - coords[k - 1][0], c[1] - coords[k - 1][1]) * scale;
+      ground.push([mm(run), c[2]]);
     });
     const degrees = coords.every((c) => Math.abs(c[0]) <= 180 && Math.abs(c[1]) <= 90);
-    if (degrees && run < 0.05)
+    if (!crs && degrees && run < 0.05)
       concerns.note(
         push(
           'warning',
           at(geo, [...fp, 'geometry', 'coordinates']),
           [...fp, 'geometry', 'coordinates'],
           'looks-like-degrees',
-          `the line is ${run.toPrecision(2)} long: are these longitude and latitude? Give projected x and y in the corridor's units`,
+          `the line is ${run.toPrecision(2)} long: are these longitude and latitude? Name the corridor's projected system ("crs": "EPSG:32630" or a proj4 definition) to have them projected, or give projected x and y in the corridor's units`,
         ),
         [index],
       );

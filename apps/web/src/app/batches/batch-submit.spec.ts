@@ -145,7 +145,9 @@ describe('BatchSubmit', () => {
     expect(listed).toHaveLength(2);
     expect(listed[0]).toContain('a.yaml');
     expect(listed[0]).toContain(`${a.size} B`);
-    expect(el.textContent).toContain('Not added (only .yaml, .yml, .json, .geojson): notes.txt');
+    expect(el.textContent).toContain(
+      'Not added (only .yaml, .yml, .json, .geojson, .xml): notes.txt',
+    );
     expect(el.querySelector('.send')?.textContent).toContain('2 files');
 
     await submit();
@@ -194,7 +196,44 @@ describe('BatchSubmit', () => {
     expect(nav).toHaveBeenCalledWith(['/batches', 42]);
   });
 
+  it('takes LandXML cross-sections with their settings, and a lon/lat GeoJSON corridor, as files', async () => {
+    const nav = vi.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
+    const xml = new File(
+      ['<?xml version="1.0"?>\n<LandXML version="1.2"><Alignments/></LandXML>\n'],
+      'wendlecombe-cut.xml',
+    );
+    const settings = new File(['id: wcb-cut\nunits: si\n'], 'wendlecombe-cut.yaml');
+    const lonLat = new File(
+      ['{"type": "FeatureCollection", "scarpline": {"crs": "EPSG:32630"}, "features": []}'],
+      'map.geojson',
+    );
+    await choose([xml, settings, lonLat]);
+    expect(el.textContent).not.toContain('Not added');
+    const listed = Array.from(el.querySelectorAll('.file-list li')).map(
+      (li) => li.textContent ?? '',
+    );
+    expect(listed).toHaveLength(3);
+    expect(listed[0]).toContain('LandXML');
+    expect(listed[2]).toContain('GeoJSON');
+    expect(el.querySelector('input[type=file]')?.getAttribute('accept')).toContain('.xml');
+    await submit();
+    const req = backend.expectOne('/api/v1/projects/3/uploads');
+    const files = (req.request.body as FormData).getAll('files') as File[];
+    expect(files.map((f) => f.name)).toEqual([
+      'wendlecombe-cut.xml',
+      'wendlecombe-cut.yaml',
+      'map.geojson',
+    ]);
+    req.flush({ id: 7, name: 'wcb-cut', progress: { total: 6 }, warnings: [] });
+    await fixture.whenStable();
+    expect(nav).toHaveBeenCalledWith(['/batches', 7]);
+  });
+
   it('tells what pasted text is', () => {
+    expect(detectPasted('<?xml version="1.0"?>\n<LandXML/>')).toMatchObject({
+      kind: 'landxml',
+      fileName: 'pasted.xml',
+    });
     expect(detectPasted('{"type": "FeatureCollection", "features": []}').fileName).toBe(
       'pasted.geojson',
     );

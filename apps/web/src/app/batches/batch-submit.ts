@@ -28,10 +28,10 @@ import { BatchesApi } from './batches-api';
 import { formatBytes } from './words';
 
 /** The file names the upload takes. */
-export const ACCEPTED = /\.(ya?ml|json|geojson)$/i;
-export const ACCEPT_ATTR = '.yaml,.yml,.json,.geojson';
+export const ACCEPTED = /\.(ya?ml|json|geojson|xml)$/i;
+export const ACCEPT_ATTR = '.yaml,.yml,.json,.geojson,.xml';
 
-export type PastedKind = 'batch' | 'geojson' | 'json' | 'yaml';
+export type PastedKind = 'batch' | 'geojson' | 'landxml' | 'json' | 'yaml';
 
 export interface Pasted {
   kind: PastedKind;
@@ -42,11 +42,15 @@ export interface Pasted {
 }
 
 /**
- * What pasted text is: a batch in JSON (posted as the batch itself), a GeoJSON corridor,
+ * What pasted text is: LandXML cross-sections (XML), a batch in JSON (posted as the batch
+ * itself), a GeoJSON corridor,
  * other JSON, or YAML (uploaded as a file of that kind, so the API reads it like a file).
  */
 export function detectPasted(text: string): Pasted {
   const t = text.trim();
+  if (t.startsWith('<')) {
+    return { kind: 'landxml', fileName: 'pasted.xml', label: 'LandXML cross-sections' };
+  }
   if (t.startsWith('{') || t.startsWith('[')) {
     let data: unknown;
     try {
@@ -74,6 +78,7 @@ export function detectPasted(text: string): Pasted {
 
 function kindOfFile(name: string): string {
   if (/\.geojson$/i.test(name)) return 'GeoJSON';
+  if (/\.xml$/i.test(name)) return 'LandXML';
   if (/\.ya?ml$/i.test(name)) return 'YAML';
   return 'JSON';
 }

@@ -152,6 +152,12 @@ export interface SectionQuery {
  */
 export interface ResultProperties {
   station: number | null;
+  /**
+   * Where the corridor names its projected system: that system (an EPSG code or a proj4
+   * definition) and the section line's positions in it; the geometry is then WGS 84 (RFC 7946).
+   */
+  crs?: string;
+  projected_coordinates?: unknown;
   /** The station as chainage in the section's units (1+240, 150+00). */
   chainage: string | null;
   /** The section's id in the input (`<batch id>@<station>`): the key of a listed section. */

@@ -139,6 +139,46 @@ describe('PlanView', () => {
     expect(Number(svg.getAttribute('height'))).toBeLessThanOrEqual(560);
   });
 
+  it('draws a WGS 84 line (RFC 7946) by its projected positions, at one scale', async () => {
+    // The export gives lon/lat geometry and, where the corridor names its system, the
+    // projected positions in the properties: a box 400 × 100 in the projected system.
+    const at = (n: number, lonLat: number[][], projected: number[][]) => {
+      const f = feature(n, lonLat, 1.8);
+      f.properties.crs = 'EPSG:32630';
+      f.properties.projected_coordinates = projected;
+      return f;
+    };
+    const f = await render(
+      collection([
+        at(
+          0,
+          [
+            [-2.27, 51.2],
+            [-2.2696, 51.2],
+          ],
+          [
+            [551200, 5672300, 40],
+            [551230, 5672300, 41],
+          ],
+        ),
+        at(
+          1,
+          [
+            [-2.265, 51.201],
+            [-2.2646, 51.201],
+          ],
+          [
+            [551570, 5672400, 40],
+            [551600, 5672380, 41],
+          ],
+        ),
+      ]),
+      800,
+    );
+    const b = box(drawn(f.nativeElement));
+    expect(b.w / b.h).toBeCloseTo(400 / 100, 2);
+  });
+
   it('puts north up: a larger y is drawn higher', async () => {
     const f = await render(rungs(10, 500, [1.8, 1.8]));
     const lines = Array.from<Element>(f.nativeElement.querySelectorAll('polyline.stroke'));

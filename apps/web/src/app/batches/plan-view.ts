@@ -93,9 +93,11 @@ export interface PlanLayout {
 
 type Coord = [number, number];
 
+/**
+ * A feature's line in plan: its projected positions when the corridor names its system (the
+ * geometry is then longitude and latitude, which would draw stretched), else its geometry.
+ */
 function coordsOf(f: ResultFeature): Coord[][] {
-  const g = f.geometry;
-  if (!g || !Array.isArray(g.coordinates)) return [];
   const asLine = (c: unknown): Coord[] =>
     Array.isArray(c)
       ? c.flatMap((p): Coord[] =>
@@ -104,6 +106,10 @@ function coordsOf(f: ResultFeature): Coord[][] {
             : [],
         )
       : [];
+  const projected = asLine(f.properties.projected_coordinates);
+  if (projected.length >= 2) return [projected];
+  const g = f.geometry;
+  if (!g || !Array.isArray(g.coordinates)) return [];
   if (g.type === 'LineString') return [asLine(g.coordinates)].filter((l) => l.length >= 2);
   if (g.type === 'MultiLineString') {
     return (g.coordinates as unknown[]).map(asLine).filter((l) => l.length >= 2);
