@@ -207,13 +207,12 @@ export function cutCorridor(input: CutInput): {
       return NaN;
     };
     const coordinates: [number, number, number][] = [];
-    const tops: [number, number][][] = below.map(() => []);
-    const water: [number, number][] = [];
+    const tops: number[][] = below.map(() => []);
+    const water: number[] = [];
     let clipped = 0;
     for (const o of offsets) {
       const x = p.x + o * nx;
       const y = p.y + o * ny;
-      const sx = round(o + settings.left);
       const z = at(ground, o, x, y);
       coordinates.push([round(x), round(y), round(z)]);
       below.forEach((s, i) => {
@@ -223,9 +222,9 @@ export function cutCorridor(input: CutInput): {
           top = z;
           clipped++;
         }
-        tops[i].push([sx, round(top)]);
+        tops[i].push(round(top));
       });
-      if (input.water?.raster) water.push([sx, round(at(input.water.raster, o, x, y))]);
+      if (input.water?.raster) water.push(round(at(input.water.raster, o, x, y)));
     }
     if (own.length) {
       if (settings.noData === 'skip') {
@@ -249,6 +248,15 @@ export function cutCorridor(input: CutInput): {
         code: 'stratum-above-ground',
         message: `${clipped} stratum top sample(s) above the ground were put on the ground`,
       });
+    // x along the section as a corridor's reader measures it: the horizontal distance walked
+    // along the written (rounded) line, so that the strata and the water span the ground exactly
+    const xs: number[] = [];
+    let run = 0;
+    coordinates.forEach((c, k) => {
+      if (k > 0) run += Math.hypot(c[0] - coordinates[k - 1][0], c[1] - coordinates[k - 1][1]);
+      xs.push(run);
+    });
+    const along = (zs: number[]) => zs.map((z, k) => [xs[k], z]);
     const properties: Record<string, unknown> = {
       station,
       offset: settings.left,
@@ -259,10 +267,10 @@ export function cutCorridor(input: CutInput): {
     if (strata && byRaster)
       properties.strata = strata.map((s, i) =>
         i > 0 && 'raster' in s && s.raster
-          ? { material: s.material, elevation: tops[i - 1] }
+          ? { material: s.material, elevation: along(tops[i - 1]) }
           : stratumSetting(s),
       );
-    if (input.water?.raster) properties.water = { elevation: water };
+    if (input.water?.raster) properties.water = { elevation: along(water) };
     features.push({ type: 'Feature', properties, geometry: { type: 'LineString', coordinates } });
   }
   if (errors.length) {
@@ -277,7 +285,15 @@ export function cutCorridor(input: CutInput): {
     throw new TerrainError(shown);
   }
   if (features.length === 0)
-    throw fail({ file: ground.name, code: 'no-section', message: 'no station could be cut' });
+    throw new TerrainError([
+      ...warnings,
+      {
+        severity: 'error',
+        file: ground.name,
+        code: 'no-section',
+        message: 'no station could be cut',
+      },
+    ]);
   return {
     corridor: { type: 'FeatureCollection', scarpline: { ...header, template }, features },
     messages: warnings,

@@ -198,7 +198,8 @@ describe('sections cut from analytic surfaces', () => {
       const strata = f.properties.strata as { material: string; elevation?: number[][] }[];
       const top = strata[1].elevation ?? [];
       const gw = (f.properties.water as { elevation: number[][] }).elevation;
-      expect(top.map(([x]) => x)).toEqual(coords.map((_, i) => i * 2));
+      expect(top.map(([x]) => x)).toEqual(coords.map((_, i) => expect.closeTo(i * 2, 3) as number));
+      expect(gw.map(([x]) => x)).toEqual(top.map(([x]) => x));
       coords.forEach(([x, y, z], i) => {
         expect(top[i][1]).toBeCloseTo(Math.min(z, plane(x, y) - 4 + 0.01 * (x - X0 - 400)), 3);
         expect(gw[i][1]).toBeCloseTo(z - 1.5, 3);
