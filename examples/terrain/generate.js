@@ -6,8 +6,8 @@
 //   wendlecombe-dem.tif        the ground: a GeoTIFF of Float32 elevations, 4 m pixels
 //   wendlecombe-rock.tif       the top of the moderately weathered mudstone, 8 m pixels
 //   wendlecombe-alignment.geojson  the road's centreline (a LineString)
-//   wendlecombe-settings.yaml  the corridor settings: id, units, materials, cases
-//   wendlecombe.terrain.yaml   the terrain job (scarpline cut / scarpline batch)
+//   wendlecombe.terrain.yaml   the terrain job (scarpline cut / scarpline batch), with the
+//                              corridor settings: id, units, materials, cases
 //
 // The rasters are written with the geotiff package's own writer (writeArrayBuffer: one strip,
 // uncompressed), in a local projected grid of the scenario (a user-defined system, metres).
@@ -122,40 +122,8 @@ const alignment = {
   geometry: { type: 'LineString', coordinates: vertices },
 };
 
-const settings = `# The corridor settings of the sections cut from the Wendlecombe terrain (invented
-# demonstration data, not for design): the natural ground along the bypass before it is built.
-# A corridor batch without its sections (schemas/batch.schema.json); the sections are cut by
-# wendlecombe.terrain.yaml.
-id: wcb-terrain
-title: Wendlecombe bypass, natural ground along the line
-description: >-
-  Invented demonstration corridor (not for design): the natural slopes across the line of the
-  bypass, cut every 40 m from a terrain model of the Corrin valley, 40 m either side of the
-  centreline. The top of the moderately weathered mudstone from a ground model raster; the
-  groundwater 2 m below the ground.
-units: si
-template:
-  materials:
-    weathered-mudstone:
-      description: Highly weathered MUDSTONE, recovered as stiff clay
-      unitWeight: 20
-      saturatedUnitWeight: 20.5
-      strength: { model: mohr-coulomb, cohesion: 5, frictionAngle: 26 }
-    mudstone:
-      description: Moderately weathered MUDSTONE, treated as a rigid base
-      strength: { model: rigid }
-  analysis:
-    methods: [bishop, spencer]
-    slices: 30
-    surface: { type: auto }
-    requiredFs: 1.5
-  cases:
-    - name: long term
-      kind: long-term
-`;
-
-const job = `# A terrain job (invented demonstration data, not for design): the sections of the
-# Wendlecombe bypass cut from its terrain model.
+const job = `# A terrain job (invented demonstration data, not for design): the natural ground along the
+# line of the Wendlecombe bypass before it is built, cut from its terrain model.
 #   scarpline cut examples/terrain/wendlecombe.terrain.yaml -o wendlecombe.geojson
 #   scarpline batch examples/terrain/wendlecombe.terrain.yaml --out results/
 format: scarpline-terrain/1
@@ -165,11 +133,38 @@ stations: { every: 40 }
 left: 40
 right: 40
 spacing: 2
-template: wendlecombe-settings.yaml
 strata:
   - material: weathered-mudstone
   - { material: mudstone, raster: wendlecombe-rock.tif }
 water: { depth: 2 }
+# The corridor settings: a corridor batch without its sections (schemas/batch.schema.json).
+template:
+  id: wcb-terrain
+  title: Wendlecombe bypass, natural ground along the line
+  description: >-
+    Invented demonstration corridor (not for design): the natural slopes across the line of the
+    bypass, cut every 40 m from a terrain model of the Corrin valley, 40 m either side of the
+    centreline. The top of the moderately weathered mudstone from a ground model raster; the
+    groundwater 2 m below the ground.
+  units: si
+  template:
+    materials:
+      weathered-mudstone:
+        description: Highly weathered MUDSTONE, recovered as stiff clay
+        unitWeight: 20
+        saturatedUnitWeight: 20.5
+        strength: { model: mohr-coulomb, cohesion: 5, frictionAngle: 26 }
+      mudstone:
+        description: Moderately weathered MUDSTONE, treated as a rigid base
+        strength: { model: rigid }
+    analysis:
+      methods: [bishop, spencer]
+      slices: 30
+      surface: { type: auto }
+      requiredFs: 1.5
+    cases:
+      - name: long term
+        kind: long-term
 `;
 
 (async () => {
@@ -177,7 +172,6 @@ water: { depth: 2 }
     path.join(HERE, 'wendlecombe-alignment.geojson'),
     `${JSON.stringify(alignment)}\n`,
   );
-  fs.writeFileSync(path.join(HERE, 'wendlecombe-settings.yaml'), settings);
   fs.writeFileSync(path.join(HERE, 'wendlecombe.terrain.yaml'), job);
   console.log(await writeRaster('wendlecombe-dem.tif', 4, ground));
   console.log(await writeRaster('wendlecombe-rock.tif', 8, rockTop));

@@ -63,7 +63,7 @@ Exit status: 0 when every file is valid, 1 otherwise.`,
   )
   .action(async (files: string[]) => {
     const { validateFiles } = await import('./validate-files');
-    process.exitCode = validateFiles(files, print);
+    process.exitCode = await validateFiles(files, print);
   });
 
 withOverrides(

@@ -1,17 +1,21 @@
 import { readFileSync } from 'node:fs';
-import { formatMessage, parseSections } from '@scarpline/core';
+import { formatMessage, parseGeoJsonCorridor, parseSections } from '@scarpline/core';
 import { collectFiles } from './collect-files';
+import { UserError } from './read-input';
 
 const plural = (n: number, word: string): string => `${n} ${word}${n === 1 ? '' : 's'}`;
 
 /**
  * `scarpline validate`: reads each file (every section file under a directory), prints its
  * located errors and warnings and a one-line summary, and returns the exit code: 0 when every
- * file is valid, 1 otherwise.
+ * file is valid, 1 otherwise. A terrain job is cut, and the corridor cut from it validated.
  *
- * @example validateFiles(['examples'], console.log) // → 0
+ * @example await validateFiles(['examples'], console.log) // → 0
  */
-export function validateFiles(paths: readonly string[], print: (line: string) => void): number {
+export async function validateFiles(
+  paths: readonly string[],
+  print: (line: string) => void,
+): Promise<number> {
   const { files, missing } = collectFiles(paths);
   let failed = missing.length;
   for (const path of missing) print(`${path}: no such file or directory`);
@@ -29,7 +33,22 @@ export function validateFiles(paths: readonly string[], print: (line: string) =>
       failed++;
       continue;
     }
-    const { sections, messages } = parseSections(text, file);
+    let parsed;
+    if (/scarpline-terrain\//.test(text.slice(0, 4000))) {
+      // a terrain job: the corridor cut from it (its own messages printed as they come)
+      const { terrainBatchInput } = await import('./cut-terrain');
+      let cut;
+      try {
+        cut = await terrainBatchInput(file, print);
+      } catch (e) {
+        if (!(e instanceof UserError)) throw e;
+        print(`${file}: invalid: ${e.message}`);
+        failed++;
+        continue;
+      }
+      parsed = cut ? parseGeoJsonCorridor(cut.text, cut.name) : parseSections(text, file);
+    } else parsed = parseSections(text, file);
+    const { sections, messages } = parsed;
     for (const m of messages) print(formatMessage(m));
     const errors = messages.filter((m) => m.severity === 'error').length;
     const warnings = messages.length - errors;

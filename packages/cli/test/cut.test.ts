@@ -5,13 +5,14 @@
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { run } from './run';
+import { parse, stringify } from 'yaml';
+import { ROOT, run } from './run';
 
 const tmp = () => mkdtempSync(join(tmpdir(), 'scarpline-cut-'));
 const EX = 'examples/terrain';
 
 describe('scarpline cut', () => {
-  test('a job file: a GeoJSON corridor of a section every 40 m, the header from the settings file', () => {
+  test('a job file: a GeoJSON corridor of a section every 40 m, the header from its template', () => {
     const out = join(tmp(), 'wcb.geojson');
     const r = run(['cut', `${EX}/wendlecombe.terrain.yaml`, '-o', out]);
     expect(r.err).toBe('');
@@ -37,12 +38,15 @@ describe('scarpline cut', () => {
     const fromJob = join(dir, 'a.geojson');
     const fromOptions = join(dir, 'b.geojson');
     run(['cut', `${EX}/wendlecombe.terrain.yaml`, '-o', fromJob]);
+    // the job's corridor settings in a file of their own
+    const job = parse(readFileSync(join(ROOT, EX, 'wendlecombe.terrain.yaml'), 'utf8'));
+    writeFileSync(join(dir, 'settings.yaml'), stringify(job.template));
     const r = run([
       'cut',
       ...['--terrain', `${EX}/wendlecombe-dem.tif`],
       ...['--alignment', `${EX}/wendlecombe-alignment.geojson`],
       ...['--every', '40', '--left', '40', '--right', '40', '--spacing', '2'],
-      ...['--template', `${EX}/wendlecombe-settings.yaml`],
+      ...['--template', join(dir, 'settings.yaml')],
       ...['--stratum', 'weathered-mudstone', '--stratum', `mudstone=${EX}/wendlecombe-rock.tif`],
       ...['--water', '2', '-o', fromOptions],
     ]);
