@@ -10,7 +10,8 @@ import { CAUTION } from '@scarpline/core';
 import { createApp } from '../src/app';
 import { config } from '../src/config';
 import { sequelize } from '../src/db';
-import { StoredFile } from '../src/models';
+import { Batch, Project, StoredFile } from '../src/models';
+import { seedDemo } from '../src/seed';
 import { stopQueue } from '../src/queue';
 import { startWorker } from '../src/worker';
 import { expectProblem, makeUsers, signIn, waitForBatch } from './helpers';
@@ -166,4 +167,24 @@ test('the caps: a raster of more pixels than TERRAIN_PIXELS, an upload above TER
     config.terrainPixels = terrainPixels;
     config.terrainTotal = terrainTotal;
   }
+});
+
+test('the demo seed cuts the Wendlecombe terrain beside the demo corridor', async () => {
+  const examples = path.resolve(TERRAIN, '..');
+  const { created } = await seedDemo(
+    path.join(examples, 'corridor/corridor.json'),
+    path.join(TERRAIN, 'wendlecombe.terrain.yaml'),
+  );
+  expect(created).toBe(true);
+  const project = await Project.findOne({ where: { name: 'Wendlecombe bypass' } });
+  const batches = await Batch.findAll({
+    where: { projectId: project!.id },
+    order: [['id', 'ASC']],
+  });
+  expect(batches.map((b) => [b.name, b.source, b.total])).toEqual([
+    ['wcb-main', 'seed', 61],
+    ['wcb-terrain', 'terrain', 30],
+  ]);
+  const rasters = await StoredFile.count({ where: { batchId: batches[1].id, kind: 'terrain' } });
+  expect(rasters).toBe(2);
 });

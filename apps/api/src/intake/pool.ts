@@ -9,7 +9,7 @@ import type { Message } from '@scarpline/core/input';
 import type { Section } from '@scarpline/core/model';
 import { config } from '../config';
 import { Problem, unavailable } from '../errors';
-import type { TerrainCut, TerrainUpload } from '../services/terrain';
+import type { TerrainCut, TerrainUpload } from '../services/terrain-cut';
 import type { InputFile, Parsed } from '../services/validate';
 import type { IntakeReply, IntakeTask } from './thread';
 import { PoolError, ThreadPool, threadScript } from './thread-pool';

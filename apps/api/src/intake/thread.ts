@@ -8,7 +8,7 @@ import { isMainThread, parentPort } from 'node:worker_threads';
 import type { Section } from '@scarpline/core/model';
 import { Problem } from '../errors';
 import { readEdits } from '../services/edits';
-import { cutTerrainUpload, type TerrainUpload } from '../services/terrain';
+import { cutTerrainUpload, type TerrainUpload } from '../services/terrain-cut';
 import { parseBatchBody, parseFiles, type InputFile } from '../services/validate';
 
 export type IntakeTask =

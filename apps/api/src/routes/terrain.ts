@@ -11,10 +11,9 @@ import multer from 'multer';
 import { badCharacter } from '@scarpline/core/input';
 import { config } from '../config';
 import { badRequest, invalid, Problem } from '../errors';
-import { readTerrain } from '../intake/pool';
 import { allow, principal } from '../middleware/auth';
-import { loadProject, submitBatch } from '../services/batches';
-import { inputContentType, storeFile } from '../services/files';
+import { loadProject } from '../services/batches';
+import { submitTerrainBatch } from '../services/terrain';
 import { idParam } from './params';
 
 export const terrainRoutes = Router();
@@ -70,8 +69,6 @@ const files: RequestHandler = (req, res, next) => {
   });
 };
 
-const RASTER = /\.tiff?$/i;
-
 terrainRoutes.post(
   '/projects/:id/terrain',
   submitters,
@@ -100,38 +97,12 @@ terrainRoutes.post(
           bad ? `A file's name holds ${bad}: rename the file.` : `A file's name is too long.`,
         );
     }
-    const cut = await readTerrain({
+    const batch = await submitTerrainBatch(
+      principal(req),
+      projectId,
       job,
-      files: sent.map((f) => ({ name: f.originalname, body: f.buffer })),
-      limits: { maxBytes: config.terrainFileLimit, maxPixels: config.terrainPixels },
-    });
-    const p = principal(req);
-    // the batch's inputs: the job, its text files and the corridor cut from them
-    const inputs = [
-      { name: job.name, contentType: inputContentType(job.name), body: Buffer.from(job.text) },
-      ...sent
-        .filter((f) => !RASTER.test(f.originalname))
-        .map((f) => ({
-          name: f.originalname,
-          contentType: inputContentType(f.originalname),
-          body: f.buffer,
-        })),
-      {
-        name: cut.corridor.name,
-        contentType: 'application/geo+json',
-        body: Buffer.from(cut.corridor.text),
-      },
-    ];
-    const batch = await submitBatch(p, projectId, cut.parsed, 'terrain', inputs);
-    for (const f of sent.filter((f) => RASTER.test(f.originalname)))
-      await storeFile({
-        kind: 'terrain',
-        name: f.originalname,
-        contentType: 'image/tiff',
-        body: f.buffer,
-        batchId: batch.id,
-        createdBy: p.userId,
-      });
-    res.status(201).json({ ...batch, terrain: { warnings: cut.warnings } });
+      sent.map((f) => ({ name: f.originalname, body: f.buffer })),
+    );
+    res.status(201).json(batch);
   },
 );
