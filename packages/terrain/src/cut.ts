@@ -246,7 +246,7 @@ export function cutCorridor(input: CutInput): {
         file: ground.name,
         station,
         code: 'stratum-above-ground',
-        message: `${clipped} stratum top sample(s) above the ground were put on the ground`,
+        message: `${clipped} ${clipped === 1 ? 'sample of a stratum top' : 'samples of stratum tops'} above the ground put on the ground`,
       });
     // x along the section as a corridor's reader measures it: the horizontal distance walked
     // along the written (rounded) line, so that the strata and the water span the ground exactly

@@ -1,7 +1,7 @@
 /**
  * Sections cut from terrain: POST /projects/:id/terrain takes a terrain job (scarpline-terrain/1,
  * the field `job`, as a file or as text) and the files it names (the field `files`: the
- * elevation raster(s) as GeoTIFF, the alignment as GeoJSON, the corridor settings if in a file
+ * elevation rasters as GeoTIFF, the alignment as GeoJSON, the corridor settings if in a file
  * of their own), cuts the sections in an intake thread and submits them as a batch. The rasters
  * are kept in the object storage (kind 'terrain'), the job, the alignment and the corridor cut
  * from them as the batch's inputs.

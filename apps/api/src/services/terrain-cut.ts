@@ -1,6 +1,6 @@
 /**
  * Sections cut from terrain: a terrain job (scarpline-terrain/1) with the files it names — the
- * elevation raster(s), the alignment, the corridor settings — made into a GeoJSON corridor by
+ * elevation rasters, the alignment, the corridor settings — made into a GeoJSON corridor by
  * @scarpline/terrain and read as any uploaded corridor (validate.ts parseFiles). Runs in an
  * intake thread (intake/thread.ts), under the pool's time and memory limits; the raster caps
  * (bytes, pixels) are the job's own.
