@@ -87,6 +87,14 @@ describe('scarpline cut', () => {
     expect(skip.err).toMatch(/no station could be cut/);
   });
 
+  test('a station off the alignment: located by its place in the list, in the job file', () => {
+    const r = run(['cut', `${EX}/wendlecombe.terrain.yaml`, '--stations', '1000,2500']);
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(
+      /^examples\/terrain\/wendlecombe\.terrain\.yaml: stations\[1\]: error: station 2500 is off the alignment \(chainage 1000 to 2200\)$/m,
+    );
+  });
+
   test('a bad job file: each setting located', () => {
     const dir = tmp();
     const job = join(dir, 'bad.terrain.yaml');

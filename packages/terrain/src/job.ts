@@ -277,21 +277,37 @@ export async function runTerrainJob(
         code: 'other-crs',
         message: `the raster is in EPSG:${r.epsg}, the terrain in EPSG:${ground.epsg}: they are read as if in the same system`,
       });
-  const cut = cutCorridor({
-    ground,
-    alignment,
-    settings: {
-      stations: job.stations,
-      left: job.left,
-      right: job.right,
-      spacing: job.spacing,
-      noData: job.noData ?? 'error',
-    },
-    header: header as BatchHeader,
-    ...(strata ? { strata } : {}),
-    ...(water ? { water } : {}),
-  });
+  const cut = relabel(jobName, () =>
+    cutCorridor({
+      ground,
+      alignment,
+      settings: {
+        stations: job.stations,
+        left: job.left,
+        right: job.right,
+        spacing: job.spacing,
+        noData: job.noData ?? 'error',
+      },
+      header: header as BatchHeader,
+      ...(strata ? { strata } : {}),
+      ...(water ? { water } : {}),
+    }),
+  );
   return { corridor: cut.corridor, messages: [...messages, ...cut.messages] };
+}
+
+/** The cut's messages about the settings (stations, widths) located in the job file. */
+function relabel<T>(jobName: string, cut: () => T): T {
+  try {
+    return cut();
+  } catch (e) {
+    if (!(e instanceof TerrainError)) throw e;
+    throw new TerrainError(
+      e.messages.map((m) =>
+        m.file === 'stations' || m.file === 'settings' ? { ...m, file: jobName } : m,
+      ),
+    );
+  }
 }
 
 /** The corridor as the text of a GeoJSON file. */
