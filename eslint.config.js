@@ -233,6 +233,7 @@ module.exports = tseslint.config(
     files: [
       'packages/cli/{src,test,bench}/**/*.{ts,js}',
       'packages/report/{src,test}/**/*.{ts,js}',
+      'packages/terrain/{src,test}/**/*.{ts,js}',
       'apps/api/{src,test,bench}/**/*.{ts,js}',
     ],
     rules: restrict(CORE_BY_ENTRY_POINT),

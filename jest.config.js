@@ -1,5 +1,6 @@
 /** Jest for every workspace: TypeScript through ts-jest (type-checked). */
 const { coreModuleNameMapper } = require('./packages/core/jest-map');
+const { esOnlyTransform, esOnlyIgnore } = require('./packages/terrain/jest-esm');
 
 module.exports = {
   testEnvironment: 'node',
@@ -7,5 +8,9 @@ module.exports = {
   testMatch: ['**/?(*.)test.ts'],
   testPathIgnorePatterns: ['/node_modules/', '/dist/'],
   moduleNameMapper: coreModuleNameMapper('<rootDir>/packages/core'),
-  transform: { '^.+\\.ts$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.json' }] },
+  transform: {
+    '^.+\\.ts$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.json' }],
+    ...esOnlyTransform,
+  },
+  transformIgnorePatterns: esOnlyIgnore,
 };

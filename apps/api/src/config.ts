@@ -19,6 +19,13 @@ export interface Config {
   uploadFiles: number;
   uploadTotal: number;
   /**
+   * Sections cut from terrain (routes/terrain.ts): the most bytes of an upload (a terrain job
+   * with its rasters), of one raster, and the most pixels of one raster.
+   */
+  terrainTotal: number;
+  terrainFileLimit: number;
+  terrainPixels: number;
+  /**
    * The intake pool that reads submitted files and bodies: threads, most waiting jobs (then
    * 503), time limit per job in milliseconds, memory of a thread in MB.
    */
@@ -196,6 +203,9 @@ function read(): Config {
     uploadLimit: num('UPLOAD_LIMIT', 10 * 1024 * 1024),
     uploadFiles: num('UPLOAD_FILES', 500),
     uploadTotal: num('UPLOAD_TOTAL', 20 * 1024 * 1024),
+    terrainTotal: num('TERRAIN_TOTAL', 100 * 1024 * 1024),
+    terrainFileLimit: num('TERRAIN_FILE_LIMIT', 64 * 1024 * 1024),
+    terrainPixels: num('TERRAIN_PIXELS', 25_000_000),
     intakeThreads: num('INTAKE_THREADS', Math.min(2, os.availableParallelism())),
     intakeQueue: num('INTAKE_QUEUE', 32),
     intakeTimeoutMs: num('INTAKE_TIMEOUT_MS', 30_000),

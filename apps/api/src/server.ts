@@ -57,8 +57,11 @@ async function main(): Promise<void> {
   }
   if (process.argv.includes('--seed')) {
     const corridor = path.resolve(__dirname, '../../../examples/corridor/corridor.json');
-    const { created } = await seedDemo(corridor);
-    log.info(created ? 'seed: demo corridor submitted' : 'seed: demo data present');
+    const terrain = path.resolve(__dirname, '../../../examples/terrain/wendlecombe.terrain.yaml');
+    const { created } = await seedDemo(corridor, terrain);
+    log.info(
+      created ? 'seed: demo corridor and its terrain cut submitted' : 'seed: demo data present',
+    );
   }
   const stopWatch = startStallWatch();
   const app = createApp({ homePage: PLACEHOLDER });

@@ -73,7 +73,7 @@ Exit status: 0 when every file is valid, 1 otherwise.`,
   )
   .action(async (files: string[], opts: { template?: string }) => {
     const { validateFiles } = await import('./validate-files');
-    process.exitCode = validateFiles(files, print, opts.template);
+    process.exitCode = await validateFiles(files, print, opts.template);
   });
 
 withOverrides(
@@ -146,7 +146,7 @@ withOverrides(
     )
     .argument(
       '<corridor>',
-      'a batch file (format scarpline-batch/1, JSON or YAML), a GeoJSON corridor (projected, or lon/lat with a crs) or a LandXML file (.xml)',
+      'a batch file (format scarpline-batch/1, JSON or YAML), a GeoJSON corridor (projected, or lon/lat with a crs), a LandXML file (.xml) or a terrain job (format scarpline-terrain/1: the sections are cut first, see `scarpline cut`)',
     ),
 )
   .option(
@@ -180,6 +180,7 @@ Examples:
   $ scarpline batch sections.geojson --template corridor-settings.yaml --out results/ --jobs 4
   $ scarpline batch examples/corridor/wendlecombe-cut.xml --template examples/corridor/wendlecombe-cut.yaml --out results/
   $ scarpline batch examples/corridor/corridor.json --out results/ --report below --by "J. Marsh"
+  $ scarpline batch examples/terrain/wendlecombe.terrain.yaml --out results/
 
 A terminal gets a progress bar; otherwise a line per section goes to standard error.
 Ctrl-C stops the workers and closes the files with the sections finished so far.
@@ -215,9 +216,13 @@ ${EXIT}
         throw new UserError(`--jobs: ${opts.jobs} is not a whole number of 1 or more`);
       const { checkOverrides } = await import('./overrides');
       const { runBatch } = await import('./batch/run-batch');
+      // a terrain job: the corridor cut from it
+      const { terrainBatchInput } = await import('./cut-terrain');
+      const terrain = await terrainBatchInput(file, printErr);
       process.exitCode = await runBatch(
         file,
         {
+          ...(terrain ? { input: terrain } : {}),
           out: opts.out,
           ...(opts.report && opts.out
             ? {
@@ -239,6 +244,68 @@ ${EXIT}
         print,
         printErr,
       );
+    },
+  );
+
+// --- sections cut from terrain
+program
+  .command('cut')
+  .description(
+    'cut cross-sections from a terrain raster (GeoTIFF) along an alignment and write them as a GeoJSON corridor',
+  )
+  .argument(
+    '[job]',
+    'a terrain job file (format scarpline-terrain/1, YAML or JSON); the options replace its settings',
+  )
+  .option('--terrain <tif>', 'the ground: a GeoTIFF elevation raster, north-up, projected')
+  .option('--alignment <geojson>', "the alignment: a GeoJSON LineString in the raster's system")
+  .option('--start <chainage>', 'chainage at the first position of the alignment (default 0)')
+  .option('--every <interval>', 'a station every INTERVAL along the alignment')
+  .option('--from <chainage>', 'with --every: the first station (default: the start)')
+  .option('--to <chainage>', 'with --every: the last station at most (default: the end)')
+  .option('--stations <list>', 'the stations as a comma list, e.g. 1000,1050,1125')
+  .option('--left <width>', 'half-width of each section left of the alignment (m or ft)')
+  .option('--right <width>', 'half-width of each section right of the alignment (m or ft)')
+  .option('--spacing <length>', 'distance between samples along a section')
+  .option(
+    '-t, --template <file>',
+    'the corridor settings (id, title, units, template: a batch without its sections)',
+  )
+  .option(
+    '--stratum <material[=top]>',
+    'the strata, top first (repeat): the first by its material, each next with its top as a raster or a depth, e.g. --stratum clay --stratum rock=rock-top.tif',
+    collect,
+  )
+  .option(
+    '--water <top>',
+    'the groundwater level: a raster of elevations, or a depth below the ground',
+  )
+  .option(
+    '--skip-no-data',
+    'leave out a station with a sample of no data (default: refuse the cut)',
+  )
+  .option('-o, --out <file>', 'the GeoJSON corridor to write (default: standard output)')
+  .addHelpText(
+    'after',
+    `
+Each section is square to the alignment (at a bend's vertex, along the bisector), from --left
+on the left to --right on the right looking along the chainage; the alignment is at x = left.
+The ground, strata tops and water are sampled by bilinear interpolation. Run the result with
+\`scarpline batch\`; its results.geojson carries the section lines.
+
+Examples:
+  $ scarpline cut examples/terrain/wendlecombe.terrain.yaml -o wendlecombe.geojson
+  $ scarpline cut --terrain dem.tif --alignment line.geojson --start 1000 --every 20 \\
+      --left 40 --right 40 --spacing 1 --template settings.yaml -o corridor.geojson
+  $ scarpline batch corridor.geojson --out results/`,
+  )
+  .action(
+    async (
+      job: string | undefined,
+      opts: import('./cut-terrain').CutOptions & { out?: string },
+    ) => {
+      const { cutTerrain } = await import('./cut-terrain');
+      process.exitCode = await cutTerrain(job, opts.out, opts, print, printErr);
     },
   );
 
@@ -638,6 +705,7 @@ Examples:
   $ scarpline analyze examples/cut-homogeneous.yaml
   $ scarpline plot examples/levee-land-side.yaml --svg levee.svg
   $ scarpline batch examples/corridor/corridor.json --out results/
+  $ scarpline cut examples/terrain/wendlecombe.terrain.yaml -o wendlecombe.geojson
   $ scarpline report examples/levee-land-side.yaml
   $ scarpline probability examples/levee-probability.yaml
   $ scarpline solve examples/levee-probability.yaml --for water.level --target 1.5 --range -4,0

@@ -9,7 +9,7 @@ import {
   type HeaderFile,
 } from '@scarpline/core';
 import { collectFiles } from './collect-files';
-import { readInput } from './read-input';
+import { readInput, UserError } from './read-input';
 
 const plural = (n: number, word: string): string => `${n} ${word}${n === 1 ? '' : 's'}`;
 
@@ -17,15 +17,16 @@ const plural = (n: number, word: string): string => `${n} ${word}${n === 1 ? '' 
  * `scarpline validate`: reads each file (every section file under a directory), prints its
  * located errors and warnings and a one-line summary, and returns the exit code: 0 when every
  * file is valid, 1 otherwise. A GeoJSON or LandXML corridor is read as `batch` reads it, with
- * the corridor settings of `template` when given.
+ * the corridor settings of `template` when given; a terrain job is cut, and the corridor cut
+ * from it validated.
  *
- * @example validateFiles(['examples'], console.log) // → 0
+ * @example await validateFiles(['examples'], console.log) // → 0
  */
-export function validateFiles(
+export async function validateFiles(
   paths: readonly string[],
   print: (line: string) => void,
   template?: string,
-): number {
+): Promise<number> {
   let header: HeaderFile | undefined;
   if (template) {
     const t = readInput(template);
@@ -48,11 +49,23 @@ export function validateFiles(
       failed++;
       continue;
     }
-    const parsed = isLandXml(text)
-      ? parseLandXmlCorridor(text, file, header)
-      : isGeoJsonCorridor(text)
-        ? parseGeoJsonCorridor(text, file, header)
-        : parseSections(text, file);
+    let parsed;
+    if (/scarpline-terrain\//.test(text.slice(0, 4000))) {
+      // a terrain job: the corridor cut from it (its own messages printed as they come)
+      const { terrainBatchInput } = await import('./cut-terrain');
+      let cut;
+      try {
+        cut = await terrainBatchInput(file, print);
+      } catch (e) {
+        if (!(e instanceof UserError)) throw e;
+        print(`${file}: invalid: ${e.message}`);
+        failed++;
+        continue;
+      }
+      parsed = cut ? parseGeoJsonCorridor(cut.text, cut.name) : parseSections(text, file);
+    } else if (isLandXml(text)) parsed = parseLandXmlCorridor(text, file, header);
+    else if (isGeoJsonCorridor(text)) parsed = parseGeoJsonCorridor(text, file, header);
+    else parsed = parseSections(text, file);
     const { sections } = parsed;
     // A corridor batch without its sections is the settings of a GeoJSON or LandXML corridor
     // (--template): checked against the schema like any batch, all but the sections it leaves out.

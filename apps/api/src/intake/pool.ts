@@ -9,6 +9,7 @@ import type { Message } from '@scarpline/core/input';
 import type { Section } from '@scarpline/core/model';
 import { config } from '../config';
 import { Problem, unavailable } from '../errors';
+import type { TerrainCut, TerrainUpload } from '../services/terrain-cut';
 import type { InputFile, Parsed } from '../services/validate';
 import type { IntakeReply, IntakeTask } from './thread';
 import { PoolError, ThreadPool, threadScript } from './thread-pool';
@@ -76,6 +77,10 @@ export const readBatchText = (text: string) => run({ kind: 'batch', text }) as P
 
 /** Uploaded files, read (validate.ts parseFiles). */
 export const readUploads = (files: InputFile[]) => run({ kind: 'files', files }) as Promise<Parsed>;
+
+/** A terrain job with its files: the sections cut and read as an upload (terrain.ts). */
+export const readTerrain = (upload: TerrainUpload) =>
+  run({ kind: 'terrain', ...upload }) as Promise<TerrainCut>;
 
 /** A re-run's edits (the body's text) on the stored section, read and checked (edits.ts). */
 export const readEditsText = (stored: Section, text: string) =>

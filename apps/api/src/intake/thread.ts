@@ -8,12 +8,14 @@ import { isMainThread, parentPort } from 'node:worker_threads';
 import type { Section } from '@scarpline/core/model';
 import { Problem } from '../errors';
 import { readEdits } from '../services/edits';
+import { cutTerrainUpload, type TerrainUpload } from '../services/terrain-cut';
 import { parseBatchBody, parseFiles, type InputFile } from '../services/validate';
 
 export type IntakeTask =
   | { kind: 'batch'; text: string }
   | { kind: 'files'; files: InputFile[] }
-  | { kind: 'edits'; stored: Section; text: string };
+  | { kind: 'edits'; stored: Section; text: string }
+  | ({ kind: 'terrain' } & TerrainUpload);
 
 export interface ProblemData {
   status: number;
@@ -32,12 +34,14 @@ function run(task: IntakeTask): unknown {
       return parseFiles(task.files);
     case 'edits':
       return readEdits(task.stored, task.text);
+    case 'terrain':
+      return cutTerrainUpload(task);
   }
 }
 
-export function intake(task: IntakeTask): IntakeReply {
+export async function intake(task: IntakeTask): Promise<IntakeReply> {
   try {
-    return { ok: true, value: run(task) };
+    return { ok: true, value: await run(task) };
   } catch (e) {
     if (!(e instanceof Problem)) throw e;
     return {
@@ -50,11 +54,12 @@ export function intake(task: IntakeTask): IntakeReply {
 if (!isMainThread && parentPort) {
   const port = parentPort;
   port.on('message', ({ id, task }: { id: number; task: IntakeTask }) => {
-    try {
-      port.postMessage({ id, ok: true, value: intake(task) });
-    } catch (e) {
-      const error = e instanceof Error ? e : new Error(String(e));
-      port.postMessage({ id, ok: false, error: { name: error.name, message: error.message } });
-    }
+    intake(task).then(
+      (value) => port.postMessage({ id, ok: true, value }),
+      (e: unknown) => {
+        const error = e instanceof Error ? e : new Error(String(e));
+        port.postMessage({ id, ok: false, error: { name: error.name, message: error.message } });
+      },
+    );
   });
 }

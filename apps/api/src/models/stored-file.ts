@@ -8,8 +8,11 @@ import {
 } from 'sequelize';
 import { sequelize } from '../db';
 
-/** What a stored file is: an uploaded input of a batch or a section, a generated report. */
-export const STORED_FILE_KINDS = ['batch-input', 'section-input', 'report'] as const;
+/**
+ * What a stored file is: an uploaded input of a batch or a section, a generated report, a
+ * terrain raster a batch's sections were cut from.
+ */
+export const STORED_FILE_KINDS = ['batch-input', 'section-input', 'report', 'terrain'] as const;
 export type StoredFileKind = (typeof STORED_FILE_KINDS)[number];
 
 export class StoredFile extends Model<

@@ -18,6 +18,7 @@ import { reviewRequestRoutes } from './review-requests';
 import { reviewRoutes } from './reviews';
 import { runRoutes } from './runs';
 import { sectionRoutes } from './sections';
+import { terrainRoutes } from './terrain';
 import { tokenRoutes } from './tokens';
 import { userRoutes } from './users';
 
@@ -33,6 +34,7 @@ export const authenticatedRoutes: readonly Router[] = [
   mailRoutes,
   projectRoutes,
   batchRoutes,
+  terrainRoutes,
   eventRoutes,
   sectionRoutes,
   runRoutes,

@@ -51,6 +51,8 @@ export interface BatchOptions extends Overrides {
   tty?: boolean;
   /** Also write the corridor report (PDF) there, with these section pages. */
   report?: ReportRequest;
+  /** The corridor's text when it is not the file's own (a corridor cut from terrain). */
+  input?: { name: string; text: string };
 }
 
 /**
@@ -167,7 +169,7 @@ export async function runBatch(
   out: (line: string) => void,
   err: (line: string) => void,
 ): Promise<number> {
-  const input = readInput(file);
+  const input = options.input ?? readInput(file);
   const { entries, messages, units, id } = entriesOf(
     file,
     input.text,

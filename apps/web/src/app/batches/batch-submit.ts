@@ -25,6 +25,7 @@ import { locatedText, toProblem } from '../core/problem';
 import { ProjectsApi } from '../projects/projects-api';
 import type { SubmittedBatch } from './batch-types';
 import { BatchesApi } from './batches-api';
+import { TerrainSubmit } from './terrain-submit';
 import { formatBytes } from './words';
 
 /** The file names the upload takes. */
@@ -113,6 +114,7 @@ type Sent = { from: 'files' } | { from: 'text'; fileName: string };
     MatIconModule,
     MatInputModule,
     MatProgressBarModule,
+    TerrainSubmit,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './batch-submit.html',

@@ -138,6 +138,21 @@ export class BatchesApi {
     return this.http.post<SubmittedBatch>(`${API}/projects/${projectId}/uploads`, body);
   }
 
+  /**
+   * A terrain job (scarpline-terrain/1, as text in the field "job") with the files it names
+   * (rasters, alignment) in "files": the sections are cut from the terrain and submitted.
+   */
+  uploadTerrain(
+    projectId: number,
+    job: string,
+    files: readonly File[],
+  ): Observable<SubmittedBatch> {
+    const body = new FormData();
+    body.append('job', job);
+    for (const f of files) body.append('files', f, f.name);
+    return this.http.post<SubmittedBatch>(`${API}/projects/${projectId}/terrain`, body);
+  }
+
   requestReview(batchId: number, comment: string): Observable<ReviewRequestResult> {
     return this.http.post<ReviewRequestResult>(`${API}/batches/${batchId}/review-requests`, {
       comment,
