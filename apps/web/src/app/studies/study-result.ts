@@ -1,0 +1,123 @@
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { DomSanitizer, type SafeHtml } from '@angular/platform-browser';
+import { drawProbability, drawSensitivity, drawTornado } from '@scarpline/core/draw';
+import type { CountedProbability } from '@scarpline/core/result';
+import { Caution } from '../shared/caution';
+import { fsText, plain } from '../sections/format';
+import { methodName } from '../shared/method-names';
+import type { Study } from './study-types';
+
+/** A probability with its standard error, e.g. 0.0123 ± 0.0011 (a dash when there is none). */
+export function pText(c: CountedProbability | null | undefined): string {
+  if (!c) return '—';
+  const f = (v: number) => (v === 0 ? '0' : v.toPrecision(3));
+  return `${f(c.p)} ± ${f(c.standardError)}`;
+}
+
+/** β to two decimals, a dash when there is none. */
+export function betaText(b: number | null | undefined): string {
+  return b === null || b === undefined || !Number.isFinite(b) ? '—' : b.toFixed(2);
+}
+
+/**
+ * A done study's result: for a probabilistic analysis each case's mean and SD of FS, P(FS < 1)
+ * and P(FS < required) with their standard errors and β, the Taylor series check beside it and
+ * the distribution drawn; for a sensitivity the FS range of each variable and its drawings; for
+ * a solve the value found, its FS and the analyses, or why none was. The caution with each.
+ */
+@Component({
+  selector: 'sl-study-result',
+  imports: [Caution],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './study-result.html',
+  styleUrl: './study-result.scss',
+})
+export class StudyResult {
+  private readonly sanitizer = inject(DomSanitizer);
+
+  readonly study = input.required<Study>();
+
+  protected readonly fsText = fsText;
+  protected readonly pText = pText;
+  protected readonly betaText = betaText;
+  protected readonly plain = plain;
+  protected readonly methodName = methodName;
+
+  protected readonly probability = computed(() => {
+    const r = this.study().result;
+    return r?.kind === 'probability' ? r : null;
+  });
+  protected readonly sensitivity = computed(() => {
+    const r = this.study().result;
+    return r?.kind === 'sensitivity' ? r.sensitivity : null;
+  });
+  protected readonly solve = computed(() => {
+    const r = this.study().result;
+    return r?.kind === 'solve' ? r.solve : null;
+  });
+
+  /** The cases of the result, for the drawing's choice. */
+  protected readonly caseNames = computed(() => {
+    const p = this.probability();
+    if (p) return p.probability.cases.map((c) => c.case);
+    return this.sensitivity()?.cases.map((c) => c.case) ?? [];
+  });
+  protected readonly picked = signal<string | null>(null);
+  protected readonly drawnCase = computed(() => {
+    const names = this.caseNames();
+    const p = this.picked();
+    return p !== null && names.includes(p) ? p : (names[0] ?? null);
+  });
+
+  /** The Taylor series check of a case, beside its counted numbers. */
+  protected taylorOf(name: string) {
+    return this.probability()?.taylor.cases.find((c) => c.case === name) ?? null;
+  }
+
+  /** The core's drawings of the drawn case (histogram and CDF; or tornado and one at a time). */
+  protected readonly drawings = computed((): { label: string; html: SafeHtml }[] => {
+    const name = this.drawnCase();
+    const title = this.study().result === null ? '' : this.titleOf();
+    const svg = (text: string) => this.sanitizer.bypassSecurityTrustHtml(text);
+    const p = this.probability();
+    if (p) {
+      const c = p.probability.cases.find((x) => x.case === name);
+      if (!c) return [];
+      return [
+        {
+          label: `Distribution of FS of the case ${c.case}: histogram and cumulative distribution`,
+          html: svg(drawProbability(c, { title: `${title} · ${c.case}` })),
+        },
+      ];
+    }
+    const s = this.sensitivity();
+    if (s) {
+      const c = s.cases.find((x) => x.case === name);
+      if (!c || c.series.length === 0) return [];
+      return [
+        {
+          label: `Range of FS by variable, case ${c.case}`,
+          html: svg(drawTornado(c, { title: `${title} · ${c.case}` })),
+        },
+        {
+          label: `FS as each variable moves through its range, case ${c.case}`,
+          html: svg(drawSensitivity(c, { title: `${title} · ${c.case}` })),
+        },
+      ];
+    }
+    return [];
+  });
+
+  private titleOf(): string {
+    const r = this.study().result;
+    if (!r) return '';
+    switch (r.kind) {
+      case 'probability':
+        return r.probability.title;
+      case 'sensitivity':
+        return r.sensitivity.title;
+      case 'solve':
+        return r.solve.title;
+    }
+  }
+}
