@@ -1,23 +1,11 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { DomSanitizer, type SafeHtml } from '@angular/platform-browser';
 import { drawProbability, drawSensitivity, drawTornado } from '@scarpline/core/draw';
-import type { CountedProbability } from '@scarpline/core/result';
 import { Caution } from '../shared/caution';
 import { fsText, plain } from '../sections/format';
 import { methodName } from '../shared/method-names';
+import { betaText, pText } from './probability-format';
 import type { Study } from './study-types';
-
-/** A probability with its standard error, e.g. 0.0123 ± 0.0011 (a dash when there is none). */
-export function pText(c: CountedProbability | null | undefined): string {
-  if (!c) return '—';
-  const f = (v: number) => (v === 0 ? '0' : v.toPrecision(3));
-  return `${f(c.p)} ± ${f(c.standardError)}`;
-}
-
-/** β to two decimals, a dash when there is none. */
-export function betaText(b: number | null | undefined): string {
-  return b === null || b === undefined || !Number.isFinite(b) ? '—' : b.toFixed(2);
-}
 
 /**
  * A done study's result: for a probabilistic analysis each case's mean and SD of FS, P(FS < 1)
