@@ -1,5 +1,6 @@
 import { provideZonelessChangeDetection } from '@angular/core';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
+import axe from 'axe-core';
 import type { ProbabilitySummary } from '../studies/study-types';
 import type { SectionListItem } from './batch-types';
 import { caseMarker, pfPoints, ProbabilityChart } from './probability-chart';
@@ -146,4 +147,19 @@ describe('ProbabilityChart', () => {
     const el = await render([item(3, 300, null)]);
     expect(el.querySelector('[data-testid="pf-chart"]')).toBeNull();
   });
+
+  it('passes axe’s rules on names and roles (colour contrast is the browser tests’)', async () => {
+    const el = await render(STATIONS);
+    document.body.appendChild(el);
+    try {
+      const results = await axe.run(el, {
+        runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa'] },
+        rules: { 'color-contrast': { enabled: false } },
+      });
+      expect(results.violations.map((v) => `${v.id}: ${v.nodes.length}`)).toEqual([]);
+      expect(results.passes.map((r) => r.id)).toContain('aria-allowed-attr');
+    } finally {
+      el.remove();
+    }
+  }, 60_000);
 });

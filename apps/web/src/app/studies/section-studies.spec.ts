@@ -1,12 +1,13 @@
 import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { CAUTION } from '@scarpline/core/caution';
+import axe from 'axe-core';
 import type { Role } from '../core/models';
 import { apiTestProviders, verifyAndReset } from '../testing/api-testing';
 import { signInAs } from '../testing/sign-in-as';
 import { aStudy, doneProbability, sectionWithVariables } from '../testing/study-fixtures';
 import { POLL_MS, SectionStudies } from './section-studies';
-import type { Study } from './study-types';
+import type { ProbabilitySummary, Study } from './study-types';
 
 const LIST = '/api/v1/sections/9/studies';
 
@@ -14,13 +15,15 @@ describe('SectionStudies', () => {
   let fixture: ComponentFixture<SectionStudies>;
   let backend: HttpTestingController;
 
-  async function open(role: Role, studies: Study[]) {
+  async function open(role: Role, studies: Study[], summary: ProbabilitySummary[] | null = null) {
     signInAs(role, { id: 2, name: role === 'engineer' ? 'Evan Engineer' : `The ${role}` });
     TestBed.configureTestingModule({ providers: apiTestProviders() });
     backend = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(SectionStudies);
     fixture.componentRef.setInput('sectionId', 9);
     fixture.componentRef.setInput('section', sectionWithVariables());
+    fixture.componentRef.setInput('run', 3);
+    fixture.componentRef.setInput('summary', summary);
     await fixture.whenStable();
     backend.expectOne(LIST).flush(studies);
     await fixture.whenStable();
@@ -168,5 +171,79 @@ describe('SectionStudies', () => {
     expect(all('study-row')).toHaveLength(1);
     expect(text(byId('study-status'))).toBe('queued');
     expect(text(byId('study-shown'))).toContain('The study is queued');
+  });
+
+  it('passes axe’s rules on names, labels and roles (colour contrast is the browser tests’)', async () => {
+    await open('engineer', [
+      doneProbability(),
+      aStudy({ id: 42, status: 'failed', problem: { title: 'No factor of safety' } }),
+    ]);
+    document.body.appendChild(el());
+    try {
+      const results = await axe.run(el(), {
+        runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa'] },
+        rules: { 'color-contrast': { enabled: false } },
+      });
+      expect(results.passes.map((r) => r.id)).toEqual(
+        expect.arrayContaining(['label', 'button-name', 'aria-allowed-attr']),
+      );
+      expect(
+        results.violations.map((v) => `${v.id}: ${v.nodes.map((n) => n.html).join(' | ')}`),
+      ).toEqual([]);
+    } finally {
+      el().remove();
+    }
+  }, 60_000);
+
+  it('shows the run’s own probability of failure by case, and what each study asked', async () => {
+    await open(
+      'viewer',
+      [
+        aStudy({
+          request: {
+            kind: 'probability',
+            probability: {
+              variables: [
+                { target: 'materials.core.cohesion', distribution: 'normal', mean: 5, sd: 1 },
+              ],
+              method: 'latin-hypercube',
+              realisations: 2000,
+              seed: 7,
+              surface: 'critical',
+            },
+          },
+        }),
+      ],
+      [
+        {
+          case: 'long term',
+          realisations: 10000,
+          valid: 9998,
+          meanFs: 1.62,
+          sdFs: 0.18,
+          pFailure: { p: 0.0004, standardError: 0.0002 },
+          pBelowRequired: { p: 0.26, standardError: 0.0044 },
+          betaNormal: 3.44,
+          betaLognormal: 4.01,
+        },
+      ],
+    );
+    const table = byId('run-probability')!;
+    expect(text(table.querySelector('caption'))).toBe(
+      "Probability of failure of run 3, from the section's own variables on the critical surface of each case",
+    );
+    const cells = Array.from(all('run-probability-row')[0].children).map((c) => text(c));
+    expect(cells).toEqual([
+      'long term',
+      '9998 / 10000',
+      '1.620',
+      '0.180',
+      '0.000400 ± 0.000200',
+      '0.260 ± 0.00440',
+      '3.44 / 4.01',
+    ]);
+    expect(text(byId('study-request'))).toBe(
+      'Asked: Latin hypercube, N = 2000, seed 7, critical surface, 1 variable.',
+    );
   });
 });

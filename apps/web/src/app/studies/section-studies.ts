@@ -24,9 +24,11 @@ import { userName } from '../core/user-name';
 import { WhenPipe } from '../shared/date-time';
 import { StudiesApi } from './studies-api';
 import { StudyForm } from './study-form';
-import { KIND_WORDS } from './study-model';
+import { fsText } from '../sections/format';
+import { betaText, pText } from './probability-format';
+import { KIND_WORDS, requestText } from './study-model';
 import { StudyResult } from './study-result';
-import type { Study } from './study-types';
+import type { ProbabilitySummary, Study } from './study-types';
 
 /** How often a queued or running study is read again. */
 export const POLL_MS = 1500;
@@ -59,6 +61,14 @@ export class SectionStudies {
   readonly section = input.required<Section>();
   /** Whether the section has a finished run to study. */
   readonly finished = input(true);
+  /** The run shown, and its probability of failure by case when its section file asks for one. */
+  readonly run = input<number | null>(null);
+  readonly summary = input<readonly ProbabilitySummary[] | null>(null);
+
+  protected readonly requestText = requestText;
+  protected readonly fsText = fsText;
+  protected readonly pText = pText;
+  protected readonly betaText = betaText;
 
   protected readonly mayAsk = computed(() => this.auth.hasRole('admin', 'engineer'));
   protected readonly kindWords = KIND_WORDS;

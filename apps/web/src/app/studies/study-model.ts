@@ -264,3 +264,28 @@ export function fieldOf(e: StudyError): StudyField | null {
       return null;
   }
 }
+
+/** What a study asked for, in one line (as the API accepted it, its defaults filled). */
+export function requestText(r: StudyRequest): string {
+  switch (r.kind) {
+    case 'probability': {
+      const p = r.probability;
+      if (!p) return 'the section’s own variables and settings';
+      const parts = [
+        p.method === 'latin-hypercube' ? 'Latin hypercube' : 'Monte Carlo',
+        ...(p.realisations === undefined ? [] : [`N = ${p.realisations}`]),
+        ...(p.seed === undefined ? [] : [`seed ${p.seed}`]),
+        p.surface === 'search' ? 'surface searched in each realisation' : 'critical surface',
+        `${p.variables.length} ${p.variables.length === 1 ? 'variable' : 'variables'}`,
+      ];
+      return parts.join(', ');
+    }
+    case 'sensitivity':
+      return r.case === undefined ? 'every case' : `case ${r.case}`;
+    case 'solve': {
+      const fs = r.targetFs === undefined ? 'the required FS' : `FS ${r.targetFs}`;
+      const where = r.case === undefined ? '' : `, case ${r.case}`;
+      return `${r.target} for ${fs} between ${r.range[0]} and ${r.range[1]}${where}`;
+    }
+  }
+}
