@@ -246,4 +246,56 @@ describe('SectionStudies', () => {
       'Asked: Latin hypercube, N = 2000, seed 7, critical surface, 1 variable.',
     );
   });
+
+  it('shows a done sensitivity: each variable’s FS range, the tornado and the one-at-a-time drawing', async () => {
+    const series = (variable: string, target: string, lo: number, hi: number) => ({
+      variable,
+      target,
+      points: [
+        [0, lo],
+        [1, hi],
+      ] as [number, number | null][],
+      fsLow: lo,
+      fsHigh: hi,
+      from: 0,
+      to: 1,
+    });
+    await open('viewer', [
+      aStudy({
+        id: 46,
+        kind: 'sensitivity',
+        status: 'done',
+        request: { kind: 'sensitivity' },
+        result: {
+          kind: 'sensitivity',
+          sensitivity: {
+            id: 'wc-0520',
+            title: 'Wendle flood bank 0+520',
+            station: 520,
+            cases: [
+              {
+                case: 'long term',
+                fsAtMeans: 1.47,
+                series: [
+                  series('core φ′', 'materials.core.frictionAngle', 1.21, 1.74),
+                  series('core c′', 'materials.core.cohesion', 1.38, 1.56),
+                ],
+              },
+            ],
+            caution: 'c',
+          },
+        },
+      }),
+    ]);
+    const rows = all('sensitivity-row').map((r) => Array.from(r.children).map((c) => text(c)));
+    expect(rows).toEqual([
+      ['core φ′', 'materials.core.frictionAngle', '0 – 1', '1.210 – 1.740'],
+      ['core c′', 'materials.core.cohesion', '0 – 1', '1.380 – 1.560'],
+    ]);
+    const drawings = all('study-drawing');
+    expect(drawings).toHaveLength(2);
+    expect(drawings.every((d) => d.querySelector('svg') !== null)).toBe(true);
+    expect(text(byId('study-request'))).toBe('Asked: every case.');
+    expect(byId('study-result')!.textContent).toContain(CAUTION);
+  });
 });

@@ -224,8 +224,9 @@ export type StudyError = LocatedError & { pointer?: string };
 
 /** Where an error is, as a dotted path into the request (`probability.realisations`, `range.1`). */
 export function errorPath(e: StudyError): string {
-  if (typeof e.pointer === 'string' && e.pointer !== '') {
-    return e.pointer
+  const pointer = e.pointer ?? (e.path?.startsWith('/') ? e.path : undefined);
+  if (typeof pointer === 'string' && pointer !== '') {
+    return pointer
       .replace(/^#?\//, '')
       .split('/')
       .map((k) => k.replace(/~1/g, '/').replace(/~0/g, '~'))
