@@ -1,5 +1,7 @@
 import { HttpTestingController } from '@angular/common/http/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
+import { MatSelectHarness } from '@angular/material/select/testing';
 import type { SectionInput } from '../sections/section-types';
 import { apiTestProviders, verifyAndReset } from '../testing/api-testing';
 import { sectionWithCases } from '../testing/rerun-case-fixtures';
@@ -204,5 +206,33 @@ describe('StudyForm', () => {
     await pickKind('probability');
     expect(byId('no-variables')?.textContent).toContain('no random variables');
     expect(byId<HTMLButtonElement>('ask-study')!.disabled).toBe(true);
+  });
+
+  it('searching in every realisation: N follows the surface until typed, and at most 5 000', async () => {
+    await open();
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    const surface = await loader.getHarness(
+      MatSelectHarness.with({ selector: '[data-testid="study-surface"]' }),
+    );
+    await surface.open();
+    await surface.clickOptions({ text: 'Searched again in every realisation' });
+    await fixture.whenStable();
+    // the core's default when searching (the section's own N is for its critical surface)
+    expect(byId<HTMLInputElement>('study-realisations')!.value).toBe('1000');
+    await type('study-realisations', '6000');
+    await submit();
+    backend.expectNone(ASK);
+    const field = byId('study-realisations')!.closest('mat-form-field')!;
+    expect(field.querySelector('mat-error')?.textContent).toContain(
+      'At most 5000 when the surface is searched in every realisation.',
+    );
+    await type('study-realisations', '4000');
+    await submit();
+    const req = backend.expectOne(ASK);
+    expect(req.request.body).toMatchObject({
+      kind: 'probability',
+      probability: { surface: 'search', realisations: 4000, seed: 7, method: 'monte-carlo' },
+    });
+    req.flush(aStudy(), { status: 202, statusText: 'Accepted' });
   });
 });

@@ -29,6 +29,7 @@ import { toProblem } from '../core/problem';
 import { StudiesApi } from './studies-api';
 import {
   caseChoices,
+  DEFAULT_REALISATIONS,
   defaultRange,
   distributionText,
   fieldOf,
@@ -42,8 +43,9 @@ import {
 } from './study-model';
 import type { Study, StudyKind } from './study-types';
 
-/** The most realisations the form lets one ask for (the API caps them again). */
+/** The most realisations a section file may ask for (schemas/section.schema.json), and searching. */
 export const MAX_REALISATIONS = 100_000;
+export const MAX_SEARCHED_REALISATIONS = 5_000;
 
 /** The words of a control's first error: the API's, then the form's own checks. */
 export function errorWords(errors: ValidationErrors | null): string {
@@ -54,6 +56,8 @@ export function errorWords(errors: ValidationErrors | null): string {
   if (errors['min']) return `At least ${(errors['min'] as { min: number }).min}.`;
   if (errors['max']) return `At most ${(errors['max'] as { max: number }).max}.`;
   if (errors['order']) return 'The range’s end must be above its start.';
+  if (errors['searched'])
+    return `At most ${MAX_SEARCHED_REALISATIONS} when the surface is searched in every realisation.`;
   return 'Check this value.';
 }
 
@@ -109,7 +113,7 @@ export class StudyForm {
       nonNullable: true,
     }),
     realisations: new FormControl<number | null>(null, int(10, MAX_REALISATIONS)),
-    seed: new FormControl<number | null>(null, int(0, 2 ** 31 - 1)),
+    seed: new FormControl<number | null>(null, int(0, 4_294_967_295)),
     surface: new FormControl<'critical' | 'search'>('critical', { nonNullable: true }),
     case: new FormControl<string>('', { nonNullable: true }),
     target: new FormControl<string>('', { nonNullable: true }),
@@ -150,6 +154,13 @@ export class StudyForm {
         if (fs.dirty) return;
         const c = this.cases().find((x) => (x.name ?? '') === name) ?? this.cases()[0];
         fs.setValue(c?.requiredFs ?? null);
+      }),
+      // The realisations follow the surface (the section's own, or the default) until typed.
+      this.form.controls.surface.valueChanges.subscribe((surface) => {
+        const n = this.form.controls.realisations;
+        if (n.dirty) return;
+        const own = this.section().probability;
+        n.setValue(own?.surface === surface ? own.realisations : DEFAULT_REALISATIONS[surface]);
       }),
       // The range follows the target until it is typed.
       this.form.controls.target.valueChanges.subscribe((t) => {
@@ -203,7 +214,16 @@ export class StudyForm {
       c.updateValueAndValidity({ emitEvent: false });
       c.markAsTouched();
     }
-    const { from, to } = this.form.controls;
+    const { from, to, realisations, surface } = this.form.controls;
+    const n = realisations.value;
+    if (
+      kind === 'probability' &&
+      surface.value === 'search' &&
+      n !== null &&
+      n > MAX_SEARCHED_REALISATIONS
+    ) {
+      realisations.setErrors({ ...(realisations.errors ?? {}), searched: true });
+    }
     if (kind === 'solve' && from.value !== null && to.value !== null && to.value <= from.value) {
       to.setErrors({ order: true });
     }
