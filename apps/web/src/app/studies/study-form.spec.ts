@@ -118,10 +118,46 @@ describe('StudyForm', () => {
     expect(q('mat-error')?.textContent).toContain('At least 10');
   });
 
-  it('solves for the first input, at the required FS of the governing case, within a range about it', async () => {
+  it('solves for the first input within a range about it: the governing case’s required FS, or the case’s picked', async () => {
     await open();
     await pickKind('solve');
     // the first input of the first material that is not rigid: the shell's unit weight (19)
+    await submit();
+    const first = backend.expectOne(ASK);
+    // the governing case: the API takes its required FS
+    expect(first.request.body).toEqual({
+      kind: 'solve',
+      target: 'materials.shell.unitWeight',
+      range: [9.5, 28.5],
+    });
+    first.flush(aStudy({ kind: 'solve' }), { status: 202, statusText: 'Accepted' });
+
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    const caseSelect = await loader.getHarness(
+      MatSelectHarness.with({ selector: '[data-testid="study-case"]' }),
+    );
+    await caseSelect.open();
+    await caseSelect.clickOptions({ text: 'design flood, steady seepage' });
+    await fixture.whenStable();
+    expect(byId<HTMLInputElement>('study-target-fs')!.value).toBe('1.3');
+    await submit();
+    const second = backend.expectOne(ASK);
+    expect(second.request.body).toEqual({
+      kind: 'solve',
+      target: 'materials.shell.unitWeight',
+      case: 'design flood, steady seepage',
+      targetFs: 1.3,
+      range: [9.5, 28.5],
+    });
+    second.flush(aStudy({ kind: 'solve' }), { status: 202, statusText: 'Accepted' });
+  });
+
+  it('solves a section of one case at its required FS', async () => {
+    const one = sectionWithVariables();
+    delete one.cases;
+    await open(one);
+    await pickKind('solve');
+    expect(el().querySelector('[data-testid="study-case"]')).toBeNull();
     await submit();
     const req = backend.expectOne(ASK);
     expect(req.request.body).toEqual({

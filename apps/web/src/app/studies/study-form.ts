@@ -152,7 +152,8 @@ export class StudyForm {
       this.form.controls.case.valueChanges.subscribe((name) => {
         const fs = this.form.controls.targetFs;
         if (fs.dirty) return;
-        const c = this.cases().find((x) => (x.name ?? '') === name) ?? this.cases()[0];
+        const cases = this.cases();
+        const c = cases.length === 1 ? cases[0] : cases.find((x) => x.name === name);
         fs.setValue(c?.requiredFs ?? null);
       }),
       // The realisations follow the surface (the section's own, or the default) until typed.

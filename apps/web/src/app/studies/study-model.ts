@@ -148,7 +148,9 @@ export function initialValue(s: Section): StudyFormValue {
   const p = s.probability;
   const surface = p?.surface ?? 'critical';
   const first = targetChoices(s)[0];
-  const c = caseChoices(s)[0];
+  const cases = caseChoices(s);
+  // one case: its required FS; several: the governing one's, which the API fills in
+  const requiredFs = cases.length === 1 ? cases[0].requiredFs : null;
   const [from, to] = defaultRange(first?.value ?? 0);
   return {
     kind: p ? 'probability' : 'solve',
@@ -158,7 +160,7 @@ export function initialValue(s: Section): StudyFormValue {
     surface,
     case: '',
     target: first?.target ?? '',
-    targetFs: c.requiredFs,
+    targetFs: requiredFs,
     from,
     to,
   };
