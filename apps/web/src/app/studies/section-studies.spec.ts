@@ -31,6 +31,7 @@ describe('SectionStudies', () => {
 
   afterEach(() => {
     vi.useRealTimers();
+    vi.restoreAllMocks();
     fixture?.destroy();
     verifyAndReset(backend);
   });
@@ -66,6 +67,20 @@ describe('SectionStudies', () => {
     expect(drawing.querySelector('svg')).not.toBeNull();
     expect(drawing.querySelectorAll('svg .bar')).toHaveLength(3);
     expect(byId('study-result')!.textContent).toContain(CAUTION);
+    // saved as the SVG drawn
+    const saved: string[] = [];
+    vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(function (
+      this: HTMLAnchorElement,
+    ) {
+      saved.push(this.download);
+    });
+    const created = vi.spyOn(URL, 'createObjectURL').mockImplementation(() => 'blob:svg');
+    vi.spyOn(URL, 'revokeObjectURL').mockImplementation(() => undefined);
+    byId('save-study-drawing')!.click();
+    expect(saved).toEqual(['study-41-distribution-long_term.svg']);
+    const blob = created.mock.calls[0][0] as Blob;
+    expect(blob.type).toBe('image/svg+xml');
+    expect(await blob.text()).toContain('<svg');
     // a viewer sees results, never the form
     expect(byId('study-form')).toBeNull();
   });

@@ -1,7 +1,10 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { DomSanitizer, type SafeHtml } from '@angular/platform-browser';
 import { drawProbability, drawSensitivity, drawTornado } from '@scarpline/core/draw';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
 import { Caution } from '../shared/caution';
+import { saveFile } from '../shared/download';
 import { fsText, plain } from '../sections/format';
 import { methodName } from '../shared/method-names';
 import { betaText, pText } from './probability-format';
@@ -15,7 +18,7 @@ import type { Study } from './study-types';
  */
 @Component({
   selector: 'sl-study-result',
-  imports: [Caution],
+  imports: [Caution, MatButtonModule, MatIconModule],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './study-result.html',
   styleUrl: './study-result.scss',
@@ -63,38 +66,54 @@ export class StudyResult {
   }
 
   /** The core's drawings of the drawn case (histogram and CDF; or tornado and one at a time). */
-  protected readonly drawings = computed((): { label: string; html: SafeHtml }[] => {
-    const name = this.drawnCase();
-    const title = this.study().result === null ? '' : this.titleOf();
-    const svg = (text: string) => this.sanitizer.bypassSecurityTrustHtml(text);
-    const p = this.probability();
-    if (p) {
-      const c = p.probability.cases.find((x) => x.case === name);
-      if (!c) return [];
-      return [
-        {
-          label: `Distribution of FS of the case ${c.case}: histogram and cumulative distribution`,
-          html: svg(drawProbability(c, { title: `${title} · ${c.case}` })),
-        },
-      ];
-    }
-    const s = this.sensitivity();
-    if (s) {
-      const c = s.cases.find((x) => x.case === name);
-      if (!c || c.series.length === 0) return [];
-      return [
-        {
-          label: `Range of FS by variable, case ${c.case}`,
-          html: svg(drawTornado(c, { title: `${title} · ${c.case}` })),
-        },
-        {
-          label: `FS as each variable moves through its range, case ${c.case}`,
-          html: svg(drawSensitivity(c, { title: `${title} · ${c.case}` })),
-        },
-      ];
-    }
-    return [];
-  });
+  protected readonly drawings = computed(
+    (): { label: string; file: string; text: string; html: SafeHtml }[] => {
+      const name = this.drawnCase();
+      const title = this.study().result === null ? '' : this.titleOf();
+      const safe = (t: string) => t.replace(/[^A-Za-z0-9._-]+/g, '_');
+      const drawing = (label: string, what: string, text: string) => ({
+        label,
+        file: `study-${this.study().id}-${what}-${safe(name ?? '')}.svg`,
+        text,
+        html: this.sanitizer.bypassSecurityTrustHtml(text),
+      });
+      const p = this.probability();
+      if (p) {
+        const c = p.probability.cases.find((x) => x.case === name);
+        if (!c) return [];
+        return [
+          drawing(
+            `Distribution of FS of the case ${c.case}: histogram and cumulative distribution`,
+            'distribution',
+            drawProbability(c, { title: `${title} · ${c.case}` }),
+          ),
+        ];
+      }
+      const s = this.sensitivity();
+      if (s) {
+        const c = s.cases.find((x) => x.case === name);
+        if (!c || c.series.length === 0) return [];
+        return [
+          drawing(
+            `Range of FS by variable, case ${c.case}`,
+            'tornado',
+            drawTornado(c, { title: `${title} · ${c.case}` }),
+          ),
+          drawing(
+            `FS as each variable moves through its range, case ${c.case}`,
+            'one-at-a-time',
+            drawSensitivity(c, { title: `${title} · ${c.case}` }),
+          ),
+        ];
+      }
+      return [];
+    },
+  );
+
+  /** Saves a drawing as the SVG file it is. */
+  protected save(d: { file: string; text: string }): void {
+    saveFile(new Blob([d.text], { type: 'image/svg+xml' }), d.file);
+  }
 
   private titleOf(): string {
     const r = this.study().result;
