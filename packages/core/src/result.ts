@@ -12,6 +12,8 @@ export type {
   ReinforcementReport,
   RequiredReinforcementReport,
 } from './reinforcement/types';
+/** The results of a probabilistic analysis, a sensitivity and a solve (types: no solver comes). */
+export type * from './probability/types';
 
 export { howFoundWords } from './search-words';
 export { limitWords } from './reinforcement/limit-words';

@@ -347,6 +347,65 @@ describe('BatchDetail', () => {
     expect(el.querySelector('[data-testid=case-chart]')).toBeNull();
     expect(el.querySelector('[data-testid=case-counts]')).toBeNull();
     expect(el.querySelector('#chart-title')?.textContent?.trim()).toBe('FS along the chainage');
+    // no station carries a probability: no chart of it
+    expect(el.querySelector('[data-testid=pf-chart]')).toBeNull();
+    fixture.destroy();
+  });
+
+  it('draws P(FS < 1) along the chainage when the stations carry a probability', async () => {
+    const fixture = TestBed.createComponent(BatchDetail);
+    fixture.componentRef.setInput('id', '5');
+    await fixture.whenStable();
+    backend.expectOne('/api/v1/batches/5').flush(batch('done', progress(3, 0, 3)));
+    await fixture.whenStable();
+    const items: SectionListItem[] = [500, 520, 540].map((station, i) => ({
+      id: i + 1,
+      key: `wcb@${station}`,
+      station,
+      stationLabel: `0+${station}`,
+      title: `Wendle flood bank ${station}`,
+      units: 'si',
+      status: 'done',
+      run: 1,
+      failReason: null,
+      reviewState: 'pending',
+      geometry: null,
+      result: {
+        verdict: 'meets',
+        governingMethod: 'spencer',
+        governingFs: 1.6,
+        requiredFs: 1.5,
+        warnings: [],
+      },
+      // the middle station's file has no probability block
+      probability:
+        i === 1
+          ? null
+          : [
+              {
+                case: 'long term',
+                realisations: 10000,
+                valid: 10000,
+                meanFs: 1.6,
+                sdFs: 0.2,
+                pFailure: { p: 0.002 * (i + 1), standardError: 0.0004 },
+                pBelowRequired: { p: 0.3, standardError: 0.0046 },
+                betaNormal: 3,
+                betaLognormal: 3.3,
+              },
+            ],
+    }));
+    for (const r of backend.match((req) => req.url === '/api/v1/batches/5/sections')) {
+      r.flush({ page: 1, pageSize: 500, total: 3, items, caution: 'c' });
+    }
+    flushData();
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    expect(el.querySelector('[data-testid=pf-title]')?.textContent?.trim()).toBe(
+      'Probability of failure along the chainage',
+    );
+    const points = Array.from(el.querySelectorAll('[data-testid=pf-point]'));
+    expect(points.map((p) => p.getAttribute('data-station'))).toEqual(['500', '540']);
     fixture.destroy();
   });
 

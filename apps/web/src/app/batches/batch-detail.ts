@@ -44,6 +44,7 @@ import type {
 import { BatchesApi, type ExportKind } from './batches-api';
 import { CaseCharts } from './case-charts';
 import { ChainageChart } from './chainage-chart';
+import { ProbabilityChart } from './probability-chart';
 import { batchCases } from './design-cases';
 import { keepLast, nothingYet } from './keep-last';
 import { PlanView } from './plan-view';
@@ -85,6 +86,7 @@ function save(blob: Blob, fileName: string): void {
     PageState,
     CaseCharts,
     ChainageChart,
+    ProbabilityChart,
     PlanView,
     SectionTable,
     ReviewPanel,
@@ -266,6 +268,11 @@ export class BatchDetail {
 
   protected followAgain(): void {
     this.liveRetry.update((n) => n + 1);
+  }
+
+  /** Whether any station carries a probability of failure (its chart is drawn then). */
+  protected hasProbability(items: readonly SectionListItem[]): boolean {
+    return items.some((s) => (s.probability?.length ?? 0) > 0);
   }
 
   protected openSection(id: number): void {

@@ -7,6 +7,7 @@ import type { CaseKind, Warning } from '@scarpline/core/result';
 import type { JobState, Verdict } from '@scarpline/core/verdict';
 import type { UserRef } from '../core/models';
 import type { ReviewState, ReviewSummary } from '../reviews/review-types';
+import type { ProbabilitySummary } from '../studies/study-types';
 import type { Units } from './scales';
 
 export type BatchStatus = 'running' | 'done';
@@ -122,6 +123,11 @@ export interface SectionListItem {
   reviewState: ReviewState;
   geometry?: Geometry | null;
   result: SectionListResult | null;
+  /**
+   * The probability of failure of each case, when the section (or its corridor's template)
+   * has a probability block on the critical surface; absent from an API before it.
+   */
+  probability?: ProbabilitySummary[] | null;
 }
 
 export interface SectionPage {

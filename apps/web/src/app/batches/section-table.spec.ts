@@ -356,3 +356,82 @@ describe('SectionTable of a batch with design cases', () => {
     ).toEqual([3, 2, 1, 4]);
   });
 });
+
+describe('SectionTable with a probability of failure', () => {
+  let fixture: ComponentFixture<SectionTable>;
+  let backend: HttpTestingController;
+  let el: HTMLElement;
+
+  const pf = (name: string, p: number, betaNormal: number | null) => ({
+    case: name,
+    realisations: 10_000,
+    valid: 10_000,
+    meanFs: 1.4,
+    sdFs: 0.15,
+    pFailure: { p, standardError: Math.sqrt((p * (1 - p)) / 10_000) },
+    pBelowRequired: null,
+    betaNormal,
+    betaLognormal: betaNormal === null ? null : betaNormal + 0.25,
+  });
+  /** Station 1+020 with P_f of two of its cases (the earthquake's the greater); the others none. */
+  const STATIONS: SectionListItem[] = CASE_STATIONS.map((s) =>
+    s.id === 2
+      ? {
+          ...s,
+          probability: [pf('long term', 0.0016, 2.95), pf('earthquake', 0.0213, 2.03)],
+        }
+      : s,
+  );
+
+  async function open(all: SectionListItem[]) {
+    TestBed.configureTestingModule({ providers: apiTestProviders() });
+    backend = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(SectionTable);
+    fixture.componentRef.setInput('batchId', 7);
+    fixture.componentRef.setInput('all', all);
+    fixture.componentRef.setInput('cases', batchCases(caseFields(), all));
+    await fixture.whenStable();
+    el = fixture.nativeElement as HTMLElement;
+    backend.expectOne((r) => r.url === '/api/v1/batches/7/sections').flush(pageOf(all));
+    await fixture.whenStable();
+  }
+
+  afterEach(() => {
+    backend.verify();
+    TestBed.resetTestingModule();
+  });
+
+  const rows = () => Array.from(el.querySelectorAll('[data-testid=section-row]'));
+  const text = (e: Element | null | undefined) => e?.textContent?.replace(/\s+/g, ' ').trim();
+
+  it('adds P(FS < 1) and β columns: the case of the greatest P_f in the row, each case when opened', async () => {
+    await open(STATIONS);
+    const heads = Array.from(el.querySelectorAll('th')).map(text);
+    expect(heads).toContain('P(FS < 1), greatest');
+    expect(heads).toContain('β (normal / lognormal)');
+    expect(text(rows()[1].querySelector('[data-testid=row-pf]'))).toBe('0.0213 earthquake');
+    expect(text(rows()[1].querySelector('[data-testid=row-beta]'))).toBe('2.03 / 2.28');
+    expect(text(rows()[0].querySelector('[data-testid=row-pf]'))).toBe('—');
+
+    (rows()[1].querySelector('[data-testid=expand-cases]') as HTMLButtonElement).click();
+    await fixture.whenStable();
+    const table = el.querySelector('[data-testid=case-rows]')!;
+    const lines = Array.from(table.querySelectorAll(':scope > tbody > tr')).map((r) =>
+      Array.from(r.children)
+        .slice(-2)
+        .map((c) => text(c)),
+    );
+    expect(lines).toEqual([
+      ['—', '—'],
+      ['0.00160 ± 0.000400', '2.95 / 3.20'],
+      ['0.0213 ± 0.00144', '2.03 / 2.28'],
+    ]);
+  });
+
+  it('has no such columns when no station carries a probability', async () => {
+    await open(CASE_STATIONS);
+    const heads = Array.from(el.querySelectorAll('th')).map(text);
+    expect(heads.some((h) => h?.includes('P(FS'))).toBe(false);
+    expect(el.querySelector('[data-testid=row-pf]')).toBeNull();
+  });
+});

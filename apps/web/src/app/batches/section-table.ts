@@ -22,6 +22,8 @@ import type {
   SectionSort,
   SectionStatus,
 } from './batch-types';
+import { betaText, probabilityText, worstCase } from '../studies/probability-format';
+import type { ProbabilitySummary } from '../studies/study-types';
 import { BatchesApi } from './batches-api';
 import { keepLast, nothingYet } from './keep-last';
 import { caseKindWords } from '../shared/case-kinds';
@@ -143,9 +145,16 @@ export class SectionTable {
   readonly cases = input<readonly BatchCase[]>([]);
 
   protected readonly manyCases = computed(() => this.cases().length > 1);
-  protected readonly columns = computed(() =>
-    this.manyCases() ? CASES_COLUMNS : ONE_CASE_COLUMNS,
+  /** Whether any station carries a probability of failure: its columns are shown then. */
+  protected readonly withProbability = computed(() =>
+    [...(this.all() ?? []), ...this.view().rows].some((s) => (s.probability?.length ?? 0) > 0),
   );
+  protected readonly columns = computed(() => {
+    const base = this.manyCases() ? CASES_COLUMNS : ONE_CASE_COLUMNS;
+    if (!this.withProbability()) return base;
+    const at = base.indexOf('verdict') + 1;
+    return [...base.slice(0, at), 'pf', 'beta', ...base.slice(at)];
+  });
   protected readonly statuses: readonly SectionStatus[] = JOB_STATES;
   protected jobWord(state: SectionStatus): string {
     return JOB_STATE_WORDS[state];
@@ -241,6 +250,14 @@ export class SectionTable {
   });
 
   protected readonly fs = formatFs;
+  protected readonly probabilityText = probabilityText;
+  protected readonly betaText = betaText;
+  /** The station's case of the greatest P(FS < 1), shown in its row. */
+  protected readonly worst = (s: SectionListItem) => worstCase(s.probability);
+  /** A case's probability summary, in the station's opened case rows. */
+  protected probabilityOf(s: SectionListItem, caseName: string): ProbabilitySummary | null {
+    return s.probability?.find((p) => p.case === caseName) ?? null;
+  }
   protected readonly ratio = formatRatio;
   protected readonly kindWords = caseKindWords;
   protected readonly method = methodName;

@@ -142,6 +142,7 @@ describe('SectionDetail', () => {
     for (const r of backend.match('/api/v1/sections/7/runs')) {
       r.flush({ sectionId: 7, key: 'wcb-main@1000', run: 1, runs: [], caution: 'c' });
     }
+    for (const r of backend.match('/api/v1/sections/7/studies')) r.flush([]);
     await fixture.whenStable();
   }
 
@@ -155,6 +156,9 @@ describe('SectionDetail', () => {
     expect(q('section-fs')?.textContent).toContain('1.5');
     expect(q('section-verdict')?.textContent?.trim()).toContain('below the required FS');
     expect(el().querySelector('sl-caution')?.textContent).toContain('Caution.');
+    // the studies of the section: read for every role, the form only for those who may ask
+    expect(q('section-studies')?.textContent).toContain('No study has been made');
+    expect(q('study-form')).toBeNull();
     expect(q('batch-back-link')?.getAttribute('href')).toBe('/batches/3');
     expect(q('batch-back-link')?.textContent).toContain('wcb-main');
     expect(q('method-table')).not.toBeNull();

@@ -48,6 +48,7 @@ import { SectionInputView } from './section-input';
 import type { CaseView, RunResult, SectionView } from './section-types';
 import { SectionsApi } from './sections-api';
 import { SliceTable } from './slice-table';
+import { SectionStudies } from '../studies/section-studies';
 import { WarningList } from './warning-list';
 import { JOB_STATE_WORDS } from '@scarpline/core/verdict';
 import { howFoundWords } from '@scarpline/core/result';
@@ -89,6 +90,7 @@ function keepShown<T>(prev: Loaded<T>, next: Loaded<T>): Loaded<T> {
     RerunForm,
     RunHistory,
     ReviewPanel,
+    SectionStudies,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './section-detail.html',

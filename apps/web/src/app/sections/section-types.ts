@@ -6,6 +6,7 @@
  */
 import type { Message } from '@scarpline/core/input';
 import type { Section } from '@scarpline/core/model';
+import type { ProbabilitySummary } from '../studies/study-types';
 import type {
   CaseKind,
   DrawdownReport,
@@ -142,6 +143,11 @@ export interface SectionView {
   result: RunResult | null;
   previous: RunResult[];
   review: ReviewSummary;
+  /**
+   * The run's probability of failure by case, when the section has a probability block on the
+   * critical surface (the section job computes it); absent from an API before it.
+   */
+  probability?: ProbabilitySummary[] | null;
   caution: string;
 }
 
