@@ -1,4 +1,5 @@
 import { parse } from 'yaml';
+import { parseCrs } from '@scarpline/core';
 import { readAlignment, type Projection } from './alignment';
 import {
   cutCorridor,
@@ -214,10 +215,6 @@ export async function runTerrainJob(
     return r;
   };
   const ground = await raster(job.terrain, 'terrain');
-  const alignment = readAlignment(await text(job.alignment, 'alignment'), job.alignment, {
-    ...(job.start !== undefined ? { start: job.start } : {}),
-    ...(options.project ? { project: options.project } : {}),
-  });
   let header: unknown = job.template;
   if (typeof job.template === 'string') {
     try {
@@ -251,6 +248,33 @@ export async function runTerrainJob(
       code: 'sections',
       message: 'the sections are cut from the terrain: give none here',
     });
+  // The corridor's projected system: the settings' crs, else the raster's own EPSG code when it
+  // is of the core's built-in set (and in metres, for a corridor in si units). An alignment in longitude and latitude is projected to it, and
+  // the cut corridor names it, its positions projected, so its results.geojson is in WGS 84.
+  const named = typeof header.crs === 'string' ? header.crs : null;
+  const own = ground.epsg !== null ? parseCrs(`EPSG:${ground.epsg}`) : null;
+  const parsedCrs =
+    named !== null
+      ? parseCrs(named)
+      : // the raster's own system only where its unit is the corridor's (metres for si)
+        own?.crs && own.crs.metresPerUnit === 1 && header.units === 'si'
+        ? own
+        : null;
+  if (named !== null && parsedCrs?.problem)
+    throw fail({
+      file: headerFile,
+      path: typeof job.template === 'string' ? 'crs' : 'template.crs',
+      code: parsedCrs.problem.code,
+      message: parsedCrs.problem.message,
+    });
+  const crs = parsedCrs?.crs ?? null;
+  const project =
+    options.project ?? (crs ? (lon: number, lat: number) => crs.toProjected(lon, lat) : undefined);
+  const alignment = readAlignment(await text(job.alignment, 'alignment'), job.alignment, {
+    ...(job.start !== undefined ? { start: job.start } : {}),
+    ...(project ? { project } : {}),
+  });
+  if (crs) header = { ...header, crs: crs.name, coordinates: 'projected' };
   let strata: [{ material: string }, ...StratumTop[]] | undefined;
   if (job.strata) {
     const [first, ...rest] = job.strata;

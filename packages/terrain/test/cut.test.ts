@@ -1,13 +1,15 @@
-import { parseGeoJsonCorridor } from '@scarpline/core';
+import { parseCrs, parseGeoJsonCorridor } from '@scarpline/core';
 import {
   Alignment,
   corridorText,
   cutCorridor,
   readAlignment,
   readRaster,
+  runTerrainJob,
   sample,
   TerrainError,
   type BatchHeader,
+  type TerrainJob,
   type Raster,
   type TerrainCorridor,
 } from '../src';
@@ -416,5 +418,57 @@ describe('the cut corridor reads as a batch', () => {
     expect(first.ground.map(([, y]) => y)).toEqual(
       corridor.features[0].geometry.coordinates.map(([, , z]) => expect.closeTo(z, 6) as number),
     );
+  });
+});
+
+describe('an alignment in longitude and latitude (RFC 7946)', () => {
+  // The raster is in EPSG:32630 (WGS 84 / UTM zone 30N). The same alignment given in projected
+  // coordinates and in WGS 84 degrees (converted with the core's crs) must give the same cut:
+  // the projection round trip is within a millimetre (packages/core/test/crs checks proj4).
+  const plane = (x: number, y: number) => 100 + 0.05 * (x - X0) - 0.02 * (y - Y0);
+  const projected = [
+    [X0 + 200, Y0 + 400],
+    [X0 + 800, Y0 + 400],
+  ];
+  const { crs } = parseCrs('EPSG:32630');
+  const lonLat = projected.map(([x, y]) => crs!.toLonLat(x, y));
+  const job = (alignment: string): TerrainJob => ({
+    terrain: 'dem.tif',
+    alignment,
+    start: 0,
+    stations: { every: 100 },
+    left: 40,
+    right: 40,
+    spacing: 2,
+    template: header,
+  });
+  const files: Record<string, Uint8Array> = {
+    'dem.tif': writeTiff(GRID, plane),
+    'xy.geojson': Buffer.from(line(projected)),
+    'll.geojson': Buffer.from(line(lonLat)),
+  };
+  const read = (name: string) => Promise.resolve(files[name] ?? null);
+
+  it('is projected to the raster’s system and cut as its projected twin', async () => {
+    const a = await runTerrainJob(job('xy.geojson'), 'xy.terrain.yaml', read);
+    const b = await runTerrainJob(job('ll.geojson'), 'll.terrain.yaml', read);
+    expect(b.corridor.features).toHaveLength(7);
+    const pa = samples(a.corridor);
+    const pb = samples(b.corridor);
+    expect(pb).toHaveLength(pa.length);
+    pa.forEach((p, i) => p.forEach((v, k) => expect(Math.abs(pb[i][k] - v)).toBeLessThan(1e-3)));
+  });
+
+  it('names the system in the cut corridor, its positions projected, so its results map in WGS 84', async () => {
+    const { corridor } = await runTerrainJob(job('ll.geojson'), 'll.terrain.yaml', read);
+    expect(corridor.scarpline).toMatchObject({ crs: 'EPSG:32630', coordinates: 'projected' });
+    const parsed = parseGeoJsonCorridor(corridorText(corridor), 'cut.geojson');
+    expect(parsed.messages.filter((m) => m.severity === 'error')).toEqual([]);
+    expect(parsed.sections).toHaveLength(7);
+  });
+
+  it('a crs of the settings that cannot be read is located at it', async () => {
+    const bad = { ...job('ll.geojson'), template: { ...header, crs: 'EPSG:4326' } };
+    await expect(runTerrainJob(bad, 'll.terrain.yaml', read)).rejects.toThrow(/4326/);
   });
 });
