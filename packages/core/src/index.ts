@@ -149,6 +149,7 @@ export type {
   CaseKind,
   CaseResult,
   StationResult,
+  StationProbability,
   SeismicReport,
   DisplacementEstimate,
   DrawdownReport,
@@ -165,3 +166,8 @@ export * from './export';
 
 // --- probability of failure, sensitivity, solving for a value (issue 19)
 export * from './probability';
+export {
+  stationProbability,
+  probabilitySummary,
+  runsStationProbability,
+} from './station-probability';

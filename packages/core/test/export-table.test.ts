@@ -20,6 +20,7 @@ import {
   JOB_STATE_WORDS,
   JOB_STATES,
   parseSections,
+  stationProbability,
   stationRecord,
   stationRecords,
   unanalysedRecord,
@@ -143,6 +144,10 @@ describe('the results table', () => {
         verdict: c.verdict,
         required_force: null,
         required_layers: null,
+        pf: null,
+        pf_se: null,
+        beta_normal: null,
+        beta_lognormal: null,
         warnings: expect.any(Number),
         note: null,
         caution: CAUTION,
@@ -192,6 +197,39 @@ describe('the results table', () => {
       `${r.id}#earthquake`,
       r.id,
     ]);
+  });
+
+  test('a section that asks for its probability of failure on the critical surface: each case row its P_f, its standard error and β, the station row its governing case’s; none without', () => {
+    const file = 'levee-probability.yaml';
+    const text = readFileSync(join(__dirname, '../../../examples', file), 'utf8');
+    const read = parseSections(text, file).sections[0];
+    const section = { ...read, probability: { ...read.probability!, realisations: 500 } };
+    const p = stationProbability(section)!;
+    const result = { ...analyzeSection(section), probability: p.summary };
+    const [caseRow, stationRow] = stationRecords(result);
+    const c = p.result.cases[0];
+    expect(c.realisations).toBe(500);
+    expect(caseRow).toMatchObject({
+      pf: Number(c.pFailure.p.toFixed(6)),
+      pf_se: Number(c.pFailure.standardError.toFixed(6)),
+      beta_normal: Number(c.betaNormal.beta!.toFixed(3)),
+      beta_lognormal: Number(c.betaLognormal.beta!.toFixed(3)),
+    });
+    // the standard error of a counted probability, √(P(1 − P)/N)
+    expect(c.pFailure.standardError).toBeCloseTo(
+      Math.sqrt((c.pFailure.p * (1 - c.pFailure.p)) / c.valid),
+      12,
+    );
+    expect(stationRow.pf).toBe(caseRow.pf);
+    for (const row of [caseRow, stationRow]) expect(validateRow(row)).toBe(true);
+    // searching again in each realisation is left to a study of its own: no columns in a corridor
+    expect(
+      stationProbability({
+        ...section,
+        probability: { ...section.probability, surface: 'search' },
+      }),
+    ).toBeNull();
+    expect(stationRecords(analyzeSection(section))[0].pf).toBeNull();
   });
 
   test('a case below its requirement that asks for the required reinforcement: its force (or layers), or why none', () => {
@@ -248,7 +286,7 @@ describe('the results table', () => {
     });
     expect(validateRow(bad)).toBe(true);
     expect(exportCsvRow(bad)).toBe(
-      `,,wcb@sections[2],station,,,,,,,input-error,,,,"ground[2]: x = 15 does not increase, ""from"" the point before",${CAUTION}\r\n`,
+      `,,wcb@sections[2],station,,,,,,,input-error,,,,,,,,"ground[2]: x = 15 does not increase, ""from"" the point before",${CAUTION}\r\n`,
     );
   });
 
