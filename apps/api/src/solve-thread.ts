@@ -7,7 +7,8 @@
  *
  * The section may come as its JSON text (as the database gives it) and the result goes back
  * as the few fields the worker looks at plus the JSON text of the columns it writes (the
- * station's summary and a row per design case): turning
+ * station's summary, its probability of failure where the section asks for it on the critical
+ * surface, and a row per design case): turning
  * objects into text and back is done here, beside the analysis, and not on the worker's main
  * thread, which only passes the text on to the database.
  */
@@ -17,8 +18,10 @@ import {
   AnalysisStopped,
   analyzeSection,
   caseOf,
+  stationProbability,
   stationUnsolvedReason,
   type Section,
+  type StationProbability,
 } from '@scarpline/core';
 import type { CaseResult, StationResult } from '@scarpline/core/result';
 import type { SolvedCase, SolvedSection, ThreadAnswer, ThreadJob } from './solver';
@@ -61,7 +64,11 @@ function solvedCase(c: CaseResult): SolvedCase {
  * governing case — the first when none governs — with that case's method, FS, requirement and
  * ratio), its own warnings, and every case.
  */
-function solved(result: StationResult, input: unknown): SolvedSection {
+function solved(
+  result: StationResult,
+  input: unknown,
+  probability: StationProbability[] | null,
+): SolvedSection {
   const shown = caseOf(result);
   return {
     verdict: result.verdict,
@@ -73,7 +80,7 @@ function solved(result: StationResult, input: unknown): SolvedSection {
     solverVersion: result.solverVersion,
     caution: result.caution,
     inputHash: inputHash(input),
-    json: { warnings: JSON.stringify(result.warnings) },
+    json: { warnings: JSON.stringify(result.warnings), probability: text(probability) },
     cases: result.cases.map(solvedCase),
   };
 }
@@ -82,8 +89,11 @@ port.on('message', ({ section, deadline }: ThreadJob) => {
   let answer: ThreadAnswer;
   try {
     const input: unknown = typeof section === 'string' ? JSON.parse(section) : section;
-    const result = analyzeSection(input as Section, { shouldStop: () => Date.now() > deadline });
-    answer = { kind: 'result', result: solved(result, input) };
+    const options = { shouldStop: () => Date.now() > deadline };
+    const result = analyzeSection(input as Section, options);
+    // where the section asks for it: each case's probability of failure on its critical surface
+    const probability = stationProbability(input as Section, options);
+    answer = { kind: 'result', result: solved(result, input, probability?.summary ?? null) };
   } catch (e) {
     answer =
       e instanceof AnalysisStopped
