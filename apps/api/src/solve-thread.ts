@@ -18,6 +18,7 @@ import {
   AnalysisStopped,
   analyzeSection,
   caseOf,
+  ProbabilityInputError,
   stationProbability,
   stationUnsolvedReason,
   type Section,
@@ -85,6 +86,20 @@ function solved(
   };
 }
 
+/** The station's probability of failure, or null where its variables do not fit its cases. */
+function probabilityOf(
+  section: Section,
+  options: { shouldStop: () => boolean },
+  result: StationResult,
+) {
+  try {
+    return stationProbability(section, options, result);
+  } catch (e) {
+    if (e instanceof ProbabilityInputError) return null;
+    throw e;
+  }
+}
+
 port.on('message', ({ section, deadline }: ThreadJob) => {
   let answer: ThreadAnswer;
   try {
@@ -92,7 +107,8 @@ port.on('message', ({ section, deadline }: ThreadJob) => {
     const options = { shouldStop: () => Date.now() > deadline };
     const result = analyzeSection(input as Section, options);
     // where the section asks for it: each case's probability of failure on its critical surface
-    const probability = stationProbability(input as Section, options);
+    // (a variable a case cannot take leaves the station without it, not without its result)
+    const probability = probabilityOf(input as Section, options, result);
     answer = { kind: 'result', result: solved(result, input, probability?.summary ?? null) };
   } catch (e) {
     answer =

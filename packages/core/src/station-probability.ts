@@ -7,10 +7,13 @@
  * study of its own (the service's studies, `scarpline probability --search`): too long for a
  * corridor's run.
  */
+import { type Critical, caseModels } from './probability/case-fs';
+import { meanOf } from './probability/distributions';
 import { analyzeProbability } from './probability/probability';
-import type { CaseProbability, ProbabilityResult } from './probability/types';
+import { parseTarget, targetValue } from './probability/target';
+import type { CaseProbability, ProbabilityResult, ProbabilitySpec } from './probability/types';
 import type { Section } from './model/types';
-import type { StationProbability } from './result';
+import type { StationProbability, StationResult } from './result';
 import type { AnalyzeOptions } from './work-limit';
 
 /**
@@ -38,17 +41,53 @@ export function runsStationProbability(section: Section): boolean {
 }
 
 /**
+ * The critical surfaces at the variables' means taken from the station's deterministic result,
+ * where that result is the analysis at the means: every variable's mean is exactly the value
+ * the section has (in every case), and the result is in SI (a section in SI). Undefined
+ * otherwise: the run searches at the means itself.
+ */
+function criticalsFrom(
+  section: Section,
+  spec: ProbabilitySpec,
+  result: StationResult,
+): Record<string, Critical> | undefined {
+  if (section.units !== 'si' || result.units !== 'si') return undefined;
+  const out: Record<string, Critical> = {};
+  for (const model of caseModels(section)) {
+    for (const v of spec.variables) {
+      const t = parseTarget(v.target);
+      const now = t.ok ? targetValue(model.section, t.target) : null;
+      if (!now?.ok || now.value !== meanOf(v.distribution)) return undefined;
+    }
+    const c = result.cases.find((x) => x.name === model.name);
+    if (!c) return undefined;
+    const g = c.governing;
+    const report = g ? c.results.find((m) => m.method === g.method && m.converged) : undefined;
+    out[model.name] = g
+      ? { fs: g.fs, method: g.method, surface: report?.surface ?? null }
+      : { fs: null, method: null, surface: null };
+  }
+  return out;
+}
+
+/**
  * The station's probability of failure by case (null where the section does not ask for one on
- * the critical surface), with the full result beside it. Throws what analyzeProbability throws
- * (ProbabilityInputError, AnalysisStopped at the work bound or the caller's stop).
+ * the critical surface), with the full result beside it. Given the station's deterministic
+ * result (analyzeSection's), its critical surfaces are reused where they are those at the
+ * means (criticalsFrom), which spares a search per case and gives the same numbers. Throws
+ * what analyzeProbability throws (ProbabilityInputError, AnalysisStopped at the work bound or
+ * the caller's stop).
  *
- * @example stationProbability(section)?.summary[0].pFailure.p // → 0.012
+ * @example stationProbability(section, {}, analyzeSection(section))?.summary[0].pFailure.p // → 0.012
  */
 export function stationProbability(
   section: Section,
   options: AnalyzeOptions = {},
+  deterministic?: StationResult,
 ): { summary: StationProbability[]; result: ProbabilityResult } | null {
   if (!section.probability || !runsStationProbability(section)) return null;
-  const result = analyzeProbability(section, section.probability, options);
+  const spec = section.probability;
+  const criticals = deterministic ? criticalsFrom(section, spec, deterministic) : undefined;
+  const result = analyzeProbability(section, spec, { ...options, criticals });
   return { summary: result.cases.map(probabilitySummary), result };
 }

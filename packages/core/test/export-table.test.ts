@@ -205,7 +205,10 @@ describe('the results table', () => {
     const read = parseSections(text, file).sections[0];
     const section = { ...read, probability: { ...read.probability!, realisations: 500 } };
     const p = stationProbability(section)!;
-    const result = { ...analyzeSection(section), probability: p.summary };
+    const analysed = analyzeSection(section);
+    const result = { ...analysed, probability: p.summary };
+    // the deterministic result's critical surface, reused, gives the numbers of a run that searches at the means
+    expect(stationProbability(section, {}, analysed)).toEqual(p);
     const [caseRow, stationRow] = stationRecords(result);
     const c = p.result.cases[0];
     expect(c.realisations).toBe(500);
@@ -222,6 +225,26 @@ describe('the results table', () => {
     );
     expect(stationRow.pf).toBe(caseRow.pf);
     for (const row of [caseRow, stationRow]) expect(validateRow(row)).toBe(true);
+    // the same with the corridor's design cases (its long-term and seismic cases)
+    const probability = section.probability;
+    const corridor = { ...corridorSections(1)[0] };
+    corridor.probability = {
+      ...probability,
+      realisations: 200,
+      variables: [
+        {
+          name: 'φ′',
+          target: 'materials.weathered-mudstone.frictionAngle',
+          distribution: { kind: 'normal', mean: 26, sd: 2 },
+        },
+      ],
+      correlations: [],
+    };
+    const cased = analyzeSection(corridor);
+    expect(cased.cases.length).toBe(2);
+    const both = stationProbability(corridor, {}, cased)!;
+    expect(both.summary.map((x) => x.case)).toEqual(cased.cases.map((x) => x.name));
+    expect(both).toEqual(stationProbability(corridor));
     // searching again in each realisation is left to a study of its own: no columns in a corridor
     expect(
       stationProbability({

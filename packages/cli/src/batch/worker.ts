@@ -11,6 +11,7 @@ import {
   analyzeSection,
   caseView,
   drawSection,
+  ProbabilityInputError,
   sliceSheet,
   sectionOfCase,
   stationInUnits,
@@ -24,7 +25,13 @@ parentPort?.on('message', (task: Task) => {
   try {
     const analysed = analyzeSection(task.section);
     // the probability of failure on each case's critical surface, where the section asks for it
-    const probability = stationProbability(task.section);
+    // (as the service's section job: a variable a case cannot take leaves the station without it)
+    let probability: ReturnType<typeof stationProbability> = null;
+    try {
+      probability = stationProbability(task.section, {}, analysed);
+    } catch (e) {
+      if (!(e instanceof ProbabilityInputError)) throw e;
+    }
     const result = probability ? { ...analysed, probability: probability.summary } : analysed;
     // the drawing of the governing case, as that case sees the section
     const governing = result.governing?.case;
