@@ -42,6 +42,20 @@ export interface Config {
   reportQueue: number;
   reportTimeoutMs: number;
   reportMemoryMb: number;
+  /**
+   * The study pool that computes section studies in a worker (a probabilistic analysis, a
+   * sensitivity, a solve, a chunk of realisations): threads, most waiting, time limit per job
+   * in milliseconds (the thread is ended there and the study fails), memory of a thread in MB;
+   * the most realisations a study may ask for (on the critical surface, and searching again in
+   * each), and the realisations of a chunk a worker takes at once when each searches again.
+   */
+  studyThreads: number;
+  studyQueue: number;
+  studyTimeoutMs: number;
+  studyMemoryMb: number;
+  studyRealisations: number;
+  studySearchRealisations: number;
+  studyChunk: number;
   /** Sign-in attempts per address, and failed ones per account, per window. */
   loginLimit: number;
   loginAccountLimit: number;
@@ -214,6 +228,13 @@ function read(): Config {
     reportQueue: num('REPORT_QUEUE', 8),
     reportTimeoutMs: num('REPORT_TIMEOUT_MS', 300_000),
     reportMemoryMb: num('REPORT_MEMORY_MB', 2048),
+    studyThreads: num('STUDY_THREADS', 1),
+    studyQueue: num('STUDY_QUEUE', 8),
+    studyTimeoutMs: num('STUDY_TIMEOUT_MS', 600_000),
+    studyMemoryMb: num('STUDY_MEMORY_MB', 2048),
+    studyRealisations: num('STUDY_REALISATIONS', 100_000),
+    studySearchRealisations: num('STUDY_SEARCH_REALISATIONS', 5000),
+    studyChunk: Math.max(1, Math.floor(num('STUDY_CHUNK', 50))),
     loginLimit: num('LOGIN_LIMIT', 10),
     loginAccountLimit: num('LOGIN_ACCOUNT_LIMIT', 10),
     loginWindowMs: num('LOGIN_WINDOW_MS', 15 * 60 * 1000),

@@ -12,6 +12,7 @@ import * as eighth from './migrations/0008-case-results';
 import * as ninth from './migrations/0009-required-reinforcement';
 import * as tenth from './migrations/0010-stored-files';
 import * as eleventh from './migrations/0011-reports';
+import * as twelfth from './migrations/0012-studies';
 
 export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
   return new Umzug({
@@ -27,6 +28,7 @@ export function migrator(sequelize: Sequelize): Umzug<QueryInterface> {
       { name: '0009-required-reinforcement', up: ninth.up, down: ninth.down },
       { name: '0010-stored-files', up: tenth.up, down: tenth.down },
       { name: '0011-reports', up: eleventh.up, down: eleventh.down },
+      { name: '0012-studies', up: twelfth.up, down: twelfth.down },
     ],
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),

@@ -12,12 +12,19 @@ export const SECTION_QUEUE = 'section-analysis';
 export const DEAD_QUEUE = 'section-analysis-dead';
 /** Corridor reports to lay out (one job a report; services/reports.ts). */
 export const REPORT_QUEUE = 'corridor-report';
+/** Section studies to compute: a whole study, a chunk of its realisations, or its chunks combined (services/studies.ts). */
+export const STUDY_QUEUE = 'section-study';
 /** The channel a submission notifies (at its commit) that new section jobs wait. */
 const NEW_JOBS_CHANNEL = 'scarpline_section_jobs';
 
 export interface ReportJob {
   reportId: number;
 }
+
+export type StudyJob =
+  | { studyId: number; step: 'run' }
+  | { studyId: number; step: 'chunk'; position: number }
+  | { studyId: number; step: 'combine' };
 
 export interface SectionJob {
   sectionId: number;
@@ -36,6 +43,11 @@ export function expireSeconds(): number {
 /** How long a report job may stay active before the queue takes it back: its limit, and time to store it. */
 export function reportExpireSeconds(): number {
   return Math.ceil(config.reportTimeoutMs / 1000 + 60);
+}
+
+/** How long a study job may stay active before the queue takes it back: its limit, and time to write it. */
+export function studyExpireSeconds(): number {
+  return Math.ceil(config.studyTimeoutMs / 1000 + 60);
 }
 
 let boss: PgBoss | null = null;
@@ -69,6 +81,15 @@ async function start(): Promise<PgBoss> {
           name: REPORT_QUEUE,
           retryLimit: 1,
           expireInSeconds: reportExpireSeconds(),
+        });
+      }
+      if (!(await b.getQueue(STUDY_QUEUE))) {
+        // A study's step runs in a thread ended at STUDY_TIMEOUT_MS: a job still active well
+        // after that was left by a worker that died, and goes to another once.
+        await b.createQueue(STUDY_QUEUE, {
+          name: STUDY_QUEUE,
+          retryLimit: 1,
+          expireInSeconds: studyExpireSeconds(),
         });
       }
       if (!(await b.getQueue(SECTION_QUEUE))) {
@@ -189,6 +210,25 @@ export async function enqueueReport(job: ReportJob, transaction: Transaction): P
     [{ name: REPORT_QUEUE, data: job, retryLimit: 1, expireInSeconds: reportExpireSeconds() }],
     { db },
   );
+}
+
+/**
+ * Enqueues study jobs: inside the caller's transaction (with the rows they concern) when one is
+ * given, else at once.
+ */
+export async function enqueueStudies(jobs: StudyJob[], transaction?: Transaction): Promise<void> {
+  if (jobs.length === 0) return;
+  const b = await queue();
+  const inserts = jobs.map((data) => ({
+    name: STUDY_QUEUE,
+    data,
+    retryLimit: 1,
+    expireInSeconds: studyExpireSeconds(),
+  }));
+  if (!transaction) return b.insert(inserts);
+  const client = (transaction as Transaction & { connection: pg.ClientBase }).connection;
+  const db = { executeSql: (text: string, values: unknown[]) => client.query(text, values) };
+  await b.insert(inserts, { db });
 }
 
 /**

@@ -7,7 +7,8 @@
  *
  * The section may come as its JSON text (as the database gives it) and the result goes back
  * as the few fields the worker looks at plus the JSON text of the columns it writes (the
- * station's summary and a row per design case): turning
+ * station's summary, its probability of failure where the section asks for it on the critical
+ * surface, and a row per design case): turning
  * objects into text and back is done here, beside the analysis, and not on the worker's main
  * thread, which only passes the text on to the database.
  */
@@ -17,8 +18,11 @@ import {
   AnalysisStopped,
   analyzeSection,
   caseOf,
+  ProbabilityInputError,
+  stationProbability,
   stationUnsolvedReason,
   type Section,
+  type StationProbability,
 } from '@scarpline/core';
 import type { CaseResult, StationResult } from '@scarpline/core/result';
 import type { SolvedCase, SolvedSection, ThreadAnswer, ThreadJob } from './solver';
@@ -61,7 +65,11 @@ function solvedCase(c: CaseResult): SolvedCase {
  * governing case — the first when none governs — with that case's method, FS, requirement and
  * ratio), its own warnings, and every case.
  */
-function solved(result: StationResult, input: unknown): SolvedSection {
+function solved(
+  result: StationResult,
+  input: unknown,
+  probability: StationProbability[] | null,
+): SolvedSection {
   const shown = caseOf(result);
   return {
     verdict: result.verdict,
@@ -73,17 +81,35 @@ function solved(result: StationResult, input: unknown): SolvedSection {
     solverVersion: result.solverVersion,
     caution: result.caution,
     inputHash: inputHash(input),
-    json: { warnings: JSON.stringify(result.warnings) },
+    json: { warnings: JSON.stringify(result.warnings), probability: text(probability) },
     cases: result.cases.map(solvedCase),
   };
+}
+
+/** The station's probability of failure, or null where its variables do not fit its cases. */
+function probabilityOf(
+  section: Section,
+  options: { shouldStop: () => boolean },
+  result: StationResult,
+) {
+  try {
+    return stationProbability(section, options, result);
+  } catch (e) {
+    if (e instanceof ProbabilityInputError) return null;
+    throw e;
+  }
 }
 
 port.on('message', ({ section, deadline }: ThreadJob) => {
   let answer: ThreadAnswer;
   try {
     const input: unknown = typeof section === 'string' ? JSON.parse(section) : section;
-    const result = analyzeSection(input as Section, { shouldStop: () => Date.now() > deadline });
-    answer = { kind: 'result', result: solved(result, input) };
+    const options = { shouldStop: () => Date.now() > deadline };
+    const result = analyzeSection(input as Section, options);
+    // where the section asks for it: each case's probability of failure on its critical surface
+    // (a variable a case cannot take leaves the station without it, not without its result)
+    const probability = probabilityOf(input as Section, options, result);
+    answer = { kind: 'result', result: solved(result, input, probability?.summary ?? null) };
   } catch (e) {
     answer =
       e instanceof AnalysisStopped

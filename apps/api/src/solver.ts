@@ -37,8 +37,8 @@ export interface SolvedSection {
   caution: string;
   /** sha256 of the input's JSON, stored with the result. */
   inputHash: string;
-  /** The station's own warnings. */
-  json: { warnings: string };
+  /** The station's own warnings; each case's probability of failure (StationProbability[]) or null. */
+  json: { warnings: string; probability: string | null };
   /** Every case, in the order the section lists them. */
   cases: SolvedCase[];
 }

@@ -25,15 +25,19 @@ import {
   DEAD_QUEUE,
   REPORT_QUEUE,
   SECTION_QUEUE,
+  STUDY_QUEUE,
   onNewJobs,
   onQueueStop,
   queue,
   restartJobClock,
   type ReportJob,
   type SectionJob,
+  type StudyJob,
 } from './queue';
 import { closeReports } from './reports/pool';
 import { runCorridorReport } from './services/reports';
+import { runStudyJob } from './services/studies';
+import { closeStudies } from './studies/pool';
 import {
   closeBatches,
   endSections,
@@ -394,10 +398,27 @@ export async function startWorker(): Promise<RunningWorker> {
     await settle('complete the report job', () => boss.complete(REPORT_QUEUE, job.id), signal);
   };
 
+  /** Computes a step of a section study (on a study thread: the analysis goes on meanwhile). */
+  const study = async (job: PgBoss.JobWithMetadata<StudyJob>) => {
+    try {
+      await runStudyJob(job.data);
+    } catch (e) {
+      if (signal.aborted) return;
+      jobsTotal.inc({ queue: STUDY_QUEUE, outcome: 'error' });
+      const message = (e as Error).message;
+      log.warn({ err: e, studyId: job.data.studyId }, `study step not done: ${message}`);
+      await settle('fail the study job', () => boss.fail(STUDY_QUEUE, job.id, { message }), signal);
+      return;
+    }
+    jobsTotal.inc({ queue: STUDY_QUEUE, outcome: 'done' });
+    await settle('complete the study job', () => boss.complete(STUDY_QUEUE, job.id), signal);
+  };
+
   const loops = Promise.all([
     sections(),
     consume(boss, DEAD_QUEUE, 1000, signal, dead),
     consume(boss, REPORT_QUEUE, 1000, signal, report),
+    consume(boss, STUDY_QUEUE, 250, signal, study),
   ]);
   log.info(
     { worker: heartbeat.id, timeLimitSeconds: config.jobTimeout, fetch: config.workerFetch },
@@ -410,6 +431,7 @@ export async function startWorker(): Promise<RunningWorker> {
       stopping.abort();
       await solver.close();
       await closeReports();
+      await closeStudies();
       await loops;
       await stopListening();
       await heartbeat.stop();

@@ -39,3 +39,24 @@ test('API batch bench (apps/api/bench/batch-300.js)', () => {
     /^ {2}worker processes' resident memory after the batch: \d+ MB, \d+ MB$/m,
   );
 }, 120_000);
+
+test('API probability bench (apps/api/bench/probability-300.js)', () => {
+  const env: NodeJS.ProcessEnv = { ...process.env, BENCH_SMOKE: '1', BENCH_TIMEOUT_S: '90' };
+  delete env.DATABASE_URL;
+  delete env.NODE_ENV;
+  const r = spawnSync(process.execPath, [path.join(ROOT, 'apps/api/bench/probability-300.js')], {
+    cwd: ROOT,
+    encoding: 'utf8',
+    env,
+  });
+  expect(r.stderr).not.toMatch(/Error|exited early/);
+  expect(r.status).toBe(0);
+  expect(r.stdout).toMatch(/^smoke run \(BENCH_SMOKE=1\)/m);
+  expect(r.stdout).toMatch(
+    /^ {2}run 1: 4 stations \(4 done, 0 failed; 4 with P_f\) in \d+\.\d s$/m,
+  );
+  expect(r.stdout).toMatch(
+    /^probability-300: 4 stations × 50 realisations on the critical surface, 2 worker processes, 1 runs$/m,
+  );
+  expect(r.stdout).toMatch(/^ {2}ratio service \/ core throughput: \d+\.\d\d$/m);
+}, 120_000);

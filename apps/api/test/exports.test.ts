@@ -128,6 +128,10 @@ test('CSV: the core’s results table, per station a row per case then the stati
     'verdict',
     'required_force',
     'required_layers',
+    'pf',
+    'pf_se',
+    'beta_normal',
+    'beta_lognormal',
     'warnings',
     'note',
     'caution',
@@ -156,6 +160,10 @@ test('CSV: the core’s results table, per station a row per case then the stati
       verdict,
       '', // required_force: no station here asks for it
       '', // required_layers
+      '', // pf, pf_se, beta_normal, beta_lognormal: no probability block here
+      '',
+      '',
+      '',
       expect.stringMatching(/^\d+$/),
       '',
       CAUTION,
@@ -203,6 +211,10 @@ test('GeoJSON from JSON input: features with null geometry and the results table
     verdict: c.verdict,
     required_force: null,
     required_layers: null,
+    pf: null,
+    pf_se: null,
+    beta_normal: null,
+    beta_lognormal: null,
     warnings: expect.any(Number),
     note: null,
     caution: CAUTION,
@@ -406,13 +418,27 @@ test('sections without a result: no verdict while queued, no-fs with the reason 
     '',
     '', // required_force
     '', // required_layers
+    '', // pf, pf_se, beta_normal, beta_lognormal
+    '',
+    '',
+    '',
     '',
     '',
     CAUTION,
     'pending',
     'queued',
   ]);
-  expect(failed.slice(10, 15)).toEqual(['no-fs', '', '', '', 'the job ran out of time or retries']);
+  expect(failed.slice(10, 19)).toEqual([
+    'no-fs',
+    '',
+    '',
+    '',
+    '',
+    '',
+    '',
+    '',
+    'the job ran out of time or retries',
+  ]);
   expect(failed.slice(-1)).toEqual(['failed']);
   const geo = await request(app)
     .get(`/api/v1/batches/${b.id}/results.geojson`)

@@ -6,6 +6,7 @@ import { parse } from 'csv-parse/sync';
 import { XMLValidator } from 'fast-xml-parser';
 import Ajv2020 from 'ajv/dist/2020';
 import { resultSchema } from '@scarpline/schemas';
+import { parseSections, stationProbability } from '@scarpline/core';
 import { FIXTURES, MAIN, ROOT, run } from './run';
 import { readXlsx, shown } from './xlsx-cells';
 
@@ -96,6 +97,10 @@ describe('scarpline batch', () => {
       'verdict',
       'required_force',
       'required_layers',
+      'pf',
+      'pf_se',
+      'beta_normal',
+      'beta_lognormal',
       'warnings',
       'note',
       'caution',
@@ -280,4 +285,51 @@ describe('scarpline batch', () => {
     );
     expect(csv.filter((x) => x.row === 'station')).toHaveLength(doc.written);
   }, 20000);
+});
+
+test('a corridor whose template asks for the probability of failure on the critical surface: results.csv and results.json carry each station’s P_f, as the core computes it', () => {
+  const dir = tmp();
+  const text = readFileSync(join(FIXTURES, 'small-corridor.yaml'), 'utf8').replace(
+    'sections:\n',
+    [
+      '  probability:',
+      '    seed: 3',
+      '    realisations: 300',
+      '    variables:',
+      '      - { name: c′ till, target: materials.till.cohesion, distribution: lognormal, mean: 6, cov: 0.3 }',
+      '      - { name: φ′ till, target: materials.till.frictionAngle, distribution: normal, mean: 29, sd: 2 }',
+      'sections:',
+      '',
+    ].join('\n'),
+  );
+  const file = join(dir, 'probable.yaml');
+  writeFileSync(file, text);
+  const r = run(['batch', file, '--out', join(dir, 'out'), '--jobs', '2']);
+  expect(r.code).toBe(1); // the station that does not read
+  const rows = parse<Record<string, string>>(
+    readFileSync(join(dir, 'out', 'results.csv'), 'utf8'),
+    {
+      columns: true,
+    },
+  );
+  const sections = parseSections(text, 'probable.yaml').sections;
+  const analysed = rows.filter((x) => x.verdict !== 'input-error');
+  expect(analysed.length).toBe(6);
+  for (const row of analysed) {
+    const s = sections.find((x) => x.id === row.section_id)!;
+    const p = stationProbability(s)!.summary[0];
+    expect(p.realisations).toBe(300);
+    expect(Number(row.pf)).toBeCloseTo(p.pFailure.p, 6);
+    expect(Number(row.pf_se)).toBeCloseTo(p.pFailure.standardError, 6);
+    expect(Number(row.beta_normal)).toBeCloseTo(p.betaNormal!, 3);
+    expect(Number(row.beta_lognormal)).toBeCloseTo(p.betaLognormal!, 3);
+  }
+  expect(rows.find((x) => x.verdict === 'input-error')!.pf).toBe('');
+  const doc = JSON.parse(readFileSync(join(dir, 'out', 'results.json'), 'utf8')) as {
+    sections: { probability: unknown[] }[];
+  };
+  for (const s of doc.sections) {
+    expect(validate(s)).toBe(true);
+    expect(s.probability).toHaveLength(1);
+  }
 });

@@ -149,6 +149,7 @@ export type {
   CaseKind,
   CaseResult,
   StationResult,
+  StationProbability,
   SeismicReport,
   DisplacementEstimate,
   DrawdownReport,
@@ -180,3 +181,8 @@ export {
   type ProjectedLine,
   type Wgs84Geometry,
 } from './geo/wgs84-geometry';
+export {
+  stationProbability,
+  probabilitySummary,
+  runsStationProbability,
+} from './station-probability';

@@ -56,3 +56,8 @@ export {
 export { taylorSeries } from './probability/taylor';
 export { sensitivity } from './probability/sensitivity';
 export { solveForValue, type SolveRequest, type SolveOptions } from './probability/solve-value';
+export {
+  normaliseProbability,
+  DEFAULT_REALISATIONS,
+  type RawProbability,
+} from './probability/normalise-probability';

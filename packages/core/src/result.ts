@@ -108,6 +108,30 @@ export interface SectionResult {
   search: SearchReport | null;
   solverVersion: string;
   caution: string;
+  /**
+   * The probability of failure of each case on its critical surface, where the section asks
+   * for it (a `probability` block with surface `critical`; station-probability.ts); absent or
+   * null otherwise.
+   */
+  probability?: StationProbability[] | null;
+}
+
+/**
+ * The summary of one case's probabilistic analysis a corridor's station carries (the CSV's
+ * pf, pf_se, beta_normal and beta_lognormal; the full result is the core's CaseProbability).
+ */
+export interface StationProbability {
+  case: string;
+  realisations: number;
+  valid: number;
+  meanFs: number | null;
+  sdFs: number | null;
+  /** P(FS < 1) counted, with its standard error. */
+  pFailure: { p: number; standardError: number };
+  /** P(FS < required FS) counted (null without a requirement). */
+  pBelowRequired: { p: number; standardError: number } | null;
+  betaNormal: number | null;
+  betaLognormal: number | null;
 }
 
 /** A grid of circle centres, in the section's units: x and y ranges and the number of centres along each. */

@@ -20,6 +20,7 @@ import {
   JOB_STATE_WORDS,
   JOB_STATES,
   parseSections,
+  stationProbability,
   stationRecord,
   stationRecords,
   unanalysedRecord,
@@ -143,6 +144,10 @@ describe('the results table', () => {
         verdict: c.verdict,
         required_force: null,
         required_layers: null,
+        pf: null,
+        pf_se: null,
+        beta_normal: null,
+        beta_lognormal: null,
         warnings: expect.any(Number),
         note: null,
         caution: CAUTION,
@@ -192,6 +197,62 @@ describe('the results table', () => {
       `${r.id}#earthquake`,
       r.id,
     ]);
+  });
+
+  test('a section that asks for its probability of failure on the critical surface: each case row its P_f, its standard error and β, the station row its governing case’s; none without', () => {
+    const file = 'levee-probability.yaml';
+    const text = readFileSync(join(__dirname, '../../../examples', file), 'utf8');
+    const read = parseSections(text, file).sections[0];
+    const section = { ...read, probability: { ...read.probability!, realisations: 500 } };
+    const p = stationProbability(section)!;
+    const analysed = analyzeSection(section);
+    const result = { ...analysed, probability: p.summary };
+    // the deterministic result's critical surface, reused, gives the numbers of a run that searches at the means
+    expect(stationProbability(section, {}, analysed)).toEqual(p);
+    const [caseRow, stationRow] = stationRecords(result);
+    const c = p.result.cases[0];
+    expect(c.realisations).toBe(500);
+    expect(caseRow).toMatchObject({
+      pf: Number(c.pFailure.p.toFixed(6)),
+      pf_se: Number(c.pFailure.standardError.toFixed(6)),
+      beta_normal: Number(c.betaNormal.beta!.toFixed(3)),
+      beta_lognormal: Number(c.betaLognormal.beta!.toFixed(3)),
+    });
+    // the standard error of a counted probability, √(P(1 − P)/N)
+    expect(c.pFailure.standardError).toBeCloseTo(
+      Math.sqrt((c.pFailure.p * (1 - c.pFailure.p)) / c.valid),
+      12,
+    );
+    expect(stationRow.pf).toBe(caseRow.pf);
+    for (const row of [caseRow, stationRow]) expect(validateRow(row)).toBe(true);
+    // the same with the corridor's design cases (its long-term and seismic cases)
+    const probability = section.probability;
+    const corridor = { ...corridorSections(1)[0] };
+    corridor.probability = {
+      ...probability,
+      realisations: 200,
+      variables: [
+        {
+          name: 'φ′',
+          target: 'materials.weathered-mudstone.frictionAngle',
+          distribution: { kind: 'normal', mean: 26, sd: 2 },
+        },
+      ],
+      correlations: [],
+    };
+    const cased = analyzeSection(corridor);
+    expect(cased.cases.length).toBe(2);
+    const both = stationProbability(corridor, {}, cased)!;
+    expect(both.summary.map((x) => x.case)).toEqual(cased.cases.map((x) => x.name));
+    expect(both).toEqual(stationProbability(corridor));
+    // searching again in each realisation is left to a study of its own: no columns in a corridor
+    expect(
+      stationProbability({
+        ...section,
+        probability: { ...section.probability, surface: 'search' },
+      }),
+    ).toBeNull();
+    expect(stationRecords(analyzeSection(section))[0].pf).toBeNull();
   });
 
   test('a case below its requirement that asks for the required reinforcement: its force (or layers), or why none', () => {
@@ -248,7 +309,7 @@ describe('the results table', () => {
     });
     expect(validateRow(bad)).toBe(true);
     expect(exportCsvRow(bad)).toBe(
-      `,,wcb@sections[2],station,,,,,,,input-error,,,,"ground[2]: x = 15 does not increase, ""from"" the point before",${CAUTION}\r\n`,
+      `,,wcb@sections[2],station,,,,,,,input-error,,,,,,,,"ground[2]: x = 15 does not increase, ""from"" the point before",${CAUTION}\r\n`,
     );
   });
 

@@ -12,6 +12,7 @@ import { ResultRow } from './result';
 import { Review } from './review';
 import { SectionRow } from './section';
 import { StoredFile } from './stored-file';
+import { StudyRow } from './study';
 import { User } from './user';
 
 User.hasMany(ApiToken, { foreignKey: 'userId' });
@@ -37,6 +38,9 @@ ReportRow.belongsTo(Batch, { foreignKey: 'batchId' });
 ReportRow.belongsTo(SectionRow, { foreignKey: 'sectionId' });
 ReportRow.belongsTo(User, { foreignKey: 'requestedBy', as: 'requester' });
 ReportRow.belongsTo(StoredFile, { foreignKey: 'fileId', as: 'file' });
+StudyRow.belongsTo(SectionRow, { foreignKey: 'sectionId' });
+StudyRow.belongsTo(Batch, { foreignKey: 'batchId' });
+StudyRow.belongsTo(User, { foreignKey: 'requestedBy', as: 'requester' });
 
 export { ApiToken } from './api-token';
 export { AuditEntry } from './audit-entry';
@@ -57,5 +61,6 @@ export { ResultRow } from './result';
 export { Review } from './review';
 export { SectionRow, type SectionStatus } from './section';
 export { STORED_FILE_KINDS, StoredFile, type StoredFileKind } from './stored-file';
+export { STUDY_KINDS, STUDY_STATES, StudyRow, type StudyKind, type StudyState } from './study';
 export { ROLES, User, type Role } from './user';
 export { WorkerHeartbeat } from './worker-heartbeat';

@@ -44,6 +44,8 @@ export class ResultRow extends Model<
   declare finishedAt: Date;
   declare durationMs: number;
   declare attempt: number;
+  /** Each case's probability of failure on its critical surface, where the section asks (StationProbability[]). */
+  declare probability: CreationOptional<object[] | null>;
   /** The section input this run was computed from. */
   declare input: CreationOptional<object | null>;
   declare createdAt: CreationOptional<Date>;
@@ -70,6 +72,7 @@ ResultRow.init(
     finishedAt: { type: DataTypes.DATE, allowNull: false },
     durationMs: { type: DataTypes.INTEGER, allowNull: false },
     attempt: { type: DataTypes.INTEGER, allowNull: false },
+    probability: { type: DataTypes.JSONB, allowNull: true },
     input: { type: DataTypes.JSONB, allowNull: true },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,

@@ -18,6 +18,7 @@ import { reviewRequestRoutes } from './review-requests';
 import { reviewRoutes } from './reviews';
 import { runRoutes } from './runs';
 import { sectionRoutes } from './sections';
+import { studyRoutes } from './studies';
 import { terrainRoutes } from './terrain';
 import { tokenRoutes } from './tokens';
 import { userRoutes } from './users';
@@ -42,4 +43,5 @@ export const authenticatedRoutes: readonly Router[] = [
   reviewRequestRoutes,
   exportRoutes,
   reportRoutes,
+  studyRoutes,
 ];

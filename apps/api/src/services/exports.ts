@@ -22,7 +22,12 @@ import {
   sliceSheet,
 } from '@scarpline/core/export';
 import { sectionOfCase, type MethodId, type Section, type UnitSystem } from '@scarpline/core/model';
-import type { MethodReport, RequiredReinforcementReport, Warning } from '@scarpline/core/result';
+import type {
+  MethodReport,
+  RequiredReinforcementReport,
+  StationProbability,
+  Warning,
+} from '@scarpline/core/result';
 import { conflict, invalid, notFound } from '../errors';
 import { API_LIMITS } from '../limits';
 import { Batch, ResultRow, SectionRow, type CaseResultRow } from '../models';
@@ -85,6 +90,7 @@ function recordsOf(
       governing: result.governingCase === null ? null : { case: result.governingCase },
       verdict: result.verdict,
       warnings: result.warnings as Warning[],
+      probability: (result.probability as StationProbability[] | null) ?? null,
     });
   }
   // No result: the job has not finished, or it failed without one (out of time or retries).

@@ -151,6 +151,8 @@ export async function sectionView(p: Principal, id: number) {
     /** The warnings of the input checks about this section's current input. */
     inputWarnings: s.inputWarnings.map(messageView),
     geometry: s.geometry ?? null,
+    /** Each case's probability of failure on its critical surface (current run), where the section asks for it. */
+    probability: current?.probability ?? null,
     result: current
       ? resultView(current, currentCases.get(current.id) ?? [], { search: true })
       : null,
@@ -250,6 +252,8 @@ export async function listSections(batch: Batch, q: SectionQuery) {
         reviewState: reviews.get(s.id)?.decision ?? 'pending',
         // The section line of a GeoJSON corridor feature; null when the input had no coordinates.
         geometry: s.geometry ?? null,
+        // each case's probability of failure on its critical surface, where the section asks
+        probability: r?.probability ?? null,
         result: r
           ? {
               verdict: r.verdict,

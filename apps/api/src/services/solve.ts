@@ -111,7 +111,7 @@ export type SectionEnd = {
 
 const RESULT_COLUMNS = `section_id, run, verdict, governing_case, governing_method, governing_fs,
   required_fs, ratio, warnings, reason, solver_version, input_hash, started_at, finished_at,
-  duration_ms, attempt`;
+  duration_ms, attempt, probability`;
 
 const CASE_COLUMNS = `position, name, kind, verdict, governing_method, governing_fs, required_fs,
   ratio, governs, methods, critical_surface, search, warnings, drawdown, seismic,
@@ -134,7 +134,7 @@ async function writeResults(ends: (SectionEnd & { kind: 'result' })[]): Promise<
     `WITH r AS (
        SELECT * FROM unnest($1::int[], $2::int[], $3::text[], $4::text[], $5::text[], $6::float8[],
          $7::float8[], $8::float8[], $9::jsonb[], $10::text[], $11::text[], $12::text[],
-         $13::timestamptz[], $14::timestamptz[], $15::int[], $16::int[])
+         $13::timestamptz[], $14::timestamptz[], $15::int[], $16::int[], $35::jsonb[])
          AS r(${RESULT_COLUMNS})
      ), c AS (
        SELECT * FROM unnest($17::int[], $18::int[], $19::int[], $20::text[], $21::text[],
@@ -161,7 +161,7 @@ async function writeResults(ends: (SectionEnd & { kind: 'result' })[]): Promise<
          solver_version = EXCLUDED.solver_version, input_hash = EXCLUDED.input_hash,
          started_at = EXCLUDED.started_at, finished_at = EXCLUDED.finished_at,
          duration_ms = EXCLUDED.duration_ms, attempt = EXCLUDED.attempt,
-         input = EXCLUDED.input, updated_at = EXCLUDED.updated_at
+         probability = EXCLUDED.probability, input = EXCLUDED.input, updated_at = EXCLUDED.updated_at
        RETURNING id, section_id, run
      ), cased AS (
        INSERT INTO case_results (result_id, ${CASE_COLUMNS}, created_at, updated_at)
@@ -213,6 +213,7 @@ async function writeResults(ends: (SectionEnd & { kind: 'result' })[]): Promise<
         caseCol((x) => x.c.json.drawdown),
         caseCol((x) => x.c.json.seismic),
         caseCol((x) => x.c.json.requiredReinforcement),
+        col((e) => e.result.json.probability),
       ],
       type: QueryTypes.SELECT,
     },

@@ -1,8 +1,9 @@
 /**
  * A batch worker thread: analyses the sections it is sent with the built core and answers
  * with the result as JSON text (written to results.json by the main thread), its rows of
- * the results table (a row per case, then the station's) and, when asked, its slice sheet, writing the section's drawing itself
- * when asked.
+ * the results table (a row per case, then the station's, with the probability of failure where
+ * the section asks for it on the critical surface) and, when asked, its slice sheet, writing the
+ * section's drawing itself when asked.
  */
 import { writeFileSync } from 'node:fs';
 import { parentPort } from 'node:worker_threads';
@@ -10,9 +11,11 @@ import {
   analyzeSection,
   caseView,
   drawSection,
+  ProbabilityInputError,
   sliceSheet,
   sectionOfCase,
   stationInUnits,
+  stationProbability,
   stationRecords,
 } from '@scarpline/core';
 import type { Reply, Task } from './messages';
@@ -20,7 +23,16 @@ import type { Reply, Task } from './messages';
 parentPort?.on('message', (task: Task) => {
   let reply: Reply;
   try {
-    const result = analyzeSection(task.section);
+    const analysed = analyzeSection(task.section);
+    // the probability of failure on each case's critical surface, where the section asks for it
+    // (as the service's section job: a variable a case cannot take leaves the station without it)
+    let probability: ReturnType<typeof stationProbability> = null;
+    try {
+      probability = stationProbability(task.section, {}, analysed);
+    } catch (e) {
+      if (!(e instanceof ProbabilityInputError)) throw e;
+    }
+    const result = probability ? { ...analysed, probability: probability.summary } : analysed;
     // the drawing of the governing case, as that case sees the section
     const governing = result.governing?.case;
     if (task.svgPath)

@@ -5,7 +5,14 @@
  * the command line and the service write the same names in the same order with the same
  * precision. The contract, column by column, is schemas/export-table.schema.json.
  */
-import type { CaseKind, CaseResult, MethodReport, StationResult, Warning } from '../result';
+import type {
+  CaseKind,
+  CaseResult,
+  MethodReport,
+  StationProbability,
+  StationResult,
+  Warning,
+} from '../result';
 import { CAUTION } from '../caution';
 import { chainageLabel } from '../draw/chainage-label';
 import type { UnitSystem } from '../model/types';
@@ -27,6 +34,10 @@ export const EXPORT_COLUMNS = [
   'verdict',
   'required_force',
   'required_layers',
+  'pf',
+  'pf_se',
+  'beta_normal',
+  'beta_lognormal',
   'warnings',
   'note',
   'caution',
@@ -62,6 +73,15 @@ export interface ExportRecord {
    */
   required_force: number | null;
   required_layers: number | null;
+  /**
+   * Where the section asks for its probability of failure on the critical surface: the case's
+   * P(FS < 1) counted over its realisations and its standard error (to 6 decimals), and β
+   * with FS taken as normal and as lognormal (to 3 decimals); null otherwise.
+   */
+  pf: number | null;
+  pf_se: number | null;
+  beta_normal: number | null;
+  beta_lognormal: number | null;
   /** How many warnings the row's case lists (distinctWarnings; the station's row adds the station's own); null without a result. */
   warnings: number | null;
   /** Why there is no factor of safety, or what is wrong with the input. */
@@ -93,6 +113,8 @@ export interface ExportableStation {
   verdict: Verdict;
   /** The station's own warnings (not those of a case). */
   warnings: readonly Warning[];
+  /** Each case's probability of failure, where the section asks for it (null or absent: none). */
+  probability?: readonly StationProbability[] | null;
 }
 
 /**
@@ -185,6 +207,7 @@ export function caseRecord(s: ExportableStation, c: ExportableCase): ExportRecor
     ratio: c.ratio,
     verdict: c.verdict,
     ...required(c),
+    ...probabilityColumns(s, c.name),
     warnings: distinctWarnings(c).length,
     note: c.verdict === 'no-fs' ? unsolvedReason(c.results) : notReached(c),
     caution: CAUTION,
@@ -200,6 +223,23 @@ function required(
   return {
     required_force: value !== null && r!.kind === 'force' ? Math.round(value * 10) / 10 : null,
     required_layers: value !== null && r!.kind === 'layers' ? value : null,
+  };
+}
+
+const rounded = (v: number | null | undefined, digits: number): number | null =>
+  typeof v === 'number' && Number.isFinite(v) ? Number(v.toFixed(digits)) : null;
+
+/** A case's probability of failure as the four columns give it (null where there is none). */
+function probabilityColumns(
+  s: Pick<ExportableStation, 'probability'>,
+  caseName: string | null,
+): Pick<ExportRecord, 'pf' | 'pf_se' | 'beta_normal' | 'beta_lognormal'> {
+  const p = caseName === null ? undefined : s.probability?.find((x) => x.case === caseName);
+  return {
+    pf: rounded(p?.pFailure.p, 6),
+    pf_se: rounded(p?.pFailure.standardError, 6),
+    beta_normal: rounded(p?.betaNormal, 3),
+    beta_lognormal: rounded(p?.betaLognormal, 3),
   };
 }
 
@@ -233,6 +273,7 @@ export function stationRecord(s: ExportableStation): ExportRecord {
     ratio: c?.ratio ?? null,
     verdict: s.verdict,
     ...required(c),
+    ...probabilityColumns(s, c?.name ?? null),
     warnings: (c ? distinctWarnings(c).length : 0) + s.warnings.length,
     note: note ?? notReached(c),
     caution: CAUTION,
@@ -279,6 +320,7 @@ export function unanalysedRecord(s: {
     verdict: s.verdict,
     required_force: null,
     required_layers: null,
+    ...probabilityColumns({}, null),
     warnings: null,
     note: s.note,
     caution: CAUTION,

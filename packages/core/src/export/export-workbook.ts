@@ -65,6 +65,7 @@ function resultUnit(c: ExportColumn, units: UnitSystem | null): string {
   if (c === 'station') return u ? u.length : "section's length unit";
   if (c === 'required_force') return u ? u.forcePerLength : "section's force per run";
   if (c === 'fs' || c === 'required_fs' || c === 'ratio' || c === 'required_layers') return '–';
+  if (c === 'pf' || c === 'pf_se' || c === 'beta_normal' || c === 'beta_lognormal') return '–';
   if (c === 'warnings') return 'count';
   return '';
 }
