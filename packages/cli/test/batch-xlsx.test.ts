@@ -79,7 +79,7 @@ describe('scarpline batch --slice-sheets', () => {
       expected.forEach((row, i) => expect(rowValues(ws, 4 + i, width)).toEqual(row));
       // the column asked about holds values (a force on the nailed slices, a stress on the rock)
       expect(expected.some((row) => typeof row[names.indexOf(extra)] === 'number')).toBe(true);
-    });
+    }, 30_000); // a child process that solves: seconds on a busy machine
   }
 
   test('--slice-sheets without --out: a plain message, exit 1', () => {
