@@ -399,7 +399,16 @@ export function exportFeature(
   // A line in a named projected system is written in WGS 84 (RFC 7946), its projected
   // positions and their system kept in the properties.
   const mapped = isProjectedLine(options.geometry) ? wgs84Line(options.geometry) : null;
-  const located = mapped ? { crs: mapped.crs, projected_coordinates: mapped.projected } : {};
+  // (x and y to a thousandth of the unit, a millimetre in metres: proj4's round trip leaves noise below it)
+  const thousandth = (v: number) => Math.round(v * 1000) / 1000;
+  const located = mapped
+    ? {
+        crs: mapped.crs,
+        projected_coordinates: mapped.projected.map((p) =>
+          p.map((v, i) => (i < 2 ? thousandth(v) : v)),
+        ),
+      }
+    : {};
   return {
     type: 'Feature',
     id: r.row === 'case' ? `${r.section_id}#${r.case}` : r.section_id,
