@@ -117,7 +117,9 @@ export class ThreadPool {
 
   private spawn(): Slot {
     const worker = new Worker(this.options.script, {
-      workerData: this.options.workerData,
+      // Always an object: the geotiff package's `web-worker` dependency, loaded in a thread
+      // (the terrain cut), reads its own settings from workerData and throws when there is none.
+      workerData: this.options.workerData ?? {},
       resourceLimits: { maxOldGenerationSizeMb: this.options.memoryMb },
     });
     const slot: Slot = { worker, job: null, timer: null, idle: null };

@@ -1,0 +1,141 @@
+/**
+ * A corridor with uncertain strength, as an engineer reads it: the batch page draws each
+ * station's probability of failure along the chainage, the section page shows the run's own
+ * P(FS < 1) and makes a probabilistic study whose numbers are the service's.
+ */
+const { after, before, test } = require('node:test');
+const assert = require('node:assert/strict');
+const fs = require('node:fs');
+const path = require('node:path');
+const { api, eventually, launch, scenario, shot, signIn, tokenOf } = require('./support');
+
+const CORRIDOR = path.resolve(__dirname, '../../../examples/corridor/corridor.json');
+const STATIONS = 6;
+
+/**
+ * The first stations of the demo corridor under its long-term case, the weathered mudstone's
+ * c′ and φ′ uncertain (our own invented spread, correlated as c′ and φ′ commonly are).
+ */
+function corridorWithVariables() {
+  const c = JSON.parse(fs.readFileSync(CORRIDOR, 'utf8'));
+  c.id = 'wcb-uncertain';
+  c.title = 'Wendlecombe bypass, uncertain mudstone strength';
+  c.sections = c.sections.slice(0, STATIONS);
+  c.template.cases = [{ name: 'long term', kind: 'long-term' }];
+  c.template.probability = {
+    method: 'latin-hypercube',
+    seed: 11,
+    realisations: 400,
+    surface: 'critical',
+    variables: [
+      {
+        name: 'c′ mudstone',
+        target: 'materials.weathered-mudstone.cohesion',
+        distribution: 'lognormal',
+        mean: 5,
+        cov: 0.4,
+      },
+      {
+        name: 'φ′ mudstone',
+        target: 'materials.weathered-mudstone.frictionAngle',
+        distribution: 'normal',
+        mean: 26,
+        sd: 3,
+      },
+    ],
+    correlations: [{ between: ['c′ mudstone', 'φ′ mudstone'], coefficient: -0.3 }],
+  };
+  return JSON.stringify(c, null, 2);
+}
+
+/** 0.0125 → "0.0125" as the page writes a probability (three significant figures, 0 as 0). */
+const probabilityText = (p) => (p === 0 ? '0' : p.toPrecision(3));
+
+let browser;
+before(async () => {
+  browser = await launch();
+});
+after(() => browser?.close());
+
+test(
+  'engineer: P(FS < 1) along the chainage, and a probabilistic study of one section',
+  { timeout: 240_000 },
+  async () => {
+    await scenario(browser, 'probability', async ({ page }) => {
+      await signIn(page, 'engineer');
+      const token = await tokenOf(page);
+      const projects = await api(token, '/projects');
+      const list = Array.isArray(projects.body) ? projects.body : projects.body.items;
+      const project = list.find((p) => /Wendlecombe/.test(p.name));
+      assert.ok(project, 'the demo project');
+      const submitted = await api(token, `/projects/${project.id}/batches`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json' },
+        body: corridorWithVariables(),
+      });
+      assert.equal(submitted.status, 201, JSON.stringify(submitted.body));
+      const batchId = submitted.body.id;
+
+      await page.goto(`/batches/${batchId}`);
+      const status = page.getByTestId('batch-status');
+      await eventually(async () => /\bdone\b/i.test(await status.innerText()), {
+        timeout: 150_000,
+        interval: 500,
+        what: 'the batch status to say done',
+      });
+
+      // Each station's P(FS < 1) from the service, and a point of the chart for each.
+      const rows = await api(token, `/batches/${batchId}/sections?pageSize=500`);
+      assert.equal(rows.status, 200);
+      const withP = rows.body.items.filter((s) => Array.isArray(s.probability));
+      assert.equal(withP.length, STATIONS, 'every station carries its probability of failure');
+      const chart = page.getByTestId('pf-chart');
+      await chart.waitFor();
+      const points = chart.getByTestId('pf-point');
+      await eventually(async () => (await points.count()) === STATIONS, {
+        what: `${STATIONS} points of P(FS < 1) along the chainage`,
+      });
+      const first = withP[0];
+      const point = chart.locator(`[data-testid="pf-point"][data-station="${first.station}"]`);
+      const label = await point.getAttribute('aria-label');
+      assert.ok(
+        label.includes(probabilityText(first.probability[0].pFailure.p)),
+        `the point of ${first.station} says its P_f (${label})`,
+      );
+      await shot(page, 'batch-probability');
+
+      // The section: the run's own P(FS < 1), then a study with the section's variables.
+      await page.goto(`/sections/${first.id}`);
+      const card = page.getByTestId('section-studies');
+      await card.waitFor();
+      await card.getByTestId('run-probability-row').first().waitFor();
+      assert.equal(await card.getByTestId('study-variable').count(), 2);
+      await card.getByTestId('ask-study').click();
+      const row = card.getByTestId('study-row').first();
+      await row.waitFor();
+      await eventually(
+        async () => /done/i.test(await row.getByTestId('study-status').innerText()),
+        {
+          timeout: 90_000,
+          interval: 1000,
+          what: 'the probabilistic study to be done',
+        },
+      );
+      const studies = await api(token, `/sections/${first.id}/studies`);
+      const study = (Array.isArray(studies.body) ? studies.body : studies.body.items)[0];
+      assert.equal(study.status, 'done');
+      const expected = study.result.probability.cases[0].pFailure;
+      const result = card.getByTestId('study-result');
+      await result.waitFor();
+      await eventually(
+        async () =>
+          (await result.getByTestId('p-failure').first().innerText()).includes(
+            probabilityText(expected.p),
+          ),
+        { what: `P(FS < 1) ${expected.p} on the page` },
+      );
+      assert.match(await result.innerText(), /qualified geotechnical engineer/);
+      await shot(page, 'section-study');
+    });
+  },
+);
