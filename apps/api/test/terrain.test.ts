@@ -144,7 +144,9 @@ test('a file the job names is missing, a job missing, a viewer: located 422, 400
     path: 'spacing',
     message: 'expected a number above 0',
   });
-  expectProblem(await post(job(), ALL, viewer), 403);
+  // the job alone: the role is refused before the files are read, and a client still writing a
+  // large upload then meets a closed connection (EPIPE) instead of the answer
+  expectProblem(await post(job(), [], viewer), 403);
 });
 
 test('the caps: a raster of more pixels than TERRAIN_PIXELS, an upload above TERRAIN_TOTAL', async () => {
