@@ -116,7 +116,7 @@ test('SIGKILL a worker mid-batch: another finishes it, no section lost or solved
   const batchId: number = post.body.id;
 
   const first = startWorker('worker 1');
-  await until('some sections done and one running', 15000, async () => {
+  await until('some sections done and one running', 30000, async () => {
     const s = await statuses(batchId);
     return (s.done ?? 0) + (s.failed ?? 0) >= 3 && (s.running ?? 0) >= 1;
   });
@@ -134,7 +134,7 @@ test('SIGKILL a worker mid-batch: another finishes it, no section lost or solved
   expect((await statuses(batchId)).queued ?? 0).toBeGreaterThan(0);
 
   startWorker('worker 2');
-  await until('the batch to finish', 30000, async () => {
+  await until('the batch to finish', 60000, async () => {
     const [b] = await m.sequelize.query<{ status: string }>(
       'SELECT status FROM batches WHERE id = $1',
       { bind: [batchId], type: QueryTypes.SELECT },
