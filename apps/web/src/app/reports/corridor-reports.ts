@@ -5,18 +5,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatRadioModule } from '@angular/material/radio';
 import { JOB_STATE_WORDS } from '@scarpline/core/verdict';
-import {
-  catchError,
-  distinctUntilChanged,
-  EMPTY,
-  exhaustMap,
-  forkJoin,
-  of,
-  switchMap,
-  tap,
-  timer,
-  type Observable,
-} from 'rxjs';
+import { catchError, distinctUntilChanged, EMPTY, of, switchMap, tap, type Observable } from 'rxjs';
 import type { Batch } from '../batches/batch-types';
 import { Auth } from '../core/auth';
 import type { Problem } from '../core/models';
@@ -25,6 +14,7 @@ import { userName } from '../core/user-name';
 import { reviewerName } from '../reviews/review-panel';
 import { dateTimeText, WhenPipe } from '../shared/date-time';
 import { saveFile } from '../shared/download';
+import { pollActive } from '../shared/poll-active';
 import type { Appendix, Report } from './report-types';
 import { ReportsApi } from './reports-api';
 
@@ -164,17 +154,8 @@ export class CorridorReports {
       .subscribe((list) => this.reports.set(list.reports));
 
     // While any report is queued or running, read each of them every POLL_MS; stop once none is.
-    toObservable(this.activeIds)
-      .pipe(
-        switchMap((ids) =>
-          ids.length === 0
-            ? EMPTY
-            : timer(POLL_MS, POLL_MS).pipe(
-                exhaustMap(() => forkJoin(ids.map((id) => this.poll(id)))),
-              ),
-        ),
-        takeUntilDestroyed(),
-      )
+    pollActive(this.activeIds, (id) => this.poll(id), POLL_MS)
+      .pipe(takeUntilDestroyed())
       .subscribe((fresh) => this.merge(fresh.filter((r): r is Report => r !== null)));
   }
 

@@ -5,23 +5,13 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { Section } from '@scarpline/core/model';
 import { JOB_STATE_WORDS } from '@scarpline/core/verdict';
-import {
-  catchError,
-  distinctUntilChanged,
-  EMPTY,
-  exhaustMap,
-  forkJoin,
-  of,
-  switchMap,
-  tap,
-  timer,
-  type Observable,
-} from 'rxjs';
+import { catchError, distinctUntilChanged, EMPTY, of, switchMap, tap, type Observable } from 'rxjs';
 import { Auth } from '../core/auth';
 import type { Problem } from '../core/models';
 import { toProblem } from '../core/problem';
 import { userName } from '../core/user-name';
 import { WhenPipe } from '../shared/date-time';
+import { pollActive } from '../shared/poll-active';
 import { StudiesApi } from './studies-api';
 import { StudyForm } from './study-form';
 import { fsText } from '../sections/format';
@@ -124,17 +114,8 @@ export class SectionStudies {
       .subscribe((list) => this.studies.set(list));
 
     // While any study is queued or running, read each of them every POLL_MS; stop once none is.
-    toObservable(this.activeIds)
-      .pipe(
-        switchMap((ids) =>
-          ids.length === 0
-            ? EMPTY
-            : timer(POLL_MS, POLL_MS).pipe(
-                exhaustMap(() => forkJoin(ids.map((id) => this.poll(id)))),
-              ),
-        ),
-        takeUntilDestroyed(),
-      )
+    pollActive(this.activeIds, (id) => this.poll(id), POLL_MS)
+      .pipe(takeUntilDestroyed())
       .subscribe((fresh) => this.merge(fresh.filter((s): s is Study => s !== null)));
   }
 
