@@ -4,8 +4,10 @@
 // right-hand side, centreline at x = 0). The natural ground rises and falls along the line, so
 // the road runs alternately on embankment and in cut. Every station has a long-term and an
 // earthquake case; the embankment stations an end-of-construction case as well.
-// Deterministic: a seeded pseudo-random generator makes the same file every time. Invented
-// demonstration data: not for design.
+// It also writes wendlecombe-uncertain.json: the same sections under the long-term case alone,
+// with the weathered mudstone's strength uncertain, so that each station carries a probability
+// of failure. Deterministic: a seeded pseudo-random generator makes the same files every time.
+// Invented demonstration data: not for design.
 //
 //   node examples/corridor/generate.js
 'use strict';
@@ -227,6 +229,85 @@ function print(v, indent, prefix, trailing) {
   return [`${pad}${prefix}${JSON.stringify(v)}${trailing}`];
 }
 
-const out = path.join(__dirname, 'corridor.json');
-fs.writeFileSync(out, `${print(batch, 0, '', '').join('\n')}\n`);
-console.log(`wrote ${path.relative(process.cwd(), out)}: ${sections.length} sections`);
+/**
+ * The same corridor under its long-term case alone, with the weathered mudstone's c′ and φ′
+ * uncertain (and the fill's φ′ on embankment): every station's probability of failure on its
+ * critical surface (a `probability` block). The spread is our own invented one: c′ lognormal
+ * with a COV of 0.4, φ′ normal with an SD of 3° (2° for the compacted fill), the mudstone's
+ * correlated −0.3 as c′ and φ′ commonly are; the means are the values the corridor analyses.
+ */
+function uncertain(b) {
+  const longTerm = b.template.cases.filter((c) => c.kind === 'long-term');
+  const names = new Set(longTerm.map((c) => c.name));
+  const mudstone = b.template.materials['weathered-mudstone'].strength;
+  const probability = {
+    method: 'latin-hypercube',
+    realisations: 1000,
+    seed: 2860,
+    surface: 'critical',
+    variables: [
+      {
+        name: 'c′ weathered mudstone',
+        target: 'materials.weathered-mudstone.cohesion',
+        distribution: 'lognormal',
+        mean: mudstone.cohesion,
+        cov: 0.4,
+      },
+      {
+        name: 'φ′ weathered mudstone',
+        target: 'materials.weathered-mudstone.frictionAngle',
+        distribution: 'normal',
+        mean: mudstone.frictionAngle,
+        sd: 3,
+      },
+    ],
+    correlations: [
+      { between: ['c′ weathered mudstone', 'φ′ weathered mudstone'], coefficient: -0.3 },
+    ],
+  };
+  // An embankment's own fill (made from the cuttings) is uncertain too; the section's block
+  // replaces the template's, so it repeats the mudstone's variables beside the fill's φ′.
+  const withFill = (fill) => ({
+    ...probability,
+    variables: [
+      ...probability.variables,
+      {
+        name: 'φ′ fill',
+        target: 'materials.fill.frictionAngle',
+        distribution: 'normal',
+        mean: fill.strength.frictionAngle,
+        sd: 2,
+      },
+    ],
+  });
+  return {
+    format: b.format,
+    id: 'wcb-uncertain',
+    title: 'Wendlecombe bypass, main line, uncertain strength',
+    description:
+      "Invented demonstration corridor (not for design): the main line's sections under the long-term case alone, with the weathered mudstone's c′ and φ′ (and the fill's φ′ on embankment) as random variables, so that each station carries its probability of failure on its critical surface (1 000 Latin hypercube realisations, seed 2860).",
+    units: b.units,
+    template: {
+      ...b.template,
+      cases: longTerm,
+      probability,
+    },
+    sections: b.sections.map(({ cases, ...s }) => {
+      const kept = (cases ?? []).filter((c) => names.has(c.name));
+      return {
+        ...s,
+        ...(kept.length ? { cases: kept } : {}),
+        ...(s.materials?.fill ? { probability: withFill(s.materials.fill) } : {}),
+      };
+    }),
+  };
+}
+
+for (const [file, b] of [
+  ['corridor.json', batch],
+  ['wendlecombe-uncertain.json', uncertain(batch)],
+]) {
+  const out = path.join(__dirname, file);
+  fs.writeFileSync(out, `${print(b, 0, '', '').join('\n')}\n`);
+  console.log(`wrote ${path.relative(process.cwd(), out)}: ${b.sections.length} sections`);
+}

@@ -56,11 +56,18 @@ async function main(): Promise<void> {
     log.info({ port }, `mail: local SMTP fake on 127.0.0.1:${port} (GET /api/v1/mail as admin)`);
   }
   if (process.argv.includes('--seed')) {
-    const corridor = path.resolve(__dirname, '../../../examples/corridor/corridor.json');
-    const terrain = path.resolve(__dirname, '../../../examples/terrain/wendlecombe.terrain.yaml');
-    const { created } = await seedDemo(corridor, terrain);
+    const examples = path.resolve(__dirname, '../../../examples');
+    const { submitted } = await seedDemo({
+      corridors: [
+        path.join(examples, 'corridor/corridor.json'),
+        path.join(examples, 'corridor/wendlecombe-uncertain.json'),
+      ],
+      terrainJob: path.join(examples, 'terrain/wendlecombe.terrain.yaml'),
+    });
     log.info(
-      created ? 'seed: demo corridor and its terrain cut submitted' : 'seed: demo data present',
+      submitted.length
+        ? `seed: demo batches submitted: ${submitted.join(', ')}`
+        : 'seed: demo data present',
     );
   }
   const stopWatch = startStallWatch();

@@ -171,13 +171,17 @@ test('the caps: a raster of more pixels than TERRAIN_PIXELS, an upload above TER
   }
 });
 
-test('the demo seed cuts the Wendlecombe terrain beside the demo corridor', async () => {
+test('the demo seed cuts the Wendlecombe terrain beside the demo corridors, and adds only what is missing', async () => {
   const examples = path.resolve(TERRAIN, '..');
-  const { created } = await seedDemo(
-    path.join(examples, 'corridor/corridor.json'),
-    path.join(TERRAIN, 'wendlecombe.terrain.yaml'),
-  );
-  expect(created).toBe(true);
+  const main = path.join(examples, 'corridor/corridor.json');
+  const uncertain = path.join(examples, 'corridor/wendlecombe-uncertain.json');
+  const terrainJob = path.join(TERRAIN, 'wendlecombe.terrain.yaml');
+  // a database seeded before the uncertain corridor and the terrain were demo batches
+  expect(await seedDemo({ corridors: [main] })).toEqual({ submitted: ['wcb-main'] });
+  expect(await seedDemo({ corridors: [main, uncertain], terrainJob })).toEqual({
+    submitted: ['wcb-uncertain', 'wcb-terrain'],
+  });
+  expect(await seedDemo({ corridors: [main, uncertain], terrainJob })).toEqual({ submitted: [] });
   const project = await Project.findOne({ where: { name: 'Wendlecombe bypass' } });
   const batches = await Batch.findAll({
     where: { projectId: project!.id },
@@ -185,8 +189,10 @@ test('the demo seed cuts the Wendlecombe terrain beside the demo corridor', asyn
   });
   expect(batches.map((b) => [b.name, b.source, b.total])).toEqual([
     ['wcb-main', 'seed', 61],
+    ['wcb-uncertain', 'seed', 61],
     ['wcb-terrain', 'terrain', 30],
   ]);
-  const rasters = await StoredFile.count({ where: { batchId: batches[1].id, kind: 'terrain' } });
+  expect(await Project.count({ where: { name: 'Wendlecombe bypass' } })).toBe(1);
+  const rasters = await StoredFile.count({ where: { batchId: batches[2].id, kind: 'terrain' } });
   expect(rasters).toBe(2);
 });

@@ -137,7 +137,11 @@ function specOf(s: Section, o: ProbabilityOptions | SensitivityOptions): Probabi
   return p;
 }
 
-const pct = (p: number) => (Number.isFinite(p) ? `${(100 * p).toFixed(p < 0.001 ? 4 : 2)} %` : '—');
+const pct = (p: number, digits = p < 0.001 ? 4 : 2) =>
+  Number.isFinite(p) ? `${(100 * p).toFixed(digits)} %` : '—';
+/** A counted probability and its standard error, to the same decimals (the probability's). */
+const counted = (c: { p: number; standardError: number }) =>
+  `${pct(c.p)} ± ${pct(c.standardError, c.p < 0.001 ? 4 : 2)}`;
 const fs3 = (v: number | null) => (v === null ? '—' : fsText(v));
 const row = (label: string, value: string) => `    ${label.padEnd(34)}${value}`;
 
@@ -163,20 +167,17 @@ function probabilityTable(
     lines.push(row('mean FS', fs3(c.meanFs)));
     lines.push(row('SD of FS', c.sdFs === null ? '—' : c.sdFs.toFixed(3)));
     lines.push(row('least … greatest FS', `${fs3(c.minFs)} … ${fs3(c.maxFs)}`));
-    lines.push(
-      row('P(FS < 1), counted', `${pct(c.pFailure.p)} ± ${pct(c.pFailure.standardError)} (1 SE)`),
-    );
+    lines.push(row('P(FS < 1), counted', `${counted(c.pFailure)} (1 SE)`));
     if (c.pBelowRequired && c.requiredFs !== null)
-      lines.push(
-        row(
-          `P(FS < ${fsText(c.requiredFs)}), counted`,
-          `${pct(c.pBelowRequired.p)} ± ${pct(c.pBelowRequired.standardError)}`,
-        ),
-      );
+      lines.push(row(`P(FS < ${fsText(c.requiredFs)}), counted`, counted(c.pBelowRequired)));
     const beta = (b: typeof c.betaNormal) =>
       b.beta === null ? '—' : `${b.beta.toFixed(2)}  (Φ(−β) = ${pct(b.pf!)})`;
     lines.push(row('β, FS normal', beta(c.betaNormal)));
     lines.push(row('β, FS lognormal', beta(c.betaLognormal)));
+    if (c.sdFs === 0)
+      lines.push(
+        "    the variables do not move this case's FS (SD 0: its critical surface misses what they vary), so β has no value",
+      );
     lines.push(row('realisations with an FS', `${c.valid} of ${c.realisations}`));
     const t = taylor?.cases.find((x) => x.case === c.case);
     if (t) {

@@ -6,7 +6,10 @@ import {
   caseView,
   designCases,
   formatMessage,
+  meanOf,
   parseSections,
+  parseTarget,
+  targetValue,
   type Polyline,
   type Section,
 } from '@scarpline/core';
@@ -79,6 +82,36 @@ describe('examples', () => {
         requiredFs: 1.1,
         seismic: { kh: 0.1, kv: 0 },
       });
+    }
+  });
+
+  test("the corridor with uncertain strengths: the demo corridor's stations, long term only, every station with its random variables at the values it analyses", () => {
+    const read = (name: string) =>
+      parseSections(readFileSync(join(EXAMPLES, 'corridor', name), 'utf8'), name);
+    const main = read('corridor.json').sections;
+    const { sections, messages } = read('wendlecombe-uncertain.json');
+    expect(messages.map(formatMessage)).toEqual([]);
+    expect(sections.map((s) => [s.station, s.ground])).toEqual(
+      main.map((s) => [s.station, s.ground]),
+    );
+    for (const s of sections) {
+      expect(s.cases!.map((c) => c.kind)).toEqual(['long-term']);
+      const p = s.probability!;
+      expect(p).toMatchObject({ surface: 'critical', realisations: 1000 });
+      const targets = p.variables.map((v) => v.target);
+      expect(targets.slice(0, 2)).toEqual([
+        'materials.weathered-mudstone.cohesion',
+        'materials.weathered-mudstone.frictionAngle',
+      ]);
+      // an embankment's fill is uncertain too
+      expect(targets.includes('materials.fill.frictionAngle')).toBe('fill' in s.materials);
+      // each mean is the value the section analyses: a station's P_f starts from its own run
+      for (const v of p.variables) {
+        const t = parseTarget(v.target);
+        if (!t.ok) throw new Error(t.reason);
+        const now = targetValue(s, t.target);
+        expect(now.ok && now.value).toBe(meanOf(v.distribution));
+      }
     }
   });
 

@@ -289,6 +289,26 @@ describe('a run repeats, and chunks of it are the run', () => {
     expect(c.convergence[c.convergence.length - 1]).toMatchObject({ n: 300, p: c.pFailure.p });
   });
 
+  test('an FS the variables do not move (rounding apart) has an SD of 0 and no β', () => {
+    const rc = probabilityRun(s, spec).cases[0];
+    // a critical surface that misses every varied material: the FS of each realisation is the
+    // same number but for the last bits of its arithmetic
+    const fs = Array.from({ length: 300 }, (_, i) => 2.018 + ((i % 3) - 1) * 4e-15);
+    const c = caseProbability(rc, spec, fs);
+    expect(c.sdFs).toBe(0);
+    expect(c.betaNormal).toEqual({ beta: null, pf: null });
+    expect(c.betaLognormal).toEqual({ beta: null, pf: null });
+    expect(c.pFailure).toEqual({ p: 0, standardError: 0 });
+    // a real spread, however small against the mean, keeps its β
+    const varied = caseProbability(
+      rc,
+      spec,
+      fs.map((x, i) => x + ((i % 3) - 1) * 1e-6),
+    );
+    expect(varied.sdFs).toBeGreaterThan(0);
+    expect(varied.betaNormal.beta).toBeCloseTo((varied.meanFs! - 1) / varied.sdFs!, 6);
+  });
+
   test('sensitivity: the widest FS range first; FS falls as the water rises', () => {
     const r = sensitivity(s, spec, { points: 5 });
     const series = r.cases[0].series;

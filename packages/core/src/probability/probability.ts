@@ -178,6 +178,13 @@ export function realisationsFs(
   return out;
 }
 
+/**
+ * Whether an SD of FS is a spread and not rounding: an FS that the variables do not move (the
+ * critical surface misses every material they touch) differs between analyses by about 1e-14,
+ * and has no β (not 10¹³). Below 1e-9 of the mean, the FS does not vary.
+ */
+const varies = (mean: number, sd: number) => sd > 1e-9 * Math.abs(mean);
+
 /** A probability counted from N realisations, with its standard error √(P(1 − P)/N). */
 export function counted(hits: number, n: number): CountedProbability {
   if (n === 0) return { p: NaN, standardError: NaN };
@@ -187,14 +194,14 @@ export function counted(hits: number, n: number): CountedProbability {
 
 /** β = (μ − 1)/σ of a normal FS, and Φ(−β). */
 export function betaNormal(mean: number, sd: number): Reliability {
-  if (!(sd > 0)) return { beta: null, pf: null };
+  if (!varies(mean, sd)) return { beta: null, pf: null };
   const beta = (mean - 1) / sd;
   return { beta, pf: phi(-beta) };
 }
 
 /** β = ln(μ/√(1 + V²))/√ln(1 + V²) of a lognormal FS (V = σ/μ), and Φ(−β). */
 export function betaLognormal(mean: number, sd: number): Reliability {
-  if (!(sd > 0) || !(mean > 0)) return { beta: null, pf: null };
+  if (!varies(mean, sd) || !(mean > 0)) return { beta: null, pf: null };
   const v2 = (sd / mean) ** 2;
   const beta = Math.log(mean / Math.sqrt(1 + v2)) / Math.sqrt(Math.log(1 + v2));
   return { beta, pf: phi(-beta) };
@@ -247,7 +254,8 @@ export function caseProbability(
 ): CaseProbability {
   const valid = fs.filter((x): x is number => x !== null && Number.isFinite(x));
   const sorted = [...valid].sort((a, b) => a - b);
-  const { mean, sd } = meanSd(valid);
+  const { mean, sd: spread } = meanSd(valid);
+  const sd = varies(mean, spread) ? spread : 0;
   const required = rc.model.requiredFs;
   const below = (limit: number) => valid.reduce((k, x) => k + (x < limit ? 1 : 0), 0);
   const convergence: CaseProbability['convergence'] = [];
