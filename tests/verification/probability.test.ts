@@ -138,6 +138,20 @@ describe('infinite slope with normal c′ and tan φ′, no water: the closed fo
     expect(relErr(t.betaNormal.beta!, (muF - 1) / sdF())).toBeLessThan(1e-9);
     expect(t.terms.map((x) => x.variable)).toEqual(['c', 't']);
     expect(relErr(t.terms[0].share!, (a * SD_C) ** 2 / sdF() ** 2)).toBeLessThan(1e-9);
+    expect(t.correlationShare).toBeNull();
+  });
+
+  test('Taylor series method with c′ and tan φ′ correlated (ρ = −0.5): σF² = Σ ΔFᵢ² + 2ρ ΔF_c ΔF_t, exact for a linear F', () => {
+    // the first-order variance of a linear function of correlated variables (closed form above:
+    // a²σc² + b²σt² + 2ab ρ σc σt)
+    const t = taylorSeries(slope(), spec({}, -0.5)).cases[0];
+    expect(relErr(t.sdFs!, sdF(-0.5))).toBeLessThan(1e-9);
+    expect(t.sdFs!).toBeLessThan(sdF());
+    const shares = t.terms.reduce((k, x) => k + x.share!, 0) + t.correlationShare!;
+    expect(shares).toBeCloseTo(1, 12);
+    expect(
+      relErr(t.correlationShare!, (2 * a * b * -0.5 * SD_C * SD_T) / sdF(-0.5) ** 2),
+    ).toBeLessThan(1e-9);
   });
 });
 

@@ -188,6 +188,10 @@ function probabilityTable(
         lines.push(
           `      ${term.variable.padEnd(30)} FS ${fs3(term.fsMinus)} … ${fs3(term.fsPlus)} at ∓1 SD, ${term.share === null ? '—' : `${(100 * term.share).toFixed(1)} %`} of the variance`,
         );
+      if (t.correlationShare !== null)
+        lines.push(
+          `      ${'the correlations (2ρ ΔFᵢ ΔFⱼ)'.padEnd(30)} ${(100 * t.correlationShare).toFixed(1)} % of the variance`,
+        );
     }
   }
   return lines;

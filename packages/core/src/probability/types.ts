@@ -115,7 +115,7 @@ export interface ProbabilityResult {
 export interface TaylorCase {
   case: string;
   fsMean: number | null;
-  /** Each variable: F at its mean ± one SD and its share of the variance. */
+  /** Each variable: F at its mean ± one SD and its share of the variance (ΔFᵢ²/σF²). */
   terms: {
     variable: string;
     sd: number;
@@ -123,6 +123,11 @@ export interface TaylorCase {
     fsPlus: number | null;
     share: number | null;
   }[];
+  /**
+   * The correlations' share of the variance, 2 Σ ρᵢⱼ ΔFᵢ ΔFⱼ / σF² (negative where they lower
+   * it, as c′ with φ′ usually does); the shares then sum to 1. Null without correlations.
+   */
+  correlationShare: number | null;
   sdFs: number | null;
   betaNormal: Reliability;
   betaLognormal: Reliability;
