@@ -18,8 +18,7 @@ import {
   AnalysisStopped,
   analyzeSection,
   caseOf,
-  ProbabilityInputError,
-  stationProbability,
+  stationProbabilityOrWarning,
   stationUnsolvedReason,
   type Section,
   type StationProbability,
@@ -86,30 +85,18 @@ function solved(
   };
 }
 
-/** The station's probability of failure, or null where its variables do not fit its cases. */
-function probabilityOf(
-  section: Section,
-  options: { shouldStop: () => boolean },
-  result: StationResult,
-) {
-  try {
-    return stationProbability(section, options, result);
-  } catch (e) {
-    if (e instanceof ProbabilityInputError) return null;
-    throw e;
-  }
-}
-
 port.on('message', ({ section, deadline }: ThreadJob) => {
   let answer: ThreadAnswer;
   try {
     const input: unknown = typeof section === 'string' ? JSON.parse(section) : section;
     const options = { shouldStop: () => Date.now() > deadline };
-    const result = analyzeSection(input as Section, options);
+    const analysed = analyzeSection(input as Section, options);
     // where the section asks for it: each case's probability of failure on its critical surface
-    // (a variable a case cannot take leaves the station without it, not without its result)
-    const probability = probabilityOf(input as Section, options, result);
-    answer = { kind: 'result', result: solved(result, input, probability?.summary ?? null) };
+    // (a variable a case cannot take, or the time limit reached in the realisations, leaves the
+    // station without it and with a warning that says why, not without its result)
+    const { summary, warning } = stationProbabilityOrWarning(input as Section, options, analysed);
+    const result = warning ? { ...analysed, warnings: [...analysed.warnings, warning] } : analysed;
+    answer = { kind: 'result', result: solved(result, input, summary) };
   } catch (e) {
     answer =
       e instanceof AnalysisStopped

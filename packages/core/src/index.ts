@@ -183,6 +183,7 @@ export {
 } from './geo/wgs84-geometry';
 export {
   stationProbability,
+  stationProbabilityOrWarning,
   probabilitySummary,
   runsStationProbability,
 } from './station-probability';

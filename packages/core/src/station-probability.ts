@@ -9,12 +9,12 @@
  */
 import { type Critical, caseModels } from './probability/case-fs';
 import { meanOf } from './probability/distributions';
-import { analyzeProbability } from './probability/probability';
+import { ProbabilityInputError, analyzeProbability } from './probability/probability';
 import { parseTarget, targetValue } from './probability/target';
 import type { CaseProbability, ProbabilityResult, ProbabilitySpec } from './probability/types';
 import type { Section } from './model/types';
-import type { StationProbability, StationResult } from './result';
-import type { AnalyzeOptions } from './work-limit';
+import type { StationProbability, StationResult, Warning } from './result';
+import { type AnalyzeOptions, AnalysisStopped } from './work-limit';
 
 /**
  * One case's summary.
@@ -90,4 +90,34 @@ export function stationProbability(
   const criticals = deterministic ? criticalsFrom(section, spec, deterministic) : undefined;
   const result = analyzeProbability(section, spec, { ...options, criticals });
   return { summary: result.cases.map(probabilitySummary), result };
+}
+
+/**
+ * A corridor run's station probability: the summary, or the warning that says why the station
+ * has none while its FS and verdict stand — a variable that a case cannot take, or the
+ * realisations stopped at the caller's time limit or the work bound. What the service's section
+ * job and `scarpline batch` both attach to a station's result.
+ *
+ * @example stationProbabilityOrWarning(section, {}, result).warning?.code // → 'probability-not-computed'
+ */
+export function stationProbabilityOrWarning(
+  section: Section,
+  options: AnalyzeOptions,
+  deterministic: StationResult,
+): { summary: StationProbability[] | null; warning: Warning | null } {
+  try {
+    return {
+      summary: stationProbability(section, options, deterministic)?.summary ?? null,
+      warning: null,
+    };
+  } catch (e) {
+    if (!(e instanceof ProbabilityInputError || e instanceof AnalysisStopped)) throw e;
+    return {
+      summary: null,
+      warning: {
+        code: 'probability-not-computed',
+        message: `the probability of failure was not computed (the FS and the verdict stand): ${e.message}`,
+      },
+    };
+  }
 }

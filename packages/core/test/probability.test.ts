@@ -22,6 +22,8 @@ import {
   realisationsFs,
   sdOf,
   sensitivity,
+  stationProbability,
+  stationProbabilityOrWarning,
   targetValue,
   type Distribution,
   type Section,
@@ -318,6 +320,61 @@ describe('a run repeats, and chunks of it are the run', () => {
     expect(water.points[0][1]!).toBeGreaterThan(water.points[4][1]!);
     expect(water.from).toBe(-1);
     expect(water.to).toBe(0.5);
+  });
+});
+
+describe('a station’s probability of failure in a corridor run', () => {
+  const s = section();
+  // the bank clay's variables: their means are the section's values, so the run's critical
+  // surface is the station's own (no search at the means) and only the realisations remain
+  const variables = s.probability!.variables.filter((v) =>
+    v.target.startsWith('materials.bank-clay.'),
+  );
+  const station: Section = {
+    ...s,
+    probability: { ...s.probability!, variables, realisations: 300 },
+  };
+  const analysed = analyzeSection(station);
+
+  test('computed: the summary of the probabilistic analysis, no warning', () => {
+    const r = stationProbabilityOrWarning(station, {}, analysed);
+    expect(r.warning).toBeNull();
+    expect(r.summary).toEqual(stationProbability(station, {}, analysed)!.summary);
+    expect(r.summary![0].realisations).toBe(300);
+  });
+
+  test('stopped at the time limit during the realisations: no P_f, a warning that says so, the FS stands', () => {
+    let asked = 0;
+    const r = stationProbabilityOrWarning(station, { shouldStop: () => ++asked > 1 }, analysed);
+    expect(r.summary).toBeNull();
+    expect(r.warning!.code).toBe('probability-not-computed');
+    expect(r.warning!.message).toMatch(
+      /FS and the verdict stand.*stopped at its time limit after 127 realisations on the critical surface: ask for fewer realisations/,
+    );
+  });
+
+  test('a variable the section does not have: no P_f, a warning with the reason', () => {
+    const r = stationProbabilityOrWarning(
+      {
+        ...station,
+        probability: {
+          ...station.probability!,
+          variables: [
+            {
+              name: 'c′ peat',
+              target: 'materials.peat.cohesion',
+              distribution: { kind: 'normal', mean: 5, sd: 1 },
+            },
+          ],
+          correlations: [],
+        },
+      },
+      {},
+      analysed,
+    );
+    expect(r.summary).toBeNull();
+    expect(r.warning!.code).toBe('probability-not-computed');
+    expect(r.warning!.message).toMatch(/the section has no material "peat"/);
   });
 });
 

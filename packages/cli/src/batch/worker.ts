@@ -11,11 +11,10 @@ import {
   analyzeSection,
   caseView,
   drawSection,
-  ProbabilityInputError,
   sliceSheet,
   sectionOfCase,
   stationInUnits,
-  stationProbability,
+  stationProbabilityOrWarning,
   stationRecords,
 } from '@scarpline/core';
 import type { Reply, Task } from './messages';
@@ -25,14 +24,13 @@ parentPort?.on('message', (task: Task) => {
   try {
     const analysed = analyzeSection(task.section);
     // the probability of failure on each case's critical surface, where the section asks for it
-    // (as the service's section job: a variable a case cannot take leaves the station without it)
-    let probability: ReturnType<typeof stationProbability> = null;
-    try {
-      probability = stationProbability(task.section, {}, analysed);
-    } catch (e) {
-      if (!(e instanceof ProbabilityInputError)) throw e;
-    }
-    const result = probability ? { ...analysed, probability: probability.summary } : analysed;
+    // (as the service's section job: where it cannot be computed, a warning says why)
+    const { summary, warning } = stationProbabilityOrWarning(task.section, {}, analysed);
+    const result = {
+      ...analysed,
+      ...(summary ? { probability: summary } : {}),
+      ...(warning ? { warnings: [...analysed.warnings, warning] } : {}),
+    };
     // the drawing of the governing case, as that case sees the section
     const governing = result.governing?.case;
     if (task.svgPath)

@@ -12,7 +12,7 @@
  */
 import { CAUTION } from '../caution';
 import type { Section } from '../model/types';
-import type { AnalyzeOptions } from '../work-limit';
+import { type AnalyzeOptions, AnalysisStopped } from '../work-limit';
 import {
   type CaseFs,
   type CaseModel,
@@ -93,6 +93,23 @@ export function targetsOf(spec: ProbabilitySpec): Target[] {
 }
 
 /**
+ * An FS on a fixed surface that asks the caller's stop every 64 realisations (a search asks it
+ * through its work meter; one surface has no meter) and throws AnalysisStopped when told.
+ */
+function stoppable(fs: CaseFs, shouldStop: (() => boolean) | undefined): CaseFs {
+  if (!shouldStop) return fs;
+  let n = 0;
+  return (section) => {
+    if ((++n & 63) === 0 && shouldStop())
+      throw new AnalysisStopped(
+        'stopped',
+        `stopped at its time limit after ${(n - 1).toLocaleString('en-GB')} realisations on the critical surface: ask for fewer realisations`,
+      );
+    return fs(section);
+  };
+}
+
+/**
  * Prepares a run: each case (or the one named) with its deterministic critical surface (or
  * the one given in options.criticals) and its FS function, and the seeded sampler.
  */
@@ -118,7 +135,9 @@ export function probabilityRun(
     );
     const critical = options.criticals?.[model.name] ?? criticalOf(atMeans, options);
     const fs =
-      spec.surface === 'search' ? fsWithSearch(options) : fsOnSurface(atMeans, critical, targets);
+      spec.surface === 'search'
+        ? fsWithSearch(options)
+        : stoppable(fsOnSurface(atMeans, critical, targets), options.shouldStop);
     // realisations set the variables on the case as given (water.level shifts its own line)
     return { model, critical, fs };
   });

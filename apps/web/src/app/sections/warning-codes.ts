@@ -81,6 +81,13 @@ export const WARNING_EXPLANATIONS: Readonly<Record<string, WarningExplanation>> 
     check:
       'Look at the steep parts of the surface and its upper end; a tension crack or another interslice function may help. Treat this FS with care.',
   },
+  'probability-not-computed': {
+    title: 'No probability of failure',
+    meaning:
+      'The section asks for its probability of failure, but it could not be computed: a random variable names an input that a design case does not have, or the realisations reached the time limit of a section. The factor of safety and the verdict stand.',
+    check:
+      'Read the reason given; correct the variable, or ask for fewer realisations (or make a study of the section, which has a longer time limit).',
+  },
   'reinforcement-not-crossed': {
     title: 'A reinforcing element is not crossed',
     meaning:

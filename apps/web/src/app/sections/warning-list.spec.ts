@@ -197,6 +197,7 @@ describe('WarningList', () => {
       'm-alpha-small',
       'negative-normal',
       'thrust-outside',
+      'probability-not-computed',
     ];
     const got = warningItems(
       codes.map((code) => ({ code, message: `msg ${code}` })),

@@ -117,6 +117,7 @@ export function doneProbability(): Study {
             case: 'long term',
             fsMean: 1.478,
             terms: [],
+            correlationShare: null,
             sdFs: 0.155,
             betaNormal: { beta: 3.08, pf: 0.001 },
             betaLognormal: { beta: 3.5, pf: 0.0002 },
