@@ -21,8 +21,9 @@ import { CAUTION } from '@scarpline/core/caution';
 import { createApp } from '../src/app';
 import { config } from '../src/config';
 import { sequelize } from '../src/db';
-import { SectionRow } from '../src/models';
-import { stopQueue } from '../src/queue';
+import { SectionRow, StudyRow } from '../src/models';
+import { STUDY_QUEUE, stopQueue } from '../src/queue';
+import { failOrphanedStudies } from '../src/services/studies';
 import { startWorker } from '../src/worker';
 import { expectProblem, makeUsers, schemaErrors, signIn, waitForBatch } from './helpers';
 import { corridorBatch } from './sections';
@@ -334,4 +335,56 @@ test('roles and projects: a viewer or a reviewer may not ask (403); another proj
     await request(app).get(`/api/v1/sections/${sectionId}/studies`).auth(outsider, bearer),
     404,
   );
+});
+
+test('a study whose worker stopped on every try (the queue failed its job) is failed by the stall watch with the reason; one with a live job is left alone', async () => {
+  const list = await request(app).get(`/api/v1/sections/${sectionId}/studies`).auth(viewer, bearer);
+  const done = (await StudyRow.findByPk(list.body[0].id as number))!;
+  const copy = (status: 'queued' | 'running') =>
+    StudyRow.create({
+      sectionId: done.sectionId,
+      batchId: done.batchId,
+      run: done.run,
+      kind: done.kind,
+      status,
+      request: done.request,
+      input: done.input,
+      spec: done.spec,
+      total: done.total,
+      requestedBy: done.requestedBy,
+    });
+  // a study left running: its job was taken back at its expiry, tried again, and failed there
+  const orphan = await copy('running');
+  await sequelize.query(
+    `INSERT INTO pgboss.job (name, data, state, retry_count, retry_limit, completed_on)
+       VALUES ($1, $2::jsonb, 'failed', 1, 1, now())`,
+    { bind: [STUDY_QUEUE, JSON.stringify({ studyId: orphan.id, step: 'run' })] },
+  );
+  // a study whose job a worker holds (active: the in-process worker only takes created jobs)
+  const held = await copy('queued');
+  await sequelize.query(
+    `INSERT INTO pgboss.job (name, data, state, started_on) VALUES ($1, $2::jsonb, 'active', now())`,
+    { bind: [STUDY_QUEUE, JSON.stringify({ studyId: held.id, step: 'run' })] },
+  );
+  try {
+    const failed = await failOrphanedStudies();
+    expect(failed).toContain(orphan.id);
+    expect(failed).not.toContain(held.id);
+    expect(failed).not.toContain(done.id);
+    const res = await request(app).get(`/api/v1/studies/${orphan.id}`).auth(viewer, bearer);
+    expect(res.body.status).toBe('failed');
+    expect(res.body.problem.title).toBe('The study was not finished');
+    expect(res.body.problem.detail).toMatch(/stopped before it finished, on every try/);
+    expect(schemaErrors('Study', res.body)).toEqual([]);
+    expect((await StudyRow.findByPk(held.id))!.status).toBe('queued');
+    expect((await StudyRow.findByPk(done.id))!.status).toBe('done');
+  } finally {
+    await sequelize.query(
+      `DELETE FROM pgboss.job WHERE name = $1 AND data->>'studyId' IN ($2, $3)`,
+      {
+        bind: [STUDY_QUEUE, String(orphan.id), String(held.id)],
+      },
+    );
+    await StudyRow.destroy({ where: { id: [orphan.id, held.id] } });
+  }
 });

@@ -161,4 +161,4 @@ test('SIGKILL a worker mid-batch: another finishes it, no section lost or solved
   const p = await request(app).get(`/api/v1/batches/${batchId}`).auth(engineer, { type: 'bearer' });
   expect(p.body.progress.done + p.body.progress.failed).toBe(n);
   expect(p.body.progress.total).toBe(n);
-}, 60000);
+}, 120_000);

@@ -35,7 +35,7 @@ import { sequelize } from '../db';
 import { conflict, invalid, notFound, tooMany, Problem } from '../errors';
 import { PoolError } from '../intake/thread-pool';
 import { ResultRow, StudyRow, STUDY_KINDS, type StudyKind } from '../models';
-import { enqueueStudies, type StudyJob } from '../queue';
+import { enqueueStudies, STUDY_QUEUE, type StudyJob } from '../queue';
 import { computeOnThread, studyFailure } from '../studies/pool';
 import type { StudyAnswer } from '../studies/thread';
 import { audit } from './audit';
@@ -423,6 +423,33 @@ async function failStudy(id: number, title: string, detail: string): Promise<voi
     { status: 'failed', problem: { title, detail }, finishedAt: new Date() },
     { where: { id } },
   );
+}
+
+/**
+ * Fails the studies the queue has given up on: queued or running, and no job of theirs waiting
+ * or active any more (the worker computing a step ended, a kill or a crash, on its try and on
+ * its retry; the queue then fails the job, and nothing else would end the study). Every job of
+ * a study is queued in the transaction that writes its row, and a step ends the row before its
+ * job, so a study between two steps always has one. Called by the API's stall watch; returns
+ * the ids it failed.
+ */
+export async function failOrphanedStudies(): Promise<number[]> {
+  const problem = {
+    title: 'The study was not finished',
+    detail:
+      'The worker computing it stopped before it finished, on every try (a worker that was killed or ran out of memory). Ask for the study again; if it fails again, ask for fewer realisations or a narrower range.',
+  };
+  const rows = await sequelize.query<{ id: number }>(
+    `UPDATE studies s SET status = 'failed', problem = $2::jsonb, finished_at = now(), updated_at = now()
+      WHERE s.status IN ('queued', 'running')
+        AND NOT EXISTS (
+          SELECT 1 FROM pgboss.job j
+           WHERE j.name = $1 AND j.state IN ('created', 'retry', 'active')
+             AND j.data->>'studyId' = s.id::text)
+      RETURNING s.id`,
+    { bind: [STUDY_QUEUE, JSON.stringify(problem)], type: QueryTypes.SELECT },
+  );
+  return rows.map((r) => r.id);
 }
 
 /** The chunks of a search-again run: each case's realisations in pieces of STUDY_CHUNK. */

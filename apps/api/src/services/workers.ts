@@ -13,6 +13,7 @@ import { sequelize } from '../db';
 import { log } from '../log';
 import { WorkerHeartbeat } from '../models';
 import { batchStalled } from './mail';
+import { failOrphanedStudies } from './studies';
 
 /** Heartbeats older than this are deleted by the stall watch. */
 const FORGET_AFTER_SECONDS = 3600;
@@ -184,15 +185,22 @@ export async function checkStalls(): Promise<{ stalled: number[]; resumed: numbe
   return { stalled: stalled.map((r) => r.id), resumed: resumed.map((r) => r.id) };
 }
 
-/** Runs checkStalls every HEARTBEAT_SECONDS (in the API process); returns its stop. */
+/**
+ * Runs checkStalls, and the failing of studies the queue gave up on (failOrphanedStudies),
+ * every HEARTBEAT_SECONDS (in the API process); returns its stop.
+ */
 export function startStallWatch(): () => void {
   let running = false;
   let failing = false;
   const timer = setInterval(() => {
     if (running) return;
     running = true;
-    checkStalls()
-      .then(() => (failing = false))
+    Promise.all([checkStalls(), failOrphanedStudies()])
+      .then(([, studies]) => {
+        for (const id of studies)
+          log.warn({ studyId: id }, 'study failed: its worker stopped on every try');
+        failing = false;
+      })
       .catch((e: Error) => {
         if (!failing) log.warn({ err: e }, `stall watch: ${e.message}`);
         failing = true;
