@@ -64,7 +64,12 @@ const stationWord = (s: CorridorStation): string =>
  * where each realisation is analysed, how P(FS < 1) is counted, β's two forms), then a row per
  * station and case beside the governing FS.
  */
-function probabilityOfFailure(l: Layout, stations: readonly CorridorStation[], L: string): void {
+function probabilityOfFailure(
+  l: Layout,
+  stations: readonly CorridorStation[],
+  total: number,
+  L: string,
+): void {
   const carrying = stations.filter((s) => s.result && s.probability && s.probability.length > 0);
   if (carrying.length === 0) return;
   l.heading('Probability of failure');
@@ -77,7 +82,7 @@ function probabilityOfFailure(l: Layout, stations: readonly CorridorStation[], L
     groups.set(key, g);
   }
   l.paragraph(
-    `${carrying.length} of the ${stations.length} stations carry a probability of failure, computed with the run ${REALISATION_SURFACE_WORDS.critical}: the critical surface of each case, found with every variable at its mean, is kept and the FS of each realisation is computed on it (no search per realisation). ${COUNTED_WORDS}. ${BETA_WORDS.normal}; ${BETA_WORDS.lognormal}.`,
+    `${carrying.length} of the ${total} stations carry a probability of failure, computed with the run ${REALISATION_SURFACE_WORDS.critical}: the critical surface of each case, found with every variable at its mean, is kept and the FS of each realisation is computed on it (no search per realisation). ${COUNTED_WORDS}. ${BETA_WORDS.normal}; ${BETA_WORDS.lognormal}.`,
   );
   for (const g of groups.values()) {
     const ids = g.stations.map(stationWord);
@@ -129,7 +134,7 @@ function probabilityOfFailure(l: Layout, stations: readonly CorridorStation[], L
     ),
   );
   l.paragraph(
-    'FS: the governing FS of the case with every variable at its mean; mean FS, P(FS < 1) with one standard error and β: of the realisations; valid: the realisations that gave an FS. Each section page gives P(FS < required) as well.',
+    "FS: the governing FS of the case with the section's own values; mean FS, P(FS < 1) with one standard error and β: of the realisations; valid: the realisations that gave an FS. Each section page gives P(FS < required) as well.",
     { size: 8, color: MUTED },
   );
 }
@@ -221,7 +226,7 @@ function corridorPages(l: Layout, input: CorridorReportInput, final: boolean): v
     l.svg(svg, 330);
   }
 
-  probabilityOfFailure(l, stations, L);
+  probabilityOfFailure(l, stations, total, L);
 
   l.heading('Stations below requirement');
   const low = stations.filter(below);
