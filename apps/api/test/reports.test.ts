@@ -7,6 +7,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import request from 'supertest';
+import { percentText, type StationProbability } from '@scarpline/core';
 import { CAUTION } from '@scarpline/core/caution';
 import { createApp } from '../src/app';
 import { sequelize } from '../src/db';
@@ -16,6 +17,7 @@ import { deleteObject } from '../src/storage';
 import { startWorker } from '../src/worker';
 import { pageTexts, pdfFile, requirePoppler } from '../../../packages/report/test/poppler';
 import { expectProblem, makeUsers, signIn, waitForBatch } from './helpers';
+import { corridorBatch } from './sections';
 
 const EXAMPLES = path.resolve(__dirname, '../../../examples');
 const app = createApp();
@@ -27,6 +29,7 @@ let reviewer: string;
 let viewer: string;
 let outsider: string;
 let batchId: number;
+let projectId: number;
 
 /** The response body as bytes (supertest buffers only the types it knows). */
 function bytes(res: request.Response, done: (e: Error | null, body: Buffer) => void) {
@@ -88,6 +91,7 @@ beforeAll(async () => {
     .auth(admin, bearer)
     .send({ userId: users.integration.id, name: 'GIS feed', projectIds: [elsewhere.body.id] });
   outsider = t.body.token as string;
+  projectId = p.body.id as number;
   const post = await request(app)
     .post(`/api/v1/projects/${p.body.id}/batches`)
     .auth(engineer, bearer)
@@ -225,6 +229,83 @@ test('a corridor report: asked for, made by the worker with its progress, signed
     404,
   );
 });
+
+test('a probabilistic corridor: its report and its section report give each station’s P(FS < 1) ± SE and β as its result holds them', async () => {
+  // two stations of the cutting near its least FS, with uncertain strength of the weathered
+  // mudstone (our invented Wendlecombe corridor), few realisations to keep the test short
+  const batch = corridorBatch('wcb-pf-report', 14, {}, { oneCase: true });
+  batch.sections = batch.sections.slice(12, 14);
+  batch.template.probability = {
+    seed: 19,
+    method: 'latin-hypercube',
+    realisations: 200,
+    surface: 'critical',
+    variables: [
+      {
+        name: 'c′ weathered mudstone',
+        target: 'materials.weathered-mudstone.cohesion',
+        distribution: 'lognormal',
+        mean: 5,
+        cov: 0.4,
+      },
+      {
+        name: 'φ′ weathered mudstone',
+        target: 'materials.weathered-mudstone.frictionAngle',
+        distribution: 'normal',
+        mean: 26,
+        sd: 3,
+      },
+    ],
+  };
+  const b = await request(app)
+    .post(`/api/v1/projects/${projectId}/batches`)
+    .auth(engineer, bearer)
+    .send(batch);
+  expect(b.status).toBe(201);
+  await waitForBatch(app, engineer, b.body.id as number, 120_000);
+  const list = await request(app)
+    .get(`/api/v1/batches/${b.body.id}/sections?sort=station`)
+    .auth(viewer, bearer);
+  const items = list.body.items as {
+    id: number;
+    key: string;
+    probability: StationProbability[] | null;
+  }[];
+  expect(items).toHaveLength(2);
+  /** A summary's numbers as the report writes them, spaces left out (pdftotext drops some). */
+  const row = (p: StationProbability) =>
+    `${percentText(p.pFailure.p)}±${percentText(p.pFailure.standardError)}${p.betaNormal!.toFixed(2)}${p.betaLognormal!.toFixed(2)}${p.valid}/${p.realisations}`.replace(
+      /\s+/g,
+      '',
+    );
+  for (const s of items) expect(s.probability).toHaveLength(1);
+  expect(items.some((s) => s.probability![0].pFailure.p > 0)).toBe(true);
+
+  const asked = await request(app)
+    .post(`/api/v1/batches/${b.body.id}/reports`)
+    .auth(engineer, bearer)
+    .send({ appendix: 'none' });
+  expect(asked.status).toBe(202);
+  const made = await waitForReport(asked.body.id as number);
+  expect(made.status).toBe('done');
+  const text = words(
+    pdfPages((await getPdf(made.download as string, viewer)).body as Buffer).join('\n'),
+  );
+  expect(text).toContain('2 of the 2 stations carry a probability of failure');
+  expect(text).toContain('2 random variables, Latin hypercube sampling, seed 19, N = 200');
+  const squeezed = text.replace(/\s+/g, '');
+  for (const s of items) expect(squeezed).toContain(row(s.probability![0]));
+
+  const one = await getPdf(`/api/v1/sections/${items[0].id}/report.pdf`, viewer);
+  expect(one.status).toBe(200);
+  const page = words(pdfPages(one.body as Buffer).join('\n'));
+  const p = items[0].probability![0];
+  expect(page).toContain(
+    `P(FS < 1) ${percentText(p.pFailure.p)} ± ${percentText(p.pFailure.standardError)} (1 SE)`,
+  );
+  expect(page).toContain(`realisations with an FS ${p.valid} of ${p.realisations}`);
+  expect(page).toContain('lognormal, mean 5 kPa, SD 2 kPa');
+}, 240_000);
 
 test('reports are the batch’s: another project’s user gets 404, an unknown report 404; a running batch’s is 409', async () => {
   expectProblem(

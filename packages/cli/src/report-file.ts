@@ -7,7 +7,10 @@ import {
   isGeoJsonCorridor,
   isLandXml,
   parseSections,
+  ProbabilityInputError,
+  stationProbability,
   type Section,
+  type StationProbability,
   type StationResult,
 } from '@scarpline/core';
 import { corridorReportPdf, sectionReportPdf, type ReportMeta } from '@scarpline/report';
@@ -62,7 +65,12 @@ export async function writeCorridorReport(
     id: string;
     source: string;
     solverVersion: string;
-    stations: { section: Section; result: StationResult | null; reason?: string }[];
+    /** each result as the batch's worker gives it: with the probability of failure it computed */
+    stations: {
+      section: Section;
+      result: (StationResult & { probability?: StationProbability[] | null }) | null;
+      reason?: string;
+    }[];
     unread: { label: string; station: number | null; reason: string }[];
   },
   err: (line: string) => void,
@@ -75,7 +83,12 @@ export async function writeCorridorReport(
   let last = -1;
   const pdf = await corridorReportPdf({
     meta,
-    stations: corridor.stations.map((s) => ({ ...s, meta })),
+    // the probability of failure the batch's worker computed with each station's result
+    stations: corridor.stations.map((s) => ({
+      ...s,
+      probability: s.result?.probability ?? null,
+      meta,
+    })),
     unread: corridor.unread,
     appendix: request.appendix,
     onProgress: (done, total) => {
@@ -142,8 +155,17 @@ export async function reportFile(
   const { applyOverrides } = await import('./overrides');
   const section = applyOverrides(sections[0], options);
   let result: StationResult;
+  // the probability of failure on each case's critical surface, where the section asks for it,
+  // as `scarpline batch` computes it with the station's result (batch/worker.ts)
+  let probability: StationProbability[] | null = null;
   try {
     result = analyzeSection(section);
+    try {
+      probability = stationProbability(section, {}, result)?.summary ?? null;
+    } catch (e) {
+      if (!(e instanceof ProbabilityInputError)) throw e;
+      err(`${input.name}: ${section.id}: ${e.message}; the report gives no probability of failure`);
+    }
   } catch (e) {
     if (!(e instanceof AnalysisStopped)) throw e;
     err(`${input.name}: ${section.id}: ${e.message}; no report written`);
@@ -153,6 +175,7 @@ export async function reportFile(
   const pdf = await sectionReportPdf({
     section,
     result,
+    probability,
     meta: metaOf(options, { source: input.name, solverVersion: result.solverVersion }),
   });
   writeFileSync(path, pdf);

@@ -1,7 +1,7 @@
 import { copyFileSync, existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { CAUTION } from '@scarpline/core';
+import { CAUTION, percentText, type StationProbability } from '@scarpline/core';
 import { flat, pageTexts, requirePoppler } from '../../report/test/poppler';
 import { FIXTURES, ROOT, run } from './run';
 
@@ -9,6 +9,35 @@ const tmp = () => mkdtempSync(join(tmpdir(), 'scarpline-report-'));
 const isPdf = (path: string) => readFileSync(path).subarray(0, 5).toString() === '%PDF-';
 
 beforeAll(() => requirePoppler());
+
+/** The small corridor with random variables in its template (weak enough for some FS below 1). */
+function probabilisticCorridor(dir: string): string {
+  const file = join(dir, 'pf-corridor.yaml');
+  const text = readFileSync(join(FIXTURES, 'small-corridor.yaml'), 'utf8').replace(
+    'sections:\n',
+    [
+      '  probability:',
+      '    method: latin-hypercube',
+      '    seed: 11',
+      '    realisations: 500',
+      '    surface: critical',
+      '    variables:',
+      '      - { name: c′ till, target: materials.till.cohesion, distribution: lognormal, mean: 6, cov: 0.5 }',
+      '      - { name: φ′ till, target: materials.till.frictionAngle, distribution: normal, mean: 29, sd: 4 }',
+      'sections:',
+      '',
+    ].join('\n'),
+  );
+  writeFileSync(file, text);
+  return file;
+}
+
+/** A summary's numbers as the corridor report's row writes them, without spaces. */
+const pfRow = (p: StationProbability) =>
+  `${percentText(p.pFailure.p)}±${percentText(p.pFailure.standardError)}${p.betaNormal!.toFixed(2)}${p.betaLognormal!.toFixed(2)}${p.valid}/${p.realisations}`.replace(
+    /\s+/g,
+    '',
+  );
 
 describe('scarpline report', () => {
   test('a section file: its section report, beside the input by default, with --project and --by', () => {
@@ -27,6 +56,60 @@ describe('scarpline report', () => {
     expect(flat(pages[0])).toContain('Section report: wfb-0410');
     expect(flat(pages[0].replace(/page \d+ of \d+/, ''))).toContain(`Caution: ${CAUTION}`);
   });
+
+  test('a section with random variables: its P(FS < 1) ± SE and β, as scarpline probability gives them', () => {
+    const dir = tmp();
+    const pdf = join(dir, 'levee.pdf');
+    const file = join(ROOT, 'examples', 'levee-probability.yaml');
+    const r = run(['report', file, '-o', pdf]);
+    expect(r.out).toContain(`wrote ${pdf}`);
+    const p = run(['probability', file, '--json']);
+    expect(p.code).toBe(0);
+    const c = (
+      JSON.parse(p.out) as {
+        sections: {
+          cases: {
+            pFailure: { p: number; standardError: number };
+            betaNormal: { beta: number };
+            betaLognormal: { beta: number };
+            valid: number;
+            realisations: number;
+          }[];
+        }[];
+      }
+    ).sections[0].cases[0];
+    expect(c.pFailure.p).toBeGreaterThan(0);
+    const text = flat(pageTexts(pdf).join('\n'));
+    expect(text).toContain(
+      `P(FS < 1) ${percentText(c.pFailure.p)} ± ${percentText(c.pFailure.standardError)} (1 SE)`,
+    );
+    expect(text).toContain(`β, FS normal ${c.betaNormal.beta.toFixed(2)}`);
+    expect(text).toContain(`β, FS lognormal ${c.betaLognormal.beta.toFixed(2)}`);
+    expect(text).toContain(`realisations with an FS ${c.valid} of ${c.realisations}`);
+    expect(text).toContain(
+      'Random variables 5 random variables, Latin hypercube sampling, seed 520',
+    );
+  }, 60_000);
+
+  test("a corridor with random variables: each station's P(FS < 1) ± SE and β, as batch's results.json holds them", () => {
+    const dir = tmp();
+    const file = probabilisticCorridor(dir);
+    const pdf = join(dir, 'pf.pdf');
+    const r = run(['report', file, '-o', pdf, '--appendix', 'none', '--jobs', '1']);
+    expect(r.out).toContain(`wrote ${pdf}`);
+    const b = run(['batch', file, '--out', join(dir, 'out'), '--no-svg', '--jobs', '1']);
+    expect(b.out).toContain('wrote');
+    const json = JSON.parse(readFileSync(join(dir, 'out', 'results.json'), 'utf8')) as {
+      sections: { id: string; station: number; probability: StationProbability[] }[];
+    };
+    expect(json.sections).toHaveLength(3);
+    expect(json.sections.some((s) => s.probability[0].pFailure.p > 0)).toBe(true);
+    const text = flat(pageTexts(pdf).join('\n'));
+    expect(text).toContain('3 of the 4 stations carry a probability of failure');
+    const squeezed = text.replace(/\s+/g, '');
+    for (const s of json.sections) expect(squeezed).toContain(`${s.station}${s.id}long-term`);
+    for (const s of json.sections) expect(squeezed).toContain(pfRow(s.probability[0]));
+  }, 60_000);
 
   test('a batch file: the corridor report, analysed as batch does, with the appendix asked for', () => {
     const dir = tmp();

@@ -61,3 +61,14 @@ export {
   DEFAULT_REALISATIONS,
   type RawProbability,
 } from './probability/normalise-probability';
+export {
+  percentText,
+  valueText,
+  distributionWords,
+  variableDistributionWords,
+  probabilityBasisWords,
+  SAMPLING_WORDS,
+  REALISATION_SURFACE_WORDS,
+  COUNTED_WORDS,
+  BETA_WORDS,
+} from './probability/probability-words';

@@ -1,9 +1,16 @@
 import {
+  BETA_WORDS,
+  COUNTED_WORDS,
   drawChainage,
   fsText,
+  percentText,
+  probabilityBasisWords,
+  REALISATION_SURFACE_WORDS,
+  variableDistributionWords,
   UNIT_LABELS,
   VERDICT_WORDS,
   VERDICTS,
+  type ProbabilitySpec,
   type StationResult,
   type UnitSystem,
   type Verdict,
@@ -44,6 +51,91 @@ export function corridorReportPdf(input: CorridorReportInput): Promise<Buffer> {
     `Corridor report: ${name}`,
     { subject: 'Slope-stability corridor report', author: meta.submittedBy },
     (l, final) => corridorPages(l, input, final),
+  );
+}
+
+/** A station's name in a sentence: its station, else its id. */
+const stationWord = (s: CorridorStation): string =>
+  s.section.station === null ? s.section.id : String(s.section.station);
+
+/**
+ * The probability of failure of the stations that carry one (none: nothing): what it rests on
+ * (each set of random variables with the stations that share it, the sampling, N, the seed,
+ * where each realisation is analysed, how P(FS < 1) is counted, β's two forms), then a row per
+ * station and case beside the governing FS.
+ */
+function probabilityOfFailure(
+  l: Layout,
+  stations: readonly CorridorStation[],
+  total: number,
+  L: string,
+): void {
+  const carrying = stations.filter((s) => s.result && s.probability && s.probability.length > 0);
+  if (carrying.length === 0) return;
+  l.heading('Probability of failure');
+  const groups = new Map<string, { spec: ProbabilitySpec; stations: CorridorStation[] }>();
+  for (const s of carrying) {
+    if (!s.section.probability) continue;
+    const key = JSON.stringify(s.section.probability);
+    const g = groups.get(key) ?? { spec: s.section.probability, stations: [] };
+    g.stations.push(s);
+    groups.set(key, g);
+  }
+  l.paragraph(
+    `${carrying.length} of the ${total} stations carry a probability of failure, computed with the run ${REALISATION_SURFACE_WORDS.critical}: the critical surface of each case, found with every variable at its mean, is kept and the FS of each realisation is computed on it (no search per realisation). ${COUNTED_WORDS}. ${BETA_WORDS.normal}; ${BETA_WORDS.lognormal}.`,
+  );
+  for (const g of groups.values()) {
+    const ids = g.stations.map(stationWord);
+    const which =
+      groups.size === 1 && g.stations.length === carrying.length
+        ? 'Every station in the table below'
+        : `Station${ids.length === 1 ? '' : 's'} ${ids.join(', ')}`;
+    const units = g.stations[0].section.units;
+    l.paragraph(`${which}: ${probabilityBasisWords(g.spec)}.`, { style: 'bold', after: 0 });
+    for (const v of g.spec.variables)
+      l.paragraph(`${v.name}: ${v.target}, ${variableDistributionWords(v, units)}`, {
+        indent: 10,
+        after: 0,
+      });
+    for (const k of g.spec.correlations)
+      l.paragraph(`correlation ${k.between[0]} – ${k.between[1]}: ${k.coefficient}`, {
+        indent: 10,
+        after: 0,
+      });
+    l.gap(4);
+  }
+  l.table(
+    [
+      { head: `station (${L})`, width: 45, align: 'right' },
+      { head: 'section', width: 75 },
+      { head: 'case', width: 88 },
+      { head: 'FS', width: 32, align: 'right' },
+      { head: 'mean FS', width: 36, align: 'right' },
+      { head: 'P(FS < 1) ± SE', width: 72, align: 'right' },
+      { head: 'β normal', width: 40, align: 'right' },
+      { head: 'β lognormal', width: 52, align: 'right' },
+      { head: 'valid / N', width: 55, align: 'right' },
+    ],
+    carrying.flatMap((s) =>
+      (s.probability ?? []).map((p) => {
+        const c = s.result?.cases.find((x) => x.name === p.case);
+        return [
+          String(s.result?.station ?? s.section.station ?? '—'),
+          s.section.id,
+          p.case,
+          c?.governing ? fsText(c.governing.fs) : '—',
+          p.meanFs === null ? '—' : fsText(p.meanFs),
+          `${percentText(p.pFailure.p)} ± ${percentText(p.pFailure.standardError)}`,
+          num(p.betaNormal, 2),
+          num(p.betaLognormal, 2),
+          `${p.valid} / ${p.realisations}`,
+        ];
+      }),
+    ),
+  );
+  l.paragraph(
+    "FS: the governing FS of the case with the section's own values; mean FS, P(FS < 1) with one standard error and β: of the realisations; valid: the realisations that gave an FS. Each section page gives P(FS < required) as well.",
+    { size: 8, color: MUTED },
   );
 }
 
@@ -134,6 +226,8 @@ function corridorPages(l: Layout, input: CorridorReportInput, final: boolean): v
     l.svg(svg, 330);
   }
 
+  probabilityOfFailure(l, stations, total, L);
+
   l.heading('Stations below requirement');
   const low = stations.filter(below);
   if (low.length === 0)
@@ -198,7 +292,12 @@ function corridorPages(l: Layout, input: CorridorReportInput, final: boolean): v
       color: MUTED,
       size: 8,
     });
-    sectionPages(l, { section: s.section, result: s.result as StationResult, meta: s.meta });
+    sectionPages(l, {
+      section: s.section,
+      result: s.result as StationResult,
+      probability: s.probability ?? null,
+      meta: s.meta,
+    });
     if (final) input.onProgress?.(i + 1, pages);
   });
 }

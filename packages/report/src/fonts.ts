@@ -68,6 +68,7 @@ const SUBSTITUTES: Record<string, string> = {
   '\u2264': '<=',
   '\u2265': '>=',
   '\u2192': '->',
+  '\u221a': 'sqrt',
 };
 
 const MISSING = new RegExp(`[${Object.keys(SUBSTITUTES).join('')}]`, 'g');

@@ -17,9 +17,15 @@ import {
   surfaceText,
   UNIT_LABELS,
   VERDICT_WORDS,
+  BETA_WORDS,
+  COUNTED_WORDS,
+  percentText,
+  probabilityBasisWords,
+  variableDistributionWords,
   type CaseResult,
   type MethodReport,
   type Section,
+  type StationProbability,
   type StationResult,
 } from '@scarpline/core';
 import { MUTED, type Layout } from './layout';
@@ -83,8 +89,8 @@ const listed = (label: string, items: readonly string[]): [string, string][] =>
     ? items.map((x, i): [string, string] => [i === 0 ? label : '', x])
     : [[label, 'none']];
 
-/** The inputs: geometry, materials, water, loads, reinforcement, cases and requirements. */
-function inputs(l: Layout, s: Section): void {
+/** The inputs: geometry, materials, water, loads, reinforcement, cases and requirements, random variables. */
+function inputs(l: Layout, s: Section, probability: readonly StationProbability[] | null): void {
   const u = s.units;
   l.heading('Inputs');
   l.paragraph(
@@ -181,6 +187,71 @@ function inputs(l: Layout, s: Section): void {
       l.fields(differs, 120, 8.5);
     }
   }
+  randomVariables(l, s, probability);
+}
+
+/**
+ * The section's random variables (its `probability` block): how the realisations are drawn and
+ * analysed, each variable's target and distribution in the section's units, the correlations,
+ * and whether this report gives the probability of failure that rests on them.
+ */
+function randomVariables(
+  l: Layout,
+  s: Section,
+  probability: readonly StationProbability[] | null,
+): void {
+  const spec = s.probability;
+  if (!spec) return;
+  l.heading('Random variables', 3);
+  l.paragraph(`${probabilityBasisWords(spec)}.`);
+  l.table(
+    [
+      { head: 'variable', width: 110 },
+      { head: 'target', width: 170 },
+      { head: 'distribution', width: 215 },
+    ],
+    spec.variables.map((v) => [v.name, v.target, variableDistributionWords(v, s.units)]),
+    { wrap: [0, 1, 2] },
+  );
+  l.fields(
+    [
+      ...listed(
+        'correlations',
+        spec.correlations.map((k) => `${k.between[0]} – ${k.between[1]}: ${k.coefficient}`),
+      ),
+    ],
+    120,
+    8.5,
+  );
+  if (probability?.length) return;
+  l.paragraph(
+    spec.surface === 'search'
+      ? 'A probability of failure with the critical surface searched again in each realisation is a study of its own: this report gives none.'
+      : 'No probability of failure was computed with this run: this report gives none.',
+    { color: MUTED },
+  );
+}
+
+/** A case's probability of failure: the FS's statistics, P(FS < 1), P(FS < required), β. */
+function probabilityBlock(l: Layout, p: StationProbability, requiredFs: number | null): void {
+  const counted = (x: { p: number; standardError: number }) =>
+    `${percentText(x.p)} ± ${percentText(x.standardError)} (1 SE)`;
+  l.heading('Probability of failure', 3, 80);
+  l.fields([
+    ['mean FS', p.meanFs === null ? '—' : fsText(p.meanFs)],
+    ['SD of FS', num(p.sdFs, 3)],
+    ['P(FS < 1)', counted(p.pFailure)],
+    ...(p.pBelowRequired && requiredFs !== null
+      ? [[`P(FS < ${requiredFs})`, counted(p.pBelowRequired)] as [string, string]]
+      : []),
+    ['β, FS normal', num(p.betaNormal, 2)],
+    ['β, FS lognormal', num(p.betaLognormal, 2)],
+    ['realisations with an FS', `${p.valid} of ${p.realisations}`],
+  ]);
+  l.paragraph(
+    `${COUNTED_WORDS}; ${BETA_WORDS.normal}; ${BETA_WORDS.lognormal}. The random variables are listed with the inputs.`,
+    { size: 8, color: MUTED },
+  );
 }
 
 /** The methods the result used, with what they rest on and where they were published. */
@@ -209,7 +280,13 @@ function extras(m: MethodReport): string {
 }
 
 /** One case: the methods' results, the verdict, the drawing, the search, warnings, slices. */
-function caseResults(l: Layout, section: Section, r: StationResult, c: CaseResult): void {
+function caseResults(
+  l: Layout,
+  section: Section,
+  r: StationResult,
+  c: CaseResult,
+  probability: StationProbability | undefined,
+): void {
   const u = r.units;
   const req = c.requiredFs;
   l.heading(
@@ -256,6 +333,7 @@ function caseResults(l: Layout, section: Section, r: StationResult, c: CaseResul
   if (c.requiredReinforcement) words.push(requiredWords(c.requiredReinforcement, u));
   for (const w of words) l.paragraph(w.trim(), { indent: w.startsWith('  ') ? 10 : 0, after: 0 });
   if (words.length) l.gap(4);
+  if (probability) probabilityBlock(l, probability, c.requiredFs);
 
   const drawing = drawSection(sectionOfCase(section, c.name), caseView(r, c.name), {
     idPrefix: `c${r.cases.indexOf(c)}`,
@@ -331,7 +409,15 @@ export function sectionPages(l: Layout, input: SectionReportInput): void {
       `${VERDICT_WORDS[r.verdict]}${g ? `; governing case ${g.case}: ${g.method} FS ${fsText(g.fs)}${g.ratio !== null ? `, ${g.ratio.toFixed(2)} × required` : ''}` : ''}`,
     ],
   ]);
-  inputs(l, section);
+  const probability = input.probability ?? null;
+  inputs(l, section, probability);
   methods(l, r);
-  for (const c of r.cases) caseResults(l, section, r, c);
+  for (const c of r.cases)
+    caseResults(
+      l,
+      section,
+      r,
+      c,
+      probability?.find((p) => p.case === c.name),
+    );
 }

@@ -1,5 +1,5 @@
 import type { Section } from '@scarpline/core/model';
-import type { StationResult } from '@scarpline/core/result';
+import type { StationProbability, StationResult } from '@scarpline/core/result';
 
 /** Who checked the calculation and what they decided; null/absent: not reviewed. */
 export interface ReviewRecord {
@@ -30,6 +30,11 @@ export interface SectionReportInput {
   section: Section;
   /** analyzeSection's result */
   result: StationResult;
+  /**
+   * The probability of failure of each case on its critical surface (stationProbability's
+   * summary), where the section asks for it; absent or null: none shown.
+   */
+  probability?: StationProbability[] | null;
   meta: ReportMeta;
 }
 
@@ -38,6 +43,8 @@ export interface CorridorStation {
   /** null: not analysed (failed / waiting) — `reason` says why */
   result: StationResult | null;
   reason?: string;
+  /** the station's probability of failure by case (stationProbability's summary), or none */
+  probability?: StationProbability[] | null;
   /** the section's own run, submitter and review record */
   meta: ReportMeta;
 }

@@ -1,6 +1,15 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { analyzeSection, CAUTION, parseSections, type StationResult } from '@scarpline/core';
+import {
+  analyzeSection,
+  CAUTION,
+  fsText,
+  parseSections,
+  percentText,
+  stationProbability,
+  type ProbabilitySpec,
+  type StationResult,
+} from '@scarpline/core';
 import { corridorReportPdf, REPORT_LIMITS, type CorridorStation, type ReportMeta } from '../src';
 import { flat, pageTexts, pdfFile, requirePoppler } from './poppler';
 
@@ -115,6 +124,10 @@ describe('corridorReportPdf', () => {
     // the chainage drawing of each case, as vector text
     for (const name of cases)
       expect(text).toContain(`Governing FS and the required FS along the chainage, case ${name}`);
+    // no station carries a probability of failure: no section, column or block of it
+    expect(text).not.toContain('Probability of failure');
+    expect(text).not.toContain('P(FS < 1)');
+    expect(text).not.toContain('Random variables');
   });
 
   test('appendix all: every station analysed; none: no section pages', async () => {
@@ -142,5 +155,105 @@ describe('corridorReportPdf', () => {
     } finally {
       REPORT_LIMITS.maxAppendixSections = limit;
     }
+  });
+});
+
+describe('corridorReportPdf of a corridor with a probability of failure', () => {
+  // two stations of the example corridor with invented random variables (the fill's unit weight
+  // and a shift of the piezometric line, correlated), few realisations to keep the test short
+  const spec: ProbabilitySpec = {
+    variables: [
+      {
+        name: 'γ weathered mudstone',
+        target: 'materials.weathered-mudstone.unitWeight',
+        distribution: { kind: 'normal', mean: 20, sd: 1 },
+      },
+      {
+        name: 'water level',
+        target: 'water.level',
+        distribution: { kind: 'normal', mean: 0, sd: 1 },
+      },
+    ],
+    correlations: [{ between: ['γ weathered mudstone', 'water level'], coefficient: 0.2 }],
+    seed: 7,
+    method: 'latin-hypercube',
+    realisations: 200,
+    surface: 'critical',
+  };
+  const uncertain: CorridorStation[] = picked
+    .filter((s) => [1180, 1240].includes(s.station!))
+    .map((s) => {
+      const section = { ...s, probability: spec };
+      const result = analyzeSection(section);
+      const probability = stationProbability(section, {}, result)!.summary;
+      return { section, result, probability, meta };
+    });
+  const plain = stations.find((s) => s.section.station === 1600)!;
+  let text = '';
+  beforeAll(async () => {
+    const pdf = await corridorReportPdf({ meta, stations: [...uncertain, plain], appendix: 'all' });
+    text = pageTexts(pdfFile(pdf)).join('\n');
+  });
+
+  test('the stations table: a row per station and case, P(FS < 1) ± SE and β as computed', () => {
+    const part = flat(between(text, 'Probability of failure', 'Stations below requirement'));
+    expect(part).toContain('P(FS < 1) ± SE β normal β lognormal valid / N');
+    // the rows without spaces: pdftotext's layout drops some between narrow runs
+    const squeezed = part.replace(/\s+/g, '');
+    let rows = 0;
+    for (const s of uncertain)
+      for (const p of s.probability!) {
+        const c = s.result!.cases.find((x) => x.name === p.case)!;
+        const row = `${s.section.station} ${s.section.id} ${p.case} ${fsText(c.governing!.fs)} ${fsText(p.meanFs!)} ${percentText(p.pFailure.p)} ± ${percentText(p.pFailure.standardError)} ${p.betaNormal!.toFixed(2)} ${p.betaLognormal!.toFixed(2)} ${p.valid} / 200`;
+        expect(squeezed).toContain(row.replace(/\s+/g, ''));
+        rows++;
+      }
+    expect(rows).toBeGreaterThanOrEqual(4);
+    // somewhere a case fails in some realisations, so the count is not all zeros
+    expect(uncertain.some((s) => s.probability!.some((p) => p.pFailure.p > 0))).toBe(true);
+    // the station without one has no row
+    expect(part).not.toContain('wcb-main@1600');
+  });
+
+  test('the paragraph says what the numbers rest on', () => {
+    const part = flat(between(text, 'Probability of failure', 'station ('));
+    expect(part).toContain('2 of the 3 stations carry a probability of failure');
+    expect(part).toContain(
+      "Every station in the table below: 2 random variables, Latin hypercube sampling, seed 7, N = 200, on each case's critical surface at the means.",
+    );
+    expect(part).toContain(
+      'γ weathered mudstone: materials.weathered-mudstone.unitWeight, normal, mean 20 kN/m³, SD 1 kN/m³',
+    );
+    expect(part).toContain('water level: water.level, normal, mean 0 m, SD 1 m');
+    expect(part).toContain('correlation γ weathered mudstone – water level: 0.2');
+    expect(part).toContain(
+      'P(FS < 1) is counted: the share of the N realisations with FS below 1, with its standard error sqrt(P(1 − P)/N)',
+    );
+    expect(part).toContain('β (FS normal) = (μ − 1)/σ');
+    expect(part).toContain('β (FS lognormal) = ln(μ/sqrt(1 + V²))/sqrt(ln(1 + V²)), V = σ/μ');
+  });
+
+  test("each station's section page: the random variables and a block per case", () => {
+    for (const s of uncertain) {
+      const page = flat(between(text, `Section report: ${s.section.id}`, 'Appendix'));
+      expect(page).toContain('Random variables');
+      expect(page).toContain('variable target distribution');
+      for (const p of s.probability!) {
+        const c = s.result!.cases.find((x) => x.name === p.case)!;
+        const block = flat(between(page, `Case ${p.case} (`, 'Drawing'));
+        expect(block).toContain(
+          `P(FS < 1) ${percentText(p.pFailure.p)} ± ${percentText(p.pFailure.standardError)} (1 SE)`,
+        );
+        expect(block).toContain(
+          `P(FS < ${c.requiredFs}) ${percentText(p.pBelowRequired!.p)} ± ${percentText(p.pBelowRequired!.standardError)} (1 SE)`,
+        );
+        expect(block).toContain(`mean FS ${fsText(p.meanFs!)} SD of FS ${p.sdFs!.toFixed(3)}`);
+        expect(block).toContain(
+          `β, FS normal ${p.betaNormal!.toFixed(2)} β, FS lognormal ${p.betaLognormal!.toFixed(2)} realisations with an FS ${p.valid} of 200`,
+        );
+      }
+    }
+    const last = flat(text.slice(text.indexOf('Section report: wcb-main@1600')));
+    expect(last).not.toContain('Probability of failure');
   });
 });

@@ -1,7 +1,16 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { analyzeSection, CAUTION, fsText, parseSections } from '@scarpline/core';
+import {
+  analyzeSection,
+  CAUTION,
+  fsText,
+  parseSections,
+  percentText,
+  stationProbability,
+  variableDistributionWords,
+} from '@scarpline/core';
 import { sectionReportPdf, type ReportMeta } from '../src';
+import { withGlyphs } from '../src/fonts';
 import { flat, fonts, images, pageTexts, pdfFile, requirePoppler } from './poppler';
 
 const EXAMPLES = join(__dirname, '..', '..', '..', 'examples');
@@ -141,4 +150,50 @@ describe('sectionReportPdf', () => {
       });
     });
   }
+});
+
+describe('sectionReportPdf of a section with random variables', () => {
+  const { section, result } = example('levee-probability.yaml');
+  const meta: ReportMeta = { date: '2026-12-03T10:00:00Z', solverVersion: result.solverVersion };
+  const probability = stationProbability(section, {}, result)!.summary;
+  const textOf = async (p: typeof probability | null) =>
+    flat(
+      pageTexts(pdfFile(await sectionReportPdf({ section, result, probability: p, meta }))).join(
+        '\n',
+      ),
+    );
+
+  test('the random variables with the inputs, and the probability of failure of the case', async () => {
+    const text = await textOf(probability);
+    const spec = section.probability!;
+    expect(text).toContain(
+      `Random variables ${spec.variables.length} random variables, Latin hypercube sampling, seed 520, N = 10000, on each case's critical surface at the means.`,
+    );
+    for (const v of spec.variables) expect(text).toContain(variableDistributionWords(v, 'si'));
+    // c′ of the bank clay: lognormal, mean 4 kPa, COV 0.4 (the file's words) → SD 1.6 kPa
+    expect(text).toContain('lognormal, mean 4 kPa, SD 1.6 kPa');
+    for (const k of spec.correlations)
+      // the primes written as the fonts hold them (fonts.ts)
+      expect(text).toContain(withGlyphs(`${k.between[0]} – ${k.between[1]}: ${k.coefficient}`));
+    expect(probability).toHaveLength(1);
+    const p = probability[0];
+    const block = text.slice(text.indexOf('Probability of failure mean FS'));
+    expect(block).toContain(
+      `P(FS < 1) ${percentText(p.pFailure.p)} ± ${percentText(p.pFailure.standardError)} (1 SE)`,
+    );
+    expect(block).toContain(
+      `P(FS < 1.5) ${percentText(p.pBelowRequired!.p)} ± ${percentText(p.pBelowRequired!.standardError)} (1 SE)`,
+    );
+    expect(block).toContain(`β, FS normal ${p.betaNormal!.toFixed(2)}`);
+    expect(block).toContain(`β, FS lognormal ${p.betaLognormal!.toFixed(2)}`);
+    expect(block).toContain(`realisations with an FS ${p.valid} of 10000`);
+    expect(p.pFailure.p).toBeGreaterThan(0);
+  });
+
+  test('without a computed summary: the variables, and a line saying there is none', async () => {
+    const text = await textOf(null);
+    expect(text).toContain('Random variables');
+    expect(text).toContain('No probability of failure was computed with this run');
+    expect(text).not.toContain('Probability of failure');
+  });
 });

@@ -15,6 +15,7 @@ import type {
   RequiredReinforcementReport,
   SearchReport,
   SeismicReport,
+  StationProbability,
   StationResult,
   Warning,
 } from '@scarpline/core/result';
@@ -105,6 +106,10 @@ export function stationResultOf(
   };
 }
 
+/** A stored run's probability of failure by case (its section's critical-surface probability block), or null. */
+const probabilityOf = (r: ResultRow): StationProbability[] | null =>
+  (r.probability as StationProbability[] | null) ?? null;
+
 /** A review as the report's record of it (who, when, what, why); none: not reviewed. */
 function reviewRecord(review: Review | null, names: Map<number, { name: string }>): ReviewRecord {
   if (!review) return { state: 'not reviewed' };
@@ -190,7 +195,12 @@ async function corridorStations(batch: Batch, now: Date): Promise<CorridorStatio
         meta,
       };
     }
-    return { section: input, result: stationResultOf(input, r, cases.get(r.id) ?? []), meta };
+    return {
+      section: input,
+      result: stationResultOf(input, r, cases.get(r.id) ?? []),
+      probability: probabilityOf(r),
+      meta,
+    };
   });
 }
 
@@ -263,6 +273,7 @@ export async function sectionReport(p: Principal, sectionId: number) {
       input: {
         section: input,
         result: stationResultOf(input, r, cases),
+        probability: probabilityOf(r),
         meta: {
           ...(await batchMeta(batch, now)),
           run: s.run,
