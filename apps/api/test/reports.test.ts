@@ -7,12 +7,13 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import request from 'supertest';
-import { percentText, type StationProbability } from '@scarpline/core';
+import { countedText, type StationProbability } from '@scarpline/core';
 import { CAUTION } from '@scarpline/core/caution';
 import { createApp } from '../src/app';
 import { sequelize } from '../src/db';
 import { Batch, ReportRow, StoredFile } from '../src/models';
-import { stopQueue } from '../src/queue';
+import { REPORT_QUEUE, stopQueue } from '../src/queue';
+import { failOrphanedReports } from '../src/services/reports';
 import { deleteObject } from '../src/storage';
 import { startWorker } from '../src/worker';
 import { pageTexts, pdfFile, requirePoppler } from '../../../packages/report/test/poppler';
@@ -274,7 +275,7 @@ test('a probabilistic corridor: its report and its section report give each stat
   expect(items).toHaveLength(2);
   /** A summary's numbers as the report writes them, spaces left out (pdftotext drops some). */
   const row = (p: StationProbability) =>
-    `${percentText(p.pFailure.p)}±${percentText(p.pFailure.standardError)}${p.betaNormal!.toFixed(2)}${p.betaLognormal!.toFixed(2)}${p.valid}/${p.realisations}`.replace(
+    `${countedText(p.pFailure)}${p.betaNormal!.toFixed(2)}${p.betaLognormal!.toFixed(2)}${p.valid}/${p.realisations}`.replace(
       /\s+/g,
       '',
     );
@@ -300,9 +301,7 @@ test('a probabilistic corridor: its report and its section report give each stat
   expect(one.status).toBe(200);
   const page = words(pdfPages(one.body as Buffer).join('\n'));
   const p = items[0].probability![0];
-  expect(page).toContain(
-    `P(FS < 1) ${percentText(p.pFailure.p)} ± ${percentText(p.pFailure.standardError)} (1 SE)`,
-  );
+  expect(page).toContain(`P(FS < 1) ${countedText(p.pFailure)} (1 SE)`);
   expect(page).toContain(`realisations with an FS ${p.valid} of ${p.realisations}`);
   expect(page).toContain('lognormal, mean 5 kPa, SD 2 kPa');
 }, 240_000);
@@ -328,5 +327,50 @@ test('reports are the batch’s: another project’s user gets 404, an unknown r
     );
   } finally {
     await Batch.update({ status: 'done' }, { where: { id: batchId } });
+  }
+});
+
+test('a corridor report whose worker stopped on every try (the queue failed its job) is failed by the stall watch with the reason; one with a live job is left alone', async () => {
+  const batch = (await Batch.findByPk(batchId))!;
+  const row = (status: 'queued' | 'running') =>
+    ReportRow.create({
+      kind: 'corridor',
+      batchId,
+      sectionId: null,
+      run: null,
+      appendix: 'none',
+      status,
+      total: batch.total,
+      reviewId: null,
+      fileId: null,
+      requestedBy: batch.submittedBy,
+    });
+  // a report left running: its job was taken back at its expiry, tried again, and failed there
+  const orphan = await row('running');
+  await sequelize.query(
+    `INSERT INTO pgboss.job (name, data, state, retry_count, retry_limit, completed_on)
+       VALUES ($1, $2::jsonb, 'failed', 1, 1, now())`,
+    { bind: [REPORT_QUEUE, JSON.stringify({ reportId: orphan.id })] },
+  );
+  // a report whose job a worker holds (active: the in-process worker only takes created jobs)
+  const held = await row('queued');
+  await sequelize.query(
+    `INSERT INTO pgboss.job (name, data, state, started_on) VALUES ($1, $2::jsonb, 'active', now())`,
+    { bind: [REPORT_QUEUE, JSON.stringify({ reportId: held.id })] },
+  );
+  try {
+    const failed = await failOrphanedReports();
+    expect(failed).toContain(orphan.id);
+    expect(failed).not.toContain(held.id);
+    const res = await request(app).get(`/api/v1/reports/${orphan.id}`).auth(viewer, bearer);
+    expect(res.body.status).toBe('failed');
+    expect(res.body.reason).toMatch(/stopped before it finished, on every try/);
+    expect((await ReportRow.findByPk(held.id))!.status).toBe('queued');
+  } finally {
+    await sequelize.query(
+      `DELETE FROM pgboss.job WHERE name = $1 AND data->>'reportId' IN ($2, $3)`,
+      { bind: [REPORT_QUEUE, String(orphan.id), String(held.id)] },
+    );
+    await ReportRow.destroy({ where: { id: [orphan.id, held.id] } });
   }
 });

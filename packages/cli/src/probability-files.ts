@@ -14,12 +14,16 @@ import {
   CAUTION,
   analyzeProbability,
   caseProbability,
+  countedText,
+  distributionWords,
   drawProbability,
   drawSensitivity,
   drawTornado,
   fromSi,
   fsText,
   parseTarget,
+  percentText,
+  probabilityBasisWords,
   probabilityResult,
   probabilityRun,
   sensitivity,
@@ -137,11 +141,6 @@ function specOf(s: Section, o: ProbabilityOptions | SensitivityOptions): Probabi
   return p;
 }
 
-const pct = (p: number, digits = p < 0.001 ? 4 : 2) =>
-  Number.isFinite(p) ? `${(100 * p).toFixed(digits)} %` : '—';
-/** A counted probability and its standard error, to the same decimals (the probability's). */
-const counted = (c: { p: number; standardError: number }) =>
-  `${pct(c.p)} ± ${pct(c.standardError, c.p < 0.001 ? 4 : 2)}`;
 const fs3 = (v: number | null) => (v === null ? '—' : fsText(v));
 const row = (label: string, value: string) => `    ${label.padEnd(34)}${value}`;
 
@@ -152,11 +151,9 @@ function probabilityTable(
   taylor: TaylorResult | null,
 ): string[] {
   const lines = [`${r.id}  ${r.title}`];
-  lines.push(
-    `  ${spec.variables.length} random variables, ${spec.method}, seed ${spec.seed}, N = ${spec.realisations}, ${spec.surface === 'critical' ? "on each case's critical surface at the means" : 'the critical surface searched again in each realisation'}`,
-  );
+  lines.push(`  ${probabilityBasisWords(spec)}`);
   for (const v of spec.variables)
-    lines.push(`    ${v.name}: ${v.target}, ${distributionWords(v.distribution)}`);
+    lines.push(`    ${v.name}: ${v.target}, ${distributionWords(v.distribution)} (SI)`);
   for (const k of spec.correlations)
     lines.push(`    correlation ${k.between[0]} – ${k.between[1]}: ${k.coefficient}`);
   for (const c of r.cases) {
@@ -167,11 +164,11 @@ function probabilityTable(
     lines.push(row('mean FS', fs3(c.meanFs)));
     lines.push(row('SD of FS', c.sdFs === null ? '—' : c.sdFs.toFixed(3)));
     lines.push(row('least … greatest FS', `${fs3(c.minFs)} … ${fs3(c.maxFs)}`));
-    lines.push(row('P(FS < 1), counted', `${counted(c.pFailure)} (1 SE)`));
+    lines.push(row('P(FS < 1), counted', `${countedText(c.pFailure)} (1 SE)`));
     if (c.pBelowRequired && c.requiredFs !== null)
-      lines.push(row(`P(FS < ${fsText(c.requiredFs)}), counted`, counted(c.pBelowRequired)));
+      lines.push(row(`P(FS < ${fsText(c.requiredFs)}), counted`, countedText(c.pBelowRequired)));
     const beta = (b: typeof c.betaNormal) =>
-      b.beta === null ? '—' : `${b.beta.toFixed(2)}  (Φ(−β) = ${pct(b.pf!)})`;
+      b.beta === null ? '—' : `${b.beta.toFixed(2)}  (Φ(−β) = ${percentText(b.pf!)})`;
     lines.push(row('β, FS normal', beta(c.betaNormal)));
     lines.push(row('β, FS lognormal', beta(c.betaLognormal)));
     if (c.sdFs === 0)
@@ -195,21 +192,6 @@ function probabilityTable(
     }
   }
   return lines;
-}
-
-function distributionWords(d: ProbabilitySpec['variables'][number]['distribution']): string {
-  const n = (v: number) => String(Number(v.toPrecision(5)));
-  switch (d.kind) {
-    case 'normal':
-    case 'lognormal':
-      return `${d.kind}, mean ${n(d.mean)}, SD ${n(d.sd)} (SI)`;
-    case 'truncated-normal':
-      return `truncated normal, mean ${n(d.mean)}, SD ${n(d.sd)}, ${n(d.min)} … ${n(d.max)} (SI)`;
-    case 'uniform':
-      return `uniform, ${n(d.min)} … ${n(d.max)} (SI)`;
-    case 'triangular':
-      return `triangular, ${n(d.min)} … ${n(d.mode)} … ${n(d.max)} (SI)`;
-  }
 }
 
 /**

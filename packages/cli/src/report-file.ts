@@ -7,8 +7,7 @@ import {
   isGeoJsonCorridor,
   isLandXml,
   parseSections,
-  ProbabilityInputError,
-  stationProbability,
+  stationProbabilityOrWarning,
   type Section,
   type StationProbability,
   type StationResult,
@@ -156,16 +155,15 @@ export async function reportFile(
   const section = applyOverrides(sections[0], options);
   let result: StationResult;
   // the probability of failure on each case's critical surface, where the section asks for it,
-  // as `scarpline batch` computes it with the station's result (batch/worker.ts)
+  // as `scarpline batch` computes it with the station's result (batch/worker.ts): where it
+  // cannot be computed, the station's warning says why
   let probability: StationProbability[] | null = null;
   try {
-    result = analyzeSection(section);
-    try {
-      probability = stationProbability(section, {}, result)?.summary ?? null;
-    } catch (e) {
-      if (!(e instanceof ProbabilityInputError)) throw e;
-      err(`${input.name}: ${section.id}: ${e.message}; the report gives no probability of failure`);
-    }
+    const analysed = analyzeSection(section);
+    const { summary, warning } = stationProbabilityOrWarning(section, {}, analysed);
+    probability = summary;
+    result = warning ? { ...analysed, warnings: [...analysed.warnings, warning] } : analysed;
+    if (warning) err(`${input.name}: ${section.id}: ${warning.message}`);
   } catch (e) {
     if (!(e instanceof AnalysisStopped)) throw e;
     err(`${input.name}: ${section.id}: ${e.message}; no report written`);

@@ -15,7 +15,7 @@ describe('scarpline probability', () => {
     const svg = join(dir, 'fs.svg');
     const r = run(['probability', EXAMPLE, '-n', '2000', '--taylor', '--svg', svg]);
     expect(r.code).toBe(0);
-    expect(r.out).toContain('latin-hypercube, seed 520, N = 2000');
+    expect(r.out).toContain('Latin hypercube sampling, seed 520, N = 2000');
     expect(r.out).toMatch(/P\(FS < 1\), counted +\d+\.\d+ % ± \d+\.\d+ %/);
     expect(r.out).toMatch(/β, FS lognormal +\d\.\d\d/);
     expect(r.out).toMatch(/Taylor series method \(11 analyses\)/);

@@ -1,7 +1,7 @@
 import { copyFileSync, existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { CAUTION, percentText, type StationProbability } from '@scarpline/core';
+import { CAUTION, countedText, type StationProbability } from '@scarpline/core';
 import { flat, pageTexts, requirePoppler } from '../../report/test/poppler';
 import { FIXTURES, ROOT, run } from './run';
 
@@ -34,7 +34,7 @@ function probabilisticCorridor(dir: string): string {
 
 /** A summary's numbers as the corridor report's row writes them, without spaces. */
 const pfRow = (p: StationProbability) =>
-  `${percentText(p.pFailure.p)}±${percentText(p.pFailure.standardError)}${p.betaNormal!.toFixed(2)}${p.betaLognormal!.toFixed(2)}${p.valid}/${p.realisations}`.replace(
+  `${countedText(p.pFailure)}${p.betaNormal!.toFixed(2)}${p.betaLognormal!.toFixed(2)}${p.valid}/${p.realisations}`.replace(
     /\s+/g,
     '',
   );
@@ -80,9 +80,7 @@ describe('scarpline report', () => {
     ).sections[0].cases[0];
     expect(c.pFailure.p).toBeGreaterThan(0);
     const text = flat(pageTexts(pdf).join('\n'));
-    expect(text).toContain(
-      `P(FS < 1) ${percentText(c.pFailure.p)} ± ${percentText(c.pFailure.standardError)} (1 SE)`,
-    );
+    expect(text).toContain(`P(FS < 1) ${countedText(c.pFailure)} (1 SE)`);
     expect(text).toContain(`β, FS normal ${c.betaNormal.beta.toFixed(2)}`);
     expect(text).toContain(`β, FS lognormal ${c.betaLognormal.beta.toFixed(2)}`);
     expect(text).toContain(`realisations with an FS ${c.valid} of ${c.realisations}`);

@@ -62,6 +62,7 @@ export {
   type RawProbability,
 } from './probability/normalise-probability';
 export {
+  countedText,
   percentText,
   valueText,
   distributionWords,

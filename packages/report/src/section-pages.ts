@@ -19,7 +19,7 @@ import {
   VERDICT_WORDS,
   BETA_WORDS,
   COUNTED_WORDS,
-  percentText,
+  countedText,
   probabilityBasisWords,
   variableDistributionWords,
   type CaseResult,
@@ -234,8 +234,7 @@ function randomVariables(
 
 /** A case's probability of failure: the FS's statistics, P(FS < 1), P(FS < required), β. */
 function probabilityBlock(l: Layout, p: StationProbability, requiredFs: number | null): void {
-  const counted = (x: { p: number; standardError: number }) =>
-    `${percentText(x.p)} ± ${percentText(x.standardError)} (1 SE)`;
+  const counted = (x: { p: number; standardError: number }) => `${countedText(x)} (1 SE)`;
   l.heading('Probability of failure', 3, 80);
   l.fields([
     ['mean FS', p.meanFs === null ? '—' : fsText(p.meanFs)],

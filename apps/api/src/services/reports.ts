@@ -5,7 +5,7 @@
  * when they are made, and are kept in object storage (services/files.ts) with a row here; a
  * section's report is made again only when its run or its review has changed since.
  */
-import { Op } from 'sequelize';
+import { Op, QueryTypes } from 'sequelize';
 import { CAUTION } from '@scarpline/core/caution';
 import type { MethodId, Section } from '@scarpline/core/model';
 import type {
@@ -36,7 +36,7 @@ import {
   StoredFile,
   type Appendix,
 } from '../models';
-import { enqueueReport } from '../queue';
+import { enqueueReport, REPORT_QUEUE } from '../queue';
 import { makeReport, poolFailure } from '../reports/pool';
 import { audit } from './audit';
 import { assertProject, type Principal } from './auth';
@@ -451,4 +451,31 @@ export async function runCorridorReport(reportId: number): Promise<void> {
     // A thread stopped at its limit would stop again: only other failures are tried again.
     if (!(e instanceof PoolError)) throw e;
   }
+}
+
+/**
+ * Fails the corridor reports the queue has given up on: queued or running, and no job of
+ * theirs waiting or active any more (the worker laying one out ended, a kill or a crash, on its
+ * try and on its retry; the queue then fails the job, and nothing else would end the report).
+ * A report's job is queued in the transaction that writes its row, and ends after the row.
+ * Called by the API's stall watch; returns the ids it failed.
+ */
+export async function failOrphanedReports(): Promise<number[]> {
+  const rows = await sequelize.query<{ id: number }>(
+    `UPDATE reports r SET status = 'failed', reason = $2, finished_at = now(), updated_at = now()
+      WHERE r.kind = 'corridor' AND r.status IN ('queued', 'running')
+        AND NOT EXISTS (
+          SELECT 1 FROM pgboss.job j
+           WHERE j.name = $1 AND j.state IN ('created', 'retry', 'active')
+             AND j.data->>'reportId' = r.id::text)
+      RETURNING r.id`,
+    {
+      bind: [
+        REPORT_QUEUE,
+        'the worker laying it out stopped before it finished, on every try (a worker that was killed or ran out of memory): ask for the report again',
+      ],
+      type: QueryTypes.SELECT,
+    },
+  );
+  return rows.map((r) => r.id);
 }

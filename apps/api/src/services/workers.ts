@@ -13,6 +13,7 @@ import { sequelize } from '../db';
 import { log } from '../log';
 import { WorkerHeartbeat } from '../models';
 import { batchStalled } from './mail';
+import { failOrphanedReports } from './reports';
 import { failOrphanedStudies } from './studies';
 
 /** Heartbeats older than this are deleted by the stall watch. */
@@ -186,8 +187,9 @@ export async function checkStalls(): Promise<{ stalled: number[]; resumed: numbe
 }
 
 /**
- * Runs checkStalls, and the failing of studies the queue gave up on (failOrphanedStudies),
- * every HEARTBEAT_SECONDS (in the API process); returns its stop.
+ * Runs checkStalls, and the failing of the studies and corridor reports the queue gave up on
+ * (failOrphanedStudies, failOrphanedReports), every HEARTBEAT_SECONDS (in the API process);
+ * returns its stop.
  */
 export function startStallWatch(): () => void {
   let running = false;
@@ -195,10 +197,12 @@ export function startStallWatch(): () => void {
   const timer = setInterval(() => {
     if (running) return;
     running = true;
-    Promise.all([checkStalls(), failOrphanedStudies()])
-      .then(([, studies]) => {
+    Promise.all([checkStalls(), failOrphanedStudies(), failOrphanedReports()])
+      .then(([, studies, reports]) => {
         for (const id of studies)
           log.warn({ studyId: id }, 'study failed: its worker stopped on every try');
+        for (const id of reports)
+          log.warn({ reportId: id }, 'corridor report failed: its worker stopped on every try');
         failing = false;
       })
       .catch((e: Error) => {

@@ -14,14 +14,25 @@ import type {
   ProbabilitySpec,
 } from './types';
 
+/** The decimals of a probability in percent: two, four below 0.1 %. */
+const percentDecimals = (p: number) => (p < 0.001 ? 4 : 2);
+
 /**
- * A probability as a percentage: two decimals, four below 0.1 %, none at 0; a dash when not a
- * number.
+ * A probability as a percentage: two decimals, four below 0.1 % (or `decimals`), none at 0; a
+ * dash when not a number.
  *
  * @example percentText(0.01234) // → '1.23 %'
  */
-export const percentText = (p: number): string =>
-  !Number.isFinite(p) ? '—' : p === 0 ? '0 %' : `${(100 * p).toFixed(p < 0.001 ? 4 : 2)} %`;
+export const percentText = (p: number, decimals = percentDecimals(p)): string =>
+  !Number.isFinite(p) ? '—' : p === 0 ? '0 %' : `${(100 * p).toFixed(decimals)} %`;
+
+/**
+ * A counted probability and its standard error, both to the probability's decimals.
+ *
+ * @example countedText({ p: 0.0065, standardError: 0.000804 }) // → '0.65 % ± 0.08 %'
+ */
+export const countedText = (c: { p: number; standardError: number }): string =>
+  `${percentText(c.p)} ± ${percentText(c.standardError, percentDecimals(c.p))}`;
 
 /** A value with five significant digits and no trailing zeros, e.g. 0.4 or 27. */
 export const valueText = (v: number): string => String(Number(v.toPrecision(5)));
