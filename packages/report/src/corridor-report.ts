@@ -107,8 +107,8 @@ function probabilityOfFailure(
   l.table(
     [
       { head: `station (${L})`, width: 45, align: 'right' },
-      { head: 'section', width: 75 },
-      { head: 'case', width: 88 },
+      { head: 'section', width: 100 },
+      { head: 'case', width: 63 },
       { head: 'FS', width: 32, align: 'right' },
       { head: 'mean FS', width: 36, align: 'right' },
       { head: 'P(FS < 1) ± SE', width: 72, align: 'right' },
