@@ -1,7 +1,15 @@
 import PDFDocument from 'pdfkit';
 import SVGtoPDF from 'svg-to-pdfkit';
 import { CAUTION } from '@scarpline/core/caution';
-import { fontFiles, fontName, GREEK_FAMILY, scriptRuns, svgForPdf, type FontStyle } from './fonts';
+import {
+  fontFiles,
+  fontName,
+  GREEK_FAMILY,
+  MATH_FAMILY,
+  scriptRuns,
+  svgForPdf,
+  type FontStyle,
+} from './fonts';
 
 /** A4 portrait, in PDF points. */
 const PAGE = { width: 595.28, height: 841.89 };
@@ -293,7 +301,7 @@ export class Layout {
         fontCallback: (family, bold, italic) =>
           fontName(
             bold ? 'bold' : italic ? 'italic' : 'regular',
-            family === GREEK_FAMILY ? 'greek' : 'latin',
+            family === GREEK_FAMILY ? 'greek' : family === MATH_FAMILY ? 'math' : 'latin',
           ),
         warningCallback: () => undefined,
       });

@@ -227,10 +227,10 @@ describe('corridorReportPdf of a corridor with a probability of failure', () => 
     expect(part).toContain('water level: water.level, normal, mean 0 m, SD 1 m');
     expect(part).toContain('correlation γ weathered mudstone – water level: 0.2');
     expect(part).toContain(
-      'P(FS < 1) is counted: the share of the N realisations with FS below 1, with its standard error sqrt(P(1 − P)/N)',
+      'P(FS < 1) is counted: the share of the N realisations with FS below 1, with its standard error √(P(1 − P)/N)',
     );
     expect(part).toContain('β (FS normal) = (μ − 1)/σ');
-    expect(part).toContain('β (FS lognormal) = ln(μ/sqrt(1 + V²))/sqrt(ln(1 + V²)), V = σ/μ');
+    expect(part).toContain('β (FS lognormal) = ln(μ/√(1 + V²))/√(ln(1 + V²)), V = σ/μ');
   });
 
   test("each station's section page: the random variables and a block per case", () => {

@@ -10,7 +10,6 @@ import {
   variableDistributionWords,
 } from '@scarpline/core';
 import { sectionReportPdf, type ReportMeta } from '../src';
-import { withGlyphs } from '../src/fonts';
 import { flat, fonts, images, pageTexts, pdfFile, requirePoppler } from './poppler';
 
 const EXAMPLES = join(__dirname, '..', '..', '..', 'examples');
@@ -127,10 +126,16 @@ describe('sectionReportPdf', () => {
         expect(flat(text)).toMatch(/Bishop, A\. W\. \(1955\)\. The use of the slip circle/);
       });
 
-      test('Fira Sans embedded, and the drawing as vector graphics (no images) with its text', () => {
+      test('Fira Sans embedded (Noto Sans Math for the signs it lacks), and the drawing as vector graphics (no images) with its text', () => {
         const f = fonts(path);
         expect(f.length).toBeGreaterThan(0);
-        expect(f.every((x) => /FiraSans/.test(x.name) && x.embedded)).toBe(true);
+        expect(f.every((x) => /FiraSans|NotoSansMath/.test(x.name) && x.embedded)).toBe(true);
+        expect(f.some((x) => /FiraSans/.test(x.name))).toBe(true);
+        // the prime of c′ and φ′ (the materials' strengths) is written as itself, not as a
+        // quotation mark
+        expect(text).toMatch(/[cφ]′/);
+        expect(text).not.toMatch(/[cφ]’/);
+        expect(f.some((x) => /NotoSansMath/.test(x.name))).toBe(true);
         expect(images(path)).toEqual([]);
         // the drawing's own words: its legend, axis and the governing callout
         expect(text).toMatch(/piezometric line/);
@@ -174,7 +179,7 @@ describe('sectionReportPdf of a section with random variables', () => {
     expect(text).toContain('lognormal, mean 4 kPa, SD 1.6 kPa');
     for (const k of spec.correlations)
       // the primes written as the fonts hold them (fonts.ts)
-      expect(text).toContain(withGlyphs(`${k.between[0]} – ${k.between[1]}: ${k.coefficient}`));
+      expect(text).toContain(`${k.between[0]} – ${k.between[1]}: ${k.coefficient}`);
     expect(probability).toHaveLength(1);
     const p = probability[0];
     const block = text.slice(text.indexOf('Probability of failure mean FS'));
