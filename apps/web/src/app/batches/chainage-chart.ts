@@ -22,7 +22,8 @@ import {
   type ChainagePoint,
   type PlacedStation,
 } from '@scarpline/core/draw';
-import { batchUnits, formatChainage, formatFs, lengthUnit, type Units } from './scales';
+import { batchUnits, formatChainage, formatFs, type Units } from './scales';
+import { ChainageFrame } from './chainage-frame';
 
 /** One station of the chart: a section with a station and a result (its governing FS or none). */
 export interface ChartPoint extends ChainagePoint {
@@ -86,6 +87,7 @@ let charts = 0;
 @Component({
   selector: 'sl-chainage-chart',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [ChainageFrame],
   templateUrl: './chainage-chart.html',
   styleUrl: './chainage-chart.scss',
 })
@@ -120,10 +122,6 @@ export class ChainageChart {
   protected readonly failing = computed(() =>
     this.data().points.filter((p) => !p.hidden && p.verdict === 'below'),
   );
-  protected readonly xTitle = computed(() => {
-    const u = lengthUnit(this.data().units);
-    return u ? `Chainage (${u})` : 'Chainage';
-  });
   protected readonly chartLabel = computed(() => {
     const c = this.caseName();
     return c === null

@@ -13,7 +13,8 @@ import { observedWidth } from '../shared/observed-width';
 import { steppedIndex } from '../shared/stepped-index';
 import { betaText, probabilityText } from '../studies/probability-format';
 import type { SectionListItem } from './batch-types';
-import { batchUnits, formatChainage, lengthUnit } from './scales';
+import { ChainageFrame } from './chainage-frame';
+import { batchUnits, formatChainage } from './scales';
 
 /** One station's probability of failure under one case. */
 export interface PfPoint {
@@ -117,6 +118,7 @@ let charts = 0;
 @Component({
   selector: 'sl-probability-chart',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [ChainageFrame],
   templateUrl: './probability-chart.html',
   styleUrl: './probability-chart.scss',
 })
@@ -137,10 +139,7 @@ export class ProbabilityChart {
   protected readonly marker = caseMarker;
 
   protected readonly data = computed(() => pfPoints(this.sections()));
-  protected readonly xTitle = computed(() => {
-    const u = lengthUnit(batchUnits(this.sections()));
-    return u ? `Chainage (${u})` : 'Chainage';
-  });
+  protected readonly units = computed(() => batchUnits(this.sections()));
 
   protected readonly layout = computed(() => {
     const { points, cases } = this.data();
@@ -166,7 +165,7 @@ export class ProbabilityChart {
     const xTicks = x.ticks(Math.max(2, Math.floor((plot.right - plot.left) / 110))).map((v) => ({
       value: v,
       x: x(v),
-      text: formatChainage(v, batchUnits(this.sections())),
+      text: formatChainage(v, this.units()),
     }));
     const placed = points.map((p) => ({
       point: p,

@@ -165,4 +165,32 @@ describe('TerrainSubmit', () => {
     expect(items[0].textContent).toContain('no data at the sample');
     expect(el.textContent).toContain('1 error in the terrain input.');
   });
+
+  it('shows each file chosen by its name and size, each picker labelled; a file removed is asked for again', async () => {
+    const groups = Array.from(el.querySelectorAll('sl-file-choice [role=group]'));
+    const label = (g: Element) =>
+      el.querySelector(`[id="${g.getAttribute('aria-labelledby')}"]`)?.textContent?.trim();
+    expect(groups.map(label)).toEqual([
+      'Terrain raster (.tif)',
+      'Alignment (.geojson)',
+      'Corridor settings (.yaml, .json)',
+      'Its top (.tif)',
+    ]);
+    await choose('terrain-raster', dem);
+    await choose('terrain-alignment', line);
+    await choose('terrain-settings', settings);
+    const chosen = Array.from(el.querySelectorAll('sl-file-choice .file')).map((f) =>
+      f.textContent?.replace(/\s+/g, ' ').trim(),
+    );
+    expect(chosen).toEqual([
+      'dem.tif 4 B',
+      'line.geojson 57 B',
+      'settings.yaml 31 B',
+      'No file chosen',
+    ]);
+    expect(button().disabled).toBe(false);
+    (el.querySelector('button[aria-label="Remove line.geojson"]') as HTMLButtonElement).click();
+    await fixture.whenStable();
+    expect(button().disabled).toBe(true);
+  });
 });

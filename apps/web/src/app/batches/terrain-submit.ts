@@ -9,6 +9,7 @@ import { Router } from '@angular/router';
 import type { LocatedError, Problem } from '../core/models';
 import { toProblem } from '../core/problem';
 import { BatchesApi } from './batches-api';
+import { FileChoice } from './file-choice';
 
 /** What the form gives: the numbers as typed, the files as chosen. */
 export interface TerrainForm {
@@ -74,6 +75,7 @@ export function terrainJob(f: TerrainForm): string {
 @Component({
   selector: 'sl-terrain-submit',
   imports: [
+    FileChoice,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
@@ -110,11 +112,6 @@ export class TerrainSubmit {
   protected readonly ready = computed(
     () => this.terrain() !== null && this.alignment() !== null && this.settings() !== null,
   );
-
-  protected pick(which: 'terrain' | 'alignment' | 'settings' | 'rock', e: Event): void {
-    const file = (e.target as HTMLInputElement).files?.[0] ?? null;
-    this[which].set(file);
-  }
 
   protected value(e: Event): string {
     return (e.target as HTMLInputElement).value;

@@ -235,6 +235,8 @@ describe('SectionDetail', () => {
     // done: no more polling
     vi.advanceTimersByTime(POLL_MS * 3);
     backend.expectNone('/api/v1/sections/7');
+    // (the studies card reads its own list again every LIST_MS while the page is in view)
+    expect(backend.match('/api/v1/sections/7/studies').length).toBeLessThanOrEqual(1);
     backend.verify();
   });
 

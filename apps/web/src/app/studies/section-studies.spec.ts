@@ -6,7 +6,7 @@ import type { Role } from '../core/models';
 import { apiTestProviders, verifyAndReset } from '../testing/api-testing';
 import { signInAs } from '../testing/sign-in-as';
 import { aStudy, doneProbability, sectionWithVariables } from '../testing/study-fixtures';
-import { POLL_MS, SectionStudies } from './section-studies';
+import { LIST_MS, POLL_MS, SectionStudies } from './section-studies';
 import type { ProbabilitySummary, Study } from './study-types';
 
 const LIST = '/api/v1/sections/9/studies';
@@ -172,6 +172,120 @@ describe('SectionStudies', () => {
 
     vi.advanceTimersByTime(3 * POLL_MS);
     backend.expectNone('/api/v1/studies/41');
+  });
+
+  describe('reads the list again while the page is in view', () => {
+    let state: DocumentVisibilityState;
+    const show = (s: DocumentVisibilityState) => {
+      state = s;
+      document.dispatchEvent(new Event('visibilitychange'));
+    };
+    const reads = () => backend.match((r) => r.method === 'GET' && r.url === LIST);
+
+    beforeEach(() => {
+      vi.useFakeTimers({ toFake: ['setInterval', 'clearInterval'] });
+      state = 'visible';
+      Object.defineProperty(document, 'visibilityState', { configurable: true, get: () => state });
+    });
+    afterEach(() => {
+      delete (document as { visibilityState?: unknown }).visibilityState;
+    });
+
+    it('every LIST_MS: a study asked elsewhere appears, opened, and is followed while it runs', async () => {
+      await open('viewer', [doneProbability()]);
+      expect(all('study-row')).toHaveLength(1);
+
+      vi.advanceTimersByTime(LIST_MS - 1);
+      expect(reads()).toHaveLength(0);
+      vi.advanceTimersByTime(1);
+      const elsewhere = aStudy({ id: 52, status: 'running', progress: { done: 100, total: 2000 } });
+      const [read] = reads();
+      read.flush([elsewhere, doneProbability()]);
+      await fixture.whenStable();
+      expect(all('study-row')).toHaveLength(2);
+      expect(text(all('study-status')[0])).toBe('running');
+      expect(text(byId('study-progress'))).toBe('100 of 2000');
+      expect(text(byId('study-shown'))).toContain('The study is running');
+
+      // now running, it is read every POLL_MS as any running study is
+      vi.advanceTimersByTime(POLL_MS);
+      backend
+        .expectOne('/api/v1/studies/52')
+        .flush(aStudy({ id: 52, status: 'running', progress: { done: 900, total: 2000 } }));
+      await fixture.whenStable();
+      expect(text(byId('study-progress'))).toBe('900 of 2000');
+    });
+
+    it('reads nothing while the page is hidden, and at once when it is seen again', async () => {
+      await open('viewer', [doneProbability()]);
+      show('hidden');
+      vi.advanceTimersByTime(5 * LIST_MS);
+      expect(reads()).toHaveLength(0);
+
+      show('visible');
+      vi.advanceTimersByTime(0);
+      const [read] = reads();
+      read.flush([aStudy({ id: 53, status: 'done' }), doneProbability()]);
+      await fixture.whenStable();
+      expect(all('study-row')).toHaveLength(2);
+
+      vi.advanceTimersByTime(LIST_MS);
+      reads()[0].flush([aStudy({ id: 53, status: 'done' }), doneProbability()]);
+      await fixture.whenStable();
+      expect(all('study-row')).toHaveLength(2);
+    });
+
+    it('says when a read again fails, keeps the list, and clears the problem on the next', async () => {
+      await open('viewer', [doneProbability()]);
+      vi.advanceTimersByTime(LIST_MS);
+      reads()[0].flush(
+        { type: 'about:blank', title: 'Service unavailable', status: 503 },
+        { status: 503, statusText: 'Service Unavailable' },
+      );
+      await fixture.whenStable();
+      expect(text(byId('studies-refresh-problem'))).toContain(
+        'The list of studies could not be read again (trying again)',
+      );
+      expect(all('study-row')).toHaveLength(1);
+
+      vi.advanceTimersByTime(LIST_MS);
+      reads()[0].flush([doneProbability()]);
+      await fixture.whenStable();
+      expect(byId('studies-refresh-problem')).toBeNull();
+    });
+
+    it('waits for Try again after a failed first read (no reads again of a list never read)', async () => {
+      signInAs('viewer', { id: 2, name: 'The viewer' });
+      TestBed.configureTestingModule({ providers: apiTestProviders() });
+      backend = TestBed.inject(HttpTestingController);
+      fixture = TestBed.createComponent(SectionStudies);
+      fixture.componentRef.setInput('sectionId', 9);
+      fixture.componentRef.setInput('section', sectionWithVariables());
+      await fixture.whenStable();
+      backend
+        .expectOne(LIST)
+        .flush({ title: 'Service unavailable' }, { status: 503, statusText: 'Unavailable' });
+      await fixture.whenStable();
+      vi.advanceTimersByTime(3 * LIST_MS);
+      expect(reads()).toHaveLength(0);
+      expect(el().textContent).toContain('The studies could not be read');
+    });
+
+    it('keeps a study just asked when a read already on its way answers without it', async () => {
+      await open('engineer', []);
+      vi.advanceTimersByTime(LIST_MS);
+      const [read] = reads();
+      byId('ask-study')!.click();
+      await fixture.whenStable();
+      backend
+        .expectOne((r) => r.method === 'POST' && r.url === LIST)
+        .flush(aStudy({ id: 60 }), { status: 202, statusText: 'Accepted' });
+      await fixture.whenStable();
+      read.flush([]);
+      await fixture.whenStable();
+      expect(all('study-row')).toHaveLength(1);
+      expect(text(byId('study-shown'))).toContain('The study is queued');
+    });
   });
 
   it('lists a study asked for from the form, and opens it', async () => {

@@ -1,17 +1,36 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  DOCUMENT,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { Section } from '@scarpline/core/model';
 import { JOB_STATE_WORDS } from '@scarpline/core/verdict';
-import { catchError, distinctUntilChanged, EMPTY, of, switchMap, tap, type Observable } from 'rxjs';
+import {
+  catchError,
+  concat,
+  distinctUntilChanged,
+  EMPTY,
+  exhaustMap,
+  of,
+  switchMap,
+  tap,
+  type Observable,
+} from 'rxjs';
 import { Auth } from '../core/auth';
 import type { Problem } from '../core/models';
 import { toProblem } from '../core/problem';
 import { userName } from '../core/user-name';
 import { WhenPipe } from '../shared/date-time';
 import { pollActive } from '../shared/poll-active';
+import { whileVisible } from '../shared/while-visible';
 import { StudiesApi } from './studies-api';
 import { StudyForm } from './study-form';
 import { fsText } from '../sections/format';
@@ -23,6 +42,12 @@ import type { ProbabilitySummary, Study } from './study-types';
 /** How often a queued or running study is read again. */
 export const POLL_MS = 1500;
 
+/**
+ * How often the list is read again while the page is in view, for the studies asked elsewhere
+ * (another tab, the command line, a colleague); at once when the page comes back into view.
+ */
+export const LIST_MS = 10_000;
+
 const isActive = (s: Study) => s.status === 'queued' || s.status === 'running';
 
 /** Two lists of ids alike (so that polling goes on while the same studies run). */
@@ -33,7 +58,8 @@ const sameIds = (a: readonly number[], b: readonly number[]) =>
  * The section's studies (probability of failure, sensitivity, solving for a value, each made
  * by a worker on the section's current run): the list, newest first, with each one's state and
  * progress (read again while any is being made), the result or problem of the one opened, and
- * for engineers and administrators a form to ask for another.
+ * for engineers and administrators a form to ask for another. The list is read again every
+ * LIST_MS while the page is in view, so that a study asked elsewhere appears without a reload.
  */
 @Component({
   selector: 'sl-section-studies',
@@ -45,6 +71,7 @@ const sameIds = (a: readonly number[], b: readonly number[]) =>
 export class SectionStudies {
   private readonly api = inject(StudiesApi);
   private readonly auth = inject(Auth);
+  private readonly doc = inject(DOCUMENT);
 
   readonly sectionId = input.required<number>();
   /** The section's current input (SI): its variables, inputs and cases. */
@@ -68,6 +95,7 @@ export class SectionStudies {
   protected readonly studies = signal<Study[] | null>(null);
   protected readonly listProblem = signal<Problem | null>(null);
   protected readonly pollProblem = signal<Problem | null>(null);
+  protected readonly refreshProblem = signal<Problem | null>(null);
   /** The study opened (its result or problem shown): the newest until another is opened. */
   protected readonly opened = signal<number | null>(null);
   private readonly tries = signal(0);
@@ -102,7 +130,11 @@ export class SectionStudies {
         distinctUntilChanged(),
         switchMap(() => {
           this.listProblem.set(null);
-          return this.api.list(this.sectionId()).pipe(
+          this.refreshProblem.set(null);
+          const id = this.sectionId();
+          // once read, read again while the page is in view (a failed first read waits for Try again)
+          return this.api.list(id).pipe(
+            switchMap((list) => concat(of(list), this.reread(id))),
             catchError((err: unknown) => {
               this.listProblem.set(toProblem(err));
               return EMPTY;
@@ -111,7 +143,7 @@ export class SectionStudies {
         }),
         takeUntilDestroyed(),
       )
-      .subscribe((list) => this.studies.set(list));
+      .subscribe((list) => this.replace(list));
 
     // While any study is queued or running, read each of them every POLL_MS; stop once none is.
     pollActive(this.activeIds, (id) => this.poll(id), POLL_MS)
@@ -127,6 +159,34 @@ export class SectionStudies {
         return of(null);
       }),
     );
+  }
+
+  /** The list every LIST_MS while the page is in view (a read at a time); its problem said. */
+  private reread(sectionId: number): Observable<Study[]> {
+    return whileVisible(this.doc, LIST_MS).pipe(
+      exhaustMap(() =>
+        this.api.list(sectionId).pipe(
+          tap(() => this.refreshProblem.set(null)),
+          catchError((err: unknown) => {
+            this.refreshProblem.set(toProblem(err));
+            return EMPTY;
+          }),
+        ),
+      ),
+    );
+  }
+
+  /**
+   * The list as read, and before it any study of the section held that is newer than all it
+   * holds: one just asked from the form, whose answer overtook a read already on its way.
+   */
+  private replace(list: readonly Study[]): void {
+    const section = this.sectionId();
+    const newest = list.length === 0 ? 0 : Math.max(...list.map((s) => s.id));
+    this.studies.update((held) => [
+      ...(held ?? []).filter((s) => s.sectionId === section && s.id > newest),
+      ...list,
+    ]);
   }
 
   private merge(fresh: readonly Study[]): void {
