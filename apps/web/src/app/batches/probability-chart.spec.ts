@@ -139,7 +139,14 @@ describe('ProbabilityChart', () => {
     pts[2].dispatchEvent(new KeyboardEvent('keydown', { key: 'Enter' }));
     expect(opened).toEqual([2]);
     expect(el.querySelector('.summary')?.textContent).toContain(
-      '3 stations with a probability of failure, 2 cases. The greatest: 0.100 at station 0+100 (case flood).',
+      '3 stations carry their probability of failure, 2 cases. The greatest: 0.100 at station 0+100 (case flood).',
+    );
+  });
+
+  it('says so when no realisation failed at any station', async () => {
+    const el = await render([item(1, 100, [summary('long term', 0)])]);
+    expect(el.querySelector('.summary')?.textContent).toContain(
+      '1 station carries its probability of failure, 1 case. No realisation failed at any station. 1 with no failed realisation, drawn open at 1/N.',
     );
   });
 

@@ -209,13 +209,13 @@ export class ProbabilityChart {
     const stations = new Set(points.map((p) => p.sectionId)).size;
     const worst = points.reduce((a, b) => (b.pf > a.pf ? b : a));
     const parts = [
-      `${stations} ${stations === 1 ? 'station' : 'stations'} with a probability of failure, ${cases.length} ${cases.length === 1 ? 'case' : 'cases'}.`,
+      `${stations} ${stations === 1 ? 'station carries its' : 'stations carry their'} probability of failure, ${cases.length} ${cases.length === 1 ? 'case' : 'cases'}.`,
     ];
-    if (worst.pf > 0) {
-      parts.push(
-        `The greatest: ${probabilityText(worst.pf)} at station ${worst.label} (case ${worst.case}).`,
-      );
-    }
+    parts.push(
+      worst.pf > 0
+        ? `The greatest: ${probabilityText(worst.pf)} at station ${worst.label} (case ${worst.case}).`
+        : 'No realisation failed at any station.',
+    );
     const none = points.filter((p) => p.pf === 0).length;
     if (none > 0) parts.push(`${none} with no failed realisation, drawn open at 1/N.`);
     return parts.join(' ');
