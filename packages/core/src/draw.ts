@@ -11,10 +11,12 @@ export {
   type DrawChainageOptions,
 } from './draw/draw-chainage';
 export {
+  chainageAxis,
   chainageLayout,
   chainageMarker,
   clippedMarker,
   CHAINAGE_STYLE,
+  type ChainageAxis,
   type ChainageLayout,
   type ChainageMark,
   type PlacedStation,

@@ -96,6 +96,43 @@ const markOf = (p: ChainagePoint): ChainageMark =>
         ? 'below'
         : 'meets';
 
+/** The chainage axis of a chart: the plot's ends, a station's x, and the ticks. */
+export interface ChainageAxis {
+  left: number;
+  right: number;
+  x: LinearScale;
+  ticks: { value: number; x: number; text: string }[];
+}
+
+/**
+ * The chainage axis that every chart along a corridor shares (the governing FS, P(FS < 1)):
+ * the stations' range and 2 % either side over the plot's width less its margins (the FS
+ * chart's, 56 and 18, unless given), with ticks about every 90 units of width. Given the
+ * same stations and width, a station sits at the same x in each chart.
+ *
+ * @example chainageAxis([1000, 1020, 1040], { width: 960, units: 'si' }).x(1020) // → 499
+ */
+export function chainageAxis(
+  stations: readonly number[],
+  options: { width: number; units: UnitSystem | null; margin?: { left: number; right: number } },
+): ChainageAxis {
+  const margin = options.margin ?? { left: 56, right: 18 };
+  const left = margin.left;
+  const right = Math.max(margin.left + 10, options.width - margin.right);
+  let s0 = Math.min(...stations);
+  let s1 = Math.max(...stations);
+  if (!Number.isFinite(s0)) [s0, s1] = [0, 1];
+  const pad = s1 > s0 ? (s1 - s0) * 0.02 : 10;
+  const x = scaleLinear([s0 - pad, s1 + pad], [left, right]);
+  const { units } = options;
+  const write = (v: number) =>
+    units === null ? String(Number(v.toFixed(3))) : chainageLabel(v, units);
+  const ticks = x
+    .ticks(Math.max(2, Math.floor((right - left) / 90)))
+    .map((value) => ({ value, x: x(value), text: write(value) }));
+  return { left, right, x, ticks };
+}
+
 /**
  * The chart of the governing FS along the chainage, laid out: x by chainage, y by FS from 0 up
  * to a round value above the required FS (at least 3 and 2.5 times the largest requirement;
@@ -118,19 +155,18 @@ export function chainageLayout<P extends ChainagePoint>(
 ): ChainageLayout<P> {
   const { width, height, units } = options;
   const margin = options.margin ?? { left: 56, right: 18, top: 30, bottom: 46 };
+  const pts = [...points].sort((a, b) => a.station - b.station);
+  const axis = chainageAxis(
+    pts.map((p) => p.station),
+    { width, units, margin },
+  );
   const plot = {
-    left: margin.left,
-    right: Math.max(margin.left + 10, width - margin.right),
+    left: axis.left,
+    right: axis.right,
     top: margin.top,
     bottom: Math.max(margin.top + 10, height - margin.bottom),
   };
-  const pts = [...points].sort((a, b) => a.station - b.station);
-  const stations = pts.map((p) => p.station);
-  let s0 = Math.min(...stations);
-  let s1 = Math.max(...stations);
-  if (!Number.isFinite(s0)) [s0, s1] = [0, 1];
-  const pad = s1 > s0 ? (s1 - s0) * 0.02 : 10;
-  const x = scaleLinear([s0 - pad, s1 + pad], [plot.left, plot.right]);
+  const x = axis.x;
 
   const fsValues = pts
     .map((p) => p.fs)
@@ -145,9 +181,7 @@ export function chainageLayout<P extends ChainagePoint>(
 
   const write = (v: number) =>
     units === null ? String(Number(v.toFixed(3))) : chainageLabel(v, units);
-  const xTicks = x
-    .ticks(Math.max(2, Math.floor((plot.right - plot.left) / 90)))
-    .map((value) => ({ value, x: x(value), text: write(value) }));
+  const xTicks = axis.ticks;
   const yTicks = y
     .ticks(5)
     .map((value) => ({ value, y: y(value), text: String(Number(value.toFixed(2))) }));

@@ -3,6 +3,7 @@ import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import axe from 'axe-core';
 import type { ProbabilitySummary } from '../studies/study-types';
 import type { SectionListItem } from './batch-types';
+import { ChainageChart } from './chainage-chart';
 import { caseMarker, pfPoints, ProbabilityChart } from './probability-chart';
 
 function summary(
@@ -148,6 +149,25 @@ describe('ProbabilityChart', () => {
     expect(el.querySelector('.summary')?.textContent).toContain(
       '1 station carries its probability of failure, 1 case. No realisation failed at any station. 1 with no failed realisation, drawn open at 1/N.',
     );
+  });
+
+  it('puts each station at the x the FS chart above it gives it (one chainage axis)', async () => {
+    const el = await render(STATIONS);
+    const placed = fixture.componentInstance['layout']().placed;
+    const pfX = Array.from(el.querySelectorAll('[data-testid="pf-point"] circle.hit')).map(
+      (c, i) => [placed[i].point.station, Number(c.getAttribute('cx'))],
+    );
+    const fs = TestBed.createComponent(ChainageChart);
+    fs.componentRef.setInput('sections', STATIONS);
+    fs.componentRef.setInput('width', 640);
+    fs.componentRef.setInput('height', 300);
+    await fs.whenStable();
+    const fsX = new Map(
+      fs.componentInstance['layout']().stations.map((s) => [s.point.station, s.x]),
+    );
+    fs.destroy();
+    expect(new Set(pfX.map(([station]) => station))).toEqual(new Set([100, 200, 400]));
+    for (const [station, x] of pfX) expect([station, x]).toEqual([station, fsX.get(station)]);
   });
 
   it('draws nothing when no station carries a probability', async () => {

@@ -8,11 +8,12 @@ import {
   output,
   signal,
 } from '@angular/core';
-import { CHAINAGE_STYLE, scaleLinear } from '@scarpline/core/draw';
+import { CHAINAGE_STYLE, chainageAxis, scaleLinear } from '@scarpline/core/draw';
 import { observedWidth } from '../shared/observed-width';
 import { steppedIndex } from '../shared/stepped-index';
 import { betaText, probabilityText } from '../studies/probability-format';
 import type { SectionListItem } from './batch-types';
+import { chainagePoints } from './chainage-chart';
 import { ChainageFrame } from './chainage-frame';
 import { batchUnits, formatChainage } from './scales';
 
@@ -145,15 +146,14 @@ export class ProbabilityChart {
     const { points, cases } = this.data();
     const width = this.width() ?? this.measured() ?? 960;
     const height = this.height();
-    const plot = { left: 64, right: width - 16, top: 14, bottom: height - 40 };
-    const stations = points.map((p) => p.station);
-    let lo = Math.min(...stations);
-    let hi = Math.max(...stations);
-    if (hi === lo) {
-      lo -= 50;
-      hi += 50;
-    }
-    const x = scaleLinear([lo, hi], [plot.left + 10, plot.right - 10]);
+    // the chainage axis of the FS chart above it (the same stations, width and margins), so
+    // that a station sits at the same x in both
+    const axis = chainageAxis(
+      chainagePoints(this.sections()).points.map((p) => p.station),
+      { width, units: this.units() },
+    );
+    const plot = { left: axis.left, right: axis.right, top: 14, bottom: height - 40 };
+    const x = axis.x;
     /** Where a point sits: its P_f, or 1/N for a count of none. */
     const at = (p: PfPoint) => (p.pf > 0 ? p.pf : 1 / Math.max(1, p.realisations));
     const least = Math.min(...points.map((p) => Math.log10(at(p))));
@@ -162,11 +162,7 @@ export class ProbabilityChart {
     const yOf = (p: number) => y(Math.max(bottomExp, Math.log10(p)));
     const yTicks = [];
     for (let e = bottomExp; e <= 0; e++) yTicks.push({ value: e, y: y(e), text: decadeText(e) });
-    const xTicks = x.ticks(Math.max(2, Math.floor((plot.right - plot.left) / 110))).map((v) => ({
-      value: v,
-      x: x(v),
-      text: formatChainage(v, this.units()),
-    }));
+    const xTicks = axis.ticks;
     const placed = points.map((p) => ({
       point: p,
       caseIndex: cases.indexOf(p.case),
