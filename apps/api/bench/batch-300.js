@@ -28,27 +28,27 @@
 // core's bench folder)
 // eslint-disable-next-line no-restricted-syntax
 const { oneCaseCorridor } = require('../../../packages/core/bench/one-case-corridor');
-const { spawn } = require('node:child_process');
 // The solver bench's own thread runner, so that both benches time the core alone the same way
 // (a bench script, not the API: it may reach into the core's bench folder).
 // eslint-disable-next-line no-restricted-syntax
 const { timeOnThreads } = require('../../../packages/core/bench/threads');
 const fs = require('node:fs');
-const net = require('node:net');
 const path = require('node:path');
+const {
+  apiReady,
+  childProcesses,
+  followToDone,
+  freePort,
+  poster,
+  prepareDatabase,
+} = require('./service');
 
-const ROOT = path.resolve(__dirname, '../../..');
-const DIST = path.resolve(__dirname, '../dist');
 const SMOKE = process.env.BENCH_SMOKE === '1';
 const SECTIONS = Number(process.env.BENCH_SECTIONS ?? (SMOKE ? 4 : 300));
 const WORKERS = Number(process.env.BENCH_WORKERS ?? 2);
 const TIMEOUT_S = Number(process.env.BENCH_TIMEOUT_S ?? 600);
 const CORE_CHUNK = SMOKE ? 1 : 5;
-const children = [];
-/** Rejects when a child exits before the benchmark is over. */
-let childFailed;
-const childFailure = new Promise((_, reject) => (childFailed = reject));
-childFailure.catch(() => undefined);
+const { start, stop: stopChildren, failure: childFailure } = childProcesses();
 
 function corridor(n) {
   // each station in one case (its own settings): the workload the figures have always measured
@@ -131,106 +131,8 @@ async function timelineOf(url, batchId, wall0) {
   }
 }
 
-/** Stops the children and waits for them to exit. */
-async function stopChildren() {
-  finished = true;
-  await Promise.all(
-    children
-      .filter((c) => c.exitCode === null && c.signalCode === null)
-      .map((c) => new Promise((resolve) => (c.once('exit', resolve), c.kill('SIGTERM')))),
-  );
-}
-
-function freePort() {
-  return new Promise((resolve, reject) => {
-    const s = net.createServer();
-    s.once('error', reject);
-    s.listen(0, '127.0.0.1', () => {
-      const { port } = s.address();
-      s.close(() => resolve(port));
-    });
-  });
-}
-
-function start(label, file, env) {
-  const nodeArgs = (process.env.BENCH_NODE_ARGS ?? '').split(' ').filter(Boolean);
-  const child = spawn(process.execPath, [...nodeArgs, path.join(DIST, file)], {
-    cwd: ROOT,
-    env: { ...process.env, ...env },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-  children.push(child);
-  child.stdout.resume();
-  child.stderr.on('data', (c) => process.stderr.write(`${label}: ${c}`));
-  child.once('exit', (code, signal) => {
-    if (!finished) childFailed(new Error(`${label} exited early (${signal ?? code})`));
-  });
-  return child;
-}
-
-/** Resolves when the API answers a documented route; rejects after 30 s. */
-async function apiReady(base) {
-  const t0 = Date.now();
-  for (;;) {
-    try {
-      const res = await fetch(`${base}/api/schemas/openapi.json`);
-      if (res.ok) return;
-    } catch {
-      // not listening yet
-    }
-    if (Date.now() - t0 > 30000) throw new Error(`the API at ${base} did not answer in 30 s`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
-
-async function database() {
-  if (process.env.DATABASE_URL) {
-    process.env.BENCH_EXTERNAL_DB = '1';
-    return process.env.DATABASE_URL;
-  }
-  const pg = require('../scripts/pg.js');
-  await pg.start();
-  const { Client } = require('pg');
-  const client = new Client({ connectionString: pg.urlFor('postgres') });
-  await client.connect();
-  await client.query('DROP DATABASE IF EXISTS scarpline_bench WITH (FORCE)');
-  await client.query('CREATE DATABASE scarpline_bench');
-  await client.end();
-  return pg.urlFor('scarpline_bench');
-}
-
-/** Reads the batch's event stream until `done`; resolves with the final progress. */
-async function followToDone(base, token, batchId) {
-  const res = await fetch(`${base}/api/v1/batches/${batchId}/events`, {
-    headers: { authorization: `Bearer ${token}` },
-  });
-  if (!res.ok) throw new Error(`events: ${res.status}`);
-  const decoder = new TextDecoder();
-  let text = '';
-  for await (const chunk of res.body) {
-    text += decoder.decode(chunk, { stream: true });
-    const i = text.indexOf('event: done\ndata: ');
-    const end = i >= 0 ? text.indexOf('\n\n', i) : -1;
-    if (end >= 0) return JSON.parse(text.slice(i + 'event: done\ndata: '.length, end)).progress;
-  }
-  throw new Error('the event stream ended without done');
-}
-
 async function main() {
-  if (!fs.existsSync(path.join(DIST, 'server.js'))) throw new Error('run npx tsc -b apps/api');
-  const url = await database();
-  process.env.DATABASE_URL = url;
-  const { sequelize } = require(path.join(DIST, 'db.js'));
-  await require(path.join(DIST, 'migrate.js')).migrate(sequelize);
-  const email = `bench-${Date.now()}@bench.scarpline.example`;
-  const password = 'bench-password-1';
-  await require(path.join(DIST, 'services/users.js')).createUser(null, {
-    email,
-    name: 'Benchmark engineer',
-    role: 'engineer',
-    password,
-  });
-  await sequelize.close();
+  const { url, email, password } = await prepareDatabase();
 
   const body = corridor(SECTIONS);
   const { parseSections } = require('@scarpline/core');
@@ -241,7 +143,7 @@ async function main() {
 
   const port = await freePort();
   const env = { DATABASE_URL: url, NODE_ENV: 'development', LOGIN_LIMIT: '1000' };
-  start('api', 'server.js', { ...env, PORT: String(port) });
+  const api = start('api', 'server.js', { ...env, PORT: String(port) });
   const base = `http://127.0.0.1:${port}`;
   await Promise.race([apiReady(base), childFailure]);
   const fetchSize = process.env.BENCH_FETCH ? { WORKER_FETCH: process.env.BENCH_FETCH } : {};
@@ -255,16 +157,7 @@ async function main() {
       }),
     );
   }
-  const json = (r) => (r.ok ? r.json() : r.text().then((t) => Promise.reject(new Error(t))));
-  const post = (p, body, token) =>
-    fetch(base + p, {
-      method: 'POST',
-      headers: {
-        'content-type': 'application/json',
-        ...(token ? { authorization: `Bearer ${token}` } : {}),
-      },
-      body: JSON.stringify(body),
-    }).then(json);
+  const post = poster(base);
   const { token } = await post('/api/v1/auth/login', { email, password });
   const project = await post('/api/v1/projects', { name: 'Benchmark' }, token);
   // Let the workers connect to the queue before the clock starts (a smoke run has no clock).
@@ -279,9 +172,8 @@ async function main() {
   if (refused.status !== 422) throw new Error(`the warm-up batch: ${refused.status}, not 422`);
 
   const cpuOf = (pids) => pids.reduce((sum, pid) => sum + cpuSeconds(pid), 0);
-  const [api, ...workerProcs] = children;
   const pg0 = new Map(postgresPids().map((pid) => [pid, cpuSeconds(pid)]));
-  const cpuAt0 = [cpuOf(workerProcs.map((c) => c.pid)), cpuSeconds(api.pid), 0];
+  const cpuAt0 = [cpuOf(workers.map((c) => c.pid)), cpuSeconds(api.pid), 0];
   const t0 = performance.now();
   const wall0 = Date.now();
   const mono0 = process.hrtime.bigint() / 1000n;
@@ -301,7 +193,7 @@ async function main() {
   }
   // PostgreSQL's processes that ended meanwhile are not counted (the pools keep theirs open).
   const cpuAt1 = [
-    cpuOf(workerProcs.map((c) => c.pid)),
+    cpuOf(workers.map((c) => c.pid)),
     cpuSeconds(api.pid),
     postgresPids().reduce((sum, pid) => sum + cpuSeconds(pid) - (pg0.get(pid) ?? 0), 0),
   ];
@@ -349,7 +241,6 @@ async function main() {
   );
 }
 
-let finished = false;
 main()
   .catch((e) => {
     console.error(e);

@@ -18,17 +18,23 @@
  * the medians: wall time POST → done, the core's time, and the ratio of the service's
  * throughput to the core's.
  */
-// The corridor as every bench runs it (a bench script may reach into the core's bench folder).
+// The corridor as every bench runs it, and the demo's random variables (a bench script may
+// reach into the core's bench folder).
 // eslint-disable-next-line no-restricted-syntax
-const { oneCaseCorridor } = require('../../../packages/core/bench/one-case-corridor');
-const { spawn } = require('node:child_process');
-const fs = require('node:fs');
-const net = require('node:net');
+const corridors = require('../../../packages/core/bench/one-case-corridor');
+const { oneCaseCorridor, uncertainVariables } = corridors;
 const path = require('node:path');
 const { Worker } = require('node:worker_threads');
+const {
+  apiReady,
+  childProcesses,
+  followToDone,
+  freePort,
+  json,
+  poster,
+  prepareDatabase,
+} = require('./service');
 
-const ROOT = path.resolve(__dirname, '../../..');
-const DIST = path.resolve(__dirname, '../dist');
 const SMOKE = process.env.BENCH_SMOKE === '1';
 const SECTIONS = Number(process.env.BENCH_SECTIONS ?? (SMOKE ? 4 : 300));
 const REALISATIONS = Number(process.env.BENCH_REALISATIONS ?? (SMOKE ? 50 : 1000));
@@ -36,11 +42,7 @@ const RUNS = Number(process.env.BENCH_RUNS ?? (SMOKE ? 1 : 3));
 const WORKERS = Number(process.env.BENCH_WORKERS ?? 2);
 const TIMEOUT_S = Number(process.env.BENCH_TIMEOUT_S ?? 900);
 const CHUNK = SMOKE ? 1 : 5;
-const children = [];
-let finished = false;
-let childFailed;
-const childFailure = new Promise((_, reject) => (childFailed = reject));
-childFailure.catch(() => undefined);
+const { start, stop: stopChildren, failure: childFailure } = childProcesses();
 
 /** The corridor of `n` stations with the template's random variables (our invented cutting). */
 function corridor(n, tag) {
@@ -55,22 +57,7 @@ function corridor(n, tag) {
     method: 'monte-carlo',
     realisations: REALISATIONS,
     surface: 'critical',
-    variables: [
-      {
-        name: 'c′ weathered mudstone',
-        target: 'materials.weathered-mudstone.cohesion',
-        distribution: 'lognormal',
-        mean: 5,
-        cov: 0.4,
-      },
-      {
-        name: 'φ′ weathered mudstone',
-        target: 'materials.weathered-mudstone.frictionAngle',
-        distribution: 'normal',
-        mean: 26,
-        sd: 3,
-      },
-    ],
+    variables: uncertainVariables(),
   };
   return {
     ...c,
@@ -113,84 +100,6 @@ async function coreRun(sections, threads) {
   return ms;
 }
 
-async function stopChildren() {
-  finished = true;
-  await Promise.all(
-    children
-      .filter((c) => c.exitCode === null && c.signalCode === null)
-      .map((c) => new Promise((resolve) => (c.once('exit', resolve), c.kill('SIGTERM')))),
-  );
-}
-
-function freePort() {
-  return new Promise((resolve, reject) => {
-    const s = net.createServer();
-    s.once('error', reject);
-    s.listen(0, '127.0.0.1', () => {
-      const { port } = s.address();
-      s.close(() => resolve(port));
-    });
-  });
-}
-
-function start(label, file, env) {
-  const child = spawn(process.execPath, [path.join(DIST, file)], {
-    cwd: ROOT,
-    env: { ...process.env, ...env },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-  children.push(child);
-  child.stdout.resume();
-  child.stderr.on('data', (c) => process.stderr.write(`${label}: ${c}`));
-  child.once('exit', (code, signal) => {
-    if (!finished) childFailed(new Error(`${label} exited early (${signal ?? code})`));
-  });
-  return child;
-}
-
-async function apiReady(base) {
-  const t0 = Date.now();
-  for (;;) {
-    try {
-      const res = await fetch(`${base}/api/schemas/openapi.json`);
-      if (res.ok) return;
-    } catch {
-      // not listening yet
-    }
-    if (Date.now() - t0 > 30000) throw new Error(`the API at ${base} did not answer in 30 s`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
-
-async function database() {
-  if (process.env.DATABASE_URL) return process.env.DATABASE_URL;
-  const pg = require('../scripts/pg.js');
-  await pg.start();
-  const { Client } = require('pg');
-  const client = new Client({ connectionString: pg.urlFor('postgres') });
-  await client.connect();
-  await client.query('DROP DATABASE IF EXISTS scarpline_bench WITH (FORCE)');
-  await client.query('CREATE DATABASE scarpline_bench');
-  await client.end();
-  return pg.urlFor('scarpline_bench');
-}
-
-async function followToDone(base, token, batchId) {
-  const res = await fetch(`${base}/api/v1/batches/${batchId}/events`, {
-    headers: { authorization: `Bearer ${token}` },
-  });
-  if (!res.ok) throw new Error(`events: ${res.status}`);
-  const decoder = new TextDecoder();
-  let text = '';
-  for await (const chunk of res.body) {
-    text += decoder.decode(chunk, { stream: true });
-    const i = text.indexOf('event: done\ndata: ');
-    const end = i >= 0 ? text.indexOf('\n\n', i) : -1;
-    if (end >= 0) return JSON.parse(text.slice(i + 'event: done\ndata: '.length, end)).progress;
-  }
-  throw new Error('the event stream ended without done');
-}
-
 const median = (xs) => {
   const s = [...xs].sort((a, b) => a - b);
   const m = s.length >> 1;
@@ -198,20 +107,7 @@ const median = (xs) => {
 };
 
 async function main() {
-  if (!fs.existsSync(path.join(DIST, 'server.js'))) throw new Error('run npx tsc -b apps/api');
-  const url = await database();
-  process.env.DATABASE_URL = url;
-  const { sequelize } = require(path.join(DIST, 'db.js'));
-  await require(path.join(DIST, 'migrate.js')).migrate(sequelize);
-  const email = `bench-${Date.now()}@bench.scarpline.example`;
-  const password = 'bench-password-1';
-  await require(path.join(DIST, 'services/users.js')).createUser(null, {
-    email,
-    name: 'Benchmark engineer',
-    role: 'engineer',
-    password,
-  });
-  await sequelize.close();
+  const { url, email, password } = await prepareDatabase();
 
   const { parseSections } = require('@scarpline/core');
   const coreSections = parseSections(
@@ -228,16 +124,7 @@ async function main() {
   await Promise.race([apiReady(base), childFailure]);
   for (let i = 0; i < WORKERS; i++)
     start(`worker ${i + 1}`, 'worker-main.js', { ...env, WORKER_CONCURRENCY: '1' });
-  const json = (r) => (r.ok ? r.json() : r.text().then((t) => Promise.reject(new Error(t))));
-  const post = (p, body, token) =>
-    fetch(base + p, {
-      method: 'POST',
-      headers: {
-        'content-type': 'application/json',
-        ...(token ? { authorization: `Bearer ${token}` } : {}),
-      },
-      body: JSON.stringify(body),
-    }).then(json);
+  const post = poster(base);
   const { token } = await post('/api/v1/auth/login', { email, password });
   const project = await post('/api/v1/projects', { name: 'Probability benchmark' }, token);
   if (!SMOKE) await new Promise((r) => setTimeout(r, 3000));

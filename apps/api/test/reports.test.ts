@@ -18,7 +18,7 @@ import { deleteObject } from '../src/storage';
 import { startWorker } from '../src/worker';
 import { pageTexts, pdfFile, requirePoppler } from '../../../packages/report/test/poppler';
 import { expectProblem, makeUsers, signIn, waitForBatch } from './helpers';
-import { corridorBatch } from './sections';
+import { corridorBatch, uncertainVariables } from './sections';
 
 const EXAMPLES = path.resolve(__dirname, '../../../examples');
 const app = createApp();
@@ -241,22 +241,7 @@ test('a probabilistic corridor: its report and its section report give each stat
     method: 'latin-hypercube',
     realisations: 200,
     surface: 'critical',
-    variables: [
-      {
-        name: 'c′ weathered mudstone',
-        target: 'materials.weathered-mudstone.cohesion',
-        distribution: 'lognormal',
-        mean: 5,
-        cov: 0.4,
-      },
-      {
-        name: 'φ′ weathered mudstone',
-        target: 'materials.weathered-mudstone.frictionAngle',
-        distribution: 'normal',
-        mean: 26,
-        sd: 3,
-      },
-    ],
+    variables: uncertainVariables(),
   };
   const b = await request(app)
     .post(`/api/v1/projects/${projectId}/batches`)

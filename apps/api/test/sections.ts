@@ -11,6 +11,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 
 const CORRIDOR = path.resolve(__dirname, '../../../examples/corridor/corridor.json');
+const UNCERTAIN = path.resolve(__dirname, '../../../examples/corridor/wendlecombe-uncertain.json');
 
 /** A search of 40 × 40 centres, 20 radii, three moves and a search per method, 500 slices. */
 export const HEAVY_ANALYSIS = {
@@ -39,4 +40,20 @@ export function corridorBatch(
     sections = sections.map(({ cases: _cases, ...rest }: { cases?: unknown }) => rest);
   }
   return { ...c, id, template, sections };
+}
+
+/**
+ * The random variables of the demo's corridor with uncertain strength (its template's: c′ and
+ * φ′ of the weathered mudstone), without their correlation.
+ */
+export function uncertainVariables() {
+  const c = JSON.parse(fs.readFileSync(UNCERTAIN, 'utf8'));
+  return c.template.probability.variables as {
+    name: string;
+    target: string;
+    distribution: 'lognormal' | 'normal';
+    mean: number;
+    cov?: number;
+    sd?: number;
+  }[];
 }

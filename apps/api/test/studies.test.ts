@@ -26,7 +26,7 @@ import { STUDY_QUEUE, stopQueue } from '../src/queue';
 import { failOrphanedStudies } from '../src/services/studies';
 import { startWorker } from '../src/worker';
 import { expectProblem, makeUsers, schemaErrors, signIn, waitForBatch } from './helpers';
-import { corridorBatch } from './sections';
+import { corridorBatch, uncertainVariables } from './sections';
 
 const app = createApp();
 const bearer = { type: 'bearer' as const };
@@ -45,22 +45,7 @@ const VARIABLES: RawProbability = {
   method: 'latin-hypercube',
   realisations: 400,
   surface: 'critical',
-  variables: [
-    {
-      name: 'c′ weathered mudstone',
-      target: 'materials.weathered-mudstone.cohesion',
-      distribution: 'lognormal',
-      mean: 5,
-      cov: 0.4,
-    },
-    {
-      name: 'φ′ weathered mudstone',
-      target: 'materials.weathered-mudstone.frictionAngle',
-      distribution: 'normal',
-      mean: 26,
-      sd: 3,
-    },
-  ],
+  variables: uncertainVariables(),
 };
 
 /** A drawing's text (supertest buffers only the types it knows). */

@@ -21,4 +21,18 @@ function oneCaseCorridor() {
   };
 }
 
-module.exports = { oneCaseCorridor };
+/** The random variables of the demo's corridor with uncertain strength (its template's), without their correlation. */
+function uncertainVariables() {
+  const file = join(
+    __dirname,
+    '..',
+    '..',
+    '..',
+    'examples',
+    'corridor',
+    'wendlecombe-uncertain.json',
+  );
+  return JSON.parse(readFileSync(file, 'utf8')).template.probability.variables;
+}
+
+module.exports = { oneCaseCorridor, uncertainVariables };
