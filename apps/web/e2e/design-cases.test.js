@@ -7,7 +7,7 @@ const { after, before, test } = require('node:test');
 const assert = require('node:assert/strict');
 const fs = require('node:fs');
 const path = require('node:path');
-const { api, eventually, launch, scenario, shot, signIn, tokenOf } = require('./support');
+const { api, eventually, launch, scenario, shot, signIn, submitToDemo } = require('./support');
 
 const CORRIDOR = path.resolve(__dirname, '../../../examples/corridor/corridor.json');
 const STATIONS = 8;
@@ -62,27 +62,7 @@ test(
   async () => {
     await scenario(browser, 'design cases', async ({ page }) => {
       await signIn(page, 'engineer');
-      const token = await tokenOf(page);
-      const projects = await api(token, '/projects');
-      assert.equal(projects.status, 200);
-      const list = Array.isArray(projects.body) ? projects.body : projects.body.items;
-      const project = list.find((p) => /Wendlecombe/.test(p.name));
-      assert.ok(project, 'the demo project');
-      const submitted = await api(token, `/projects/${project.id}/batches`, {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: corridorWithCases(),
-      });
-      assert.equal(submitted.status, 201, JSON.stringify(submitted.body));
-      const batchId = submitted.body.id;
-
-      await page.goto(`/batches/${batchId}`);
-      const status = page.getByTestId('batch-status');
-      await eventually(async () => /\bdone\b/i.test(await status.innerText()), {
-        timeout: 120_000,
-        interval: 500,
-        what: 'the batch status to say done',
-      });
+      const { token, batchId } = await submitToDemo(page, corridorWithCases(), 120_000);
 
       // What the page should show, from the API: each case's stations below its requirement.
       const batch = await api(token, `/batches/${batchId}`);

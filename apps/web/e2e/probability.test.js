@@ -7,7 +7,7 @@ const { after, before, test } = require('node:test');
 const assert = require('node:assert/strict');
 const fs = require('node:fs');
 const path = require('node:path');
-const { api, eventually, launch, scenario, shot, signIn, tokenOf } = require('./support');
+const { api, eventually, launch, scenario, shot, signIn, submitToDemo } = require('./support');
 
 const CORRIDOR = path.resolve(__dirname, '../../../examples/corridor/wendlecombe-uncertain.json');
 const STATIONS = 6;
@@ -39,26 +39,7 @@ test(
   async () => {
     await scenario(browser, 'probability', async ({ page }) => {
       await signIn(page, 'engineer');
-      const token = await tokenOf(page);
-      const projects = await api(token, '/projects');
-      const list = Array.isArray(projects.body) ? projects.body : projects.body.items;
-      const project = list.find((p) => /Wendlecombe/.test(p.name));
-      assert.ok(project, 'the demo project');
-      const submitted = await api(token, `/projects/${project.id}/batches`, {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: corridorWithVariables(),
-      });
-      assert.equal(submitted.status, 201, JSON.stringify(submitted.body));
-      const batchId = submitted.body.id;
-
-      await page.goto(`/batches/${batchId}`);
-      const status = page.getByTestId('batch-status');
-      await eventually(async () => /\bdone\b/i.test(await status.innerText()), {
-        timeout: 150_000,
-        interval: 500,
-        what: 'the batch status to say done',
-      });
+      const { token, batchId } = await submitToDemo(page, corridorWithVariables(), 150_000);
 
       // Each station's P(FS < 1) from the service, and a point of the chart for each.
       const rows = await api(token, `/batches/${batchId}/sections?pageSize=500`);

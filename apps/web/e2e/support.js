@@ -209,6 +209,35 @@ async function eventually(fn, { timeout = 15_000, interval = 250, what = 'the co
   }
 }
 
+/**
+ * Submits a corridor (JSON text) to the demo project as the page's signed-in user, opens its
+ * batch page and waits until it says done (`timeout` ms); resolves with the token and the
+ * batch's id.
+ */
+async function submitToDemo(page, body, timeout) {
+  const token = await tokenOf(page);
+  const projects = await api(token, '/projects');
+  assert.equal(projects.status, 200);
+  const list = Array.isArray(projects.body) ? projects.body : projects.body.items;
+  const project = list.find((p) => /Wendlecombe/.test(p.name));
+  assert.ok(project, 'the demo project');
+  const submitted = await api(token, `/projects/${project.id}/batches`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body,
+  });
+  assert.equal(submitted.status, 201, JSON.stringify(submitted.body));
+  const batchId = submitted.body.id;
+  await page.goto(`/batches/${batchId}`);
+  const status = page.getByTestId('batch-status');
+  await eventually(async () => /\bdone\b/i.test(await status.innerText()), {
+    timeout,
+    interval: 500,
+    what: 'the batch status to say done',
+  });
+  return { token, batchId };
+}
+
 module.exports = {
   BASE_URL,
   LAPTOP,
@@ -221,5 +250,6 @@ module.exports = {
   scenario,
   shot,
   signIn,
+  submitToDemo,
   tokenOf,
 };
