@@ -1,3 +1,4 @@
+import { capMessages } from './cap-messages';
 import type { Message, SectionEntry } from './types';
 
 /**
@@ -37,5 +38,19 @@ export class Concerns {
       }
       m.sections = [...ids];
     }
+  }
+
+  /**
+   * The messages of an input read from several files (a corridor and its header) settled: in
+   * order of file and place, given to the entries they concern (resolve), and each list capped
+   * (capMessages). Returns the input's own list.
+   */
+  settle(messages: Message[], entries: SectionEntry[]): Message[] {
+    messages.sort((a, b) =>
+      a.file === b.file ? a.line - b.line || a.column - b.column : a.file < b.file ? -1 : 1,
+    );
+    this.resolve(messages, entries);
+    for (const e of entries) e.messages = capMessages(e.messages);
+    return capMessages(messages);
   }
 }

@@ -5,7 +5,6 @@ import type { ProjectedLine } from '../geo/wgs84-geometry';
 import type { Point } from '../model/types';
 import { Concerns } from './concerns';
 import { isNumber, isRecord } from './guards';
-import { capMessages } from './cap-messages';
 import { JsonIndex } from './json-index';
 import { count, MAX_SECTIONS } from './limits';
 import { locateInDocument, type Location } from './locate-in-document';
@@ -272,12 +271,7 @@ export function parseGeoJsonCorridor(
     return m;
   };
   const done = (batchId: string): ParsedCorridor => {
-    messages.sort((a, b) =>
-      a.file === b.file ? a.line - b.line || a.column - b.column : a.file < b.file ? -1 : 1,
-    );
-    concerns.resolve(messages, entries);
-    const capped = capMessages(messages);
-    for (const e of entries) e.messages = capMessages(e.messages);
+    const capped = concerns.settle(messages, entries);
     return { sections: [], messages: capped, batch, entries, batchId, features, crs };
   };
 

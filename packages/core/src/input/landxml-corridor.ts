@@ -6,7 +6,6 @@
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { BATCH_FORMAT, corridorSectionId } from '../formats';
 import type { Point } from '../model/types';
-import { capMessages } from './cap-messages';
 import { Concerns } from './concerns';
 import {
   idFromFileName,
@@ -136,12 +135,7 @@ export function parseLandXmlCorridor(
     return m;
   };
   const done = (batchId: string): ParsedLandXml => {
-    messages.sort((a, b) =>
-      a.file === b.file ? a.line - b.line || a.column - b.column : a.file < b.file ? -1 : 1,
-    );
-    concerns.resolve(messages, entries);
-    const capped = capMessages(messages);
-    for (const e of entries) e.messages = capMessages(e.messages);
+    const capped = concerns.settle(messages, entries);
     const sections = entries.flatMap((e) => (e.section ? [e.section] : []));
     return { sections, messages: capped, batch, entries, batchId, alignment };
   };
