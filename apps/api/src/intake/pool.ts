@@ -12,38 +12,30 @@ import { Problem, unavailable } from '../errors';
 import type { TerrainCut, TerrainUpload } from '../services/terrain-cut';
 import type { InputFile, Parsed } from '../services/validate';
 import type { IntakeReply, IntakeTask } from './thread';
-import { PoolError, ThreadPool, threadScript } from './thread-pool';
+import { lazyPool, PoolError } from './thread-pool';
 
-let pool: ThreadPool | null = null;
-
-function intakePool(): ThreadPool {
-  pool ??= new ThreadPool({
-    ...threadScript(__filename),
-    threads: config.intakeThreads,
-    queue: config.intakeQueue,
-    timeoutMs: config.intakeTimeoutMs,
-    memoryMb: config.intakeMemoryMb,
-  });
-  return pool;
-}
+const pool = lazyPool(__filename, () => ({
+  threads: config.intakeThreads,
+  queue: config.intakeQueue,
+  timeoutMs: config.intakeTimeoutMs,
+  memoryMb: config.intakeMemoryMb,
+}));
 
 /** Jobs running and waiting now (for tests and metrics). */
 export function intakeLoad(): { running: number; waiting: number } {
-  return pool?.load ?? { running: 0, waiting: 0 };
+  return pool.current()?.load ?? { running: 0, waiting: 0 };
 }
 
 /** Ends the pool's threads (tests, shutdown); a later job starts it again. */
-export async function closeIntake(): Promise<void> {
-  const p = pool;
-  pool = null;
-  await p?.close();
+export function closeIntake(): Promise<void> {
+  return pool.close();
 }
 
 async function run(task: IntakeTask): Promise<unknown> {
   const seconds = Math.round(config.intakeTimeoutMs / 100) / 10;
   let reply: IntakeReply;
   try {
-    reply = (await intakePool().run(task)) as IntakeReply;
+    reply = (await pool.get().run(task)) as IntakeReply;
   } catch (e) {
     if (!(e instanceof PoolError)) throw e;
     if (e.reason === 'timeout') {

@@ -37,6 +37,27 @@ export interface ThreadPoolOptions {
   idleMs?: number;
 }
 
+/**
+ * The pool of a pool file's thread script (threadScript), started at its first use with the
+ * limits read then (the config, which tests change) and ended by `close` (tests, shutdown),
+ * after which the next use starts it again; `current` is the running pool, if any.
+ */
+export function lazyPool(
+  poolFile: string,
+  limits: () => Omit<ThreadPoolOptions, 'script' | 'workerData'>,
+): { get: () => ThreadPool; current: () => ThreadPool | null; close: () => Promise<void> } {
+  let pool: ThreadPool | null = null;
+  return {
+    get: () => (pool ??= new ThreadPool({ ...threadScript(poolFile), ...limits() })),
+    current: () => pool,
+    close: async () => {
+      const p = pool;
+      pool = null;
+      await p?.close();
+    },
+  };
+}
+
 /** Why a job was not done: its time passed, its thread ran out of memory or died, the queue was full. */
 export class PoolError extends Error {
   constructor(

@@ -6,21 +6,15 @@
  */
 import { config } from '../config';
 import { unavailable } from '../errors';
-import { PoolError, ThreadPool, threadScript } from '../intake/thread-pool';
+import { lazyPool, PoolError } from '../intake/thread-pool';
 import type { ReportTask } from './thread';
 
-let pool: ThreadPool | null = null;
-
-function reportPool(): ThreadPool {
-  pool ??= new ThreadPool({
-    ...threadScript(__filename),
-    threads: config.reportThreads,
-    queue: config.reportQueue,
-    timeoutMs: config.reportTimeoutMs,
-    memoryMb: config.reportMemoryMb,
-  });
-  return pool;
-}
+const pool = lazyPool(__filename, () => ({
+  threads: config.reportThreads,
+  queue: config.reportQueue,
+  timeoutMs: config.reportTimeoutMs,
+  memoryMb: config.reportMemoryMb,
+}));
 
 /** Why a report could not be made, in words for its requester (a PoolError's reason). */
 export function poolFailure(e: PoolError): string {
@@ -43,7 +37,7 @@ export async function makeReport(
   onProgress?: (done: number, total: number) => void,
 ): Promise<Buffer> {
   try {
-    const bytes = (await reportPool().run(task, {
+    const bytes = (await pool.get().run(task, {
       onProgress: onProgress
         ? (p) => {
             const { done, total } = p as { done: number; total: number };
@@ -61,8 +55,6 @@ export async function makeReport(
 }
 
 /** Ends the pool's threads (tests, shutdown); a later report starts it again. */
-export async function closeReports(): Promise<void> {
-  const p = pool;
-  pool = null;
-  await p?.close();
+export function closeReports(): Promise<void> {
+  return pool.close();
 }

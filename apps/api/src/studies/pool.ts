@@ -4,21 +4,15 @@
  * is ended when it passes) and a memory limit (STUDY_MEMORY_MB).
  */
 import { config } from '../config';
-import { PoolError, ThreadPool, threadScript } from '../intake/thread-pool';
+import { lazyPool, PoolError } from '../intake/thread-pool';
 import type { StudyAnswer, StudyTask } from './thread';
 
-let pool: ThreadPool | null = null;
-
-function studyPool(): ThreadPool {
-  pool ??= new ThreadPool({
-    ...threadScript(__filename),
-    threads: config.studyThreads,
-    queue: config.studyQueue,
-    timeoutMs: config.studyTimeoutMs,
-    memoryMb: config.studyMemoryMb,
-  });
-  return pool;
-}
+const pool = lazyPool(__filename, () => ({
+  threads: config.studyThreads,
+  queue: config.studyQueue,
+  timeoutMs: config.studyTimeoutMs,
+  memoryMb: config.studyMemoryMb,
+}));
 
 /** Why a study's computation stopped, in words for its requester (a PoolError's reason). */
 export function studyFailure(e: PoolError): string {
@@ -37,7 +31,7 @@ export async function computeOnThread(
   task: StudyTask,
   onProgress?: (done: number, total: number) => void,
 ): Promise<StudyAnswer> {
-  return (await studyPool().run(task, {
+  return (await pool.get().run(task, {
     onProgress: onProgress
       ? (p) => {
           const { done, total } = p as { done: number; total: number };
@@ -48,8 +42,6 @@ export async function computeOnThread(
 }
 
 /** Ends the pool's threads (tests, shutdown); a later study starts it again. */
-export async function closeStudies(): Promise<void> {
-  const p = pool;
-  pool = null;
-  await p?.close();
+export function closeStudies(): Promise<void> {
+  return pool.close();
 }
