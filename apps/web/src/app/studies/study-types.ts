@@ -12,6 +12,7 @@ import type {
   SolveResult,
   TaylorResult,
 } from '@scarpline/core/result';
+import type { StationProbability } from '@scarpline/core/result';
 import type { JobState } from '@scarpline/core/verdict';
 import type { UserRef } from '../core/models';
 
@@ -82,16 +83,6 @@ export interface Study {
 
 /**
  * A station's probability of one case, as a batch's section rows and a section carry it once
- * the section's own `probability` block (surface: critical) was run with it.
+ * the section's own `probability` block (surface: critical) was run with it: the core's.
  */
-export interface ProbabilitySummary {
-  case: string;
-  realisations: number;
-  valid: number;
-  meanFs: number | null;
-  sdFs: number | null;
-  pFailure: { p: number; standardError: number };
-  pBelowRequired: { p: number; standardError: number } | null;
-  betaNormal: number | null;
-  betaLognormal: number | null;
-}
+export type ProbabilitySummary = StationProbability;
