@@ -105,6 +105,15 @@ export class TerrainSubmit {
   protected readonly right = signal('40');
   protected readonly spacing = signal('1');
   protected readonly waterDepth = signal('');
+  /** The job's numbers, in the order the card asks for them. */
+  protected readonly numbers = [
+    { label: 'Start chainage', testId: 'terrain-start', value: this.start },
+    { label: 'A section every', testId: 'terrain-every', value: this.every },
+    { label: 'Half-width left', testId: 'terrain-left', value: this.left },
+    { label: 'Half-width right', testId: 'terrain-right', value: this.right },
+    { label: 'Sample spacing', testId: 'terrain-spacing', value: this.spacing },
+    { label: 'Groundwater depth (optional)', testId: 'terrain-water', value: this.waterDepth },
+  ];
   protected readonly busy = signal(false);
   protected readonly problem = signal<Problem | null>(null);
   protected readonly errors = signal<LocatedError[]>([]);
